@@ -1,0 +1,42 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import express, { type Express } from 'express';
+import { authenticate, originCheck } from '@server/auth/middleware';
+import type { AppContext } from '@server/context';
+import { authRoutes } from '@server/features/auth/router';
+import { healthRoutes } from '@server/features/health/router';
+import { outboxRoutes } from '@server/features/outbox/router';
+import { partRoutes } from '@server/features/parts/router';
+import { teamRoutes } from '@server/features/team/router';
+import { apiNotFound, errorHandler } from '@server/http/errors';
+import type { ApiRouter } from '@server/http/router';
+
+/** Every feature's routes; each is guarded by the permission map. */
+function featureRouters(ctx: AppContext): ApiRouter[] {
+  return [healthRoutes(ctx), authRoutes(ctx), teamRoutes(ctx), outboxRoutes(ctx), partRoutes(ctx)];
+}
+
+export function createApp(ctx: AppContext): Express {
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+  app.use((_req, res, next) => {
+    res.setHeader('X-Content-Type-Options', 'nosniff');
+    res.setHeader('Referrer-Policy', 'same-origin');
+    res.setHeader('X-Frame-Options', 'DENY');
+    next();
+  });
+
+  app.use('/api', express.json({ limit: '5mb' }), originCheck, authenticate(ctx.lucia));
+  for (const api of featureRouters(ctx)) app.use(api.router);
+  app.use('/api', apiNotFound);
+
+  const clientDir = ctx.config.clientDir;
+  if (clientDir && fs.existsSync(path.join(clientDir, 'index.html'))) {
+    app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
+    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(clientDir, 'index.html')));
+  }
+
+  app.use(errorHandler(ctx.log));
+  return app;
+}

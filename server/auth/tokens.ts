@@ -1,0 +1,15 @@
+import { createHash, randomBytes } from 'node:crypto';
+
+/** A single-use token for an e-mailed link; only its hash is stored. */
+export function newToken(): { token: string; hash: string } {
+  const token = randomBytes(32).toString('base64url');
+  return { token, hash: hashToken(token) };
+}
+
+export function hashToken(token: string): string {
+  return createHash('sha256').update(token).digest('hex');
+}
+
+export function newId(): string {
+  return randomBytes(15).toString('base64url');
+}

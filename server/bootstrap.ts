@@ -1,0 +1,38 @@
+import fs from 'node:fs';
+import { createLucia } from '@server/auth/session';
+import { openDatabase } from '@server/db/client';
+import type { AppContext } from '@server/context';
+import { DEFAULT_SIGN_IN_LIMITS, type SignInLimits } from '@server/features/auth/sign-in-limiter';
+import { createMailer } from '@server/mail/mailer';
+
+export interface ContextOptions {
+  dbFile: string;
+  uploadsDir: string;
+  production?: boolean;
+  publicUrl?: string;
+  smtpUrl?: string;
+  mailFrom?: string;
+  clientDir?: string;
+  signInLimits?: SignInLimits;
+  log?: AppContext['log'];
+}
+
+/** Opens the database (migrating it) and wires the services the app needs. */
+export function createContext(opts: ContextOptions): AppContext {
+  const { db, sqlite } = openDatabase(opts.dbFile);
+  fs.mkdirSync(opts.uploadsDir, { recursive: true });
+  return {
+    db,
+    sqlite,
+    lucia: createLucia(db, { production: opts.production ?? false }),
+    mailer: createMailer(db, { smtpUrl: opts.smtpUrl, from: opts.mailFrom ?? 'Lugbook <no-reply@lugbook.test>' }),
+    config: {
+      production: opts.production ?? false,
+      publicUrl: opts.publicUrl ?? 'http://localhost:3000',
+      uploadsDir: opts.uploadsDir,
+      clientDir: opts.clientDir,
+      signInLimits: opts.signInLimits ?? DEFAULT_SIGN_IN_LIMITS,
+    },
+    log: opts.log ?? ((message, detail) => console.error(`[lugbook] ${message}`, detail ?? '')),
+  };
+}

@@ -1,0 +1,23 @@
+import type Database from 'better-sqlite3';
+import type { AppLucia } from '@server/auth/session';
+import type { Db } from '@server/db/client';
+import type { SignInLimits } from '@server/features/auth/sign-in-limiter';
+import type { Mailer } from '@server/mail/mailer';
+
+/** What the features need from the outside world; built in server/index.ts or by a test. */
+export interface AppContext {
+  db: Db;
+  sqlite: Database.Database;
+  lucia: AppLucia;
+  mailer: Mailer;
+  config: {
+    production: boolean;
+    publicUrl: string;
+    /** Uploaded files, named by content hash; never under the web root. */
+    uploadsDir: string;
+    /** Built client to serve, if any. */
+    clientDir?: string;
+    signInLimits: SignInLimits;
+  };
+  log: (message: string, detail?: unknown) => void;
+}

@@ -1,0 +1,351 @@
+// The whole data model. Values are stored in SI units as REAL, the unit implied by the quantity
+// (ohm, farad, henry, hertz). Times are integer milliseconds since the epoch unless a column
+// says otherwise (lucia's session expiry is in seconds, as its adapter writes it).
+import { sql } from 'drizzle-orm';
+import { index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
+
+const createdAt = () =>
+  integer('created_at')
+    .notNull()
+    .default(sql`(cast(unixepoch('subsec') * 1000 as integer))`);
+
+export const users = sqliteTable('users', {
+  id: text('id').primaryKey(),
+  email: text('email').notNull().unique(),
+  name: text('name').notNull(),
+  role: text('role', { enum: ['admin', 'qa', 'tech', 'viewer'] }).notNull(),
+  passwordHash: text('password_hash').notNull(),
+  disabledAt: integer('disabled_at'),
+  createdAt: createdAt(),
+});
+
+export const sessions = sqliteTable('sessions', {
+  id: text('id').primaryKey(),
+  userId: text('user_id')
+    .notNull()
+    .references(() => users.id, { onDelete: 'cascade' }),
+  /** Seconds since the epoch (lucia's adapter writes it so). */
+  expiresAt: integer('expires_at').notNull(),
+  /** Milliseconds; the absolute lifetime counts from here (lucia only has an idle lifetime). */
+  createdAt: integer('created_at').notNull(),
+});
+
+export const invitations = sqliteTable('invitations', {
+  id: text('id').primaryKey(),
+  email: text('email').notNull(),
+  role: text('role', { enum: ['admin', 'qa', 'tech', 'viewer'] }).notNull(),
+  tokenHash: text('token_hash').notNull().unique(),
+  invitedBy: text('invited_by').references(() => users.id, { onDelete: 'set null' }),
+  expiresAt: integer('expires_at').notNull(),
+  acceptedAt: integer('accepted_at'),
+  revokedAt: integer('revoked_at'),
+  createdAt: createdAt(),
+});
+
+export const passwordResets = sqliteTable('password_resets', {
+  id: text('id').primaryKey(),
+  userId: text('user_id')
+    .notNull()
+    .references(() => users.id, { onDelete: 'cascade' }),
+  tokenHash: text('token_hash').notNull().unique(),
+  expiresAt: integer('expires_at').notNull(),
+  usedAt: integer('used_at'),
+  createdAt: createdAt(),
+});
+
+export const toleranceProfiles = sqliteTable('tolerance_profiles', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  name: text('name').notNull().unique(),
+  kind: text('kind', { enum: ['pot', 'capacitor', 'resistor', 'pickup', 'other'] }).notNull(),
+  /** Optional nominal range (SI) the profile applies to; null = any nominal of the kind. */
+  nominalMin: real('nominal_min'),
+  nominalMax: real('nominal_max'),
+  tolerancePct: real('tolerance_pct').notNull(),
+  /** Kind-specific rules (taper class, m range, end resistance, dissipation factor, …) as JSON. */
+  rules: text('rules', { mode: 'json' }).notNull().$type<Record<string, unknown>>().default({}),
+  createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+  createdAt: createdAt(),
+});
+
+export const instruments = sqliteTable('instruments', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  name: text('name').notNull().unique(),
+  kind: text('kind', { enum: ['multimeter', 'lcr-meter', 'analyser', 'other'] }).notNull(),
+  serial: text('serial'),
+  /** Accuracy per quantity: { resistance: { pctOfReading, counts, resolution }, … } as JSON. */
+  accuracy: text('accuracy', { mode: 'json' }).notNull().$type<Record<string, unknown>>().default({}),
+  /** ISO date (YYYY-MM-DD). */
+  calibrationDue: text('calibration_due'),
+  notes: text('notes'),
+  createdAt: createdAt(),
+});
+
+export const lots = sqliteTable('lots', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  code: text('code').notNull().unique(),
+  kind: text('kind', { enum: ['pot', 'capacitor', 'resistor', 'pickup', 'other'] }).notNull(),
+  quantity: text('quantity').notNull(),
+  nominal: real('nominal').notNull(),
+  tolerancePct: real('tolerance_pct').notNull(),
+  marking: text('marking'),
+  supplier: text('supplier'),
+  receivedOn: text('received_on'),
+  expectedCount: integer('expected_count'),
+  secondQuantity: text('second_quantity'),
+  secondLimit: real('second_limit'),
+  status: text('status', { enum: ['open', 'accepted', 'rejected', 'sorted'] })
+    .notNull()
+    .default('open'),
+  dispositionReason: text('disposition_reason'),
+  disposedBy: text('disposed_by').references(() => users.id, { onDelete: 'set null' }),
+  disposedAt: integer('disposed_at'),
+  notes: text('notes'),
+  createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+  createdAt: createdAt(),
+});
+
+export const lotReadings = sqliteTable(
+  'lot_readings',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    lotId: integer('lot_id')
+      .notNull()
+      .references(() => lots.id, { onDelete: 'cascade' }),
+    item: text('item').notNull(),
+    value: real('value').notNull(),
+    secondValue: real('second_value'),
+    frequency: real('frequency'),
+    /** Row number in the uploaded file (1-based, header excluded) for messages. */
+    sourceRow: integer('source_row'),
+  },
+  (t) => [index('lot_readings_lot_idx').on(t.lotId)],
+);
+
+export const lotWatchers = sqliteTable(
+  'lot_watchers',
+  {
+    lotId: integer('lot_id')
+      .notNull()
+      .references(() => lots.id, { onDelete: 'cascade' }),
+    userId: text('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+  },
+  (t) => [primaryKey({ columns: [t.lotId, t.userId] })],
+);
+
+export const parts = sqliteTable(
+  'parts',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    kind: text('kind', { enum: ['pot', 'capacitor', 'resistor', 'pickup', 'other'] }).notNull(),
+    label: text('label').notNull(),
+    nominal: real('nominal'),
+    tolerancePct: real('tolerance_pct'),
+    marking: text('marking'),
+    /** For pots: 'linear' | 'audio' | 'reverse' | 'two-segment' with the class's mid-rotation m. */
+    taperClass: text('taper_class'),
+    taperM: real('taper_m'),
+    supplier: text('supplier'),
+    lotId: integer('lot_id').references(() => lots.id, { onDelete: 'set null' }),
+    lotItem: text('lot_item'),
+    profileId: integer('profile_id').references(() => toleranceProfiles.id, { onDelete: 'set null' }),
+    status: text('status', { enum: ['incoming', 'passed', 'flagged', 'installed', 'rejected', 'retired'] })
+      .notNull()
+      .default('incoming'),
+    statusReason: text('status_reason'),
+    tags: text('tags'),
+    notes: text('notes'),
+    createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+    createdAt: createdAt(),
+    updatedAt: integer('updated_at'),
+  },
+  (t) => [uniqueIndex('parts_label_unique').on(t.label), index('parts_lot_idx').on(t.lotId)],
+);
+
+export const partStatusEvents = sqliteTable('part_status_events', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  partId: integer('part_id')
+    .notNull()
+    .references(() => parts.id, { onDelete: 'cascade' }),
+  fromStatus: text('from_status'),
+  toStatus: text('to_status').notNull(),
+  reason: text('reason'),
+  userId: text('user_id').references(() => users.id, { onDelete: 'set null' }),
+  at: createdAt(),
+});
+
+export const readings = sqliteTable(
+  'readings',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    partId: integer('part_id')
+      .notNull()
+      .references(() => parts.id, { onDelete: 'cascade' }),
+    quantity: text('quantity').notNull(),
+    value: real('value').notNull(),
+    frequency: real('frequency'),
+    instrumentId: integer('instrument_id').references(() => instruments.id, { onDelete: 'set null' }),
+    /** True when the instrument's calibration was overdue on the day of the reading. */
+    calibrationOverdue: integer('calibration_overdue', { mode: 'boolean' }).notNull().default(false),
+    uncertainty: real('uncertainty'),
+    verdict: text('verdict', { enum: ['pass', 'fail', 'marginal'] }),
+    verdictReason: text('verdict_reason'),
+    entry: text('entry', { enum: ['typed', 'file', 'lot'] })
+      .notNull()
+      .default('typed'),
+    takenBy: text('taken_by').references(() => users.id, { onDelete: 'set null' }),
+    takenAt: createdAt(),
+  },
+  (t) => [index('readings_part_idx').on(t.partId)],
+);
+
+export const attachments = sqliteTable('attachments', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  ownerType: text('owner_type', { enum: ['part', 'lot', 'job'] }).notNull(),
+  ownerId: integer('owner_id').notNull(),
+  purpose: text('purpose', { enum: ['sweep', 'lot-readings', 'photo', 'certificate'] }).notNull(),
+  originalName: text('original_name').notNull(),
+  /** sha256 of the content; the file on disk is named after it, never after the user's name. */
+  contentHash: text('content_hash').notNull(),
+  mime: text('mime').notNull(),
+  size: integer('size').notNull(),
+  createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+  createdAt: createdAt(),
+});
+
+export const sweeps = sqliteTable('sweeps', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  partId: integer('part_id')
+    .notNull()
+    .references(() => parts.id, { onDelete: 'cascade' }),
+  kind: text('kind', { enum: ['taper', 'impedance'] }).notNull(),
+  attachmentId: integer('attachment_id').references(() => attachments.id, { onDelete: 'set null' }),
+  /** How the file's columns were understood: { rotation: 'Angle (°)', … } as JSON. */
+  columns: text('columns', { mode: 'json' }).$type<Record<string, string>>(),
+  pointCount: integer('point_count').notNull(),
+  createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+  createdAt: createdAt(),
+});
+
+/** Taper: x = rotation fraction, y = R(lug 1–wiper), z = R(wiper–lug 3).
+ *  Impedance: x = frequency, y = real part, z = imaginary part (ohm). */
+export const sweepPoints = sqliteTable(
+  'sweep_points',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    sweepId: integer('sweep_id')
+      .notNull()
+      .references(() => sweeps.id, { onDelete: 'cascade' }),
+    idx: integer('idx').notNull(),
+    x: real('x').notNull(),
+    y: real('y').notNull(),
+    z: real('z'),
+  },
+  (t) => [index('sweep_points_sweep_idx').on(t.sweepId)],
+);
+
+export const fits = sqliteTable(
+  'fits',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    partId: integer('part_id')
+      .notNull()
+      .references(() => parts.id, { onDelete: 'cascade' }),
+    sweepId: integer('sweep_id').references(() => sweeps.id, { onDelete: 'cascade' }),
+    kind: text('kind', { enum: ['taper', 'coil'] }).notNull(),
+    engineVersion: text('engine_version').notNull(),
+    /** The engine's whole result (parameters, quality figures, flags) as JSON. */
+    result: text('result', { mode: 'json' }).notNull().$type<Record<string, unknown>>(),
+    flagged: integer('flagged', { mode: 'boolean' }).notNull().default(false),
+    /** Set when a newer fit of the same sweep replaced it; the old result stays as history. */
+    supersededAt: integer('superseded_at'),
+    createdAt: createdAt(),
+  },
+  (t) => [index('fits_part_idx').on(t.partId)],
+);
+
+export const harnesses = sqliteTable('harnesses', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  name: text('name').notNull(),
+  preset: text('preset').notNull(),
+  values: text('values', { mode: 'json' }).notNull().$type<Record<string, unknown>>(),
+  /** Measured parts whose values feed this design: { volumePot: partId, … } as JSON. */
+  partRefs: text('part_refs', { mode: 'json' }).$type<Record<string, number>>(),
+  notes: text('notes'),
+  ownerId: text('owner_id').references(() => users.id, { onDelete: 'set null' }),
+  createdAt: createdAt(),
+  updatedAt: integer('updated_at'),
+});
+
+export const jobs = sqliteTable('jobs', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  code: text('code').notNull().unique(),
+  customer: text('customer').notNull(),
+  customerEmail: text('customer_email'),
+  instrument: text('instrument').notNull(),
+  status: text('status', { enum: ['open', 'done', 'delivered'] })
+    .notNull()
+    .default('open'),
+  harnessId: integer('harness_id').references(() => harnesses.id, { onDelete: 'set null' }),
+  notes: text('notes'),
+  createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+  createdAt: createdAt(),
+  updatedAt: integer('updated_at'),
+});
+
+export const jobParts = sqliteTable(
+  'job_parts',
+  {
+    jobId: integer('job_id')
+      .notNull()
+      .references(() => jobs.id, { onDelete: 'cascade' }),
+    partId: integer('part_id')
+      .notNull()
+      .references(() => parts.id, { onDelete: 'restrict' }),
+    position: text('position').notNull(),
+    installedBy: text('installed_by').references(() => users.id, { onDelete: 'set null' }),
+    installedAt: createdAt(),
+  },
+  (t) => [primaryKey({ columns: [t.jobId, t.partId] })],
+);
+
+export const comparisons = sqliteTable('comparisons', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  name: text('name').notNull(),
+  /** The selection: filters and explicit part ids, as JSON. */
+  selection: text('selection', { mode: 'json' }).notNull().$type<Record<string, unknown>>(),
+  settings: text('settings', { mode: 'json' }).$type<Record<string, unknown>>(),
+  ownerId: text('owner_id').references(() => users.id, { onDelete: 'set null' }),
+  createdAt: createdAt(),
+  updatedAt: integer('updated_at'),
+});
+
+export const outbox = sqliteTable('outbox', {
+  id: integer('id').primaryKey({ autoIncrement: true }),
+  to: text('to').notNull(),
+  subject: text('subject').notNull(),
+  text: text('text').notNull(),
+  /** Why it was sent: invitation, password-reset, lot-disposition, customer-report. */
+  topic: text('topic').notNull(),
+  /** The full message as nodemailer built it (RFC 5322 source). */
+  raw: text('raw'),
+  transport: text('transport', { enum: ['outbox', 'smtp'] }).notNull(),
+  sentAt: integer('sent_at'),
+  error: text('error'),
+  createdAt: createdAt(),
+});
+
+export const auditLog = sqliteTable(
+  'audit_log',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    userId: text('user_id').references(() => users.id, { onDelete: 'set null' }),
+    action: text('action').notNull(),
+    entity: text('entity').notNull(),
+    entityId: text('entity_id'),
+    detail: text('detail', { mode: 'json' }).$type<Record<string, unknown>>(),
+    at: createdAt(),
+  },
+  (t) => [index('audit_log_entity_idx').on(t.entity, t.entityId)],
+);

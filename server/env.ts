@@ -1,0 +1,38 @@
+import path from 'node:path';
+import { z } from 'zod';
+
+const EnvSchema = z.object({
+  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  PORT: z.coerce.number().int().min(1).max(65535).default(3000),
+  /** Holds the SQLite file and the uploads folder. */
+  LUGBOOK_DATA_DIR: z.string().min(1).default('data'),
+  /** Password of the demo accounts; the README prints the default. */
+  LUGBOOK_DEMO_PASSWORD: z.string().min(8).default('bench-demo-2026'),
+  /** Seed the invented demo scenario into an empty database. */
+  LUGBOOK_SEED_DEMO: z
+    .enum(['true', 'false'])
+    .default('true')
+    .transform((v) => v === 'true'),
+  /** With no SMTP_URL, every message goes to the local outbox table (Outbox screen). */
+  SMTP_URL: z.string().url().optional(),
+  MAIL_FROM: z.string().default('Lugbook <no-reply@lugbook.test>'),
+  /** The address links in e-mails point to. */
+  PUBLIC_URL: z.string().url().default('http://localhost:3000'),
+});
+
+export type Env = z.infer<typeof EnvSchema> & { dbFile: string; uploadsDir: string };
+
+export function readEnv(source: NodeJS.ProcessEnv = process.env): Env {
+  const parsed = EnvSchema.safeParse(source);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
+    throw new Error(`Lugbook cannot start, the environment is not valid:\n${lines.join('\n')}`);
+  }
+  const dataDir = path.resolve(parsed.data.LUGBOOK_DATA_DIR);
+  return {
+    ...parsed.data,
+    LUGBOOK_DATA_DIR: dataDir,
+    dbFile: path.join(dataDir, 'lugbook.db'),
+    uploadsDir: path.join(dataDir, 'uploads'),
+  };
+}

@@ -1,0 +1,65 @@
+import { eq } from 'drizzle-orm';
+import { audit } from '@server/audit';
+import type { AppContext } from '@server/context';
+import { parts, partStatusEvents } from '@server/db/schema';
+import { conflict, notFound } from '@server/http/errors';
+import { ApiRouter } from '@server/http/router';
+import { IdParamsSchema } from '@shared/schemas/common';
+import { CreatePartInputSchema, PartListQuerySchema, UpdatePartInputSchema } from '@shared/schemas/parts';
+import { findPart, findPartByLabel, listParts, setPartStatus } from './repository';
+
+export function partRoutes(ctx: AppContext) {
+  const { db } = ctx;
+  const api = new ApiRouter('/api/parts');
+
+  api.get('/', {
+    schemas: { query: PartListQuerySchema },
+    handle: ({ query }) => ({ parts: listParts(db, query) }),
+  });
+
+  api.post('/', {
+    status: 201,
+    schemas: { body: CreatePartInputSchema },
+    handle: ({ body, user }) => {
+      if (findPartByLabel(db, body.label)) throw conflict(`A part labelled "${body.label}" exists already.`);
+      return db.transaction((tx) => {
+        const part = tx.insert(parts).values({ ...body, createdBy: user.id }).returning().get();
+        tx.insert(partStatusEvents).values({ partId: part.id, fromStatus: null, toStatus: part.status, reason: 'created', userId: user.id }).run();
+        audit(tx, { userId: user.id, action: 'part.create', entity: 'part', entityId: part.id, detail: { ...body } });
+        return part;
+      });
+    },
+  });
+
+  api.get('/:id', {
+    schemas: { params: IdParamsSchema },
+    handle: ({ params }) => {
+      const part = findPart(db, params.id);
+      if (!part) throw notFound('That part');
+      const statusHistory = db.select().from(partStatusEvents).where(eq(partStatusEvents.partId, part.id)).orderBy(partStatusEvents.id).all();
+      return { ...part, statusHistory };
+    },
+  });
+
+  api.patch('/:id', {
+    schemas: { params: IdParamsSchema, body: UpdatePartInputSchema },
+    handle: ({ params, body, user }) => {
+      const part = findPart(db, params.id);
+      if (!part) throw notFound('That part');
+      if (body.label && body.label !== part.label && findPartByLabel(db, body.label)) {
+        throw conflict(`A part labelled "${body.label}" exists already.`);
+      }
+      const { status, statusReason, ...fields } = body;
+      return db.transaction((tx) => {
+        const changed = Object.fromEntries(Object.entries(fields).filter(([k, v]) => part[k as keyof typeof part] !== v));
+        if (Object.keys(changed).length > 0) tx.update(parts).set({ ...changed, updatedAt: Date.now() }).where(eq(parts.id, part.id)).run();
+        if (status) setPartStatus(tx, part, status, statusReason ?? null, user.id);
+        const before = Object.fromEntries(Object.keys(changed).map((k) => [k, part[k as keyof typeof part]]));
+        audit(tx, { userId: user.id, action: status === 'retired' ? 'part.retire' : 'part.update', entity: 'part', entityId: part.id, detail: { before, after: changed, ...(status ? { status: { from: part.status, to: status } } : {}) } });
+        return findPart(tx, part.id);
+      });
+    },
+  });
+
+  return api;
+}

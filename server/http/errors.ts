@@ -1,0 +1,64 @@
+import type { ErrorRequestHandler, RequestHandler } from 'express';
+import multer from 'multer';
+import type { ApiErrorBody } from '@shared/schemas/common';
+
+/** An error the API reports to the client as it is: status, code, message and per-field messages. */
+export class HttpError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: string,
+    message: string,
+    readonly fields?: Record<string, string>,
+  ) {
+    super(message);
+  }
+}
+
+export const notFound = (what: string) => new HttpError(404, 'not_found', `${what} was not found.`);
+export const conflict = (message: string) => new HttpError(409, 'conflict', message);
+export const unprocessable = (message: string, fields?: Record<string, string>) =>
+  new HttpError(422, 'invalid', message, fields);
+export const forbidden = (message = 'Your role may not do this.') => new HttpError(403, 'forbidden', message);
+
+export const apiNotFound: RequestHandler = (req, _res, next) => {
+  next(new HttpError(404, 'not_found', `No API route ${req.method} ${req.path}.`));
+};
+
+const MULTER_STATUS: Record<string, [number, string]> = {
+  LIMIT_FILE_SIZE: [413, 'The file is larger than this upload allows.'],
+  LIMIT_FILE_COUNT: [413, 'Too many files in one upload.'],
+  LIMIT_PART_COUNT: [413, 'Too many parts in one upload.'],
+  LIMIT_FIELD_COUNT: [413, 'Too many fields in one upload.'],
+  LIMIT_UNEXPECTED_FILE: [400, 'Unexpected file field; send the file as "file".'],
+};
+
+/** The one error path: known errors keep their status; anything else is a 500 without details. */
+export function errorHandler(log: (message: string, err: unknown) => void): ErrorRequestHandler {
+  return (err, _req, res, _next) => {
+    let status = 500;
+    let body: ApiErrorBody = { error: { code: 'internal', message: 'Something went wrong on the server.' } };
+    if (err instanceof HttpError) {
+      status = err.status;
+      body = { error: { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}) } };
+    } else if (err instanceof multer.MulterError) {
+      const [s, message] = MULTER_STATUS[err.code] ?? [400, err.message];
+      status = s;
+      body = { error: { code: err.code.toLowerCase(), message } };
+    } else if (isBodyParserError(err)) {
+      status = err.status;
+      body = {
+        error: {
+          code: err.type === 'entity.too.large' ? 'too_large' : 'bad_request',
+          message: err.type === 'entity.too.large' ? 'The request body is too large.' : 'The request body is not valid JSON.',
+        },
+      };
+    } else {
+      log('Unhandled error', err);
+    }
+    res.status(status).json(body);
+  };
+}
+
+function isBodyParserError(err: unknown): err is { status: number; type: string } {
+  return typeof err === 'object' && err !== null && 'type' in err && 'status' in err && typeof (err as { status: unknown }).status === 'number';
+}

@@ -1,0 +1,79 @@
+import { Router, type Request, type RequestHandler, type Response } from 'express';
+import type { z } from 'zod';
+import { authorize } from '@server/auth/middleware';
+import type { AuthUser } from '@server/auth/session';
+import { validate } from './validate';
+
+type Method = 'get' | 'post' | 'patch' | 'put' | 'delete';
+interface Schemas {
+  params?: z.ZodType;
+  query?: z.ZodType;
+  body?: z.ZodType;
+}
+type Out<S> = S extends z.ZodType ? z.output<S> : undefined;
+
+export interface Ctx<S extends Schemas> {
+  req: Request;
+  res: Response;
+  params: Out<S['params']>;
+  query: Out<S['query']>;
+  body: Out<S['body']>;
+  /** The signed-in user; null only on public routes. */
+  user: AuthUser;
+}
+
+interface RouteSpec<S extends Schemas> {
+  schemas?: S;
+  /** Middleware that runs after the permission check and before validation (e.g. multer). */
+  before?: RequestHandler[];
+  /** Returns the JSON body (status 200, or `status`), or undefined after answering through ctx.res. */
+  handle: (ctx: Ctx<S>) => unknown;
+  status?: number;
+}
+
+/**
+ * A feature's routes under one prefix, registered with their full paths (so the app mounts every
+ * ApiRouter at the root and a test can read each route's path from the router stack). Each route is guarded by the permission map
+ * (server/auth/permissions.ts) before anything else runs; validation follows; the handler's
+ * return value is sent as JSON.
+ */
+export class ApiRouter {
+  readonly router = Router();
+  constructor(readonly prefix: string) {}
+
+  get<S extends Schemas>(path: string, spec: RouteSpec<S>) {
+    return this.add('get', path, spec);
+  }
+  post<S extends Schemas>(path: string, spec: RouteSpec<S>) {
+    return this.add('post', path, spec);
+  }
+  patch<S extends Schemas>(path: string, spec: RouteSpec<S>) {
+    return this.add('patch', path, spec);
+  }
+  put<S extends Schemas>(path: string, spec: RouteSpec<S>) {
+    return this.add('put', path, spec);
+  }
+  delete<S extends Schemas>(path: string, spec: RouteSpec<S>) {
+    return this.add('delete', path, spec);
+  }
+
+  private add<S extends Schemas>(method: Method, path: string, spec: RouteSpec<S>): this {
+    const fullPath = `${this.prefix}${path === '/' ? '' : path}`;
+    const key = `${method.toUpperCase()} ${fullPath}`;
+    const handler: RequestHandler = async (req, res) => {
+      const valid = req.valid ?? {};
+      const result = await spec.handle({
+        req,
+        res,
+        params: valid.params as Out<S['params']>,
+        query: valid.query as Out<S['query']>,
+        body: valid.body as Out<S['body']>,
+        user: req.user as AuthUser,
+      });
+      if (result !== undefined && !res.headersSent) res.status(spec.status ?? 200).json(result);
+      else if (!res.headersSent) res.status(spec.status ?? 204).end();
+    };
+    this.router[method](fullPath, authorize(key), ...(spec.before ?? []), validate(spec.schemas ?? {}), handler);
+    return this;
+  }
+}

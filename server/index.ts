@@ -1,0 +1,37 @@
+import { fileURLToPath } from 'node:url';
+import { createApp } from '@server/app';
+import { createContext } from '@server/bootstrap';
+import { seedDemo } from '@server/db/seed';
+import { readEnv } from '@server/env';
+
+const env = readEnv();
+const ctx = createContext({
+  dbFile: env.dbFile,
+  uploadsDir: env.uploadsDir,
+  production: env.NODE_ENV === 'production',
+  publicUrl: env.PUBLIC_URL,
+  smtpUrl: env.SMTP_URL,
+  mailFrom: env.MAIL_FROM,
+  clientDir: fileURLToPath(new URL('../dist/client', import.meta.url)),
+});
+
+if (env.LUGBOOK_SEED_DEMO) {
+  const seeded = await seedDemo(ctx, { password: env.LUGBOOK_DEMO_PASSWORD });
+  if (seeded) console.log(`Seeded the demo workshop into ${env.dbFile}`);
+}
+
+const server = createApp(ctx).listen(env.PORT, () => {
+  console.log(`Lugbook is serving on http://localhost:${env.PORT} (data in ${env.LUGBOOK_DATA_DIR})`);
+  if (!env.SMTP_URL) console.log('No SMTP_URL: e-mail goes to the Outbox screen (admins).');
+});
+
+function shutdown(signal: string) {
+  console.log(`${signal}: closing`);
+  server.close(() => {
+    ctx.sqlite.close();
+    process.exit(0);
+  });
+  setTimeout(() => process.exit(1), 5000).unref();
+}
+process.on('SIGINT', () => shutdown('SIGINT'));
+process.on('SIGTERM', () => shutdown('SIGTERM'));

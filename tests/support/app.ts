@@ -1,0 +1,65 @@
+// A fresh app on its own migrated SQLite file per test file, with one signed-in agent per role.
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import request from 'supertest';
+import type TestAgent from 'supertest/lib/agent';
+import { createApp } from '@server/app';
+import { createContext } from '@server/bootstrap';
+import type { AppContext } from '@server/context';
+import { DEMO_USERS, seedDemo } from '@server/db/seed';
+import type { SignInLimits } from '@server/features/auth/sign-in-limiter';
+import type { Role } from '@shared/schemas/common';
+
+export const TEST_PASSWORD = 'correct-horse-bench-staple';
+export const ORIGIN = 'http://lugbook.test';
+export const HOST = 'lugbook.test';
+
+export interface TestApp {
+  app: ReturnType<typeof createApp>;
+  ctx: AppContext;
+  dataDir: string;
+  /** An agent that sends the app's own Origin/Host, without a session. */
+  anon(): TestAgent;
+  /** An agent signed in as the demo user of that role. */
+  as(role: Role): Promise<TestAgent>;
+  close(): void;
+}
+
+export function newAgent(app: TestApp['app']): TestAgent {
+  return request.agent(app).set('Origin', ORIGIN).set('Host', HOST);
+}
+
+export async function createTestApp(opts: { signInLimits?: SignInLimits } = {}): Promise<TestApp> {
+  const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'lugbook-test-'));
+  const logs: string[] = [];
+  const ctx = createContext({
+    dbFile: path.join(dataDir, 'lugbook.db'),
+    uploadsDir: path.join(dataDir, 'uploads'),
+    signInLimits: opts.signInLimits ?? { perAddress: 1000, perAccount: 1000, windowMs: 60_000 },
+    log: (m) => logs.push(m),
+  });
+  await seedDemo(ctx, { password: TEST_PASSWORD });
+  const app = createApp(ctx);
+  const agents = new Map<Role, TestAgent>();
+  return {
+    app,
+    ctx,
+    dataDir,
+    anon: () => newAgent(app),
+    async as(role) {
+      const existing = agents.get(role);
+      if (existing) return existing;
+      const agent = newAgent(app);
+      const email = DEMO_USERS.find((u) => u.role === role)!.email;
+      const res = await agent.post('/api/auth/sign-in').send({ email, password: TEST_PASSWORD });
+      if (res.status !== 200) throw new Error(`sign-in as ${role} failed: ${res.status} ${JSON.stringify(res.body)}`);
+      agents.set(role, agent);
+      return agent;
+    },
+    close() {
+      ctx.sqlite.close();
+      fs.rmSync(dataDir, { recursive: true, force: true });
+    },
+  };
+}

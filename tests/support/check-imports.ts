@@ -1,0 +1,59 @@
+// The import boundaries of CONVENTIONS.md: shared/ imports neither server/ nor src/; server/ and
+// src/ never import each other; client features do not import each other. Run by `npm run lint`
+// and by tests/architecture.test.ts.
+import fs from 'node:fs';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+const root = fileURLToPath(new URL('../..', import.meta.url));
+
+function filesUnder(dir: string): string[] {
+  const abs = path.join(root, dir);
+  if (!fs.existsSync(abs)) return [];
+  return fs.readdirSync(abs, { recursive: true, encoding: 'utf8' })
+    .filter((f) => /\.(ts|tsx)$/.test(f))
+    .map((f) => path.join(dir, f));
+}
+
+const IMPORT_RE = /(?:import|export)\s[^'"]*?from\s+['"]([^'"]+)['"]|import\(\s*['"]([^'"]+)['"]\s*\)/g;
+
+/** Resolves an import specifier to a repository-relative path, or null for packages. */
+function resolveSpecifier(file: string, spec: string): string | null {
+  if (spec.startsWith('@shared/')) return path.join('shared', spec.slice(8));
+  if (spec.startsWith('@server/')) return path.join('server', spec.slice(8));
+  if (spec.startsWith('@/')) return path.join('src', spec.slice(2));
+  if (spec.startsWith('.')) return path.normalize(path.join(path.dirname(file), spec));
+  return null;
+}
+
+const NODE_OR_DOM_IN_SHARED = /^(node:|fs$|path$|crypto$|better-sqlite3|express|drizzle-orm|react)/;
+
+export function importViolations(): string[] {
+  const problems: string[] = [];
+  for (const top of ['shared', 'server', 'src']) {
+    for (const file of filesUnder(top)) {
+      const text = fs.readFileSync(path.join(root, file), 'utf8');
+      for (const m of text.matchAll(IMPORT_RE)) {
+        const spec = (m[1] ?? m[2])!;
+        const target = resolveSpecifier(file, spec);
+        if (top === 'shared' && target === null && NODE_OR_DOM_IN_SHARED.test(spec)) problems.push(`${file}: shared code imports ${spec}`);
+        if (!target) continue;
+        const targetTop = target.split(path.sep)[0];
+        if (top === 'shared' && targetTop !== 'shared') problems.push(`${file}: shared/ imports ${spec}`);
+        if (top === 'server' && targetTop === 'src') problems.push(`${file}: server/ imports the client (${spec})`);
+        if (top === 'src' && targetTop === 'server') problems.push(`${file}: the client imports server/ (${spec})`);
+        const feature = file.match(/^src\/features\/([^/]+)\//)?.[1];
+        const targetFeature = target.match(/^src\/features\/([^/]+)\//)?.[1];
+        if (feature && targetFeature && feature !== targetFeature) problems.push(`${file}: feature ${feature} imports feature ${targetFeature}`);
+      }
+    }
+  }
+  return problems;
+}
+
+if (process.argv[1] && fileURLToPath(import.meta.url) === path.resolve(process.argv[1])) {
+  const problems = importViolations();
+  for (const p of problems) console.log(p);
+  console.log(problems.length === 0 ? 'import boundaries: ok' : `import boundaries: ${problems.length} problems`);
+  process.exit(problems.length === 0 ? 0 : 1);
+}
