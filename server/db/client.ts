@@ -31,10 +31,10 @@ export function openDatabase(file: string): Database_ {
  * migrator's transaction, so their DROP TABLE would cascade-delete child rows (drizzle-orm
  * issues #5782, #4938). Foreign keys are therefore off while migrating and checked afterwards.
  */
-export function applyMigrations(sqlite: Database.Database, db: Db): void {
+export function applyMigrations(sqlite: Database.Database, db: Db, migrationsFolder = MIGRATIONS_DIR): void {
   sqlite.pragma('foreign_keys = OFF');
   try {
-    migrate(db, { migrationsFolder: MIGRATIONS_DIR });
+    migrate(db, { migrationsFolder });
     const broken = sqlite.pragma('foreign_key_check') as unknown[];
     if (broken.length > 0) {
       throw new Error(`Migration left ${broken.length} rows with broken foreign keys: ${JSON.stringify(broken.slice(0, 5))}`);
