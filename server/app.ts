@@ -5,15 +5,27 @@ import { authenticate, originCheck } from '@server/auth/middleware';
 import type { AppContext } from '@server/context';
 import { authRoutes } from '@server/features/auth/router';
 import { healthRoutes } from '@server/features/health/router';
+import { instrumentRoutes } from '@server/features/instruments/router';
 import { outboxRoutes } from '@server/features/outbox/router';
 import { partRoutes } from '@server/features/parts/router';
+import { profileRoutes } from '@server/features/profiles/router';
+import { readingRoutes } from '@server/features/readings/router';
 import { teamRoutes } from '@server/features/team/router';
 import { apiNotFound, errorHandler } from '@server/http/errors';
 import type { ApiRouter } from '@server/http/router';
 
 /** Every feature's routes; each is guarded by the permission map. */
 function featureRouters(ctx: AppContext): ApiRouter[] {
-  return [healthRoutes(ctx), authRoutes(ctx), teamRoutes(ctx), outboxRoutes(ctx), partRoutes(ctx)];
+  return [
+    healthRoutes(ctx),
+    authRoutes(ctx),
+    teamRoutes(ctx),
+    outboxRoutes(ctx),
+    partRoutes(ctx),
+    readingRoutes(ctx),
+    instrumentRoutes(ctx),
+    profileRoutes(ctx),
+  ];
 }
 
 export function createApp(ctx: AppContext): Express {

@@ -32,4 +32,17 @@ export const ROUTE_PERMISSIONS: Record<string, RoutePermission> = {
   'POST /api/parts': 'write',
   'GET /api/parts/:id': 'read',
   'PATCH /api/parts/:id': 'write',
+  'GET /api/parts/by-label/:label': 'read',
+  'GET /api/parts/:id/label.svg': 'read',
+
+  // Readings, instruments, tolerance profiles
+  'GET /api/parts/:id/readings': 'read',
+  'POST /api/parts/:id/readings': 'write',
+  'GET /api/readings/recent': 'read',
+  'GET /api/instruments': 'read',
+  'POST /api/instruments': 'instruments',
+  'PUT /api/instruments/:id': 'instruments',
+  'GET /api/profiles': 'read',
+  'POST /api/profiles': 'qa',
+  'PUT /api/profiles/:id': 'qa',
 };

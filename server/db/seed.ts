@@ -4,6 +4,8 @@ import { sql } from 'drizzle-orm';
 import { hashPassword } from '@server/auth/password';
 import { newId } from '@server/auth/tokens';
 import type { AppContext } from '@server/context';
+import { recordReading } from '@server/features/readings/service';
+import type { ReadingQuantity } from '@shared/schemas/bench';
 import { instruments, parts, partStatusEvents, toleranceProfiles, users } from './schema';
 
 export const DEMO_USERS = [
@@ -51,7 +53,8 @@ export async function seedDemo(ctx: AppContext, opts: { password: string }): Pro
       ])
       .run();
 
-    tx.insert(instruments)
+    const [meter, lcr, spareMeter] = tx
+      .insert(instruments)
       .values([
         {
           name: 'Bench multimeter A',
@@ -80,7 +83,8 @@ export async function seedDemo(ctx: AppContext, opts: { password: string }): Pro
           notes: 'Calibration overdue: readings taken with it are marked.',
         },
       ])
-      .run();
+      .returning({ id: instruments.id })
+      .all();
 
     const made: { kind: 'pot' | 'capacitor' | 'resistor' | 'pickup'; label: string; nominal: number; tolerancePct: number; extra?: Record<string, unknown> }[] = [];
     for (let i = 1; i <= 24; i++) {
@@ -105,8 +109,22 @@ export async function seedDemo(ctx: AppContext, opts: { password: string }): Pro
         .returning({ id: parts.id })
         .get();
       tx.insert(partStatusEvents).values({ partId: part.id, toStatus: 'incoming', reason: 'created', userId: tech }).run();
+      // Most parts sit near nominal; every ninth is off by more than its tolerance.
+      const spread = (m.tolerancePct / 100) * (made.indexOf(m) % 9 === 4 ? 1.4 : 0.45);
+      const value = m.nominal * (1 + spread * (2 * rand() - 1));
+      const fresh = tx.select().from(parts).where(sql`${parts.id} = ${part.id}`).get()!;
+      const quantity: ReadingQuantity = m.kind === 'capacitor' ? 'capacitance' : 'resistance';
+      const instrumentId = m.kind === 'capacitor' ? lcr!.id : made.indexOf(m) % 11 === 3 ? spareMeter!.id : meter!.id;
+      recordReading(tx, fresh, { quantity, value, instrumentId, frequency: m.kind === 'capacitor' ? 1000 : null }, tech);
+      if (m.kind === 'capacitor') {
+        const df = 0.0006 + 0.0012 * rand() + (made.indexOf(m) % 10 === 7 ? 0.012 : 0);
+        recordReading(tx, tx.select().from(parts).where(sql`${parts.id} = ${part.id}`).get()!, { quantity: 'dissipation', value: df, instrumentId: lcr!.id, frequency: 1000 }, tech);
+      }
+      if (m.kind === 'pickup') {
+        const inductance = (m.nominal > 7e3 ? 4.4 : 2.5) * (1 + 0.06 * (2 * rand() - 1));
+        recordReading(tx, tx.select().from(parts).where(sql`${parts.id} = ${part.id}`).get()!, { quantity: 'inductance', value: inductance, instrumentId: lcr!.id, frequency: 1000 }, tech);
+      }
     }
-    void rand;
   });
   return true;
 }

@@ -1,4 +1,6 @@
 import { eq } from 'drizzle-orm';
+import QRCode from 'qrcode';
+import { z } from 'zod';
 import { audit } from '@server/audit';
 import type { AppContext } from '@server/context';
 import { parts, partStatusEvents } from '@server/db/schema';
@@ -38,6 +40,32 @@ export function partRoutes(ctx: AppContext) {
       if (!part) throw notFound('That part');
       const statusHistory = db.select().from(partStatusEvents).where(eq(partStatusEvents.partId, part.id)).orderBy(partStatusEvents.id).all();
       return { ...part, statusHistory };
+    },
+  });
+
+  api.get('/by-label/:label', {
+    schemas: { params: z.object({ label: z.string().trim().min(1).max(60) }) },
+    handle: ({ params }) => {
+      const part = findPartByLabel(db, params.label);
+      if (!part) throw notFound(`A part labelled "${params.label}"`);
+      return part;
+    },
+  });
+
+  // The printable label: the part's label as text plus a QR code of its page's address.
+  api.get('/:id/label.svg', {
+    schemas: { params: IdParamsSchema },
+    handle: async ({ params, res }) => {
+      const part = findPart(db, params.id);
+      if (!part) throw notFound('That part');
+      const qr = await QRCode.toString(`${ctx.config.publicUrl}/parts/${part.id}`, { type: 'svg', margin: 1, width: 160 });
+      const inner = qr.replace(/^<svg[^>]*>/, '').replace(/<\/svg>\s*$/, '');
+      const label = part.label.replace(/[<>&"]/g, '');
+      res.type('image/svg+xml').send(
+        `<svg xmlns="http://www.w3.org/2000/svg" width="360" height="170" viewBox="0 0 360 170"><rect width="360" height="170" fill="#fff"/>` +
+          `<svg x="5" y="5" width="160" height="160" viewBox="${qr.match(/viewBox="([^"]+)"/)?.[1] ?? '0 0 33 33'}">${inner}</svg>` +
+          `<text x="175" y="80" font-family="monospace" font-size="24">${label}</text><text x="175" y="110" font-family="sans-serif" font-size="14">${part.kind}</text></svg>`,
+      );
     },
   });
 
