@@ -3,6 +3,7 @@ import path from 'node:path';
 import express, { type Express } from 'express';
 import { authenticate, originCheck } from '@server/auth/middleware';
 import type { AppContext } from '@server/context';
+import { analysisRoutes } from '@server/features/analysis/router';
 import { authRoutes } from '@server/features/auth/router';
 import { healthRoutes } from '@server/features/health/router';
 import { instrumentRoutes } from '@server/features/instruments/router';
@@ -22,6 +23,7 @@ function featureRouters(ctx: AppContext): ApiRouter[] {
     teamRoutes(ctx),
     outboxRoutes(ctx),
     partRoutes(ctx),
+    analysisRoutes(ctx),
     readingRoutes(ctx),
     instrumentRoutes(ctx),
     profileRoutes(ctx),

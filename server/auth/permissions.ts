@@ -35,6 +35,13 @@ export const ROUTE_PERMISSIONS: Record<string, RoutePermission> = {
   'GET /api/parts/by-label/:label': 'read',
   'GET /api/parts/:id/label.svg': 'read',
 
+  // Stateless analysis (the measurement engine)
+  'POST /api/analysis/value': 'read',
+  'POST /api/analysis/marking': 'read',
+  'POST /api/analysis/taper': 'read',
+  'POST /api/analysis/coil': 'read',
+  'POST /api/analysis/lot': 'read',
+
   // Readings, instruments, tolerance profiles
   'GET /api/parts/:id/readings': 'read',
   'POST /api/parts/:id/readings': 'write',

@@ -1,0 +1,55 @@
+// Bodies of the stateless analysis routes. Field names carry SI units: ohm, henry, farad, hertz.
+import { z } from 'zod';
+import { QUANTITIES } from '@shared/units/quantities';
+
+const finite = z.number().finite();
+const nonNegative = finite.min(0, 'Must be zero or more.');
+const positive = finite.positive('Must be more than zero.');
+
+export const ValueRequestSchema = z.object({
+  text: z.string().min(1, 'Type a value.').max(60),
+  quantity: z.enum(QUANTITIES as [string, ...string[]]).optional(),
+});
+
+export const MarkingRequestSchema = z.object({ code: z.string().trim().min(1, 'Type a marking.').max(80) });
+
+export const TaperProfileSchema = z.object({
+  law: z.enum(['linear', 'audio', 'reverse', 'two-segment', 'audio-any']).optional(),
+  mMin: z.number().gt(0).lt(1).optional(),
+  mMax: z.number().gt(0).lt(1).optional(),
+  maxEndResistance: nonNegative.optional(),
+});
+
+export const TaperRequestSchema = z.object({
+  points: z
+    .array(z.object({ rotation: nonNegative, resistance: nonNegative, resistanceW3: nonNegative.optional() }))
+    .min(3, 'A taper fit needs at least three readings.')
+    .max(20_000),
+  rotationUnit: z.enum(['deg', 'percent']),
+  fullRotationDeg: positive.max(3600).optional(),
+  total: positive.optional(),
+  nominal: positive.optional(),
+  tolerancePct: positive.max(100).optional(),
+  profile: TaperProfileSchema.optional(),
+});
+export type TaperRequest = z.infer<typeof TaperRequestSchema>;
+
+const MagPhasePoint = z.object({ frequency: positive, magnitude: nonNegative, phaseDeg: finite.min(-180).max(180) });
+const ReImPoint = z.object({ frequency: positive, re: finite, im: finite });
+
+export const CoilRequestSchema = z.object({
+  points: z.union([z.array(MagPhasePoint), z.array(ReImPoint)]).refine((p) => p.length >= 5, 'A coil fit needs at least five points.').refine((p) => p.length <= 20_000, 'At most 20,000 points.'),
+  withRp: z.union([z.boolean(), z.literal('auto')]).optional(),
+});
+export type CoilRequest = z.infer<typeof CoilRequestSchema>;
+
+export const LotRequestSchema = z.object({
+  values: z.array(finite).min(1, 'Give at least one value.').max(200_000),
+  nominal: positive,
+  tolerancePct: positive.max(100),
+  second: z.object({ values: z.array(finite), max: positive }).optional(),
+  matchPct: positive.max(50).optional(),
+  setSize: z.number().int().min(2).max(12).optional(),
+  binEdgesPct: z.array(finite).max(50).optional(),
+});
+export type LotRequest = z.infer<typeof LotRequestSchema>;
