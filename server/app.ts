@@ -4,6 +4,7 @@ import express, { type Express } from 'express';
 import { authenticate, originCheck } from '@server/auth/middleware';
 import type { AppContext } from '@server/context';
 import { analysisRoutes } from '@server/features/analysis/router';
+import { attachmentRoutes } from '@server/features/attachments/router';
 import { authRoutes } from '@server/features/auth/router';
 import { healthRoutes } from '@server/features/health/router';
 import { instrumentRoutes } from '@server/features/instruments/router';
@@ -11,6 +12,7 @@ import { outboxRoutes } from '@server/features/outbox/router';
 import { partRoutes } from '@server/features/parts/router';
 import { profileRoutes } from '@server/features/profiles/router';
 import { readingRoutes } from '@server/features/readings/router';
+import { sweepRoutes } from '@server/features/sweeps/router';
 import { teamRoutes } from '@server/features/team/router';
 import { apiNotFound, errorHandler } from '@server/http/errors';
 import type { ApiRouter } from '@server/http/router';
@@ -27,6 +29,8 @@ function featureRouters(ctx: AppContext): ApiRouter[] {
     readingRoutes(ctx),
     instrumentRoutes(ctx),
     profileRoutes(ctx),
+    sweepRoutes(ctx),
+    ...attachmentRoutes(ctx),
   ];
 }
 

@@ -35,6 +35,19 @@ export const ROUTE_PERMISSIONS: Record<string, RoutePermission> = {
   'GET /api/parts/by-label/:label': 'read',
   'GET /api/parts/:id/label.svg': 'read',
 
+  // Sweeps, fits, attachments
+  'GET /api/parts/:id/sweeps': 'read',
+  'POST /api/parts/:id/sweeps': 'write',
+  'GET /api/parts/:id/fits': 'read',
+  'POST /api/parts/:id/sweeps/:sweepId/refit': 'write',
+  'GET /api/parts/:id/attachments': 'read',
+  'POST /api/parts/:id/attachments': 'write',
+  'GET /api/lots/:id/attachments': 'read',
+  'POST /api/lots/:id/attachments': 'write',
+  'GET /api/jobs/:id/attachments': 'read',
+  'POST /api/jobs/:id/attachments': 'write',
+  'GET /api/attachments/:id/file': 'read',
+
   // Stateless analysis (the measurement engine)
   'POST /api/analysis/value': 'read',
   'POST /api/analysis/marking': 'read',

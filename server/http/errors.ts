@@ -9,6 +9,7 @@ export class HttpError extends Error {
     readonly code: string,
     message: string,
     readonly fields?: Record<string, string>,
+    readonly extra?: Pick<ApiErrorBody['error'], 'issues' | 'details'>,
   ) {
     super(message);
   }
@@ -39,7 +40,7 @@ export function errorHandler(log: (message: string, err: unknown) => void): Erro
     let body: ApiErrorBody = { error: { code: 'internal', message: 'Something went wrong on the server.' } };
     if (err instanceof HttpError) {
       status = err.status;
-      body = { error: { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}) } };
+      body = { error: { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}), ...(err.extra ?? {}) } };
     } else if (err instanceof multer.MulterError) {
       const [s, message] = MULTER_STATUS[err.code] ?? [400, err.message];
       status = s;

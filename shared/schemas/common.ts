@@ -25,6 +25,10 @@ export const ApiErrorSchema = z.object({
     code: z.string(),
     message: z.string(),
     fields: z.record(z.string(), z.string()).optional(),
+    /** Problems found in an uploaded file, each with its line and column. */
+    issues: z.array(z.object({ line: z.number().nullable(), column: z.string().nullable(), message: z.string() })).optional(),
+    /** Extra, error-specific data (e.g. the detected columns when a file needs a mapping). */
+    details: z.record(z.string(), z.unknown()).optional(),
   }),
 });
 export type ApiErrorBody = z.infer<typeof ApiErrorSchema>;

@@ -1,0 +1,75 @@
+import { and, desc, eq } from 'drizzle-orm';
+import fs from 'node:fs';
+import { z } from 'zod';
+import { audit } from '@server/audit';
+import type { AppContext } from '@server/context';
+import { attachments, jobs, lots, parts } from '@server/db/schema';
+import { notFound } from '@server/http/errors';
+import { ApiRouter } from '@server/http/router';
+import { checkFileType, contentPath, singleFileUpload, withStoredFile } from '@server/uploads/store';
+import { IdParamsSchema } from '@shared/schemas/common';
+
+const MAX_DOCUMENT_BYTES = 10 * 1024 * 1024;
+const OWNERS = { parts: { type: 'part', table: parts }, lots: { type: 'lot', table: lots }, jobs: { type: 'job', table: jobs } } as const;
+const UploadFields = z.object({ purpose: z.enum(['photo', 'certificate']).default('photo') });
+
+/** Photos of parts or meter displays and certificates, for parts, lots and jobs. */
+export function attachmentRoutes(ctx: AppContext) {
+  const { db } = ctx;
+  const routers: ApiRouter[] = [];
+
+  for (const [segment, owner] of Object.entries(OWNERS)) {
+    const api = new ApiRouter(`/api/${segment}/:id/attachments`);
+    const exists = (id: number) => db.select({ id: owner.table.id }).from(owner.table).where(eq(owner.table.id, id)).get() !== undefined;
+
+    api.get('/', {
+      schemas: { params: IdParamsSchema },
+      handle: ({ params }) => {
+        if (!exists(params.id)) throw notFound('That record');
+        return { attachments: db.select().from(attachments).where(and(eq(attachments.ownerType, owner.type), eq(attachments.ownerId, params.id))).orderBy(desc(attachments.id)).all() };
+      },
+    });
+
+    api.post('/', {
+      status: 201,
+      before: [singleFileUpload(MAX_DOCUMENT_BYTES)],
+      schemas: { params: IdParamsSchema, body: UploadFields },
+      handle: ({ params, body, req, user }) => {
+        if (!exists(params.id)) throw notFound('That record');
+        const { mime } = checkFileType(req.file, 'document');
+        const file = req.file!;
+        return withStoredFile(ctx.config.uploadsDir, file.buffer, (content) =>
+          db.transaction((tx) => {
+            const row = tx
+              .insert(attachments)
+              .values({ ownerType: owner.type, ownerId: params.id, purpose: body.purpose, originalName: file.originalname.slice(0, 200), contentHash: content.contentHash, mime, size: content.size, createdBy: user.id })
+              .returning()
+              .get();
+            audit(tx, { userId: user.id, action: 'attachment.upload', entity: owner.type, entityId: params.id, detail: { attachmentId: row.id, purpose: body.purpose, name: row.originalName } });
+            return row;
+          }),
+        );
+      },
+    });
+    routers.push(api);
+  }
+
+  const files = new ApiRouter('/api/attachments');
+  files.get('/:id/file', {
+    schemas: { params: IdParamsSchema },
+    handle: ({ params, res }) => {
+      const row = db.select().from(attachments).where(eq(attachments.id, params.id)).get();
+      const file = row && contentPath(ctx.config.uploadsDir, row.contentHash);
+      if (!row || !file || !fs.existsSync(file)) throw notFound('That file');
+      const inline = row.mime.startsWith('image/') || row.mime === 'application/pdf';
+      res.setHeader('Content-Type', row.mime);
+      res.setHeader('Content-Security-Policy', "default-src 'none'; img-src 'self'; style-src 'unsafe-inline'");
+      res.attachment(row.originalName);
+      if (inline) res.setHeader('Content-Disposition', (res.getHeader('Content-Disposition') as string).replace(/^attachment/, 'inline'));
+      res.sendFile(file);
+      return undefined;
+    },
+  });
+  routers.push(files);
+  return routers;
+}

@@ -1,0 +1,120 @@
+import { and, desc, eq, inArray, isNull } from 'drizzle-orm';
+import { z } from 'zod';
+import { audit } from '@server/audit';
+import type { AppContext } from '@server/context';
+import { attachments, fits, sweepPoints, sweeps } from '@server/db/schema';
+import { findPart } from '@server/features/parts/repository';
+import { HttpError, notFound, unprocessable } from '@server/http/errors';
+import { ApiRouter } from '@server/http/router';
+import { checkFileType, singleFileUpload, withStoredFile } from '@server/uploads/store';
+import { IdParamsSchema } from '@shared/schemas/common';
+import { SweepUploadFieldsSchema } from '@shared/schemas/sweeps';
+import { parseSweepCsv } from '@shared/csv/sweeps';
+import type { CoilPoint } from '@shared/analysis/coil';
+import type { TaperPoint } from '@shared/analysis/taper';
+import { fitAndStore, sweepInput, type SweepRow } from './fit';
+
+const MAX_SWEEP_BYTES = 2 * 1024 * 1024;
+const DEFAULT_FULL_ROTATION_DEG = 300;
+
+/** Points as stored: taper x = rotation fraction, y = R1W, z = RW3; impedance x = f, y = Re Z, z = Im Z. */
+function toStoredPoints(kind: 'taper' | 'impedance', points: TaperPoint[] | CoilPoint[], rotationUnit: 'deg' | 'percent', fullRotationDeg: number) {
+  if (kind === 'taper') {
+    const scale = rotationUnit === 'deg' ? 1 / fullRotationDeg : 1 / 100;
+    return (points as TaperPoint[]).map((p) => ({ x: p.rotation * scale, y: p.resistance, z: p.resistanceW3 ?? null }));
+  }
+  return (points as CoilPoint[]).map((p) => {
+    if ('re' in p) return { x: p.frequency, y: p.re, z: p.im };
+    const phase = (p.phaseDeg * Math.PI) / 180;
+    return { x: p.frequency, y: p.magnitude * Math.cos(phase), z: p.magnitude * Math.sin(phase) };
+  });
+}
+
+export function sweepRoutes(ctx: AppContext) {
+  const { db } = ctx;
+  const api = new ApiRouter('/api/parts/:id');
+
+  const withFits = (list: SweepRow[]) => {
+    if (list.length === 0) return [];
+    const current = db.select().from(fits).where(and(inArray(fits.sweepId, list.map((s) => s.id)), isNull(fits.supersededAt))).all();
+    return list.map((s) => ({ ...s, points: sweepInput(db, s), fit: current.find((f) => f.sweepId === s.id) ?? null }));
+  };
+
+  api.get('/sweeps', {
+    schemas: { params: IdParamsSchema },
+    handle: ({ params }) => {
+      if (!findPart(db, params.id)) throw notFound('That part');
+      return { sweeps: withFits(db.select().from(sweeps).where(eq(sweeps.partId, params.id)).orderBy(desc(sweeps.id)).all()) };
+    },
+  });
+
+  api.post('/sweeps', {
+    status: 201,
+    before: [singleFileUpload(MAX_SWEEP_BYTES)],
+    schemas: { params: IdParamsSchema, body: SweepUploadFieldsSchema },
+    handle: ({ params, body, req, user }) => {
+      const part = findPart(db, params.id);
+      if (!part) throw notFound('That part');
+      if (body.kind === 'taper' && part.kind !== 'pot') throw unprocessable('Rotation sweeps belong to pots.', { kind: `This part is a ${part.kind}.` });
+      const { mime } = checkFileType(req.file, 'table');
+      const file = req.file!;
+      const parsed = parseSweepCsv(file.buffer.toString('utf8'), body.kind, { mapping: body.mapping });
+      if (!parsed.ok) {
+        const first = parsed.issues[0];
+        const message = parsed.needsMapping
+          ? 'The columns of this file were not recognised; choose which column holds what.'
+          : `The file was refused: ${first ? `${first.line != null ? `line ${first.line}` : ''}${first.column ? `, column "${first.column}"` : ''}: ${first.message}` : 'it could not be read.'}`;
+        throw new HttpError(422, parsed.needsMapping ? 'needs_mapping' : 'invalid_file', message, { file: message }, {
+          issues: parsed.issues,
+          ...(parsed.needsMapping ? { details: { needsMapping: parsed.needsMapping } } : {}),
+        });
+      }
+      const stored = toStoredPoints(body.kind, parsed.points, parsed.kind === 'taper' ? parsed.rotationUnit : 'percent', body.fullRotationDeg ?? DEFAULT_FULL_ROTATION_DEG);
+      try {
+        return withStoredFile(ctx.config.uploadsDir, file.buffer, (content) =>
+          db.transaction((tx) => {
+            const attachment = tx
+              .insert(attachments)
+              .values({ ownerType: 'part', ownerId: part.id, purpose: 'sweep', originalName: file.originalname.slice(0, 200), contentHash: content.contentHash, mime, size: content.size, createdBy: user.id })
+              .returning()
+              .get();
+            const sweep = tx.insert(sweeps).values({ partId: part.id, kind: body.kind, attachmentId: attachment.id, columns: parsed.columns, pointCount: stored.length, createdBy: user.id }).returning().get();
+            const insertPoint = ctx.sqlite.prepare('insert into sweep_points (sweep_id, idx, x, y, z) values (?, ?, ?, ?, ?)');
+            stored.forEach((p, i) => insertPoint.run(sweep.id, i, p.x, p.y, p.z));
+            const fit = fitAndStore(tx, part, sweep, user.id);
+            audit(tx, { userId: user.id, action: 'sweep.upload', entity: 'part', entityId: part.id, detail: { sweepId: sweep.id, kind: body.kind, points: stored.length, file: attachment.originalName, flagged: fit.flagged } });
+            return { ...sweep, points: sweepInput(tx, sweep), fit, part: findPart(tx, part.id) };
+          }),
+        );
+      } catch (err) {
+        if (err instanceof RangeError) throw unprocessable(`The sweep could not be fitted: ${err.message}`, { file: err.message });
+        throw err;
+      }
+    },
+  });
+
+  api.get('/fits', {
+    schemas: { params: IdParamsSchema },
+    handle: ({ params }) => {
+      if (!findPart(db, params.id)) throw notFound('That part');
+      return { fits: db.select().from(fits).where(eq(fits.partId, params.id)).orderBy(desc(fits.id)).all() };
+    },
+  });
+
+  // Runs the current engine again over a stored sweep; the previous fit stays in the history.
+  api.post('/sweeps/:sweepId/refit', {
+    schemas: { params: IdParamsSchema.extend({ sweepId: z.coerce.number().int().positive() }) },
+    handle: ({ params, user }) => {
+      const part = findPart(db, params.id);
+      const sweep = db.select().from(sweeps).where(and(eq(sweeps.id, params.sweepId), eq(sweeps.partId, params.id))).get();
+      if (!part || !sweep) throw notFound('That sweep');
+      return db.transaction((tx) => {
+        const fit = fitAndStore(tx, part, sweep, user.id);
+        audit(tx, { userId: user.id, action: 'fit.rerun', entity: 'part', entityId: part.id, detail: { sweepId: sweep.id, fitId: fit.id } });
+        return { fit, part: findPart(tx, part.id) };
+      });
+    },
+  });
+
+  return api;
+}
