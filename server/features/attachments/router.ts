@@ -57,7 +57,7 @@ export function attachmentRoutes(ctx: AppContext) {
   const files = new ApiRouter('/api/attachments');
   files.get('/:id/file', {
     schemas: { params: IdParamsSchema },
-    handle: ({ params, res }) => {
+    handle: async ({ params, res }) => {
       const row = db.select().from(attachments).where(eq(attachments.id, params.id)).get();
       const file = row && contentPath(ctx.config.uploadsDir, row.contentHash);
       if (!row || !file || !fs.existsSync(file)) throw notFound('That file');
@@ -66,7 +66,7 @@ export function attachmentRoutes(ctx: AppContext) {
       res.setHeader('Content-Security-Policy', "default-src 'none'; img-src 'self'; style-src 'unsafe-inline'");
       res.attachment(row.originalName);
       if (inline) res.setHeader('Content-Disposition', (res.getHeader('Content-Disposition') as string).replace(/^attachment/, 'inline'));
-      res.sendFile(file);
+      await new Promise<void>((resolve, reject) => res.sendFile(file, (err) => (err ? reject(err) : resolve())));
       return undefined;
     },
   });
