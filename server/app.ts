@@ -8,6 +8,7 @@ import { attachmentRoutes } from '@server/features/attachments/router';
 import { authRoutes } from '@server/features/auth/router';
 import { healthRoutes } from '@server/features/health/router';
 import { instrumentRoutes } from '@server/features/instruments/router';
+import { lotRoutes } from '@server/features/lots/router';
 import { outboxRoutes } from '@server/features/outbox/router';
 import { partRoutes } from '@server/features/parts/router';
 import { profileRoutes } from '@server/features/profiles/router';
@@ -30,6 +31,7 @@ function featureRouters(ctx: AppContext): ApiRouter[] {
     instrumentRoutes(ctx),
     profileRoutes(ctx),
     sweepRoutes(ctx),
+    lotRoutes(ctx),
     ...attachmentRoutes(ctx),
   ];
 }

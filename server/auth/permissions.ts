@@ -48,6 +48,18 @@ export const ROUTE_PERMISSIONS: Record<string, RoutePermission> = {
   'POST /api/jobs/:id/attachments': 'write',
   'GET /api/attachments/:id/file': 'read',
 
+  // Lots
+  'GET /api/lots': 'read',
+  'POST /api/lots': 'write',
+  'GET /api/lots/:id': 'read',
+  'GET /api/lots/:id/items': 'read',
+  'POST /api/lots/:id/readings': 'write',
+  'POST /api/lots/:id/disposition': 'qa',
+  'POST /api/lots/:id/reopen': 'admin',
+  'PUT /api/lots/:id/watchers': 'write',
+  'GET /api/lots/:id/export.csv': 'read',
+  'POST /api/lots/:id/promote': 'write',
+
   // Stateless analysis (the measurement engine)
   'POST /api/analysis/value': 'read',
   'POST /api/analysis/marking': 'read',

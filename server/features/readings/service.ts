@@ -18,7 +18,7 @@ const JUDGED_STATUSES = new Set<PartRow['status']>(['incoming', 'passed', 'flagg
  * Stores one reading with its verdict (limits from the part or its profile, guard band from the
  * instrument's accuracy) and moves the part to passed or flagged by that verdict.
  */
-export function recordReading(db: DbLike, part: PartRow, input: CreateReadingInput, userId: string, entry: 'typed' | 'file' = 'typed'): ReadingRow {
+export function recordReading(db: DbLike, part: PartRow, input: CreateReadingInput, userId: string, entry: 'typed' | 'file' | 'lot' = 'typed'): ReadingRow {
   if (NON_NEGATIVE_QUANTITIES.has(input.quantity) && input.value < 0) {
     throw unprocessable(`A ${input.quantity} reading cannot be negative.`, { value: 'Must be zero or more.' });
   }

@@ -1,0 +1,53 @@
+// Items of a lot (chosen ones, a deviation bin or a matched set) become parts in the registry,
+// keeping their lot link and their readings.
+import { inArray } from 'drizzle-orm';
+import { audit } from '@server/audit';
+import type { AppContext } from '@server/context';
+import { parts, partStatusEvents } from '@server/db/schema';
+import { recordReading } from '@server/features/readings/service';
+import { conflict, unprocessable } from '@server/http/errors';
+import type { PromoteInput } from '@shared/schemas/lots';
+import { lotStats, lotValues, type LotRow } from './repository';
+
+const SECOND_READING = { dissipation: 'dissipation', esr: 'esr' } as const;
+
+export function promoteToParts(ctx: AppContext, lot: LotRow, input: PromoteInput, userId: string) {
+  const { db, sqlite } = ctx;
+  const data = lotValues(sqlite, lot.id);
+  let indices: number[];
+  if (input.readingIds) {
+    const wanted = new Set(input.readingIds);
+    indices = [];
+    data.ids.forEach((id, i) => wanted.has(id) && indices.push(i));
+    if (indices.length !== wanted.size) throw unprocessable('Some readings are not in this lot.', { readingIds: 'Unknown reading.' });
+  } else {
+    const stats = lotStats(lot, data, { matchPct: input.matchPct, setSize: input.setSize, withBinIndices: true });
+    const group = input.bin !== undefined ? stats?.bins[input.bin]?.indices : stats?.matchedSets[input.set!]?.indices;
+    if (!group) throw unprocessable(input.bin !== undefined ? 'There is no such bin.' : 'There is no such matched set.', { [input.bin !== undefined ? 'bin' : 'set']: 'Not found.' });
+    indices = group;
+  }
+  if (indices.length === 0) throw unprocessable('The selection is empty.', { readingIds: 'Nothing to promote.' });
+  if (indices.length > 1000) throw unprocessable('Promote at most 1,000 items at once.', { readingIds: 'Too many.' });
+
+  const labels = indices.map((i) => `${lot.code}-${data.items[i]}`.slice(0, 60));
+  const taken = db.select({ label: parts.label }).from(parts).where(inArray(parts.label, labels)).all();
+  if (taken.length > 0) throw conflict(`Parts exist already for ${taken.length} of these items (e.g. ${taken[0]!.label}).`);
+
+  return db.transaction((tx) => {
+    const created = indices.map((i, k) => {
+      const part = tx
+        .insert(parts)
+        .values({ kind: lot.kind, label: labels[k]!, nominal: lot.nominal, tolerancePct: lot.tolerancePct, marking: lot.marking, supplier: lot.supplier, lotId: lot.id, lotItem: data.items[i]!, createdBy: userId })
+        .returning()
+        .get();
+      tx.insert(partStatusEvents).values({ partId: part.id, toStatus: 'incoming', reason: `promoted from lot ${lot.code}`, userId }).run();
+      recordReading(tx, part, { quantity: lot.kind === 'capacitor' ? 'capacitance' : 'resistance', value: data.values[i]! }, userId, 'lot');
+      const second = data.second[i]!;
+      const secondQuantity = lot.secondQuantity === 'dissipation' || lot.secondQuantity === 'esr' ? SECOND_READING[lot.secondQuantity] : null;
+      if (secondQuantity && !Number.isNaN(second)) recordReading(tx, tx.select().from(parts).where(inArray(parts.id, [part.id])).get()!, { quantity: secondQuantity, value: second }, userId, 'lot');
+      return part.id;
+    });
+    audit(tx, { userId, action: 'lot.promote', entity: 'lot', entityId: lot.id, detail: { parts: created.length, selection: input } });
+    return { created: created.length, partIds: created };
+  });
+}
