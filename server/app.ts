@@ -6,6 +6,7 @@ import type { AppContext } from '@server/context';
 import { analysisRoutes } from '@server/features/analysis/router';
 import { attachmentRoutes } from '@server/features/attachments/router';
 import { authRoutes } from '@server/features/auth/router';
+import { harnessRoutes } from '@server/features/harness/router';
 import { healthRoutes } from '@server/features/health/router';
 import { instrumentRoutes } from '@server/features/instruments/router';
 import { lotRoutes } from '@server/features/lots/router';
@@ -32,6 +33,7 @@ function featureRouters(ctx: AppContext): ApiRouter[] {
     profileRoutes(ctx),
     sweepRoutes(ctx),
     lotRoutes(ctx),
+    ...harnessRoutes(ctx),
     ...attachmentRoutes(ctx),
   ];
 }

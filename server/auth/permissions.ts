@@ -60,6 +60,17 @@ export const ROUTE_PERMISSIONS: Record<string, RoutePermission> = {
   'GET /api/lots/:id/export.csv': 'read',
   'POST /api/lots/:id/promote': 'write',
 
+  // Harness engine (computes, stores nothing) and saved designs
+  'GET /api/harness/presets': 'read',
+  'POST /api/harness/simulate': 'read',
+  'POST /api/harness/sweep': 'read',
+  'POST /api/harness/netlist': 'read',
+  'GET /api/harnesses': 'read',
+  'POST /api/harnesses': 'write',
+  'GET /api/harnesses/:id': 'read',
+  'PUT /api/harnesses/:id': 'write',
+  'DELETE /api/harnesses/:id': 'write',
+
   // Stateless analysis (the measurement engine)
   'POST /api/analysis/value': 'read',
   'POST /api/analysis/marking': 'read',

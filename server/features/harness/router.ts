@@ -1,0 +1,124 @@
+import { desc, eq } from 'drizzle-orm';
+import { audit } from '@server/audit';
+import type { AppContext } from '@server/context';
+import { harnesses } from '@server/db/schema';
+import { forbidden, notFound, unprocessable } from '@server/http/errors';
+import { ApiRouter } from '@server/http/router';
+import { DEFAULT_FREQUENCIES, simulate, sweepKnobs } from '@shared/circuit/metrics';
+import { validateNetlist, type Netlist } from '@shared/circuit/netlist';
+import { DEFAULT_HARNESS_VALUES, getPreset, HARNESS_PRESETS, HARNESS_VALUE_FIELDS, PICKUP_PRESETS, type HarnessValues } from '@shared/circuit/presets';
+import { toSpiceNetlist } from '@shared/circuit/spice';
+import { IdParamsSchema } from '@shared/schemas/common';
+import { HarnessDesignInputSchema, NetlistRequestSchema, SimulateRequestSchema, SweepRequestSchema, type HarnessValuesInput } from '@shared/schemas/harness';
+import { roleCan } from '@shared/auth/capabilities';
+
+const DIAL = [0, 1, 2, 3, 4, 5, 6, 7, 8, 9, 10];
+
+/** The netlist a request names: a preset filled with its defaults and the given values, or a netlist as sent. */
+function netlistOf(body: { preset?: string; netlist?: Netlist; values?: HarnessValuesInput }): Netlist {
+  if (body.netlist) {
+    const problems = validateNetlist(body.netlist);
+    if (problems.length > 0) throw unprocessable(`The netlist cannot be solved: ${problems[0]}`, { netlist: problems.join('; ') });
+    return body.netlist;
+  }
+  const preset = getPreset(body.preset!)!;
+  return preset.build({ ...preset.defaults, ...(body.values ?? {}) } as HarnessValues);
+}
+
+export function harnessRoutes(ctx: AppContext) {
+  const { db } = ctx;
+  const engine = new ApiRouter('/api/harness');
+
+  engine.get('/presets', {
+    handle: () => ({
+      presets: HARNESS_PRESETS.map((p) => ({ id: p.id, name: p.name, description: p.description, defaults: p.defaults })),
+      fields: HARNESS_VALUE_FIELDS,
+      pickups: PICKUP_PRESETS,
+      defaults: DEFAULT_HARNESS_VALUES,
+    }),
+  });
+
+  engine.post('/simulate', {
+    schemas: { body: SimulateRequestSchema },
+    handle: ({ body }) => {
+      const r = simulate(netlistOf(body), body.knobs, body.frequencies ?? DEFAULT_FREQUENCIES);
+      return { frequencies: Array.from(r.frequencies), magnitudeDb: Array.from(r.magnitudeDb), phaseDeg: Array.from(r.phaseDeg), metrics: r.metrics };
+    },
+  });
+
+  engine.post('/sweep', {
+    schemas: { body: SweepRequestSchema },
+    handle: ({ body }) => {
+      const grid = sweepKnobs(netlistOf(body), { volume: body.volume ?? DIAL, tone: body.tone ?? DIAL }, body.frequencies ?? DEFAULT_FREQUENCIES);
+      return {
+        frequencies: Array.from(grid.frequencies),
+        volume: grid.volume,
+        tone: grid.tone,
+        magnitudeDb: Array.from(grid.magnitudeDb),
+        level1kDb: Array.from(grid.level1kDb),
+        volumeTaperDb: Array.from(grid.volumeTaperDb),
+        trebleRetentionDb: Array.from(grid.trebleRetentionDb),
+        interactionIndexDb: grid.interactionIndexDb,
+      };
+    },
+  });
+
+  engine.post('/netlist', {
+    schemas: { body: NetlistRequestSchema },
+    handle: ({ body, res }) => {
+      const netlist = netlistOf(body);
+      const text = toSpiceNetlist({ ...netlist, title: netlist.title ?? `Lugbook harness ${body.preset ?? 'netlist'}` }, body.knobs);
+      res.attachment(`harness-${body.preset ?? 'netlist'}-v${body.knobs.volume}-t${body.knobs.tone}.cir`).type('text/plain').send(text);
+      return undefined;
+    },
+  });
+
+  const designs = new ApiRouter('/api/harnesses');
+  const mustFind = (id: number) => {
+    const row = db.select().from(harnesses).where(eq(harnesses.id, id)).get();
+    if (!row) throw notFound('That harness design');
+    return row;
+  };
+
+  designs.get('/', { handle: () => ({ harnesses: db.select().from(harnesses).orderBy(desc(harnesses.id)).all() }) });
+  designs.get('/:id', { schemas: { params: IdParamsSchema }, handle: ({ params }) => mustFind(params.id) });
+
+  designs.post('/', {
+    status: 201,
+    schemas: { body: HarnessDesignInputSchema },
+    handle: ({ body, user }) =>
+      db.transaction((tx) => {
+        const row = tx.insert(harnesses).values({ ...body, ownerId: user.id }).returning().get();
+        audit(tx, { userId: user.id, action: 'harness.create', entity: 'harness', entityId: row.id, detail: { name: body.name, preset: body.preset } });
+        return row;
+      }),
+  });
+
+  designs.put('/:id', {
+    schemas: { params: IdParamsSchema, body: HarnessDesignInputSchema },
+    handle: ({ params, body, user }) => {
+      const before = mustFind(params.id);
+      if (before.ownerId !== user.id && !roleCan(user.role, 'qa')) throw forbidden('Only the design\'s owner (or qa/admin) may change it.');
+      return db.transaction((tx) => {
+        const row = tx.update(harnesses).set({ ...body, updatedAt: Date.now() }).where(eq(harnesses.id, params.id)).returning().get();
+        audit(tx, { userId: user.id, action: 'harness.update', entity: 'harness', entityId: row.id, detail: { before: { name: before.name, preset: before.preset, values: before.values }, after: body } });
+        return row;
+      });
+    },
+  });
+
+  designs.delete('/:id', {
+    schemas: { params: IdParamsSchema },
+    handle: ({ params, user }) => {
+      const before = mustFind(params.id);
+      if (before.ownerId !== user.id && !roleCan(user.role, 'qa')) throw forbidden('Only the design\'s owner (or qa/admin) may delete it.');
+      db.transaction((tx) => {
+        tx.delete(harnesses).where(eq(harnesses.id, params.id)).run();
+        audit(tx, { userId: user.id, action: 'harness.delete', entity: 'harness', entityId: params.id, detail: { name: before.name } });
+      });
+      return { ok: true };
+    },
+  });
+
+  return [engine, designs];
+}

@@ -1,0 +1,75 @@
+import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import { simulate } from '@shared/circuit/metrics';
+import { getPreset, type HarnessValues } from '@shared/circuit/presets';
+import { HARNESS_PRESET_IDS } from '@shared/schemas/harness';
+import { createTestApp, type TestApp } from '../support/app';
+
+let t: TestApp;
+beforeAll(async () => {
+  t = await createTestApp();
+});
+afterAll(() => t.close());
+
+describe('harness engine routes', () => {
+  test('the presets are listed under their ids with default values', async () => {
+    const res = await (await t.as('viewer')).get('/api/harness/presets');
+    expect(res.body.presets.map((p: { id: string }) => p.id)).toEqual([...HARNESS_PRESET_IDS]);
+    expect(res.body.fields.length).toBeGreaterThan(10);
+  });
+
+  test('simulate answers what the shared engine computes for the same preset and values', async () => {
+    const values = { toneC: 15e-9, cableLength: 6 };
+    const res = await (await t.as('viewer')).post('/api/harness/simulate').send({ preset: 'interactive-tone', values, knobs: { volume: 6, tone: 4 } });
+    expect(res.status).toBe(200);
+    const preset = getPreset('interactive-tone')!;
+    const engine = simulate(preset.build({ ...preset.defaults, ...values } as HarnessValues), { volume: 6, tone: 4 });
+    expect(res.body.magnitudeDb).toEqual(Array.from(engine.magnitudeDb));
+    expect(res.body.metrics.level1kDb).toBe(engine.metrics.level1kDb);
+  });
+
+  test('a knob grid has one curve per setting and the sweep figures', async () => {
+    const res = await (await t.as('tech')).post('/api/harness/sweep').send({ preset: 'bleed-cap', volume: [2, 5, 10], tone: [0, 10] });
+    expect(res.status).toBe(200);
+    expect(res.body.magnitudeDb).toHaveLength(3 * 2 * res.body.frequencies.length);
+    expect(res.body.volumeTaperDb[2]).toBeCloseTo(0, 12);
+    expect(typeof res.body.interactionIndexDb).toBe('number');
+  });
+
+  test('the netlist export is SPICE text with an AC 1 source and the output node out', async () => {
+    const res = await (await t.as('viewer')).post('/api/harness/netlist').send({ preset: 'dual-cap-tone', knobs: { volume: 10, tone: 0 } });
+    expect(res.status).toBe(200);
+    expect(res.headers['content-type']).toMatch(/text\/plain/);
+    expect(res.text).toMatch(/\bAC 1\b/);
+    expect(res.text).toMatch(/\bout\b/);
+    expect(res.text).toMatch(/^\.ac dec \d+ 20 20000$/m);
+    expect(res.text.trim().split('\n').at(-1)).toBe('.end');
+  });
+
+  test('bad bodies name the field: knob out of range, both preset and netlist, unknown preset', async () => {
+    const viewer = await t.as('viewer');
+    const knob = await viewer.post('/api/harness/simulate').send({ preset: 'bleed-cap', knobs: { volume: 11, tone: 5 } });
+    expect(knob.status).toBe(422);
+    expect(knob.body.error.fields).toHaveProperty(['knobs.volume']);
+    const both = await viewer.post('/api/harness/simulate').send({ knobs: { volume: 1, tone: 1 } });
+    expect(both.status).toBe(422);
+    expect((await viewer.post('/api/harness/simulate').send({ preset: 'famous-wiring', knobs: { volume: 1, tone: 1 } })).status).toBe(422);
+    const negative = await viewer.post('/api/harness/simulate').send({ preset: 'bleed-cap', values: { toneC: -1 }, knobs: { volume: 1, tone: 1 } });
+    expect(negative.body.error.fields).toHaveProperty(['values.toneC']);
+  });
+});
+
+describe('saved harness designs', () => {
+  test('a tech saves and edits a design; a viewer reads but cannot save; another tech cannot change it', async () => {
+    const tech = await t.as('tech');
+    const design = { name: 'Neck pickup, keeps treble', preset: 'bleed-cap-parallel-r', values: { bleedC: 1.2e-9, bleedR: 150e3 }, notes: 'customer wants treble at 5' };
+    const created = await tech.post('/api/harnesses').send(design);
+    expect(created.status).toBe(201);
+    expect((await tech.put(`/api/harnesses/${created.body.id}`).send({ ...design, name: 'Renamed' })).body.name).toBe('Renamed');
+    const viewer = await t.as('viewer');
+    expect((await viewer.get('/api/harnesses')).body.harnesses).toHaveLength(1);
+    expect((await viewer.post('/api/harnesses').send(design)).status).toBe(403);
+    // qa may edit any design; the owner check only applies between techs.
+    expect((await (await t.as('qa')).put(`/api/harnesses/${created.body.id}`).send(design)).status).toBe(200);
+    expect((await tech.delete(`/api/harnesses/${created.body.id}`)).status).toBe(200);
+  });
+});
