@@ -1,0 +1,1 @@
+export { BenchPlaceholder as Component } from '@/features/bench/components/bench-placeholder';

@@ -1,0 +1,1 @@
+export { ComparePlaceholder as Component } from '@/features/compare/components/compare-placeholder';

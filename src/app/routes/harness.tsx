@@ -1,0 +1,1 @@
+export { HarnessPlaceholder as Component } from '@/features/harness/components/harness-placeholder';

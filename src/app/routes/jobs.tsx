@@ -1,0 +1,1 @@
+export { JobsPlaceholder as Component } from '@/features/jobs/components/jobs-placeholder';

@@ -1,0 +1,1 @@
+export { LotsPlaceholder as Component } from '@/features/lots/components/lots-placeholder';

@@ -1,0 +1,23 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { data, useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { partQueryOptions } from '@/features/parts/api/get-part';
+import { PartScreen } from '@/features/parts/components/part-screen';
+
+const partId = (raw: string | undefined) => {
+  const id = Number(raw);
+  return Number.isInteger(id) && id > 0 ? id : null;
+};
+
+export const makeLoader =
+  (queryClient: QueryClient) =>
+  async ({ params }: LoaderFunctionArgs) => {
+    const id = partId(params.id);
+    if (id === null) throw data('There is no such part.', { status: 404 });
+    await queryClient.ensureQueryData(partQueryOptions(id));
+    return null;
+  };
+
+export function Component() {
+  const id = partId(useParams().id);
+  return id === null ? null : <PartScreen key={id} id={id} />;
+}

@@ -1,0 +1,26 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { PartStatus } from '@shared/schemas/common';
+import type { Part } from '@shared/schemas/parts';
+import { api } from '@/lib/api-client';
+
+export type PartStatusEvent = {
+  id: number;
+  partId: number;
+  fromStatus: PartStatus | null;
+  toStatus: PartStatus;
+  reason: string | null;
+  userId: string | null;
+  at: number;
+};
+
+export type PartDetail = Part & { statusHistory: PartStatusEvent[] };
+
+export const getPart = (id: number, signal?: AbortSignal) => api.get<PartDetail>(`/api/parts/${id}`, { signal });
+
+export const partQueryOptions = (id: number) =>
+  queryOptions({
+    queryKey: ['parts', 'detail', id],
+    queryFn: ({ signal }) => getPart(id, signal),
+  });
+
+export const usePart = (id: number) => useQuery(partQueryOptions(id));

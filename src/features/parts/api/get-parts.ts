@@ -1,0 +1,36 @@
+import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import { PART_KINDS, PART_STATUSES, type PartKind, type PartStatus } from '@shared/schemas/common';
+import type { Part } from '@shared/schemas/parts';
+import { api } from '@/lib/api-client';
+
+export type PartFilters = { kind?: PartKind; status?: PartStatus; q?: string; lotId?: number; limit?: number };
+
+/** The list shows at most this many parts (the newest); filters narrow it. */
+export const PARTS_LIST_LIMIT = 500;
+
+export const getParts = (filters: PartFilters, signal?: AbortSignal) =>
+  api.get<{ parts: Part[] }>('/api/parts', { params: filters, signal });
+
+export const partsQueryOptions = (filters: PartFilters = {}) =>
+  queryOptions({
+    queryKey: ['parts', 'list', filters],
+    queryFn: ({ signal }) => getParts(filters, signal),
+  });
+
+/** Keeps the previous rows on screen while a new filter loads, so the table does not blink. */
+export const useParts = (filters: PartFilters) => useQuery({ ...partsQueryOptions(filters), placeholderData: keepPreviousData });
+
+const KINDS: readonly string[] = PART_KINDS;
+const STATUSES: readonly string[] = PART_STATUSES;
+
+/** The list filters kept in the page address (?kind=&status=&q=), so a filtered list can be linked. */
+export function filtersFromSearch(search: URLSearchParams): PartFilters {
+  const kind = search.get('kind') ?? '';
+  const status = search.get('status') ?? '';
+  const q = (search.get('q') ?? '').trim().slice(0, 100);
+  return {
+    ...(KINDS.includes(kind) ? { kind: kind as PartKind } : {}),
+    ...(STATUSES.includes(status) ? { status: status as PartStatus } : {}),
+    ...(q ? { q } : {}),
+  };
+}
