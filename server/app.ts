@@ -9,6 +9,7 @@ import { authRoutes } from '@server/features/auth/router';
 import { harnessRoutes } from '@server/features/harness/router';
 import { healthRoutes } from '@server/features/health/router';
 import { instrumentRoutes } from '@server/features/instruments/router';
+import { jobRoutes } from '@server/features/jobs/router';
 import { lotRoutes } from '@server/features/lots/router';
 import { outboxRoutes } from '@server/features/outbox/router';
 import { partRoutes } from '@server/features/parts/router';
@@ -34,6 +35,7 @@ function featureRouters(ctx: AppContext): ApiRouter[] {
     sweepRoutes(ctx),
     lotRoutes(ctx),
     ...harnessRoutes(ctx),
+    jobRoutes(ctx),
     ...attachmentRoutes(ctx),
   ];
 }

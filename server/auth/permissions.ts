@@ -71,6 +71,16 @@ export const ROUTE_PERMISSIONS: Record<string, RoutePermission> = {
   'PUT /api/harnesses/:id': 'write',
   'DELETE /api/harnesses/:id': 'write',
 
+  // Jobs
+  'GET /api/jobs': 'read',
+  'POST /api/jobs': 'write',
+  'GET /api/jobs/:id': 'read',
+  'PATCH /api/jobs/:id': 'write',
+  'POST /api/jobs/:id/parts': 'write',
+  'DELETE /api/jobs/:id/parts/:partId': 'write',
+  'GET /api/jobs/:id/report': 'read',
+  'POST /api/jobs/:id/report': 'write',
+
   // Stateless analysis (the measurement engine)
   'POST /api/analysis/value': 'read',
   'POST /api/analysis/marking': 'read',

@@ -8,6 +8,7 @@ import { conflict, notFound } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
 import { IdParamsSchema } from '@shared/schemas/common';
 import { CreatePartInputSchema, PartListQuerySchema, UpdatePartInputSchema } from '@shared/schemas/parts';
+import { jobsOfPart } from '@server/features/jobs/repository';
 import { findPart, findPartByLabel, listParts, setPartStatus } from './repository';
 
 export function partRoutes(ctx: AppContext) {
@@ -39,7 +40,7 @@ export function partRoutes(ctx: AppContext) {
       const part = findPart(db, params.id);
       if (!part) throw notFound('That part');
       const statusHistory = db.select().from(partStatusEvents).where(eq(partStatusEvents.partId, part.id)).orderBy(partStatusEvents.id).all();
-      return { ...part, statusHistory };
+      return { ...part, statusHistory, installedIn: jobsOfPart(db, part.id) };
     },
   });
 

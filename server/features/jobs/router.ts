@@ -1,0 +1,119 @@
+import { and, eq, sql } from 'drizzle-orm';
+import { z } from 'zod';
+import { audit } from '@server/audit';
+import type { AppContext } from '@server/context';
+import { harnesses, jobParts, jobs } from '@server/db/schema';
+import { findPart, setPartStatus } from '@server/features/parts/repository';
+import { conflict, notFound, unprocessable } from '@server/http/errors';
+import { ApiRouter } from '@server/http/router';
+import { IdParamsSchema } from '@shared/schemas/common';
+import { CreateJobInputSchema, InstallPartInputSchema, JobReportInputSchema, UpdateJobInputSchema } from '@shared/schemas/jobs';
+import { jobDetail, jobsOfPart, listJobs } from './repository';
+import { reportText } from './report';
+
+export function jobRoutes(ctx: AppContext) {
+  const { db } = ctx;
+  const api = new ApiRouter('/api/jobs');
+  const mustFind = (id: number) => {
+    const job = jobDetail(db, id);
+    if (!job) throw notFound('That job');
+    return job;
+  };
+  const checkHarness = (id: number | null | undefined) => {
+    if (id != null && !db.select().from(harnesses).where(eq(harnesses.id, id)).get()) throw unprocessable('That harness design does not exist.', { harnessId: 'Unknown design.' });
+  };
+
+  api.get('/', { handle: () => ({ jobs: listJobs(db) }) });
+  api.get('/:id', { schemas: { params: IdParamsSchema }, handle: ({ params }) => mustFind(params.id) });
+
+  api.post('/', {
+    status: 201,
+    schemas: { body: CreateJobInputSchema },
+    handle: ({ body, user }) => {
+      checkHarness(body.harnessId);
+      const n = (db.select({ n: sql<number>`count(*)` }).from(jobs).get()?.n ?? 0) + 1;
+      const code = `JOB-${String(n).padStart(4, '0')}`;
+      return db.transaction((tx) => {
+        const job = tx.insert(jobs).values({ ...body, code, createdBy: user.id }).returning().get();
+        audit(tx, { userId: user.id, action: 'job.create', entity: 'job', entityId: job.id, detail: body });
+        return job;
+      });
+    },
+  });
+
+  api.patch('/:id', {
+    schemas: { params: IdParamsSchema, body: UpdateJobInputSchema },
+    handle: ({ params, body, user }) => {
+      const before = mustFind(params.id);
+      checkHarness(body.harnessId);
+      db.transaction((tx) => {
+        tx.update(jobs).set({ ...body, updatedAt: Date.now() }).where(eq(jobs.id, params.id)).run();
+        audit(tx, { userId: user.id, action: 'job.update', entity: 'job', entityId: params.id, detail: { before: { status: before.status, harnessId: before.harnessId }, after: body } });
+      });
+      return mustFind(params.id);
+    },
+  });
+
+  api.post('/:id/parts', {
+    status: 201,
+    schemas: { params: IdParamsSchema, body: InstallPartInputSchema },
+    handle: ({ params, body, user }) => {
+      const job = mustFind(params.id);
+      const part = findPart(db, body.partId);
+      if (!part) throw unprocessable('That part does not exist.', { partId: 'Unknown part.' });
+      if (part.status === 'installed') {
+        const where = jobsOfPart(db, part.id).map((j) => j.code).join(', ');
+        throw conflict(`${part.label} is installed already (${where}).`);
+      }
+      if (part.status === 'rejected' || part.status === 'retired') throw conflict(`${part.label} is ${part.status}; it cannot be installed.`);
+      db.transaction((tx) => {
+        tx.insert(jobParts).values({ jobId: job.id, partId: part.id, position: body.position, installedBy: user.id }).run();
+        setPartStatus(tx, part, 'installed', `installed in ${job.code} (${body.position})`, user.id);
+        audit(tx, { userId: user.id, action: 'job.install', entity: 'job', entityId: job.id, detail: { partId: part.id, label: part.label, position: body.position, previousStatus: part.status } });
+      });
+      return mustFind(job.id);
+    },
+  });
+
+  api.delete('/:id/parts/:partId', {
+    schemas: { params: IdParamsSchema.extend({ partId: z.coerce.number().int().positive() }) },
+    handle: ({ params, user }) => {
+      const job = mustFind(params.id);
+      const part = findPart(db, params.partId);
+      if (!part || !job.parts.some((p) => p.partId === part.id)) throw notFound('That part in this job');
+      db.transaction((tx) => {
+        tx.delete(jobParts).where(and(eq(jobParts.jobId, job.id), eq(jobParts.partId, part.id))).run();
+        // A removed part goes back to the bench as incoming: it must be checked again before reuse.
+        setPartStatus(tx, part, 'incoming', `removed from ${job.code}`, user.id);
+        audit(tx, { userId: user.id, action: 'job.remove-part', entity: 'job', entityId: job.id, detail: { partId: part.id, label: part.label } });
+      });
+      return mustFind(job.id);
+    },
+  });
+
+  api.get('/:id/report', {
+    schemas: { params: IdParamsSchema },
+    handle: ({ params }) => reportText(db, mustFind(params.id)),
+  });
+
+  api.post('/:id/report', {
+    schemas: { params: IdParamsSchema, body: JobReportInputSchema },
+    handle: async ({ params, body, user }) => {
+      const job = mustFind(params.id);
+      const to = body.to ?? job.customerEmail;
+      if (!to) throw unprocessable('The job has no customer e-mail; give one.', { to: 'Required: the job has no customer e-mail.' });
+      const report = reportText(db, job, body.message);
+      await ctx.mailer.send({
+        to,
+        topic: 'customer-report',
+        subject: `Your ${job.instrument}: work record ${job.code}`,
+        text: report.text,
+        attachments: report.csv ? [{ filename: `${job.code}-predicted-curves.csv`, content: report.csv, contentType: 'text/csv' }] : undefined,
+      });
+      audit(db, { userId: user.id, action: 'job.report-sent', entity: 'job', entityId: job.id, detail: { to } });
+      return { ok: true, to };
+    },
+  });
+
+  return api;
+}
