@@ -1,0 +1,92 @@
+// One uPlot chart that follows its container's width. Every plot in Lugbook goes through this
+// component, so axes, fonts, colours and the PNG export look the same everywhere.
+import { useEffect, useRef } from 'react';
+import uPlot, { type AlignedData, type Options } from 'uplot';
+import 'uplot/dist/uPlot.min.css';
+
+export interface PlotProps {
+  /** uPlot options without width (taken from the container); height defaults to 320. */
+  options: Omit<Options, 'width' | 'height'> & { height?: number };
+  data: AlignedData;
+  /** Accessible description of what the chart shows. */
+  label: string;
+  className?: string;
+  /** Receives the uPlot instance (e.g. for a PNG export); called with null on unmount. */
+  onReady?: (plot: uPlot | null) => void;
+}
+
+export function Plot({ options, data, label, className, onReady }: PlotProps) {
+  const host = useRef<HTMLDivElement>(null);
+  const plot = useRef<uPlot | null>(null);
+  const readyRef = useRef(onReady);
+  readyRef.current = onReady;
+
+  // Rebuild when the options change (series, scales); data alone is set in place below.
+  useEffect(() => {
+    const el = host.current;
+    if (!el) return;
+    const width = Math.max(el.clientWidth, 200);
+    const u = new uPlot({ ...options, width, height: options.height ?? 320 } as Options, data, el);
+    plot.current = u;
+    readyRef.current?.(u);
+    const ro = new ResizeObserver(() => {
+      const w = Math.max(el.clientWidth, 200);
+      if (Math.abs(w - u.width) > 1) u.setSize({ width: w, height: u.height });
+    });
+    ro.observe(el);
+    return () => {
+      ro.disconnect();
+      u.destroy();
+      plot.current = null;
+      readyRef.current?.(null);
+    };
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [options]);
+
+  useEffect(() => {
+    plot.current?.setData(data);
+  }, [data]);
+
+  return <div ref={host} role="img" aria-label={label} className={className} />;
+}
+
+/** Lugbook's series colours, in order: distinct on paper and for common colour-vision deficiencies. */
+export const SERIES_COLOURS = ['#2d5189', '#c2571a', '#2d6a39', '#7b3f98', '#a2312a', '#1d7f86', '#865707', '#5a5248'];
+
+const AXIS = { stroke: '#5a5248', grid: { stroke: '#e6dcc9', width: 1 }, ticks: { stroke: '#d9cdb8', width: 1 }, font: '12px "IBM Plex Mono", monospace', labelFont: '600 12px "IBM Plex Sans", sans-serif' };
+
+/** An axis with its name and unit in the label, in Lugbook's style. */
+export function axis(label: string, extra: Partial<uPlot.Axis> = {}): uPlot.Axis {
+  return { ...AXIS, label, ...extra };
+}
+
+/** Tick labels for a log-frequency axis: 20, 50, 100, 200, 500, 1k, 2k, 5k, 10k, 20k. */
+export function hzTicks(_u: uPlot, splits: number[]): string[] {
+  return splits.map((v) => {
+    const m = v / Math.pow(10, Math.floor(Math.log10(v)));
+    if (![1, 2, 5].some((k) => Math.abs(m - k) < 1e-6)) return '';
+    return v >= 1000 ? `${v / 1000}k` : String(v);
+  });
+}
+
+/** A log-frequency x scale and axis (hertz), as every frequency plot in Lugbook uses. */
+export const frequencyX = {
+  scale: { time: false, distr: 3, log: 10 } as uPlot.Scale,
+  axis: axis('Frequency (Hz)', { values: hzTicks }),
+};
+
+/** Saves the chart as a PNG file, with a white background and the axes drawn. */
+export function downloadPng(u: uPlot, fileName: string): void {
+  const src = u.ctx.canvas;
+  const out = document.createElement('canvas');
+  out.width = src.width;
+  out.height = src.height;
+  const ctx = out.getContext('2d')!;
+  ctx.fillStyle = '#ffffff';
+  ctx.fillRect(0, 0, out.width, out.height);
+  ctx.drawImage(src, 0, 0);
+  const a = document.createElement('a');
+  a.href = out.toDataURL('image/png');
+  a.download = fileName.endsWith('.png') ? fileName : `${fileName}.png`;
+  a.click();
+}
