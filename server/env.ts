@@ -16,6 +16,8 @@ const EnvSchema = z.object({
   /** With no SMTP_URL, every message goes to the local outbox table (Outbox screen). */
   SMTP_URL: z.string().url().optional(),
   MAIL_FROM: z.string().default('Lugbook <no-reply@lugbook.test>'),
+  /** The built client to serve; default dist/client of the checkout. */
+  LUGBOOK_CLIENT_DIR: z.string().min(1).optional(),
   /** The address links in e-mails point to. */
   PUBLIC_URL: z.string().url().default('http://localhost:3000'),
 });

@@ -12,7 +12,7 @@ const ctx = createContext({
   publicUrl: env.PUBLIC_URL,
   smtpUrl: env.SMTP_URL,
   mailFrom: env.MAIL_FROM,
-  clientDir: fileURLToPath(new URL('../dist/client', import.meta.url)),
+  clientDir: env.LUGBOOK_CLIENT_DIR ?? fileURLToPath(new URL('../dist/client', import.meta.url)),
 });
 
 if (env.LUGBOOK_SEED_DEMO) {
