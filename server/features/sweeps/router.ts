@@ -2,7 +2,7 @@ import { and, desc, eq, inArray, isNull } from 'drizzle-orm';
 import { z } from 'zod';
 import { audit } from '@server/audit';
 import type { AppContext } from '@server/context';
-import { attachments, fits, sweepPoints, sweeps } from '@server/db/schema';
+import { attachments, fits, sweeps } from '@server/db/schema';
 import { findPart } from '@server/features/parts/repository';
 import { HttpError, notFound, unprocessable } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
@@ -10,25 +10,11 @@ import { checkFileType, singleFileUpload, withStoredFile } from '@server/uploads
 import { IdParamsSchema } from '@shared/schemas/common';
 import { SweepUploadFieldsSchema } from '@shared/schemas/sweeps';
 import { parseSweepCsv } from '@shared/csv/sweeps';
-import type { CoilPoint } from '@shared/analysis/coil';
-import type { TaperPoint } from '@shared/analysis/taper';
 import { fitAndStore, sweepInput, type SweepRow } from './fit';
+import { insertSweep, toStoredPoints } from './store';
 
 const MAX_SWEEP_BYTES = 2 * 1024 * 1024;
 const DEFAULT_FULL_ROTATION_DEG = 300;
-
-/** Points as stored: taper x = rotation fraction, y = R1W, z = RW3; impedance x = f, y = Re Z, z = Im Z. */
-function toStoredPoints(kind: 'taper' | 'impedance', points: TaperPoint[] | CoilPoint[], rotationUnit: 'deg' | 'percent', fullRotationDeg: number) {
-  if (kind === 'taper') {
-    const scale = rotationUnit === 'deg' ? 1 / fullRotationDeg : 1 / 100;
-    return (points as TaperPoint[]).map((p) => ({ x: p.rotation * scale, y: p.resistance, z: p.resistanceW3 ?? null }));
-  }
-  return (points as CoilPoint[]).map((p) => {
-    if ('re' in p) return { x: p.frequency, y: p.re, z: p.im };
-    const phase = (p.phaseDeg * Math.PI) / 180;
-    return { x: p.frequency, y: p.magnitude * Math.cos(phase), z: p.magnitude * Math.sin(phase) };
-  });
-}
 
 export function sweepRoutes(ctx: AppContext) {
   const { db } = ctx;
@@ -78,9 +64,7 @@ export function sweepRoutes(ctx: AppContext) {
               .values({ ownerType: 'part', ownerId: part.id, purpose: 'sweep', originalName: file.originalname.slice(0, 200), contentHash: content.contentHash, mime, size: content.size, createdBy: user.id })
               .returning()
               .get();
-            const sweep = tx.insert(sweeps).values({ partId: part.id, kind: body.kind, attachmentId: attachment.id, columns: parsed.columns, pointCount: stored.length, createdBy: user.id }).returning().get();
-            const insertPoint = ctx.sqlite.prepare('insert into sweep_points (sweep_id, idx, x, y, z) values (?, ?, ?, ?, ?)');
-            stored.forEach((p, i) => insertPoint.run(sweep.id, i, p.x, p.y, p.z));
+            const sweep = insertSweep(tx, ctx.sqlite, { partId: part.id, kind: body.kind, attachmentId: attachment.id, columns: parsed.columns, createdBy: user.id }, stored);
             const fit = fitAndStore(tx, part, sweep, user.id);
             audit(tx, { userId: user.id, action: 'sweep.upload', entity: 'part', entityId: part.id, detail: { sweepId: sweep.id, kind: body.kind, points: stored.length, file: attachment.originalName, flagged: fit.flagged } });
             return { ...sweep, points: sweepInput(tx, sweep), fit, part: findPart(tx, part.id) };
