@@ -7,6 +7,7 @@ import { analysisRoutes } from '@server/features/analysis/router';
 import { attachmentRoutes } from '@server/features/attachments/router';
 import { authRoutes } from '@server/features/auth/router';
 import { harnessRoutes } from '@server/features/harness/router';
+import { compareRoutes } from '@server/features/compare/router';
 import { healthRoutes } from '@server/features/health/router';
 import { instrumentRoutes } from '@server/features/instruments/router';
 import { jobRoutes } from '@server/features/jobs/router';
@@ -37,6 +38,7 @@ function featureRouters(ctx: AppContext): ApiRouter[] {
     ...harnessRoutes(ctx),
     jobRoutes(ctx),
     ...attachmentRoutes(ctx),
+    ...compareRoutes(ctx),
   ];
 }
 

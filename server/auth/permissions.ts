@@ -81,6 +81,16 @@ export const ROUTE_PERMISSIONS: Record<string, RoutePermission> = {
   'GET /api/jobs/:id/report': 'read',
   'POST /api/jobs/:id/report': 'write',
 
+  // Compare
+  'GET /api/compare/candidates': 'read',
+  'POST /api/compare/tapers': 'read',
+  'GET /api/comparisons': 'read',
+  'POST /api/comparisons': 'write',
+  'GET /api/comparisons/:id': 'read',
+  'PATCH /api/comparisons/:id': 'write',
+  'DELETE /api/comparisons/:id': 'write',
+  'GET /api/comparisons/:id/export.csv': 'read',
+
   // Stateless analysis (the measurement engine)
   'POST /api/analysis/value': 'read',
   'POST /api/analysis/marking': 'read',

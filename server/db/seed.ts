@@ -7,6 +7,7 @@ import type { AppContext } from '@server/context';
 import { recordReading } from '@server/features/readings/service';
 import type { ReadingQuantity } from '@shared/schemas/bench';
 import { instruments, parts, partStatusEvents, toleranceProfiles, users } from './schema';
+import { seedStudies } from './seed-studies';
 
 export const DEMO_USERS = [
   { email: 'admin@lugbook.test', name: 'Avery Admin', role: 'admin' },
@@ -30,7 +31,8 @@ export function seededRandom(seed: number): () => number {
 }
 
 /** Seeds the demo into an empty database; returns false when there are users already. */
-export async function seedDemo(ctx: AppContext, opts: { password: string }): Promise<boolean> {
+/** `studies: false` leaves out the lots, sweeps, designs and jobs (the API tests need only the bench). */
+export async function seedDemo(ctx: AppContext, opts: { password: string; studies?: boolean }): Promise<boolean> {
   const { db } = ctx;
   const count = db.select({ n: sql<number>`count(*)` }).from(users).get()?.n ?? 0;
   if (count > 0) return false;
@@ -45,7 +47,7 @@ export async function seedDemo(ctx: AppContext, opts: { password: string }): Pro
 
     tx.insert(toleranceProfiles)
       .values([
-        { name: 'Pots, audio taper', kind: 'pot', tolerancePct: 20, rules: { law: 'audio', mMin: 0.08, mMax: 0.2, maxEndResistance: 500 }, createdBy: userIds.qa },
+        { name: 'Pots, audio taper', kind: 'pot', tolerancePct: 20, rules: { law: 'audio-any', mMin: 0.08, mMax: 0.2, maxEndResistance: 500 }, createdBy: userIds.qa },
         { name: 'Pots, linear taper', kind: 'pot', tolerancePct: 20, rules: { law: 'linear', mMin: 0.4, mMax: 0.6, maxEndResistance: 500 }, createdBy: userIds.qa },
         { name: 'Film capacitors', kind: 'capacitor', tolerancePct: 10, rules: { dissipationMax: 0.01, dissipationFrequency: 1000 }, createdBy: userIds.qa },
         { name: 'Resistors, 1 %', kind: 'resistor', tolerancePct: 1, rules: {}, createdBy: userIds.qa },
@@ -125,6 +127,7 @@ export async function seedDemo(ctx: AppContext, opts: { password: string }): Pro
         recordReading(tx, tx.select().from(parts).where(sql`${parts.id} = ${part.id}`).get()!, { quantity: 'inductance', value: inductance, instrumentId: lcr!.id, frequency: 1000 }, tech);
       }
     }
+    if (opts.studies !== false) seedStudies({ tx, sqlite: ctx.sqlite, rand, users: userIds, suppliers: DEMO_SUPPLIERS });
   });
   return true;
 }

@@ -30,7 +30,7 @@ export function newAgent(app: TestApp['app']): TestAgent {
   return request.agent(app).set('Origin', ORIGIN).set('Host', HOST);
 }
 
-export async function createTestApp(opts: { signInLimits?: SignInLimits } = {}): Promise<TestApp> {
+export async function createTestApp(opts: { signInLimits?: SignInLimits; studies?: boolean } = {}): Promise<TestApp> {
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'lugbook-test-'));
   const logs: string[] = [];
   const ctx = createContext({
@@ -39,7 +39,7 @@ export async function createTestApp(opts: { signInLimits?: SignInLimits } = {}):
     signInLimits: opts.signInLimits ?? { perAddress: 1000, perAccount: 1000, windowMs: 60_000 },
     log: (m) => logs.push(m),
   });
-  await seedDemo(ctx, { password: TEST_PASSWORD });
+  await seedDemo(ctx, { password: TEST_PASSWORD, studies: opts.studies ?? false });
   const app = createApp(ctx);
   const agents = new Map<Role, TestAgent>();
   return {
