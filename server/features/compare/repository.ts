@@ -91,6 +91,7 @@ export function resolveSelection(db: DbLike, selection: CompareSelection): { pot
       supplier: part.supplier,
       nominal: part.nominal,
       taperClass: part.taperClass,
+      taperM: part.taperM,
       fit: {
         law: result.law,
         m: result.m,
