@@ -59,6 +59,7 @@ function seedPotLot(s: Seeders, plan: PotLotPlan): void {
   for (let i = 1; i <= plan.count; i++) {
     const total = nominal * (1 + (plan.totalSpreadPct / 100) * gauss(s.rand) * 0.5);
     const endR = 150 + 250 * s.rand();
+    const endR3 = 120 + 280 * s.rand();
     const m = Math.min(0.45, Math.max(0.04, plan.m + plan.mSpread * gauss(s.rand)));
     const item = String(i).padStart(3, '0');
     insertReading.run(lot.id, item, total, endR, i + 1);
@@ -70,9 +71,9 @@ function seedPotLot(s: Seeders, plan: PotLotPlan): void {
       let y = taperLawValue(plan.law, m, x);
       if (plan.scratchy?.includes(i) && deg === 170) y -= 0.05;
       // Each half is the end resistance plus its share of the track, read with 0.3 % noise.
-      const track = total - 2 * endR;
+      const track = total - endR - endR3;
       const r1w = endR + track * y * (1 + 0.003 * gauss(s.rand));
-      const rw3 = endR + track * (1 - y) * (1 + 0.003 * gauss(s.rand));
+      const rw3 = endR3 + track * (1 - y) * (1 + 0.003 * gauss(s.rand));
       points.push({ x, y: r1w, z: rw3 });
     }
     const sweep = insertSweep(s.tx, s.sqlite, { partId: part.id, kind: 'taper', attachmentId: null, columns: { rotation: 'Rotation (deg)', resistance: 'R1-W (kOhm)', resistanceW3: 'RW-3 (kOhm)' }, createdBy: s.users.tech }, points);

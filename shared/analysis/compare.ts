@@ -29,6 +29,8 @@ export interface ComparePot {
   supplier: string | null;
   nominal: number | null;
   taperClass: string | null;
+  /** The class's mid-rotation value as recorded on the part (fraction), if any. */
+  taperM: number | null;
   fit: {
     law: FitLaw;
     m: number;

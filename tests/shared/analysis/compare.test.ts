@@ -33,6 +33,7 @@ function pot(partId: number, lot: number, law: TaperLaw, m: number, total: numbe
     supplier: lot === 1 ? 'North' : 'South',
     nominal: 500e3,
     taperClass: law,
+    taperM: m,
     fit: { law, m, r2: 0.999, rmsPct: 0.1, maxPct: 0.3, total, totalDeviationPct: (total / 500e3 - 1) * 100, endResistance: { start: 0, end: null } },
     curve: normalisedCurve(points, total),
   };
