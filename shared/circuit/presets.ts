@@ -98,6 +98,7 @@ export const DEFAULT_HARNESS_VALUES: HarnessValues = {
 
 /** Pickup, volume pot, cable and amplifier input: the parts every preset shares. */
 function common(v: HarnessValues): Part[] {
+  const cableC = v.cableCapPerMetre * v.cableLength;
   return [
     {
       kind: 'pickup',
@@ -110,7 +111,8 @@ function common(v: HarnessValues): Part[] {
       ...(v.pickupRp !== undefined ? { Rp: v.pickupRp } : {}),
     },
     { kind: 'pot', id: 'volume', a: GROUND, b: 'hot', w: OUTPUT, R: v.volumeR, law: v.volumeLaw, knob: 'volume' },
-    { kind: 'capacitor', id: 'cable', a: OUTPUT, b: GROUND, C: v.cableCapPerMetre * v.cableLength },
+    // No cable (a direct connection, or a wireless link) means no capacitor, not a 0 F one.
+    ...(cableC > 0 ? [{ kind: 'capacitor' as const, id: 'cable', a: OUTPUT, b: GROUND, C: cableC }] : []),
     { kind: 'resistor', id: 'amp', a: OUTPUT, b: GROUND, R: v.ampR },
   ];
 }

@@ -73,3 +73,12 @@ describe('saved harness designs', () => {
     expect((await tech.delete(`/api/harnesses/${created.body.id}`)).status).toBe(200);
   });
 });
+
+test('a harness without cable (0 m) is solved, and differs from one with cable only by the cable capacitance', async () => {
+  const viewer = await t.as('viewer');
+  const none = await viewer.post('/api/harness/simulate').send({ preset: 'independent-tone', values: { cableLength: 0 }, knobs: { volume: 10, tone: 10 } });
+  expect(none.status).toBe(200);
+  const some = await viewer.post('/api/harness/simulate').send({ preset: 'independent-tone', values: { cableLength: 6 }, knobs: { volume: 10, tone: 10 } });
+  // More capacitance across the pickup lowers its resonance (standard circuit theory).
+  expect(some.body.metrics.peak.frequency).toBeLessThan(none.body.metrics.peak.frequency);
+});

@@ -1,0 +1,108 @@
+// Measured parts a harness can take its values from: pickups with a coil fit, pots with a taper
+// fit. The list route has no "has a fit" filter, so the parts of the kind are listed and their fits
+// asked for one by one — only when the user opens the chooser, and for at most MEASURED_LIMIT parts.
+import { queryOptions, useQueries, useQuery } from '@tanstack/react-query';
+import type { CoilFit } from '@shared/analysis/coil';
+import type { TaperFit } from '@shared/analysis/taper';
+import type { Part } from '@shared/schemas/parts';
+import { api } from '@/lib/api-client';
+
+export const MEASURED_LIMIT = 100;
+
+export interface FitRow {
+  id: number;
+  partId: number;
+  sweepId: number | null;
+  kind: 'taper' | 'coil';
+  engineVersion: string;
+  result: Record<string, unknown>;
+  flagged: boolean;
+  supersededAt: number | null;
+  createdAt: number;
+}
+
+type MeasuredKind = 'pickup' | 'pot';
+const FIT_KIND = { pickup: 'coil', pot: 'taper' } as const;
+
+export const partsOfKindQueryOptions = (kind: MeasuredKind) =>
+  queryOptions({
+    queryKey: ['parts', 'list', { kind, limit: MEASURED_LIMIT }],
+    queryFn: ({ signal }) => api.get<{ parts: Part[] }>('/api/parts', { params: { kind, limit: MEASURED_LIMIT }, signal }),
+  });
+
+export const partFitsQueryOptions = (partId: number) =>
+  queryOptions({
+    queryKey: ['parts', 'detail', partId, 'fits'],
+    queryFn: ({ signal }) => api.get<{ fits: FitRow[] }>(`/api/parts/${partId}/fits`, { signal }),
+  });
+
+/** Part detail, for the label of a part a saved design refers to. Same key as the parts screen. */
+export const partQueryOptions = (partId: number) =>
+  queryOptions({
+    queryKey: ['parts', 'detail', partId],
+    queryFn: ({ signal }) => api.get<Part>(`/api/parts/${partId}`, { signal }),
+  });
+
+export const usePartLabel = (partId: number | undefined) => {
+  const q = useQuery({ ...partQueryOptions(partId ?? 0), enabled: partId !== undefined });
+  return q.data?.label;
+};
+
+/** The newest fit of the kind that no later fit of its sweep has replaced. */
+export function latestFit(fits: readonly FitRow[], kind: 'taper' | 'coil'): FitRow | undefined {
+  return fits.filter((f) => f.kind === kind && f.supersededAt === null).sort((a, b) => b.createdAt - a.createdAt || b.id - a.id)[0];
+}
+
+export type MeasuredPickup = { part: Part; fit: FitRow; coil: Pick<CoilFit, 'R' | 'L' | 'C' | 'Rp'> };
+export type MeasuredPot = { part: Part; fit: FitRow; taper: Pick<TaperFit, 'law' | 'm' | 'total'> };
+
+export interface MeasuredList<T> {
+  items: T[];
+  pending: boolean;
+  error: Error | null;
+  /** Parts of the kind looked at (the chooser says when the list was cut at MEASURED_LIMIT). */
+  looked: number;
+}
+
+function useMeasured(kind: MeasuredKind, enabled: boolean) {
+  const parts = useQuery({ ...partsOfKindQueryOptions(kind), enabled });
+  const list = parts.data?.parts ?? [];
+  const fits = useQueries({
+    queries: list.map((p) => ({ ...partFitsQueryOptions(p.id), enabled })),
+  });
+  const pending = enabled && (parts.isPending || fits.some((f) => f.isPending));
+  const error = parts.error ?? fits.find((f) => f.error)?.error ?? null;
+  const withFits = list.flatMap((part, i) => {
+    const fit = latestFit(fits[i]?.data?.fits ?? [], FIT_KIND[kind]);
+    return fit ? [{ part, fit }] : [];
+  });
+  return { withFits, pending, error, looked: list.length };
+}
+
+const num = (v: unknown): number | undefined => (typeof v === 'number' && Number.isFinite(v) ? v : undefined);
+
+export function useMeasuredPickups(enabled: boolean): MeasuredList<MeasuredPickup> {
+  const { withFits, ...rest } = useMeasured('pickup', enabled);
+  const items = withFits.flatMap(({ part, fit }) => {
+    const R = num(fit.result.R);
+    const L = num(fit.result.L);
+    const C = num(fit.result.C);
+    if (R === undefined || L === undefined || C === undefined) return [];
+    return [{ part, fit, coil: { R, L, C, Rp: num(fit.result.Rp) ?? null } }];
+  });
+  return { items, ...rest };
+}
+
+const LAWS = ['linear', 'audio', 'reverse', 'two-segment'] as const;
+
+export function useMeasuredPots(enabled: boolean): MeasuredList<MeasuredPot> {
+  const { withFits, ...rest } = useMeasured('pot', enabled);
+  const items = withFits.flatMap(({ part, fit }) => {
+    const law = LAWS.find((l) => l === fit.result.law);
+    const m = num(fit.result.m);
+    const total = num(fit.result.total);
+    if (!law || m === undefined || total === undefined) return [];
+    return [{ part, fit, taper: { law, m, total } }];
+  });
+  return { items, ...rest };
+}
