@@ -117,3 +117,13 @@ describe('lots', () => {
     expect((await tech.post(`/api/lots/${lot.id}/promote`).send({ set: 0, matchPct: 0.5, setSize: 2 })).status).toBe(409);
   });
 });
+
+test('the lot list counts each lot\'s own readings', async () => {
+  const a = await newLot();
+  const b = await newLot();
+  await (await t.as('tech')).post(`/api/lots/${a.id}/readings`).attach('file', Buffer.from(generatedLot(7)), 'lot.csv').expect(201);
+  await (await t.as('tech')).post(`/api/lots/${b.id}/readings`).attach('file', Buffer.from(generatedLot(3)), 'lot.csv').expect(201);
+  const list = (await (await t.as('viewer')).get('/api/lots')).body.lots as { id: number; count: number }[];
+  expect(list.find((l) => l.id === a.id)!.count).toBe(7);
+  expect(list.find((l) => l.id === b.id)!.count).toBe(3);
+});

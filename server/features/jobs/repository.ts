@@ -10,7 +10,7 @@ export interface JobDetail extends JobRow {
 
 export function listJobs(db: DbLike) {
   return db
-    .select({ job: jobs, partCount: sql<number>`(select count(*) from job_parts jp where jp.job_id = ${jobs.id})` })
+    .select({ job: jobs, partCount: sql<number>`(select count(*) from job_parts jp where jp.job_id = "jobs"."id")` })
     .from(jobs)
     .orderBy(desc(jobs.id))
     .all()

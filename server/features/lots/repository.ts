@@ -14,7 +14,8 @@ export function listLots(db: DbLike) {
   return db
     .select({
       lot: lots,
-      count: sql<number>`(select count(*) from lot_readings r where r.lot_id = ${lots.id})`,
+      // Written out in full: inside the subquery drizzle's bare "id" would name lot_readings.id.
+      count: sql<number>`(select count(*) from lot_readings r where r.lot_id = "lots"."id")`,
     })
     .from(lots)
     .orderBy(sql`${lots.id} desc`)

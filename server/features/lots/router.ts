@@ -21,6 +21,7 @@ import { readLotFile } from './read-upload';
 import { promoteToParts } from './promote';
 
 const MAX_LOT_BYTES = 25 * 1024 * 1024;
+const MAX_LISTED_SETS = 200;
 type LotKind = (typeof LOT_KINDS)[number];
 const UNIT: Record<LotKind, string> = { capacitor: 'F', pot: 'Ω', resistor: 'Ω' };
 const QUANTITY = { capacitor: 'capacitance', pot: 'resistance', resistor: 'resistance' } as const satisfies Record<LotKind, string>;
@@ -116,11 +117,14 @@ export function lotRoutes(ctx: AppContext) {
       const lot = mustFind(params.id);
       const data = lotValues(sqlite, lot.id);
       const stats = lotStats(lot, data, query);
+      const disposedByName = lot.disposedBy ? (db.select({ name: users.name }).from(users).where(eq(users.id, lot.disposedBy)).get()?.name ?? null) : null;
       return {
         ...lotSummary(lot),
+        disposedByName,
         count: data.values.length,
         watchers: lotWatcherRows(db, lot.id),
-        stats: stats && { ...stats, deviationsPct: undefined },
+        // The first sets only (a 100,000-item lot has ~50,000 pairs); the items route carries every item's set.
+        stats: stats && { ...stats, deviationsPct: undefined, matchedSets: stats.matchedSets.slice(0, MAX_LISTED_SETS), matchedSetCount: stats.matchedSets.length },
       };
     },
   });

@@ -1,1 +1,10 @@
-export { JobsPlaceholder as Component } from '@/features/jobs/components/jobs-placeholder';
+import type { QueryClient } from '@tanstack/react-query';
+import { jobsQueryOptions } from '@/features/jobs/api/get-jobs';
+import { JobsScreen } from '@/features/jobs/components/jobs-screen';
+
+export const makeLoader = (queryClient: QueryClient) => async () => {
+  await queryClient.ensureQueryData(jobsQueryOptions());
+  return null;
+};
+
+export const Component = JobsScreen;

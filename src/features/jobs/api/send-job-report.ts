@@ -1,0 +1,9 @@
+import { useMutation } from '@tanstack/react-query';
+import type { z } from 'zod';
+import type { JobReportInputSchema } from '@shared/schemas/jobs';
+import { api } from '@/lib/api-client';
+
+export const sendJobReport = ({ id, input }: { id: number; input: z.output<typeof JobReportInputSchema> }) =>
+  api.post<{ ok: true; to: string }>(`/api/jobs/${id}/report`, input);
+
+export const useSendJobReport = () => useMutation({ mutationFn: sendJobReport, meta: { invalidates: [['outbox']] } });

@@ -1,0 +1,46 @@
+// Shapes of the job routes (server/features/jobs/router.ts and repository.ts).
+import type { PartKind, PartStatus } from '@shared/schemas/common';
+import type { JOB_STATUSES } from '@shared/schemas/jobs';
+
+export type JobStatus = (typeof JOB_STATUSES)[number];
+
+export interface Job {
+  id: number;
+  code: string;
+  customer: string;
+  customerEmail: string | null;
+  instrument: string;
+  status: JobStatus;
+  harnessId: number | null;
+  notes: string | null;
+  createdBy: string | null;
+  createdAt: number;
+  updatedAt: number | null;
+}
+
+export type JobListRow = Job & { partCount: number };
+
+export interface InstalledPart {
+  partId: number;
+  label: string;
+  kind: PartKind;
+  nominal: number | null;
+  status: PartStatus;
+  position: string;
+  installedAt: number;
+}
+
+export type JobDetail = Job & { parts: InstalledPart[]; harnessName: string | null };
+
+export interface JobReport {
+  text: string;
+  csv: string | null;
+}
+
+export interface HarnessDesign {
+  id: number;
+  name: string;
+  preset: string;
+  updatedAt: number | null;
+  createdAt: number;
+}

@@ -1,0 +1,8 @@
+import { useMutation } from '@tanstack/react-query';
+import type { CreateLotInput } from '@shared/schemas/lots';
+import { api } from '@/lib/api-client';
+import type { Lot } from './types';
+
+export const createLot = (input: CreateLotInput) => api.post<Lot>('/api/lots', input);
+
+export const useCreateLot = () => useMutation({ mutationFn: createLot, meta: { invalidates: [['lots']] } });
