@@ -18,7 +18,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { label: 'Compare', to: paths.app.compare.getHref(), capability: 'read', hint: 'Tapers side by side' },
   { label: 'Harness', to: paths.app.harness.getHref(), capability: 'read', hint: 'Wiring designs' },
   { label: 'Jobs', to: paths.app.jobs.getHref(), capability: 'read', hint: 'Customer work' },
-  // Team will also show tolerance profiles and instruments to QA once those blocks exist.
-  { label: 'Team', to: paths.app.team.getHref(), capability: 'admin', hint: 'Members and invitations' },
+  // QA leads open Team for the tolerance profiles and instruments; members stay admin-only inside.
+  { label: 'Team', to: paths.app.team.getHref(), capability: 'qa', hint: 'Members, profiles, instruments' },
   { label: 'Outbox', to: paths.app.outbox.getHref(), capability: 'admin', hint: 'Mail sent by Lugbook' },
 ];

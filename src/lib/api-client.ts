@@ -1,6 +1,10 @@
-// The one way the client talks to the API: same-origin JSON fetches that throw a typed ApiError
-// carrying the server's envelope `{ error: { code, message, fields? } }` (shared/schemas/common.ts).
-import { ApiErrorSchema } from '@shared/schemas/common';
+// The one way the client talks to the API: same-origin fetches (JSON, or multipart for files) that
+// throw a typed ApiError carrying the server's envelope
+// `{ error: { code, message, fields?, issues?, details? } }` (shared/schemas/common.ts).
+import { ApiErrorSchema, type ApiErrorBody } from '@shared/schemas/common';
+
+/** One problem in an uploaded file, with its line and column. */
+export type FileIssue = NonNullable<ApiErrorBody['error']['issues']>[number];
 
 export class ApiError extends Error {
   constructor(
@@ -8,6 +12,10 @@ export class ApiError extends Error {
     readonly code: string,
     message: string,
     readonly fields?: Record<string, string>,
+    /** A refused file's problems (line, column, message). */
+    readonly issues: FileIssue[] = [],
+    /** Error-specific data, e.g. `needsMapping` when a file's columns were not recognised. */
+    readonly details?: Record<string, unknown>,
   ) {
     super(message);
     this.name = 'ApiError';
@@ -20,8 +28,11 @@ type QueryValue = string | number | boolean | null | undefined;
 
 interface RequestOptions {
   params?: Record<string, QueryValue>;
+  /** JSON-encoded, or sent as it is when FormData (multipart: the browser writes the boundary). */
   body?: unknown;
   signal?: AbortSignal;
+  /** 'text' returns the body as a string (e.g. a SPICE netlist) instead of parsing JSON. */
+  as?: 'json' | 'text';
 }
 
 /** `/api/parts` + `{ kind: 'pot', q: '' }` → `/api/parts?kind=pot` (empty values are left out). */
@@ -37,6 +48,7 @@ export function withParams(path: string, params?: Record<string, QueryValue>): s
 }
 
 async function request<T>(method: string, path: string, opts: RequestOptions = {}): Promise<T> {
+  const multipart = opts.body instanceof FormData;
   let response: Response;
   try {
     response = await fetch(withParams(path, opts.params), {
@@ -45,10 +57,10 @@ async function request<T>(method: string, path: string, opts: RequestOptions = {
       // server checks on every state-changing request.
       credentials: 'same-origin',
       headers: {
-        Accept: 'application/json',
-        ...(opts.body !== undefined ? { 'Content-Type': 'application/json' } : {}),
+        Accept: opts.as === 'text' ? 'text/plain, application/json' : 'application/json',
+        ...(opts.body !== undefined && !multipart ? { 'Content-Type': 'application/json' } : {}),
       },
-      body: opts.body !== undefined ? JSON.stringify(opts.body) : undefined,
+      body: opts.body === undefined ? undefined : multipart ? (opts.body as FormData) : JSON.stringify(opts.body),
       signal: opts.signal,
     });
   } catch (err) {
@@ -58,6 +70,7 @@ async function request<T>(method: string, path: string, opts: RequestOptions = {
 
   if (response.status === 204) return undefined as T;
   const text = await response.text();
+  if (response.ok && opts.as === 'text') return text as T;
   let data: unknown = undefined;
   if (text) {
     try {
@@ -69,8 +82,8 @@ async function request<T>(method: string, path: string, opts: RequestOptions = {
   if (!response.ok) {
     const envelope = ApiErrorSchema.safeParse(data);
     if (envelope.success) {
-      const { code, message, fields } = envelope.data.error;
-      throw new ApiError(response.status, code, message, fields);
+      const { code, message, fields, issues, details } = envelope.data.error;
+      throw new ApiError(response.status, code, message, fields, issues ?? [], details);
     }
     throw new ApiError(response.status, 'http_error', `The server answered ${response.status} ${response.statusText}.`.trim());
   }
@@ -80,6 +93,7 @@ async function request<T>(method: string, path: string, opts: RequestOptions = {
 export const api = {
   get: <T>(path: string, opts?: Omit<RequestOptions, 'body'>) => request<T>('GET', path, opts),
   post: <T>(path: string, body?: unknown, opts?: Omit<RequestOptions, 'body'>) => request<T>('POST', path, { ...opts, body: body ?? {} }),
+  put: <T>(path: string, body: unknown, opts?: Omit<RequestOptions, 'body'>) => request<T>('PUT', path, { ...opts, body }),
   patch: <T>(path: string, body: unknown, opts?: Omit<RequestOptions, 'body'>) => request<T>('PATCH', path, { ...opts, body }),
   delete: <T>(path: string, opts?: Omit<RequestOptions, 'body'>) => request<T>('DELETE', path, opts),
 };

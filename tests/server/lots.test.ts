@@ -57,7 +57,7 @@ describe('lots', () => {
     const res = await (await t.as('tech')).post(`/api/lots/${lot.id}/readings`).attach('file', Buffer.from(generatedLot(100_000, 73_412)), 'lot.csv');
     expect(res.status).toBe(422);
     // Line 73,413 of the file: the header is line 1.
-    expect(res.body.error.message).toMatch(/line 73413/);
+    expect(res.body.error.message).toMatch(/Line 73413/);
     expect(res.body.error.message).toMatch(/C \(nF\)/);
     expect(count('lot_readings')).toBe(before.rows);
     expect(fs.readdirSync(t.ctx.config.uploadsDir, { recursive: true }).length).toBe(before.files);

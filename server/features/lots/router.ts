@@ -178,7 +178,7 @@ export function lotRoutes(ctx: AppContext) {
           const first = read.issues[0];
           const message = read.needsMapping
             ? 'The columns of this file were not recognised; choose which column holds what.'
-            : `The file was refused at ${first?.line != null ? `line ${first.line}` : 'its start'}${first?.column ? `, column "${first.column}"` : ''}: ${first?.message ?? 'it could not be read.'} Nothing was stored.`;
+            : `The file was refused, nothing was stored: ${first?.message ?? 'it could not be read.'}`;
           throw new HttpError(422, read.needsMapping ? 'needs_mapping' : 'invalid_file', message, { file: message }, { issues: read.issues, ...(read.needsMapping ? { details: { needsMapping: read.needsMapping } } : {}) });
         }
         const { data } = read;

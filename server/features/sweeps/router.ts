@@ -49,7 +49,7 @@ export function sweepRoutes(ctx: AppContext) {
         const first = parsed.issues[0];
         const message = parsed.needsMapping
           ? 'The columns of this file were not recognised; choose which column holds what.'
-          : `The file was refused: ${first ? `${first.line != null ? `line ${first.line}` : ''}${first.column ? `, column "${first.column}"` : ''}: ${first.message}` : 'it could not be read.'}`;
+          : `The file was refused, nothing was stored: ${first?.message ?? 'it could not be read.'}${parsed.issues.length > 1 ? ` (${parsed.issues.length} problems listed)` : ''}`;
         throw new HttpError(422, parsed.needsMapping ? 'needs_mapping' : 'invalid_file', message, { file: message }, {
           issues: parsed.issues,
           ...(parsed.needsMapping ? { details: { needsMapping: parsed.needsMapping } } : {}),

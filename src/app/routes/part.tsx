@@ -1,6 +1,8 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { data, useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { partQueryOptions } from '@/features/parts/api/get-part';
+import { partReadingsQueryOptions } from '@/features/parts/api/get-readings';
+import { sweepsQueryOptions } from '@/features/parts/api/sweeps';
 import { PartScreen } from '@/features/parts/components/part-screen';
 
 const partId = (raw: string | undefined) => {
@@ -13,6 +15,9 @@ export const makeLoader =
   async ({ params }: LoaderFunctionArgs) => {
     const id = partId(params.id);
     if (id === null) throw data('There is no such part.', { status: 404 });
+    // The part decides the page (a 404 ends here); readings and sweeps are fetched alongside.
+    void queryClient.prefetchQuery(partReadingsQueryOptions(id));
+    void queryClient.prefetchQuery(sweepsQueryOptions(id));
     await queryClient.ensureQueryData(partQueryOptions(id));
     return null;
   };

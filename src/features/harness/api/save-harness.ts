@@ -2,12 +2,10 @@ import { useMutation } from '@tanstack/react-query';
 import type { HarnessDesignInput } from '@shared/schemas/harness';
 import { api } from '@/lib/api-client';
 import type { HarnessDesign } from './get-harnesses';
-import { sendJson } from './raw-request';
 
 export const createHarness = (input: HarnessDesignInput) => api.post<HarnessDesign>('/api/harnesses', input);
 
-export const updateHarness = async ({ id, input }: { id: number; input: HarnessDesignInput }): Promise<HarnessDesign> =>
-  JSON.parse(await sendJson('PUT', `/api/harnesses/${id}`, input)) as HarnessDesign;
+export const updateHarness = ({ id, input }: { id: number; input: HarnessDesignInput }) => api.put<HarnessDesign>(`/api/harnesses/${id}`, input);
 
 export const deleteHarness = (id: number) => api.delete<{ ok: true }>(`/api/harnesses/${id}`);
 

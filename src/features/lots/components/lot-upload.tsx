@@ -5,7 +5,8 @@ import { useId, useRef, useState } from 'react';
 import type { ExplicitMapping } from '@shared/csv/columns';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
-import { UploadError, uploadMs, useUploadLotReadings, type NeedsMapping, type UploadResult } from '../api/upload-lot-readings';
+import { isApiError } from '@/lib/api-client';
+import { needsMappingOf, uploadMs, useUploadLotReadings, type NeedsMapping, type UploadIssue, type UploadResult } from '../api/upload-lot-readings';
 import type { Lot } from '../api/types';
 import { fmtLotValue } from './lot-format';
 
@@ -109,7 +110,7 @@ export function LotUpload({ lot, count }: { lot: Lot; count: number }) {
   const [replace, setReplace] = useState(false);
   const [result, setResult] = useState<UploadResult | null>(null);
   const [needs, setNeeds] = useState<NeedsMapping | null>(null);
-  const [problem, setProblem] = useState<{ message: string; issues: UploadError['issues'] } | null>(null);
+  const [problem, setProblem] = useState<{ message: string; issues: UploadIssue[] } | null>(null);
 
   const send = async (mapping?: ExplicitMapping) => {
     if (!file) return setProblem({ message: 'Choose the lot’s CSV export first.', issues: [] });
@@ -123,10 +124,11 @@ export function LotUpload({ lot, count }: { lot: Lot; count: number }) {
       setReplace(false);
       if (fileRef.current) fileRef.current.value = '';
     } catch (err) {
-      if (err instanceof UploadError && err.code === 'needs_mapping' && err.needsMapping) {
-        setNeeds(err.needsMapping);
+      const mappingNeeded = needsMappingOf(err);
+      if (mappingNeeded && isApiError(err)) {
+        setNeeds(mappingNeeded);
         setProblem({ message: err.message, issues: [] });
-      } else if (err instanceof UploadError) {
+      } else if (isApiError(err)) {
         setProblem({ message: err.message, issues: err.issues });
       } else setProblem({ message: err instanceof Error ? err.message : 'The upload failed.', issues: [] });
     }

@@ -13,7 +13,10 @@ export type PartStatusEvent = {
   at: number;
 };
 
-export type PartDetail = Part & { statusHistory: PartStatusEvent[] };
+/** A job the part went into (the other direction of the job's parts list). */
+export type PartInstallation = { jobId: number; code: string; customer: string; instrument: string; position: string; installedAt: number };
+
+export type PartDetail = Part & { statusHistory: PartStatusEvent[]; installedIn: PartInstallation[] };
 
 export const getPart = (id: number, signal?: AbortSignal) => api.get<PartDetail>(`/api/parts/${id}`, { signal });
 

@@ -2,13 +2,18 @@ import { useState, type ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import { Alert, Loading } from '@/components/ui/alert';
 import { StatusBadge } from '@/components/ui/badge';
-import { Button } from '@/components/ui/button';
+import { Button, buttonClass } from '@/components/ui/button';
 import { PageHeader, Panel } from '@/components/ui/page-header';
 import { paths } from '@/config/paths';
 import { useCan } from '@/lib/auth';
 import { formatDateTime, formatNominal, formatTolerance } from '@/lib/format';
 import { usePart, type PartDetail } from '../api/get-part';
 import { EditPartForm, KIND_LABEL, TAPER_LABEL } from './part-form';
+import { PartAttachments } from './part-attachments';
+import { PartFits } from './part-fits';
+import { PartJobs } from './part-jobs';
+import { PartReadings } from './part-readings';
+import { PartSweeps } from './part-sweeps';
 import { RetirePartForm } from './retire-part-form';
 
 type Mode = 'view' | 'edit' | 'retire';
@@ -87,18 +92,6 @@ function StatusHistory({ part }: { part: PartDetail }) {
   );
 }
 
-/**
- * Blocks of the part page that later features fill in. Each keeps its id, so a colleague replaces
- * one `<FutureBlock>` with the real component without touching the rest of the page.
- */
-function FutureBlock({ id, title, holds }: { id: string; title: string; holds: string }) {
-  return (
-    <Panel id={id} title={title}>
-      <p className="text-sm text-ink-soft">Not built yet. Will hold {holds}.</p>
-    </Panel>
-  );
-}
-
 export function PartScreen({ id }: { id: number }) {
   const part = usePart(id);
   const canWrite = useCan('write');
@@ -133,7 +126,11 @@ export function PartScreen({ id }: { id: number }) {
           </>
         }
         actions={
-          canWrite && mode === 'view' ? (
+          <>
+            <a href={`/api/parts/${p.id}/label.svg`} target="_blank" rel="noreferrer" className={buttonClass('secondary')}>
+              Printable label
+            </a>
+            {canWrite && mode === 'view' && (
             <>
               <Button onClick={() => setMode('edit')}>Edit</Button>
               {!retired && (
@@ -142,7 +139,8 @@ export function PartScreen({ id }: { id: number }) {
                 </Button>
               )}
             </>
-          ) : null
+            )}
+          </>
         }
       />
 
@@ -156,15 +154,27 @@ export function PartScreen({ id }: { id: number }) {
               <RetirePartForm part={p} onDone={() => setMode('view')} />
             </Panel>
           )}
-          <FutureBlock id="part-readings" title="Readings" holds="measured values with verdicts against the tolerance profile" />
-          <FutureBlock id="part-sweeps" title="Sweeps" holds="rotation and impedance sweeps with their plots" />
-          <FutureBlock id="part-fits" title="Fits" holds="fitted taper and coil models with their quality figures" />
-          <FutureBlock id="part-attachments" title="Attachments" holds="photos of the part and of meter displays" />
-          <FutureBlock id="part-jobs" title="Jobs" holds="the jobs this part was installed in" />
+          <Panel id="part-readings" title="Readings">
+            <PartReadings part={p} />
+          </Panel>
+          <Panel id="part-sweeps" title="Sweeps">
+            <PartSweeps part={p} />
+          </Panel>
+          <Panel id="part-fits" title="Fits">
+            <PartFits part={p} />
+          </Panel>
+          <Panel id="part-attachments" title="Attachments">
+            <PartAttachments partId={p.id} />
+          </Panel>
         </div>
-        <Panel id="part-history" title="Status history" className="self-start">
-          <StatusHistory part={p} />
-        </Panel>
+        <div className="space-y-6 self-start">
+          <Panel id="part-jobs" title="Jobs">
+            <PartJobs part={p} />
+          </Panel>
+          <Panel id="part-history" title="Status history">
+            <StatusHistory part={p} />
+          </Panel>
+        </div>
       </div>
     </div>
   );

@@ -1,0 +1,10 @@
+import { useMutation } from '@tanstack/react-query';
+import type { ProfileInput } from '@shared/schemas/bench';
+import type { Profile } from '@/components/readings/api';
+import { api } from '@/lib/api-client';
+
+/** New profile (no id) or a change to one; PUT sends the whole profile. */
+export const saveProfile = ({ id, input }: { id?: number; input: ProfileInput }) =>
+  id ? api.put<Profile>(`/api/profiles/${id}`, input) : api.post<Profile>('/api/profiles', input);
+
+export const useSaveProfile = () => useMutation({ mutationFn: saveProfile, meta: { invalidates: [['profiles']] } });
