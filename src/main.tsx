@@ -1,4 +1,3 @@
-import './lib/zod-setup';
 // The fonts ship with the app (no CDN): IBM Plex Sans for text, IBM Plex Mono for numbers.
 import '@fontsource/ibm-plex-sans/400.css';
 import '@fontsource/ibm-plex-sans/500.css';

@@ -44,7 +44,8 @@ async function waitFor(url: string, child: ChildProcess, log: () => string): Pro
 
 export default async function setup(project: TestProject) {
   const root = path.resolve(import.meta.dirname, '../..');
-  execFileSync('npx', ['vite', 'build', '--logLevel', 'warn'], { cwd: root, stdio: 'inherit' });
+  // The production build (vitest sets NODE_ENV=test, which would give React's development build).
+  execFileSync('npx', ['vite', 'build', '--logLevel', 'warn'], { cwd: root, stdio: 'inherit', env: { ...process.env, NODE_ENV: 'production' } });
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'lugbook-e2e-'));
   const port = await freePort();
   let output = '';
@@ -52,6 +53,8 @@ export default async function setup(project: TestProject) {
     cwd: root,
     env: { ...process.env, PORT: String(port), LUGBOOK_DATA_DIR: dataDir, LUGBOOK_DEMO_PASSWORD: DEMO_PASSWORD, NODE_ENV: 'test' },
     stdio: ['ignore', 'pipe', 'pipe'],
+    // Its own process group, so the teardown ends npx, tsx and the server together.
+    detached: true,
   });
   child.stdout?.on('data', (d) => (output += d));
   child.stderr?.on('data', (d) => (output += d));
@@ -60,7 +63,11 @@ export default async function setup(project: TestProject) {
   project.provide('baseUrl', baseUrl);
   project.provide('demoPassword', DEMO_PASSWORD);
   return () => {
-    child.kill('SIGTERM');
+    try {
+      process.kill(-child.pid!, 'SIGTERM');
+    } catch {
+      /* already gone */
+    }
     fs.rmSync(dataDir, { recursive: true, force: true });
   };
 }

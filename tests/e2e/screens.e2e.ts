@@ -43,10 +43,10 @@ test('a tech turns the volume knob on the Harness screen and the figures follow'
   const { page, problems } = await watchedPage();
   await signIn(page, baseUrl, 'tech@lugbook.test', password);
   await page.goto(`${baseUrl}/harness`);
-  const level = page.locator('th', { hasText: 'Level at 1 kHz' }).locator('xpath=following-sibling::td[1]');
+  const level = page.locator('th', { hasText: 'Level at 1 kHz' }).first().locator('xpath=following-sibling::td[1]');
   await level.waitFor();
   const before = await level.textContent();
-  const volume = page.getByLabel('Volume knob');
+  const volume = page.getByRole('slider', { name: 'Volume knob' }).first();
   await volume.focus();
   for (let i = 0; i < 30; i++) await page.keyboard.press('ArrowLeft');
   await expect.poll(() => level.textContent()).not.toBe(before);
