@@ -62,3 +62,43 @@ test('a viewer opens Compare and sees the demo pots overlaid by lot', async () =
   expect(problems).toEqual([]);
   await page.close();
 });
+
+test('at the bench a tech finds a pot by label, sees the verdict while typing, and saves it with the keyboard', async () => {
+  const { page, problems } = await watchedPage();
+  await signIn(page, baseUrl, 'tech@lugbook.test', password);
+  await page.getByLabel('Label or scanned code').fill('POT-005');
+  await page.keyboard.press('Enter');
+  const value = page.getByLabel('Value (Ω)');
+  await value.waitFor();
+  await value.fill('700k');
+  // 700 kΩ against 500 kΩ ±20 %: outside the limit whatever the meter's accuracy.
+  await page.getByText('Verdict as typed').waitFor();
+  await expect.poll(() => page.getByText(/700 kΩ is 40 % over nominal 500 kΩ/).count()).toBeGreaterThan(0);
+  await value.press('Enter');
+  await page.getByText(/server verdict/).waitFor();
+  const saved = page.getByRole('status').filter({ hasText: 'server verdict' });
+  expect(await saved.textContent()).toMatch(/fail/i);
+  expect(problems).toEqual([]);
+  await page.close();
+});
+
+test('a tech uploads the sample pot sweep on a part page and reads the fitted law; the broken sample is refused row by row', async () => {
+  const { page, problems } = await watchedPage();
+  await signIn(page, baseUrl, 'tech@lugbook.test', password);
+  await page.goto(`${baseUrl}/parts?q=POT-007`);
+  await page.getByRole('link', { name: 'POT-007' }).click();
+  const samples = new URL('../../samples/', import.meta.url).pathname;
+  await page.getByLabel('Sweep file (CSV)').setInputFiles(`${samples}broken-sweep.csv`);
+  await page.getByRole('button', { name: 'Upload and fit' }).click();
+  await page.getByText(/was refused/).first().waitFor();
+  expect(await page.getByText(/Line \d+, column/).count()).toBeGreaterThanOrEqual(3);
+  await page.getByLabel('Sweep file (CSV)').setInputFiles(`${samples}pot-500k-audio-sweep.csv`);
+  await page.getByRole('button', { name: 'Upload and fit' }).click();
+  const law = page.locator('dt', { hasText: /^Law$/ }).first().locator('xpath=following-sibling::dd[1]');
+  await law.waitFor({ timeout: 20_000 });
+  expect(await law.textContent()).toMatch(/audio/i);
+  expect(await page.locator('canvas').count()).toBeGreaterThan(0);
+  // The refused upload is answered 422 on purpose; the browser logs that response, nothing else may appear.
+  expect(problems.filter((p) => !/status of 422/.test(p))).toEqual([]);
+  await page.close();
+});
