@@ -1,9 +1,9 @@
-import { eq } from 'drizzle-orm';
+import { eq, getTableColumns } from 'drizzle-orm';
 import QRCode from 'qrcode';
 import { z } from 'zod';
 import { audit } from '@server/audit';
 import type { AppContext } from '@server/context';
-import { parts, partStatusEvents } from '@server/db/schema';
+import { lots, parts, partStatusEvents, users } from '@server/db/schema';
 import { conflict, notFound } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
 import { IdParamsSchema } from '@shared/schemas/common';
@@ -39,8 +39,15 @@ export function partRoutes(ctx: AppContext) {
     handle: ({ params }) => {
       const part = findPart(db, params.id);
       if (!part) throw notFound('That part');
-      const statusHistory = db.select().from(partStatusEvents).where(eq(partStatusEvents.partId, part.id)).orderBy(partStatusEvents.id).all();
-      return { ...part, statusHistory, installedIn: jobsOfPart(db, part.id) };
+      const statusHistory = db
+        .select({ ...getTableColumns(partStatusEvents), userName: users.name })
+        .from(partStatusEvents)
+        .leftJoin(users, eq(partStatusEvents.userId, users.id))
+        .where(eq(partStatusEvents.partId, part.id))
+        .orderBy(partStatusEvents.id)
+        .all();
+      const lotCode = part.lotId ? (db.select({ code: lots.code }).from(lots).where(eq(lots.id, part.lotId)).get()?.code ?? null) : null;
+      return { ...part, lotCode, statusHistory, installedIn: jobsOfPart(db, part.id) };
     },
   });
 

@@ -10,13 +10,15 @@ export type PartStatusEvent = {
   toStatus: PartStatus;
   reason: string | null;
   userId: string | null;
+  /** Who made the change (null when the member has left). */
+  userName: string | null;
   at: number;
 };
 
 /** A job the part went into (the other direction of the job's parts list). */
 export type PartInstallation = { jobId: number; code: string; customer: string; instrument: string; position: string; installedAt: number };
 
-export type PartDetail = Part & { statusHistory: PartStatusEvent[]; installedIn: PartInstallation[] };
+export type PartDetail = Part & { lotCode: string | null; statusHistory: PartStatusEvent[]; installedIn: PartInstallation[] };
 
 export const getPart = (id: number, signal?: AbortSignal) => api.get<PartDetail>(`/api/parts/${id}`, { signal });
 

@@ -45,7 +45,7 @@ function PartFacts({ part }: { part: PartDetail }) {
       <Fact term="Lot">
         {part.lotId ? (
           <Link to={paths.app.lot.getHref(part.lotId)} className="text-accent underline underline-offset-2">
-            Lot {part.lotId}
+            Lot {part.lotCode ?? part.lotId}
             {part.lotItem ? `, item ${part.lotItem}` : ''}
           </Link>
         ) : (
@@ -84,6 +84,7 @@ function StatusHistory({ part }: { part: PartDetail }) {
           </div>
           <p className="mt-1 text-sm">{e.reason ?? <span className="text-ink-faint">No reason given</span>}</p>
           <p className="text-xs text-ink-soft">
+            {e.userName ? `${e.userName} · ` : ''}
             <time dateTime={new Date(e.at).toISOString()}>{formatDateTime(e.at)}</time>
           </p>
         </li>
