@@ -8,6 +8,7 @@ import { recordReading } from '@server/features/readings/service';
 import type { ReadingQuantity } from '@shared/schemas/bench';
 import { instruments, parts, partStatusEvents, toleranceProfiles, users } from './schema';
 import { seedStudies } from './seed-studies';
+import { seededRandom } from '@shared/random/seeded';
 
 export const DEMO_USERS = [
   { email: 'admin@lugbook.test', name: 'Avery Admin', role: 'admin' },
@@ -17,18 +18,6 @@ export const DEMO_USERS = [
 ] as const;
 
 export const DEMO_SUPPLIERS = ['Alvane Parts Co.', 'Brosk Electric Supply'] as const;
-
-/** A small deterministic PRNG (mulberry32) so the demo is the same on every machine. */
-export function seededRandom(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /** Seeds the demo into an empty database; returns false when there are users already. */
 /** `studies: false` leaves out the lots, sweeps, designs and jobs (the API tests need only the bench). */

@@ -3,22 +3,10 @@
 import { fitCoil, coilImpedance, type CoilPoint } from '@shared/analysis/coil';
 import { fitTaper, taperLawValue, type TaperPoint } from '@shared/analysis/taper';
 import { timeMedian, type BenchFigure } from './report';
-
-/** mulberry32 with Box–Muller normals: the same noisy data every run. */
-function normals(seed: number): () => number {
-  let a = seed >>> 0;
-  const uniform = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  return () => Math.sqrt(-2 * Math.log(1 - uniform())) * Math.cos(2 * Math.PI * uniform());
-}
+import { seededNormals } from '@shared/random/seeded';
 
 function taperFigure(): BenchFigure {
-  const g = normals(7);
+  const g = seededNormals(7);
   const total = 500_000;
   const points: TaperPoint[] = Array.from({ length: 300 }, (_, i) => {
     const x = i / 299;
@@ -44,7 +32,7 @@ function taperFigure(): BenchFigure {
 }
 
 function coilFigure(): BenchFigure {
-  const g = normals(11);
+  const g = seededNormals(11);
   const truth = { R: 8000, L: 4.4, C: 120e-12 }; // humbucker-like, common practice
   const frequencies = Array.from({ length: 400 }, (_, i) => 10 * 10 ** ((4 * i) / 399));
   const points: CoilPoint[] = frequencies.map((frequency) => {

@@ -4,21 +4,10 @@
 import { lotStatistics } from '@shared/analysis/lot-stats';
 import { parseValue } from '@shared/units/parse';
 import { timeMedian, type BenchFigure } from './report';
-
-/** Deterministic pseudo-random numbers (mulberry32), so runs are comparable. */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { seededRandom } from '@shared/random/seeded';
 
 function readings(n: number): Float64Array {
-  const r = rng(2024);
+  const r = seededRandom(2024);
   const x = new Float64Array(n);
   // A 500 kΩ lot with a roughly normal spread (sum of three uniforms), as a meter would read it.
   for (let i = 0; i < n; i++) x[i] = Math.round(500e3 * (1 + 0.05 * (r() + r() + r() - 1.5)) / 10) * 10;
@@ -39,7 +28,7 @@ export async function bench(): Promise<BenchFigure[]> {
     3,
   );
 
-  const r = rng(7);
+  const r = seededRandom(7);
   const forms = ['22n', '0,022 µF', '4k7', '470K', '6.2 kΩ', '1meg', '2.2e-8', '100pF', 'R47', '2.5 H'];
   const texts = Array.from({ length: 100_000 }, (_, i) => forms[i % forms.length]!);
   const plain = Array.from({ length: 100_000 }, () => String(r() * 1e6));

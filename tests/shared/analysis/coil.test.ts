@@ -3,6 +3,7 @@
 // /work/shared/reference/worked-examples.txt (values copied beside each check).
 import { beforeAll, describe, expect, it } from 'vitest';
 import { Ngspice } from '../../support/ngspice';
+import { seededNormals } from '@shared/random/seeded';
 import {
   apparentInductance,
   coilFlags,
@@ -46,22 +47,9 @@ async function sweep(p: { R: number; L: number; C: number; Rp?: number }, extra 
   return r.frequencies.map((frequency, i) => ({ frequency, re: (z[i] as { re: number }).re, im: (z[i] as { im: number }).im }));
 }
 
-/** mulberry32 with Box–Muller normals: repeatable noise. */
-function normals(seed: number): () => number {
-  let a = seed >>> 0;
-  const uniform = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  return () => Math.sqrt(-2 * Math.log(1 - uniform())) * Math.cos(2 * Math.PI * uniform());
-}
-
 /** 1 % multiplicative noise: |Z|·(1 + 0.01·g), phase + 0.01·g' rad (the same size in ln Z). */
 function noisy(points: { frequency: number; re: number; im: number }[], seed: number): CoilPoint[] {
-  const g = normals(seed);
+  const g = seededNormals(seed);
   return points.map((p) => ({
     frequency: p.frequency,
     magnitude: Math.hypot(p.re, p.im) * (1 + 0.01 * g()),

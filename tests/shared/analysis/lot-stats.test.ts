@@ -3,21 +3,10 @@ import fc from 'fast-check';
 import { mean as ssMean, median as ssMedian, sampleStandardDeviation, min as ssMin, max as ssMax } from 'simple-statistics';
 import { defaultBinEdgesPct, lotStatistics, matchSets, summaryStatistics } from '@shared/analysis/lot-stats';
 import { orderByKey, quantileSorted7, sortWithIndex } from '@shared/analysis/lot-sort';
-
-/** A deterministic pseudo-random generator (mulberry32) so failures can be reproduced. */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { seededRandom } from '@shared/random/seeded';
 
 function lot(n: number, seed: number, nominal = 500e3, spreadPct = 5): Float64Array {
-  const r = rng(seed);
+  const r = seededRandom(seed);
   const x = new Float64Array(n);
   for (let i = 0; i < n; i++) x[i] = nominal * (1 + (spreadPct / 100) * (r() + r() + r() - 1.5));
   return x;
@@ -102,7 +91,7 @@ describe('sortWithIndex (index carried in the low mantissa bits, then repaired)'
     );
   });
   it('on 100 000 quantised readings with many ties', () => {
-    const r = rng(11);
+    const r = seededRandom(11);
     const x = new Float64Array(100_000);
     for (let i = 0; i < x.length; i++) x[i] = Math.round(4700 * (1 + 0.02 * (r() - 0.5)) * 10) / 10;
     const { sorted, order } = sortWithIndex(x);

@@ -1,6 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { fitTaper, normaliseTaper, taperLawValue, type TaperLaw, type TaperPoint } from '@shared/analysis/taper';
+import { seededNormals } from '@shared/random/seeded';
 
 // Check values of the exponential ("log") law y = (b^x − 1)/(b − 1), b = (1/y_m − 1)², copied from
 // /work/shared/reference/worked-examples.txt (lines pot-exp-10, -15, -20, -85). Source of the law:
@@ -12,21 +13,8 @@ const HOLMES_CHECKS: { m: number; at: [number, number][] }[] = [
   { m: 0.85, at: [[0.5, 0.85]] },
 ];
 
-/** Small seeded PRNG (mulberry32) with Box–Muller normals, so that noisy cases are repeatable. */
-function normals(seed: number): () => number {
-  let a = seed >>> 0;
-  const uniform = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  return () => Math.sqrt(-2 * Math.log(1 - uniform())) * Math.cos(2 * Math.PI * uniform());
-}
-
 function synthetic(law: TaperLaw, m: number, n: number, total: number, noise?: { seed: number; rel: number; abs: number }): TaperPoint[] {
-  const g = noise ? normals(noise.seed) : () => 0;
+  const g = noise ? seededNormals(noise.seed) : () => 0;
   return Array.from({ length: n }, (_, i) => {
     const x = i / (n - 1);
     const y = taperLawValue(law, m, x);
