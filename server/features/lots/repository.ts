@@ -54,8 +54,15 @@ export function lotValues(sqlite: Database.Database, lotId: number): LotValues {
   return out;
 }
 
-/** Statistics of a lot's readings by the measurement engine (the same as POST /api/analysis/lot). */
-export function lotStats(lot: LotRow, data: LotValues, opts: { matchPct?: number; setSize?: number; withBinIndices?: boolean } = {}): LotStatistics | null {
+/**
+ * Statistics of a lot's readings by the measurement engine (the same as POST /api/analysis/lot).
+ * Matched sets cost a sort with indices; `sets: false` leaves them out where nobody shows them.
+ */
+export function lotStats(
+  lot: LotRow,
+  data: Pick<LotValues, 'values' | 'second'>,
+  opts: { matchPct?: number; setSize?: number; withBinIndices?: boolean; sets?: boolean } = {},
+): LotStatistics | null {
   if (data.values.length === 0) return null;
   const hasSecond = lot.secondLimit != null && data.second.some((v) => !Number.isNaN(v));
   return lotStatistics({
@@ -63,8 +70,7 @@ export function lotStats(lot: LotRow, data: LotValues, opts: { matchPct?: number
     nominal: lot.nominal,
     tolerancePct: lot.tolerancePct,
     ...(hasSecond ? { second: { values: data.second.map((v) => (Number.isNaN(v) ? 0 : v)), max: lot.secondLimit! } } : {}),
-    matchPct: opts.matchPct ?? 1,
-    setSize: opts.setSize ?? 2,
+    ...(opts.sets === false ? {} : { matchPct: opts.matchPct ?? 1, setSize: opts.setSize ?? 2 }),
     withBinIndices: opts.withBinIndices ?? false,
   });
 }

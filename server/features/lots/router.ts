@@ -209,7 +209,8 @@ export function lotRoutes(ctx: AppContext) {
           throw err;
         }
         const storedAt = performance.now();
-        const stats = lotStats(lot, lotValues(sqlite, lot.id));
+        // From the columns already in memory (a replace leaves exactly these rows); the lot page asks for sets itself.
+        const stats = lotStats(lot, data, { sets: false });
         const done = performance.now();
         return {
           lot: lotSummary(lot),
@@ -232,7 +233,7 @@ export function lotRoutes(ctx: AppContext) {
       if (lot.status !== 'open') throw conflict(`The lot was ${lot.status} already; an admin must reopen it first.`);
       const data = lotValues(sqlite, lot.id);
       if (data.values.length === 0) throw conflict('The lot has no readings yet.');
-      const stats = lotStats(lot, data)!;
+      const stats = lotStats(lot, data, { sets: false })!;
       db.transaction((tx) => {
         tx.update(lots).set({ status: body.status, dispositionReason: body.reason, disposedBy: user.id, disposedAt: Date.now() }).where(eq(lots.id, lot.id)).run();
         audit(tx, { userId: user.id, action: 'lot.disposition', entity: 'lot', entityId: lot.id, detail: { status: body.status, reason: body.reason, n: stats.n, cpk: stats.cpk } });
