@@ -16,7 +16,8 @@ import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/field';
 import { applyServerError } from '@/lib/form';
 import { useCreateReading, type CreatedReading, type Instrument, type Profile } from './api';
-import { chooseProfile, previewVerdict, type JudgedPart } from './profile-chooser';
+import { chooseProfile } from '@shared/analysis/profile-match';
+import { previewVerdict, type JudgedPart } from './profile-chooser';
 import { DEFAULT_QUANTITY, QUANTITY_EXAMPLES, QUANTITY_NAME, formatReading } from './words';
 
 const ReadingFormFields = z.object({

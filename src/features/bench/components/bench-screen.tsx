@@ -6,7 +6,7 @@ import { useRef, useState, type FormEvent } from 'react';
 import { Link } from 'react-router-dom';
 import type { Part } from '@shared/schemas/parts';
 import { useInstruments, useProfiles } from '@/components/readings/api';
-import { chooseProfile } from '@/components/readings/profile-chooser';
+import { chooseProfile } from '@shared/analysis/profile-match';
 import { ReadingForm } from '@/components/readings/reading-form';
 import { SafetyNote } from '@/components/readings/safety-note';
 import { Alert, Loading } from '@/components/ui/alert';

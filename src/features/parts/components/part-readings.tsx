@@ -1,6 +1,6 @@
 import { useInstruments, useProfiles, type Reading } from '@/components/readings/api';
 import { OverdueMark } from '@/components/readings/overdue-mark';
-import { chooseProfile } from '@/components/readings/profile-chooser';
+import { chooseProfile } from '@shared/analysis/profile-match';
 import { ReadingForm } from '@/components/readings/reading-form';
 import { SafetyNote } from '@/components/readings/safety-note';
 import { QUANTITY_NAME, formatReading } from '@/components/readings/words';

@@ -1,6 +1,6 @@
 import type { PartDetail } from '../api/get-part';
 import { useProfiles } from '@/components/readings/api';
-import { chooseProfile } from '@/components/readings/profile-chooser';
+import { chooseProfile } from '@shared/analysis/profile-match';
 import { Alert, Loading } from '@/components/ui/alert';
 import { useCan } from '@/lib/auth';
 import { formatDateTime } from '@/lib/format';
