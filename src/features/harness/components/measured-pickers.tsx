@@ -5,7 +5,7 @@ import { useId } from 'react';
 import { formatValue } from '@shared/units/format';
 import { Alert } from '@/components/ui/alert';
 import { formatDate } from '@/lib/format';
-import { MEASURED_LIMIT, useMeasuredPickups, useMeasuredPots, type MeasuredPickup, type MeasuredPot } from '../api/get-measured-parts';
+import { MEASURED_LIMIT, useMeasuredPickups, useMeasuredPots, type MeasuredList, type MeasuredPickup, type MeasuredPot } from '../api/get-measured-parts';
 import { LAW_LABEL } from './design-state';
 
 const SELECT =
@@ -25,13 +25,27 @@ export const pickupSummary = (p: MeasuredPickup) =>
 export const potSummary = (p: MeasuredPot) =>
   `${p.part.label} · ${formatValue(p.taper.total, 'Ω')} · ${p.taper.law === 'linear' ? LAW_LABEL.linear.toLowerCase() : `${LAW_LABEL[p.taper.law].toLowerCase()}, ${Number((p.taper.m * 100).toPrecision(3))} % at mid`}`;
 
-export function MeasuredPickupPicker({ onPick }: { onPick: (p: MeasuredPickup) => void }) {
+/** One chooser of measured parts: the newest fit of each, summarised in a line. */
+function MeasuredPicker<T extends { part: { id: number }; fit: { createdAt: number } }>({
+  label,
+  list,
+  summary,
+  choose,
+  none,
+  onPick,
+}: {
+  label: string;
+  list: MeasuredList<T>;
+  summary: (item: T) => string;
+  choose: string;
+  none: string;
+  onPick: (item: T) => void;
+}) {
   const id = useId();
-  const list = useMeasuredPickups(true);
   return (
     <div className="space-y-1">
       <label htmlFor={id} className="block text-sm font-medium">
-        Measured pickup (latest coil fit)
+        {label}
       </label>
       <select
         id={id}
@@ -43,44 +57,40 @@ export function MeasuredPickupPicker({ onPick }: { onPick: (p: MeasuredPickup) =
           if (item) onPick(item);
         }}
       >
-        <option value="">{list.pending ? 'Loading…' : list.items.length ? 'Choose a pickup…' : 'None available'}</option>
+        <option value="">{list.pending ? 'Loading…' : list.items.length ? choose : 'None available'}</option>
         {list.items.map((p) => (
           <option key={p.part.id} value={p.part.id}>
-            {pickupSummary(p)} (fit {formatDate(p.fit.createdAt)})
+            {summary(p)} (fit {formatDate(p.fit.createdAt)})
           </option>
         ))}
       </select>
-      <Status {...list} count={list.items.length} none="No pickup has a coil fit yet. Upload an impedance sweep on the pickup's page first." />
+      <Status {...list} count={list.items.length} none={none} />
     </div>
   );
 }
 
-export function MeasuredPotPicker({ which, onPick }: { which: 'volume' | 'tone'; onPick: (p: MeasuredPot) => void }) {
-  const id = useId();
-  const list = useMeasuredPots(true);
+export function MeasuredPickupPicker({ onPick }: { onPick: (p: MeasuredPickup) => void }) {
   return (
-    <div className="space-y-1">
-      <label htmlFor={id} className="block text-sm font-medium">
-        Measured pot for the {which} (latest taper fit)
-      </label>
-      <select
-        id={id}
-        className={SELECT}
-        value=""
-        disabled={list.items.length === 0}
-        onChange={(e) => {
-          const item = list.items.find((p) => String(p.part.id) === e.currentTarget.value);
-          if (item) onPick(item);
-        }}
-      >
-        <option value="">{list.pending ? 'Loading…' : list.items.length ? 'Choose a pot…' : 'None available'}</option>
-        {list.items.map((p) => (
-          <option key={p.part.id} value={p.part.id}>
-            {potSummary(p)} (fit {formatDate(p.fit.createdAt)})
-          </option>
-        ))}
-      </select>
-      <Status {...list} count={list.items.length} none="No pot has a taper fit yet. Upload a rotation sweep on the pot's page first." />
-    </div>
+    <MeasuredPicker
+      label="Measured pickup (latest coil fit)"
+      list={useMeasuredPickups(true)}
+      summary={pickupSummary}
+      choose="Choose a pickup…"
+      none="No pickup has a coil fit yet. Upload an impedance sweep on the pickup's page first."
+      onPick={onPick}
+    />
+  );
+}
+
+export function MeasuredPotPicker({ which, onPick }: { which: 'volume' | 'tone'; onPick: (p: MeasuredPot) => void }) {
+  return (
+    <MeasuredPicker
+      label={`Measured pot for the ${which} (latest taper fit)`}
+      list={useMeasuredPots(true)}
+      summary={potSummary}
+      choose="Choose a pot…"
+      none="No pot has a taper fit yet. Upload a rotation sweep on the pot's page first."
+      onPick={onPick}
+    />
   );
 }
