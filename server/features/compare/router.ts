@@ -4,12 +4,12 @@
 import { desc, eq } from 'drizzle-orm';
 import Papa from 'papaparse';
 import { audit } from '@server/audit';
+import { mayChangeOwned } from '@server/auth/ownership';
 import type { AppContext } from '@server/context';
 import { comparisons, users } from '@server/db/schema';
 import { forbidden, notFound } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
 import { compareTapers, groupOf } from '@shared/analysis/compare';
-import { roleCan } from '@shared/auth/capabilities';
 import { IdParamsSchema } from '@shared/schemas/common';
 import { CompareTapersRequestSchema, ComparisonInputSchema, ComparisonUpdateSchema, GroupBySchema, type CompareSelection } from '@shared/schemas/compare';
 import { compareCandidates, resolveSelection } from './repository';
@@ -57,7 +57,6 @@ export function compareRoutes(ctx: AppContext) {
     if (!row) throw notFound('That comparison');
     return row;
   };
-  const mayChange = (row: { ownerId: string | null }, user: { id: string; role: Parameters<typeof roleCan>[0] }) => row.ownerId === user.id || roleCan(user.role, 'qa');
 
   saved.get('/', { handle: () => ({ comparisons: withOwner().orderBy(desc(comparisons.id)).all() }) });
   saved.get('/:id', { schemas: { params: IdParamsSchema }, handle: ({ params }) => mustFind(params.id) });
@@ -83,7 +82,7 @@ export function compareRoutes(ctx: AppContext) {
     schemas: { params: IdParamsSchema, body: ComparisonUpdateSchema },
     handle: ({ params, body, user }) => {
       const before = mustFind(params.id);
-      if (!mayChange(before, user)) throw forbidden("Only the comparison's owner (or qa/admin) may change it.");
+      if (!mayChangeOwned(before.ownerId, user)) throw forbidden("Only the comparison's owner (or qa/admin) may change it.");
       db.transaction((tx) => {
         tx.update(comparisons)
           .set({
@@ -104,7 +103,7 @@ export function compareRoutes(ctx: AppContext) {
     schemas: { params: IdParamsSchema },
     handle: ({ params, user }) => {
       const before = mustFind(params.id);
-      if (!mayChange(before, user)) throw forbidden("Only the comparison's owner (or qa/admin) may delete it.");
+      if (!mayChangeOwned(before.ownerId, user)) throw forbidden("Only the comparison's owner (or qa/admin) may delete it.");
       db.transaction((tx) => {
         tx.delete(comparisons).where(eq(comparisons.id, params.id)).run();
         audit(tx, { userId: user.id, action: 'comparison.delete', entity: 'comparison', entityId: params.id, detail: { name: before.name } });

@@ -1,5 +1,6 @@
 import { desc, eq } from 'drizzle-orm';
 import { audit } from '@server/audit';
+import { mayChangeOwned } from '@server/auth/ownership';
 import type { AppContext } from '@server/context';
 import { harnesses } from '@server/db/schema';
 import { forbidden, notFound, unprocessable } from '@server/http/errors';
@@ -10,7 +11,6 @@ import { DEFAULT_HARNESS_VALUES, getPreset, HARNESS_PRESETS, HARNESS_VALUE_FIELD
 import { toSpiceNetlist } from '@shared/circuit/spice';
 import { IdParamsSchema } from '@shared/schemas/common';
 import { HarnessDesignInputSchema, NetlistRequestSchema, SimulateRequestSchema, SweepRequestSchema, type HarnessValuesInput } from '@shared/schemas/harness';
-import { roleCan } from '@shared/auth/capabilities';
 
 const DIAL = [0, 1, 2, 3, 4, 5, 6, 7, 8, 9, 10];
 
@@ -98,7 +98,7 @@ export function harnessRoutes(ctx: AppContext) {
     schemas: { params: IdParamsSchema, body: HarnessDesignInputSchema },
     handle: ({ params, body, user }) => {
       const before = mustFind(params.id);
-      if (before.ownerId !== user.id && !roleCan(user.role, 'qa')) throw forbidden('Only the design\'s owner (or qa/admin) may change it.');
+      if (!mayChangeOwned(before.ownerId, user)) throw forbidden('Only the design\'s owner (or qa/admin) may change it.');
       return db.transaction((tx) => {
         const row = tx.update(harnesses).set({ ...body, updatedAt: Date.now() }).where(eq(harnesses.id, params.id)).returning().get();
         audit(tx, { userId: user.id, action: 'harness.update', entity: 'harness', entityId: row.id, detail: { before: { name: before.name, preset: before.preset, values: before.values }, after: body } });
@@ -111,7 +111,7 @@ export function harnessRoutes(ctx: AppContext) {
     schemas: { params: IdParamsSchema },
     handle: ({ params, user }) => {
       const before = mustFind(params.id);
-      if (before.ownerId !== user.id && !roleCan(user.role, 'qa')) throw forbidden('Only the design\'s owner (or qa/admin) may delete it.');
+      if (!mayChangeOwned(before.ownerId, user)) throw forbidden('Only the design\'s owner (or qa/admin) may delete it.');
       db.transaction((tx) => {
         tx.delete(harnesses).where(eq(harnesses.id, params.id)).run();
         audit(tx, { userId: user.id, action: 'harness.delete', entity: 'harness', entityId: params.id, detail: { name: before.name } });

@@ -133,7 +133,9 @@ describe('harness properties', () => {
         const b = solve(compileHarness(swapped), { volume, tone }, FREQS);
         for (let i = 0; i < FREQS.length; i++) {
           const mag = Math.hypot(a.re[i]!, a.im[i]!);
-          expect(Math.hypot(a.re[i]! - b.re[i]!, a.im[i]! - b.im[i]!)).toBeLessThanOrEqual(1e-9 * mag + 1e-300);
+          // Floor 1e-12 (−240 dB): with the knob within a hair of 0 the two wirings clamp their
+          // pot halves at the 1 mΩ minimum at slightly different points, leaving ~1e-17 V.
+          expect(Math.hypot(a.re[i]! - b.re[i]!, a.im[i]! - b.im[i]!)).toBeLessThanOrEqual(1e-9 * mag + 1e-12);
         }
       }),
       { numRuns: 100 },
