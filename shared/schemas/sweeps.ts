@@ -22,9 +22,12 @@ const jsonField = <T extends z.ZodType>(schema: T) =>
     })
     .pipe(schema);
 
+/** The column mapping as a multipart field (JSON text), for sweep and lot uploads alike. */
+export const MappingFieldSchema = jsonField(ExplicitMappingSchema);
+
 export const SweepUploadFieldsSchema = z.object({
   kind: SweepKindSchema,
-  mapping: jsonField(ExplicitMappingSchema).optional(),
+  mapping: MappingFieldSchema.optional(),
   /** Full mechanical rotation of the pot when the file gives degrees; default 300°. */
   fullRotationDeg: z.coerce.number().positive().max(3600).optional(),
 });

@@ -1,7 +1,7 @@
 import type Database from 'better-sqlite3';
 import { eq, sql } from 'drizzle-orm';
 import type { DbLike } from '@server/db/client';
-import { lotReadings, lots, lotWatchers, users } from '@server/db/schema';
+import { lots, lotWatchers, users } from '@server/db/schema';
 import { lotStatistics, type LotStatistics } from '@shared/analysis/lot-stats';
 
 export type LotRow = typeof lots.$inferSelect;

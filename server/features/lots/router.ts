@@ -6,15 +6,16 @@ import Papa from 'papaparse';
 import { z } from 'zod';
 import { audit } from '@server/audit';
 import type { AppContext } from '@server/context';
-import { lotReadings, lots, lotWatchers, users } from '@server/db/schema';
+import { lots, lotWatchers, users } from '@server/db/schema';
 import { conflict, HttpError, notFound, unprocessable } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
+import { fileRefused } from '@server/uploads/refusal';
 import { contentPath } from '@server/uploads/store';
 import { decodeMarking } from '@shared/markings/decode';
 import { MarkingError } from '@shared/markings/tolerance-letters';
 import { IdParamsSchema } from '@shared/schemas/common';
 import { LOT_KINDS, CreateLotInputSchema, DispositionInputSchema, LotStatsQuerySchema, PromoteInputSchema, ReopenInputSchema, WatchersInputSchema } from '@shared/schemas/lots';
-import { ExplicitMappingSchema } from '@shared/schemas/sweeps';
+import { MappingFieldSchema } from '@shared/schemas/sweeps';
 import { formatValue } from '@shared/units/format';
 import { findLot, listLots, lotStats, lotValues, lotWatcherRows, type LotRow } from './repository';
 import { readLotFile } from './read-upload';
@@ -30,18 +31,7 @@ const lotKind = (lot: LotRow) => lot.kind as LotKind;
 
 const UploadFields = z.object({
   replace: z.enum(['true', 'false']).default('false').transform((v) => v === 'true'),
-  mapping: z
-    .string()
-    .transform((t, c) => {
-      try {
-        return JSON.parse(t) as unknown;
-      } catch {
-        c.addIssue({ code: 'custom', message: 'Must be JSON.' });
-        return z.NEVER;
-      }
-    })
-    .pipe(ExplicitMappingSchema)
-    .optional(),
+  mapping: MappingFieldSchema.optional(),
 });
 
 function lotSummary(lot: LotRow) {
@@ -55,6 +45,12 @@ export function lotRoutes(ctx: AppContext) {
   fs.mkdirSync(tmpDir, { recursive: true });
   // Lot files go to a temporary file on disk and are read back as a stream.
   const lotUpload = multer({ dest: tmpDir, limits: { fileSize: MAX_LOT_BYTES, files: 1, fields: 10, parts: 12 } }).single('file');
+  /** Watchers must be members; the field names where the stranger was given. */
+  const assertMembers = (ids: string[], field: string) => {
+    const known = new Set(db.select({ id: users.id }).from(users).all().map((u) => u.id));
+    const stranger = ids.find((id) => !known.has(id));
+    if (stranger) throw unprocessable('A watcher is not a member.', { [field]: `Unknown member ${stranger}.` });
+  };
   const mustFind = (id: number) => {
     const lot = findLot(db, id);
     if (!lot) throw notFound('That lot');
@@ -81,9 +77,7 @@ export function lotRoutes(ctx: AppContext) {
       if (tolerancePct == null) throw unprocessable('Give the tolerance, or a marking with a tolerance letter.', { tolerancePct: 'Required without a tolerance letter.' });
       const code = body.code ?? `LOT-${new Date().toISOString().slice(0, 10).replace(/-/g, '')}-${(db.select({ n: sql<number>`count(*)` }).from(lots).get()?.n ?? 0) + 1}`;
       if (db.select().from(lots).where(eq(lots.code, code)).get()) throw conflict(`A lot with code ${code} exists already.`);
-      const known = new Set(db.select({ id: users.id }).from(users).all().map((u) => u.id));
-      const unknownWatcher = body.watcherIds.find((id) => !known.has(id));
-      if (unknownWatcher) throw unprocessable('A watcher is not a member.', { watcherIds: `Unknown member ${unknownWatcher}.` });
+      assertMembers(body.watcherIds, 'watcherIds');
       return db.transaction((tx) => {
         const lot = tx
           .insert(lots)
@@ -174,13 +168,7 @@ export function lotRoutes(ctx: AppContext) {
         if (existing > 0 && !body.replace) throw conflict(`The lot has ${existing} readings already; send replace=true to replace them.`);
         const started = performance.now();
         const read = await readLotFile(file.path, { quantity: QUANTITY[lotKind(lot)], mapping: body.mapping });
-        if (!read.ok) {
-          const first = read.issues[0];
-          const message = read.needsMapping
-            ? 'The columns of this file were not recognised; choose which column holds what.'
-            : `The file was refused, nothing was stored: ${first?.message ?? 'it could not be read.'}`;
-          throw new HttpError(422, read.needsMapping ? 'needs_mapping' : 'invalid_file', message, { file: message }, { issues: read.issues, ...(read.needsMapping ? { details: { needsMapping: read.needsMapping } } : {}) });
-        }
+        if (!read.ok) throw fileRefused(read);
         const { data } = read;
         const parsedAt = performance.now();
         const stored = contentPath(ctx.config.uploadsDir, data.contentHash);
@@ -274,9 +262,7 @@ export function lotRoutes(ctx: AppContext) {
     schemas: { params: IdParamsSchema, body: WatchersInputSchema },
     handle: ({ params, body, user }) => {
       const lot = mustFind(params.id);
-      const known = new Set(db.select({ id: users.id }).from(users).all().map((u) => u.id));
-      const unknownWatcher = body.userIds.find((id) => !known.has(id));
-      if (unknownWatcher) throw unprocessable('A watcher is not a member.', { userIds: `Unknown member ${unknownWatcher}.` });
+      assertMembers(body.userIds, 'userIds');
       db.transaction((tx) => {
         tx.delete(lotWatchers).where(eq(lotWatchers.lotId, lot.id)).run();
         for (const userId of new Set(body.userIds)) tx.insert(lotWatchers).values({ lotId: lot.id, userId }).run();

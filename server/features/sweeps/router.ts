@@ -4,8 +4,9 @@ import { audit } from '@server/audit';
 import type { AppContext } from '@server/context';
 import { attachments, fits, sweeps } from '@server/db/schema';
 import { findPart } from '@server/features/parts/repository';
-import { HttpError, notFound, unprocessable } from '@server/http/errors';
+import { notFound, unprocessable } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
+import { fileRefused } from '@server/uploads/refusal';
 import { checkFileType, singleFileUpload, withStoredFile } from '@server/uploads/store';
 import { IdParamsSchema } from '@shared/schemas/common';
 import { SweepUploadFieldsSchema } from '@shared/schemas/sweeps';
@@ -45,16 +46,7 @@ export function sweepRoutes(ctx: AppContext) {
       const { mime } = checkFileType(req.file, 'table');
       const file = req.file!;
       const parsed = parseSweepCsv(file.buffer.toString('utf8'), body.kind, { mapping: body.mapping });
-      if (!parsed.ok) {
-        const first = parsed.issues[0];
-        const message = parsed.needsMapping
-          ? 'The columns of this file were not recognised; choose which column holds what.'
-          : `The file was refused, nothing was stored: ${first?.message ?? 'it could not be read.'}${parsed.issues.length > 1 ? ` (${parsed.issues.length} problems listed)` : ''}`;
-        throw new HttpError(422, parsed.needsMapping ? 'needs_mapping' : 'invalid_file', message, { file: message }, {
-          issues: parsed.issues,
-          ...(parsed.needsMapping ? { details: { needsMapping: parsed.needsMapping } } : {}),
-        });
-      }
+      if (!parsed.ok) throw fileRefused(parsed);
       const stored = toStoredPoints(body.kind, parsed.points, parsed.kind === 'taper' ? parsed.rotationUnit : 'percent', body.fullRotationDeg ?? DEFAULT_FULL_ROTATION_DEG);
       try {
         return withStoredFile(ctx.config.uploadsDir, file.buffer, (content) =>
