@@ -16,7 +16,7 @@ export interface Valid<S extends Schemas> {
 }
 
 declare global {
-  // eslint-disable-next-line @typescript-eslint/no-namespace
+  // eslint-disable-next-line @typescript-eslint/no-namespace -- Express declares its Request type in a global namespace; augmenting it needs one
   namespace Express {
     interface Request {
       /** The parsed, validated params, query and body (set by `validate`). */

@@ -146,6 +146,8 @@ export function BenchScreen() {
                 <Alert>{(profiles.error ?? instruments.error)?.message}</Alert>
               ) : (
                 <div
+                  // Catches Escape bubbling from the reading form's fields (back to the part search).
+                  role="presentation"
                   onKeyDown={(e) => {
                     if (e.key === 'Escape') {
                       e.preventDefault();

@@ -70,7 +70,7 @@ export function CompareScreen() {
   const pickup = pickupModel(settings.pickup, candidates.data?.pickups ?? []);
   const loaded = useMemo(
     () => (data && pickup ? loadedTapers(data.pots, pickup.model, settings) : []),
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- the pickup enters by its four model values, so an equal model fetched again does not recompute
     [data, pickup?.model.R, pickup?.model.L, pickup?.model.C, pickup?.model.Rp, settings.cableLength, settings.ampR],
   );
 

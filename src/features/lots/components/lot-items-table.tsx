@@ -40,7 +40,7 @@ interface Props {
 const col = createColumnHelper<number>();
 
 declare module '@tanstack/react-table' {
-  // eslint-disable-next-line @typescript-eslint/no-unused-vars
+  // eslint-disable-next-line @typescript-eslint/no-unused-vars -- the merged declaration must repeat the library's two type parameters
   interface ColumnMeta<TData, TValue> {
     numeric?: boolean;
     /** A fixed column width (CSS), for the fixed table layout. */
@@ -272,6 +272,8 @@ export function LotItemsTable({ items, stats, nominal, unit, secondQuantity, fil
         // the rest of a long page.
         style={{ contain: 'strict', height: `${Math.min(34 * 16, (rows.length + 1) * ROW_HEIGHT + 8)}px` }}
         className="relative overflow-auto rounded-lg border border-paper-edge bg-paper-bright"
+        // A scrolling region is reached by keyboard (WCAG 2.1.1), so it is a labelled, focusable region.
+        role="region"
         tabIndex={0}
         aria-label="Items of the lot (scrolls)"
       >
