@@ -126,7 +126,7 @@ function seedDesignsAndJobs(s: Seeders): void {
     .insert(harnesses)
     .values([
       { name: 'Keeps its treble at low volume', preset: 'bleed-cap-parallel-r', values: { bleedC: 1.2e-9, bleedR: 150e3, cableLength: 4.5 }, notes: 'For players who ride the volume knob.', ownerId: s.users.tech },
-      { name: 'Warm neck position, 50s wiring', preset: 'interactive-tone', values: { toneC: 15e-9, volumeR: 250e3, toneR: 250e3 }, ownerId: s.users.tech },
+      { name: 'Warm neck position, tone from the volume wiper', preset: 'interactive-tone', values: { toneC: 15e-9, volumeR: 250e3, toneR: 250e3 }, ownerId: s.users.tech },
       { name: 'Tone knob with a usable bottom', preset: 'tone-floor-resistor', values: { floorR: 8.2e3 }, ownerId: s.users.qa },
     ])
     .returning()

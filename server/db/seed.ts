@@ -11,7 +11,7 @@ import { seedStudies } from './seed-studies';
 import { seededRandom } from '@shared/random/seeded';
 
 export const DEMO_USERS = [
-  { email: 'admin@lugbook.test', name: 'Avery Admin', role: 'admin' },
+  { email: 'admin@lugbook.test', name: 'Noor Admin', role: 'admin' },
   { email: 'qa@lugbook.test', name: 'Quinn Inspector', role: 'qa' },
   { email: 'tech@lugbook.test', name: 'Tam Bench', role: 'tech' },
   { email: 'viewer@lugbook.test', name: 'Vic Reader', role: 'viewer' },

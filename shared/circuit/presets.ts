@@ -150,7 +150,7 @@ export const HARNESS_PRESETS: readonly HarnessPreset[] = [
   preset(
     'interactive-tone',
     'Interactive tone',
-    'As the independent tone, but the tone branch starts at the volume wiper (the output), so the volume setting changes what the tone control does and the other way round (the trade calls this "50s wiring").',
+    'As the independent tone, but the tone branch starts at the volume wiper (the output), so the volume setting changes what the tone control does and the other way round; the tone capacitor loads the output rather than the pickup.',
     (v) => plainTone(v, OUTPUT),
   ),
   preset(
