@@ -1,7 +1,7 @@
 // The invented demo scenario, second half: lots of pots from two suppliers with rotation sweeps
 // (for Compare), capacitor lots (one of 100,000 items, for the Lots screen), pickups with impedance
 // sweeps, harness designs and jobs. All values are made up around typical trade figures
-// (common practice, no published source).
+// — common practice (no published source).
 import type Database from 'better-sqlite3';
 import { eq } from 'drizzle-orm';
 import type { Tx } from '@server/db/client';

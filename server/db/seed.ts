@@ -1,5 +1,5 @@
 // The invented demo scenario: a small repair workshop with a parts bench and a harness line.
-// Every name here is made up; values are typical of the trade (common practice).
+// Every name here is made up; values are typical of the trade — common practice (no published source).
 import { sql } from 'drizzle-orm';
 import { hashPassword } from '@server/auth/password';
 import { newId } from '@server/auth/tokens';

@@ -1,4 +1,4 @@
-// Potentiometer taper fit (COMPUTATION.md §3).
+// Potentiometer taper fit (docs/computation.md §3).
 //
 // Readings of the resistance from lug 1 to the wiper against rotation are normalised to
 // x = rotation fraction, y = R1W / R13 and compared with four laws, each with one parameter m = y(0.5)
@@ -11,7 +11,7 @@
 //    Worked out here: 1 − f_{1−m}(1 − x) = (a^x − 1)/(a − 1) with the same a = ((1 − m)/m)², i.e. it is
 //    the same exponential formula with m above one half (Holmes' "anti-log" case, y_m ≈ 0.85);
 //  - two-segment: two straight tracks meeting at (0.5, m), as many carbon audio tracks are made
-//    (common practice, no published source).
+//    — common practice (no published source).
 // Each law is fitted by least squares over m alone: a bounded one-dimensional minimisation (coarse
 // scan, then Brent's method: R. P. Brent, "Algorithms for Minimization without Derivatives", 1973,
 // ch. 5). The two-segment law is linear in m, so its fit is closed-form.
@@ -40,7 +40,7 @@ export interface TaperProfile {
 export interface TaperInput {
   points: TaperPoint[];
   rotationUnit: 'deg' | 'percent';
-  /** Full mechanical rotation in degrees; default 300 (common practice, no published source). */
+  /** Full mechanical rotation in degrees; default 300 — common practice (no published source). */
   fullRotationDeg?: number;
   /** R13 as measured, Ω. */
   total?: number;

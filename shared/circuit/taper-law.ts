@@ -1,6 +1,6 @@
 // Potentiometer laws for the harness engine: the fraction y of the track resistance between the
 // wiper and the law's reference end at rotation x (0–1). Kept here, apart from shared/analysis, so
-// the engine has no dependency on the taper-fit code; the formulas are the ones of COMPUTATION.md §3.
+// the engine has no dependency on the taper-fit code; the formulas are the ones of docs/computation.md §3.
 
 export type TaperLaw =
   | { kind: 'linear' }
@@ -29,10 +29,10 @@ export function lawValue(law: TaperLaw, x: number): number {
     case 'audio':
       return audio(law.m, r);
     case 'reverse':
-      // Mirror image of the audio law (COMPUTATION.md §3): y = 1 − f_audio(1 − x).
+      // Mirror image of the audio law (docs/computation.md §3): y = 1 − f_audio(1 − x).
       return 1 - audio(law.m, 1 - r);
     case 'two-segment':
-      // Two straight tracks (0,0)–(0.5,m)–(1,1), as many carbon audio pots are made (COMPUTATION.md §3).
+      // Two straight tracks (0,0)–(0.5,m)–(1,1), as many carbon audio pots are made (docs/computation.md §3).
       return r <= 0.5 ? 2 * law.m * r : law.m + (1 - law.m) * 2 * (r - 0.5);
   }
 }

@@ -105,7 +105,7 @@ describe('curves on a common grid', () => {
 });
 
 describe('fitted law → harness engine law', () => {
-  it('gives the same y(x) for every law (two independent implementations of COMPUTATION.md §3)', () => {
+  it('gives the same y(x) for every law (two independent implementations of docs/computation.md §3)', () => {
     const cases: [TaperLaw, number][] = [
       ['linear', 0.5],
       ['audio', 0.15],

@@ -120,7 +120,7 @@ describe('harness properties', () => {
   });
 
   it('a reverse-law pot wired end for end at 10 − x is the audio-law pot at x', () => {
-    // y_reverse(1 − x) = 1 − y_audio(x) (COMPUTATION.md §3), so the two halves simply swap ends.
+    // y_reverse(1 − x) = 1 − y_audio(x) (docs/computation.md §3), so the two halves simply swap ends.
     fc.assert(
       fc.property(preset, values, knob, knob, fc.double({ min: 0.05, max: 0.45, noNaN: true }), (p, v, volume, tone, m) => {
         const audio = p.build({ ...v, volumeLaw: { kind: 'audio', m } });

@@ -1,4 +1,4 @@
-// Compare (DESIGN.md scenario 5): "how do the pots of these lots really behave, and what does the
+// Compare (docs/screens.md, Compare): "how do the pots of these lots really behave, and what does the
 // player hear?" Opens on every pot with a sweep, grouped by lot, so the study starts at once.
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';

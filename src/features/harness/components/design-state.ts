@@ -173,7 +173,7 @@ export function designReducer(state: DesignState, action: DesignAction): DesignS
     case 'law-kind': {
       const midKey = `${action.key}.m`;
       const mid = parseMid(state.texts[midKey] ?? '');
-      // Switching to a curved law from linear starts at the usual 15 % (common practice).
+      // Switching to a curved law from linear starts at the usual 15 % — common practice (no published source).
       const m = action.kind === 'linear' ? 0.5 : mid.ok && mid.value !== 0.5 ? mid.value : action.kind === 'reverse' ? 0.85 : 0.15;
       const law = lawFromMid(action.kind, m);
       return {

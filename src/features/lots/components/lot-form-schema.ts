@@ -27,7 +27,7 @@ export const LOT_FORM_FIELDS = ['code', 'kind', 'nominal', 'tolerancePct', 'supp
 export const LOT_KIND_LABEL: Record<LotKind, string> = { capacitor: 'Capacitors', pot: 'Pots', resistor: 'Resistors' };
 export const LOT_UNIT: Record<LotKind, string> = { capacitor: 'F', pot: 'Ω', resistor: 'Ω' };
 
-/** Second quantities that make sense for each kind of lot (COMPUTATION.md §5). */
+/** Second quantities that make sense for each kind of lot (docs/computation.md §5). */
 export const SECOND_CHOICES: Record<LotKind, { value: SecondQuantity; label: string; hint: string }[]> = {
   capacitor: [
     { value: 'dissipation', label: 'Dissipation factor D (max)', hint: 'A fraction or a percentage: 0.01 or 1 %' },
