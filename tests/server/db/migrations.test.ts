@@ -11,7 +11,7 @@ import { afterAll, describe, expect, test } from 'vitest';
 import { createContext } from '@server/bootstrap';
 import { applyMigrations, MIGRATIONS_DIR, openDatabase } from '@server/db/client';
 import * as schema from '@server/db/schema';
-import { seedDemo } from '@server/db/seed';
+import { seedDemo } from '@server/demo/seed';
 import { lawValue, type TaperLaw } from '@shared/taper/law';
 
 const dirs: string[] = [];

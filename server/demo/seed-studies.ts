@@ -11,7 +11,7 @@ import { insertSweep } from '@server/features/sweeps/store';
 import { setPartStatus } from '@server/features/parts/repository';
 import { coilImpedance } from '@shared/analysis/coil';
 import { taperLawValue, type TaperLawKind } from '@shared/taper/law';
-import { harnesses, jobParts, jobs, lots, lotWatchers, parts, partStatusEvents } from './schema';
+import { harnesses, jobParts, jobs, lots, lotWatchers, parts, partStatusEvents } from '@server/db/schema';
 
 interface Seeders {
   tx: Tx;
