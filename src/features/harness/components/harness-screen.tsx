@@ -4,7 +4,7 @@
 import { useCallback, useMemo, useReducer, useRef, useState } from 'react';
 import type uPlot from 'uplot';
 import { gridCurve } from '@shared/circuit/metrics';
-import type { Knobs } from '@shared/circuit/netlist';
+import type { VolumeToneKnobs as Knobs } from '@shared/circuit/netlist';
 import { HARNESS_PRESETS, type HarnessPresetId } from '@shared/circuit/presets';
 import { downloadPng } from '@/components/charts/plot';
 import { Alert } from '@/components/ui/alert';
