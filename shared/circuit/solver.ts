@@ -96,6 +96,8 @@ export interface CompiledHarness {
   readonly groups: readonly string[];
   /** The pickup each source belongs to (its `group`, else its own id), by source index. */
   readonly pickupOf: readonly string[];
+  /** @internal resistors and capacitors by part id, for setPartValue: node indices and the stamped value */
+  readonly fixedParts: Map<string, { kind: 'resistor' | 'capacitor'; ia: number; ib: number; value: number }>;
   /** @internal dense scratch of the pivoting path (right-hand side of group g, node i at g·n + i) */
   readonly are: Float64Array;
   readonly aim: Float64Array;
@@ -242,13 +244,16 @@ export function compileHarness(netlist: Netlist): CompiledHarness {
   const sources: CompiledSource[] = [];
   const groups: string[] = [];
   const pickupOf: string[] = [];
+  const fixedParts: CompiledHarness['fixedParts'] = new Map();
   for (const p of netlist.parts) {
     switch (p.kind) {
       case 'resistor':
         stampReal(g0, n, idx(p.a), idx(p.b), 1 / p.R);
+        fixedParts.set(p.id, { kind: 'resistor', ia: idx(p.a), ib: idx(p.b), value: p.R });
         break;
       case 'capacitor':
         stampReal(cap, n, idx(p.a), idx(p.b), p.C);
+        fixedParts.set(p.id, { kind: 'capacitor', ia: idx(p.a), ib: idx(p.b), value: p.C });
         break;
       case 'inductor':
         stampReal(invL, n, idx(p.a), idx(p.b), 1 / p.L);
@@ -335,6 +340,7 @@ export function compileHarness(netlist: Netlist): CompiledHarness {
     sources,
     groups,
     pickupOf,
+    fixedParts,
     are: new Float64Array(n * n),
     aim: new Float64Array(n * n),
     bre: new Float64Array(groups.length * n),
@@ -803,4 +809,26 @@ export function solveGroups(
   prepareFrequencies(compiled, frequencies);
   solvePrepared(compiled, total.re, total.im, 0, out);
   return { total, groups: out.re.map((re, g) => ({ re, im: out.im[g]! })) };
+}
+
+/**
+ * Changes the value of a resistor (Ω) or capacitor (F) of a compiled harness in place, without
+ * compiling again (the structure is unchanged; used by the treble-bleed finder). The next solve
+ * rebuilds the knob-independent part of the system.
+ */
+export function setPartValue(c: CompiledHarness, partId: string, value: number): void {
+  const part = c.fixedParts.get(partId);
+  if (!part) throw new Error(`setPartValue: no resistor or capacitor "${partId}"`);
+  if (!(Number.isFinite(value) && value > 0)) throw new Error(`setPartValue: ${partId} must be positive (got ${value})`);
+  if (part.value === value) return;
+  const n = c.size;
+  if (part.kind === 'resistor') {
+    stampReal(c.g0, n, part.ia, part.ib, 1 / value - 1 / part.value);
+    c.potSetting.fill(Number.NaN); // g = g0 + pots is stamped again on the next setKnobs
+  } else {
+    stampReal(c.cap, n, part.ia, part.ib, value - part.value);
+  }
+  part.value = value;
+  if (c.batch) c.batch.m = -1;
+  c.point.m = -1;
 }
