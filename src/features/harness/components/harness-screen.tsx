@@ -17,6 +17,7 @@ import { useSpiceNetlist } from '../api/get-netlist';
 import { ComparisonPanel, type PinnedDesign } from './comparison-panel';
 import { activeErrors, designFromSaved, designReducer, initialDesign, presetOf, usedValues } from './design-state';
 import { DesignsPanel } from './designs-panel';
+import { InstrumentPanel } from './instrument-panel';
 import { formatKnob } from './harness-format';
 import { KnobSliders } from './knob-sliders';
 import { MetricsTable } from './metrics-table';
@@ -208,6 +209,10 @@ export function HarnessScreen() {
             <Alert>The wiring cannot be solved with these values: {b && 'error' in b ? b.error : ''}</Alert>
           )}
         </Panel>
+      </div>
+
+      <div className="mt-6">
+        <InstrumentPanel />
       </div>
 
       {ok && (
