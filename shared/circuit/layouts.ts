@@ -9,7 +9,7 @@
 // one removes what it disconnects).
 import { DEFAULT_HARNESS_VALUES } from './presets';
 import { GROUND, OUTPUT, type Netlist, type Part, type PickupPart } from './netlist';
-import type { TaperLaw } from './taper-law';
+import type { TaperLaw } from '../taper/law';
 
 export type LayoutId = 'one-pickup' | 'two-pickups-3way' | 'three-pickups-5way' | 'dual-coil';
 export const LAYOUT_IDS: readonly LayoutId[] = ['one-pickup', 'two-pickups-3way', 'three-pickups-5way', 'dual-coil'];
