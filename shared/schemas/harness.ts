@@ -96,3 +96,17 @@ export const HarnessDesignInputSchema = z.object({
   notes: z.string().trim().max(2000).optional().nullable(),
 });
 export type HarnessDesignInput = z.infer<typeof HarnessDesignInputSchema>;
+
+/** A saved harness design as the server stores and sends it (GET /api/harnesses, POST, PUT). */
+export interface HarnessDesign {
+  id: number;
+  name: string;
+  preset: z.infer<typeof HarnessPresetIdSchema>;
+  values: HarnessValuesInput;
+  /** Measured parts whose values the design uses, by value key ({ volumeR: partId, … }). */
+  partRefs: Record<string, number> | null;
+  notes: string | null;
+  ownerId: string | null;
+  createdAt: number;
+  updatedAt: number | null;
+}

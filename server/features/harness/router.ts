@@ -10,7 +10,7 @@ import { validateNetlist, type Netlist } from '@shared/circuit/netlist';
 import { DEFAULT_HARNESS_VALUES, getPreset, HARNESS_PRESETS, HARNESS_VALUE_FIELDS, PICKUP_PRESETS, type HarnessValues } from '@shared/circuit/presets';
 import { toSpiceNetlist } from '@shared/circuit/spice';
 import { IdParamsSchema } from '@shared/schemas/common';
-import { HarnessDesignInputSchema, NetlistRequestSchema, SimulateRequestSchema, SweepRequestSchema, type HarnessValuesInput } from '@shared/schemas/harness';
+import { HarnessDesignInputSchema, NetlistRequestSchema, SimulateRequestSchema, SweepRequestSchema, type HarnessDesign, type HarnessValuesInput } from '@shared/schemas/harness';
 
 const DIAL = [0, 1, 2, 3, 4, 5, 6, 7, 8, 9, 10];
 
@@ -74,19 +74,19 @@ export function harnessRoutes(ctx: AppContext) {
   });
 
   const designs = new ApiRouter('/api/harnesses');
-  const mustFind = (id: number) => {
+  const mustFind = (id: number): HarnessDesign => {
     const row = db.select().from(harnesses).where(eq(harnesses.id, id)).get();
     if (!row) throw notFound('That harness design');
     return row;
   };
 
-  designs.get('/', { handle: () => ({ harnesses: db.select().from(harnesses).orderBy(desc(harnesses.id)).all() }) });
+  designs.get('/', { handle: (): { harnesses: HarnessDesign[] } => ({ harnesses: db.select().from(harnesses).orderBy(desc(harnesses.id)).all() }) });
   designs.get('/:id', { schemas: { params: IdParamsSchema }, handle: ({ params }) => mustFind(params.id) });
 
   designs.post('/', {
     status: 201,
     schemas: { body: HarnessDesignInputSchema },
-    handle: ({ body, user }) =>
+    handle: ({ body, user }): HarnessDesign =>
       db.transaction((tx) => {
         const row = tx.insert(harnesses).values({ ...body, ownerId: user.id }).returning().get();
         audit(tx, { userId: user.id, action: 'harness.create', entity: 'harness', entityId: row.id, detail: { name: body.name, preset: body.preset } });
@@ -96,7 +96,7 @@ export function harnessRoutes(ctx: AppContext) {
 
   designs.put('/:id', {
     schemas: { params: IdParamsSchema, body: HarnessDesignInputSchema },
-    handle: ({ params, body, user }) => {
+    handle: ({ params, body, user }): HarnessDesign => {
       const before = mustFind(params.id);
       if (!mayChangeOwned(before.ownerId, user)) throw forbidden('Only the design\'s owner (or qa/admin) may change it.');
       return db.transaction((tx) => {

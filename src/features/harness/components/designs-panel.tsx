@@ -5,7 +5,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { memo, useEffect, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { roleCan } from '@shared/auth/capabilities';
-import { HarnessDesignInputSchema } from '@shared/schemas/harness';
+import { HarnessDesignInputSchema, type HarnessDesign } from '@shared/schemas/harness';
 import { Alert, Loading } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { TextAreaField, TextField } from '@/components/ui/field';
@@ -13,7 +13,7 @@ import { Panel } from '@/components/ui/page-header';
 import { useCan, useUser } from '@/lib/auth';
 import { formatDateTime } from '@/lib/format';
 import { applyServerError } from '@/lib/form';
-import { useHarnesses, type HarnessDesign } from '../api/get-harnesses';
+import { useHarnesses } from '../api/get-harnesses';
 import { useCreateHarness, useDeleteHarness, useUpdateHarness } from '../api/save-harness';
 import { activeErrors, partRefsOf, presetOf, usedValues, type DesignState } from './design-state';
 
