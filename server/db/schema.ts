@@ -3,6 +3,14 @@
 // says otherwise (lucia's session expiry is in seconds, as its adapter writes it).
 import { sql } from 'drizzle-orm';
 import { index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
+// Relative imports: drizzle-kit loads this file without the tsconfig path aliases.
+import { INSTRUMENT_KINDS } from '../../shared/schemas/bench';
+import { PART_KINDS, PART_STATUSES, ROLES, VERDICTS } from '../../shared/schemas/common';
+import type { HarnessDesign } from '../../shared/schemas/harness';
+import { JOB_STATUSES } from '../../shared/schemas/jobs';
+import { LOT_STATUSES } from '../../shared/schemas/lots';
+import { FIT_KINDS, SWEEP_KINDS, type Fit } from '../../shared/schemas/sweeps';
+import { TAPER_LAWS } from '../../shared/taper/law';
 
 const createdAt = () =>
   integer('created_at')
@@ -13,7 +21,7 @@ export const users = sqliteTable('users', {
   id: text('id').primaryKey(),
   email: text('email').notNull().unique(),
   name: text('name').notNull(),
-  role: text('role', { enum: ['admin', 'qa', 'tech', 'viewer'] }).notNull(),
+  role: text('role', { enum: ROLES }).notNull(),
   passwordHash: text('password_hash').notNull(),
   disabledAt: integer('disabled_at'),
   createdAt: createdAt(),
@@ -33,7 +41,7 @@ export const sessions = sqliteTable('sessions', {
 export const invitations = sqliteTable('invitations', {
   id: text('id').primaryKey(),
   email: text('email').notNull(),
-  role: text('role', { enum: ['admin', 'qa', 'tech', 'viewer'] }).notNull(),
+  role: text('role', { enum: ROLES }).notNull(),
   tokenHash: text('token_hash').notNull().unique(),
   invitedBy: text('invited_by').references(() => users.id, { onDelete: 'set null' }),
   expiresAt: integer('expires_at').notNull(),
@@ -56,7 +64,7 @@ export const passwordResets = sqliteTable('password_resets', {
 export const toleranceProfiles = sqliteTable('tolerance_profiles', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   name: text('name').notNull().unique(),
-  kind: text('kind', { enum: ['pot', 'capacitor', 'resistor', 'pickup', 'other'] }).notNull(),
+  kind: text('kind', { enum: PART_KINDS }).notNull(),
   /** Optional nominal range (SI) the profile applies to; null = any nominal of the kind. */
   nominalMin: real('nominal_min'),
   nominalMax: real('nominal_max'),
@@ -70,7 +78,7 @@ export const toleranceProfiles = sqliteTable('tolerance_profiles', {
 export const instruments = sqliteTable('instruments', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   name: text('name').notNull().unique(),
-  kind: text('kind', { enum: ['multimeter', 'lcr-meter', 'analyser', 'other'] }).notNull(),
+  kind: text('kind', { enum: INSTRUMENT_KINDS }).notNull(),
   serial: text('serial'),
   /** Accuracy per quantity: { resistance: { pctOfReading, counts, resolution }, … } as JSON. */
   accuracy: text('accuracy', { mode: 'json' }).notNull().$type<Record<string, unknown>>().default({}),
@@ -83,7 +91,7 @@ export const instruments = sqliteTable('instruments', {
 export const lots = sqliteTable('lots', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   code: text('code').notNull().unique(),
-  kind: text('kind', { enum: ['pot', 'capacitor', 'resistor', 'pickup', 'other'] }).notNull(),
+  kind: text('kind', { enum: PART_KINDS }).notNull(),
   quantity: text('quantity').notNull(),
   nominal: real('nominal').notNull(),
   tolerancePct: real('tolerance_pct').notNull(),
@@ -93,7 +101,7 @@ export const lots = sqliteTable('lots', {
   expectedCount: integer('expected_count'),
   secondQuantity: text('second_quantity'),
   secondLimit: real('second_limit'),
-  status: text('status', { enum: ['open', 'accepted', 'rejected', 'sorted'] })
+  status: text('status', { enum: LOT_STATUSES })
     .notNull()
     .default('open'),
   dispositionReason: text('disposition_reason'),
@@ -138,19 +146,19 @@ export const parts = sqliteTable(
   'parts',
   {
     id: integer('id').primaryKey({ autoIncrement: true }),
-    kind: text('kind', { enum: ['pot', 'capacitor', 'resistor', 'pickup', 'other'] }).notNull(),
+    kind: text('kind', { enum: PART_KINDS }).notNull(),
     label: text('label').notNull(),
     nominal: real('nominal'),
     tolerancePct: real('tolerance_pct'),
     marking: text('marking'),
     /** For pots: 'linear' | 'audio' | 'reverse' | 'two-segment' with the class's mid-rotation m. */
-    taperClass: text('taper_class'),
+    taperClass: text('taper_class', { enum: TAPER_LAWS }),
     taperM: real('taper_m'),
     supplier: text('supplier'),
     lotId: integer('lot_id').references(() => lots.id, { onDelete: 'set null' }),
     lotItem: text('lot_item'),
     profileId: integer('profile_id').references(() => toleranceProfiles.id, { onDelete: 'set null' }),
-    status: text('status', { enum: ['incoming', 'passed', 'flagged', 'installed', 'rejected', 'retired'] })
+    status: text('status', { enum: PART_STATUSES })
       .notNull()
       .default('incoming'),
     statusReason: text('status_reason'),
@@ -189,7 +197,7 @@ export const readings = sqliteTable(
     /** True when the instrument's calibration was overdue on the day of the reading. */
     calibrationOverdue: integer('calibration_overdue', { mode: 'boolean' }).notNull().default(false),
     uncertainty: real('uncertainty'),
-    verdict: text('verdict', { enum: ['pass', 'fail', 'marginal'] }),
+    verdict: text('verdict', { enum: VERDICTS }),
     verdictReason: text('verdict_reason'),
     entry: text('entry', { enum: ['typed', 'file', 'lot'] })
       .notNull()
@@ -219,7 +227,7 @@ export const sweeps = sqliteTable('sweeps', {
   partId: integer('part_id')
     .notNull()
     .references(() => parts.id, { onDelete: 'cascade' }),
-  kind: text('kind', { enum: ['taper', 'impedance'] }).notNull(),
+  kind: text('kind', { enum: SWEEP_KINDS }).notNull(),
   attachmentId: integer('attachment_id').references(() => attachments.id, { onDelete: 'set null' }),
   /** How the file's columns were understood: { rotation: 'Angle (°)', … } as JSON. */
   columns: text('columns', { mode: 'json' }).$type<Record<string, string>>(),
@@ -253,10 +261,10 @@ export const fits = sqliteTable(
       .notNull()
       .references(() => parts.id, { onDelete: 'cascade' }),
     sweepId: integer('sweep_id').references(() => sweeps.id, { onDelete: 'cascade' }),
-    kind: text('kind', { enum: ['taper', 'coil'] }).notNull(),
+    kind: text('kind', { enum: FIT_KINDS }).notNull(),
     engineVersion: text('engine_version').notNull(),
     /** The engine's whole result (parameters, quality figures, flags) as JSON. */
-    result: text('result', { mode: 'json' }).notNull().$type<Record<string, unknown>>(),
+    result: text('result', { mode: 'json' }).notNull().$type<Fit['result']>(),
     flagged: integer('flagged', { mode: 'boolean' }).notNull().default(false),
     /** Set when a newer fit of the same sweep replaced it; the old result stays as history. */
     supersededAt: integer('superseded_at'),
@@ -274,8 +282,8 @@ export const harnesses = sqliteTable('harnesses', {
   options: text('options', { mode: 'json' }).notNull().default({}).$type<Record<string, string>>(),
   knobs: text('knobs', { mode: 'json' }).$type<Record<string, number>>(),
   /** The preset a design was first saved from (older designs); null for designs saved as a layout. */
-  preset: text('preset'),
-  values: text('values', { mode: 'json' }).notNull().$type<Record<string, unknown>>(),
+  preset: text('preset').$type<NonNullable<HarnessDesign['preset']>>(),
+  values: text('values', { mode: 'json' }).notNull().$type<HarnessDesign['values']>(),
   /** Measured parts whose values feed this design: { volumePot: partId, … } as JSON. */
   partRefs: text('part_refs', { mode: 'json' }).$type<Record<string, number>>(),
   notes: text('notes'),
@@ -290,7 +298,7 @@ export const jobs = sqliteTable('jobs', {
   customer: text('customer').notNull(),
   customerEmail: text('customer_email'),
   instrument: text('instrument').notNull(),
-  status: text('status', { enum: ['open', 'done', 'delivered'] })
+  status: text('status', { enum: JOB_STATUSES })
     .notNull()
     .default('open'),
   harnessId: integer('harness_id').references(() => harnesses.id, { onDelete: 'set null' }),

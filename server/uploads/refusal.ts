@@ -1,11 +1,12 @@
 import { HttpError } from '@server/http/errors';
+import type { NeedsMapping } from '@shared/csv/columns';
 import type { CsvIssue } from '@shared/csv/issues';
 
 /**
  * The one answer to a refused measurement file: 422 with every problem (line, column, message),
  * or, when its columns were not recognised, `needs_mapping` with what was found for the mapping step.
  */
-export function fileRefused(result: { issues: CsvIssue[]; needsMapping?: unknown }): HttpError {
+export function fileRefused(result: { issues: CsvIssue[]; needsMapping?: NeedsMapping }): HttpError {
   const first = result.issues[0];
   const message = result.needsMapping
     ? 'The columns of this file were not recognised; choose which column holds what.'

@@ -7,10 +7,10 @@
 // (`@shared/units/parse`: SI prefixes p n u µ μ m k M meg, Ω/ohm/Ohm, F, H, Hz), so `kOhm`, `kΩ`,
 // `MΩ`, `nF`, `uF`, `mH`, `kHz` give the scale factor to SI; `°`/`deg`, `rad` and `%`/`percent` are
 // read here. The SI prefixes are case-sensitive with a unit (`mΩ` milli, `MΩ` mega), as in the parser.
+import type { SweepKind } from '@shared/schemas/sweeps';
 import { tryParseValue } from '@shared/units/parse';
 import { csvIssue, type CsvIssue } from './issues';
 
-export type SweepKind = 'taper' | 'impedance';
 export type TableKind = SweepKind | 'lot';
 
 export type ColumnRole =
@@ -43,6 +43,13 @@ export interface ColumnInfo {
 }
 
 export type ColumnMapping = Partial<Record<ColumnRole, ColumnInfo>>;
+
+/** What a file whose columns were not all recognised shows the mapping step (an upload's 422 `details.needsMapping`). */
+export interface NeedsMapping {
+  header: string[];
+  detected: ColumnMapping;
+  missing: ColumnRole[];
+}
 
 /** The user's choice in the column-mapping step: a column (index or header text) and optionally its unit. */
 export type ExplicitMapping = Partial<Record<ColumnRole, { column: number | string; unit?: string }>>;

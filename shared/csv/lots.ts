@@ -26,9 +26,8 @@ import {
   ROLES_OF,
   scaleExponent,
   type ColumnInfo,
-  type ColumnMapping,
-  type ColumnRole,
   type ExplicitMapping,
+  type NeedsMapping,
 } from './columns';
 import { capIssues, csvIssue, isCsvIssue, type CsvIssue } from './issues';
 import { isCommentRow, readTable } from './read-table';
@@ -62,7 +61,7 @@ export type LotRowReader =
       columns: Record<string, string>;
       secondQuantity: 'dissipation' | 'esr' | null;
     }
-  | { ok: false; issues: CsvIssue[]; needsMapping?: { header: string[]; detected: ColumnMapping; missing: ColumnRole[] } };
+  | { ok: false; issues: CsvIssue[]; needsMapping?: NeedsMapping };
 
 const QUANTITY_DIMENSION: Record<LotQuantity, 'F' | 'Ω'> = { capacitance: 'F', resistance: 'Ω' };
 
@@ -239,7 +238,7 @@ export type LotParseResult =
       secondQuantity: 'dissipation' | 'esr' | null;
       headerLine: number;
     }
-  | { ok: false; issues: CsvIssue[]; needsMapping?: { header: string[]; detected: ColumnMapping; missing: ColumnRole[] } };
+  | { ok: false; issues: CsvIssue[]; needsMapping?: NeedsMapping };
 
 /** A whole lot file held as a string: sniff, then one papaparse pass with the row reader, stopping at the first bad row. */
 export function parseLotRows(text: string, opts: ParseLotOptions): LotParseResult {

@@ -27,8 +27,9 @@ import {
   type ColumnMapping,
   type ColumnRole,
   type ExplicitMapping,
-  type SweepKind,
+  type NeedsMapping,
 } from './columns';
+import type { SweepKind } from '@shared/schemas/sweeps';
 import { capIssues, csvIssue, type CsvIssue } from './issues';
 import { scanTable, type TableRow } from './read-table';
 
@@ -65,7 +66,7 @@ export interface SweepFailure {
   ok: false;
   issues: CsvIssue[];
   /** Present when the columns were not recognised: what the mapping step needs to show. */
-  needsMapping?: { header: string[]; detected: ColumnMapping; missing: ColumnRole[] };
+  needsMapping?: NeedsMapping;
 }
 export type TaperSweepResult = TaperSweepOk | SweepFailure;
 export type ImpedanceSweepResult = ImpedanceSweepOk | SweepFailure;

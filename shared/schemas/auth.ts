@@ -24,6 +24,9 @@ export const UserSchema = z.object({
 });
 export type User = z.infer<typeof UserSchema>;
 
+/** A member as the team list sends it (GET /api/team/members, admins only). */
+export type Member = User & { disabledAt: number | null; createdAt: number };
+
 export const MeResponseSchema = z.object({ user: UserSchema.nullable() });
 
 export const InviteInputSchema = z.object({

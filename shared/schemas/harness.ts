@@ -149,3 +149,24 @@ export const HarnessDesignInputSchema = z.object({
   notes: z.string().trim().max(2000).optional().nullable(),
 });
 export type HarnessDesignInput = z.infer<typeof HarnessDesignInputSchema>;
+
+/** A saved harness design as the server stores and sends it (GET /api/harnesses, POST, PUT). */
+export interface HarnessDesign {
+  id: number;
+  name: string;
+  /** The whole instrument: layout id, selector position, option choices, knob settings. */
+  layout: string;
+  selector: number;
+  options: Record<string, string>;
+  knobs: Record<string, number> | null;
+  /** The preset a design was first saved from (older designs); null for designs saved as a layout. */
+  preset: z.infer<typeof HarnessPresetIdSchema> | null;
+  /** Flat keys for the one-pickup layout (`pickupR`, …), dot-separated keys for the others (`neck.pickupR`, …). */
+  values: Record<string, unknown>;
+  /** Measured parts whose values the design uses, by value key ({ volumeR: partId, … }). */
+  partRefs: Record<string, number> | null;
+  notes: string | null;
+  ownerId: string | null;
+  createdAt: number;
+  updatedAt: number | null;
+}

@@ -1,8 +1,24 @@
 import { z } from 'zod';
+import type { CoilFit } from '@shared/analysis/coil';
+import type { TaperFit } from '@shared/analysis/taper';
 
 export const SWEEP_KINDS = ['taper', 'impedance'] as const;
 export const SweepKindSchema = z.enum(SWEEP_KINDS);
 export type SweepKind = z.infer<typeof SweepKindSchema>;
+
+/** What a stored fit is of: a taper sweep gives a taper fit, an impedance sweep a coil fit. */
+export const FIT_KINDS = ['taper', 'coil'] as const;
+
+/** A stored fit as the API sends it (GET /api/parts/:id/fits, a sweep's `fit`, a refit's answer). */
+export type Fit = {
+  id: number;
+  partId: number;
+  sweepId: number | null;
+  engineVersion: string;
+  flagged: boolean;
+  supersededAt: number | null;
+  createdAt: number;
+} & ({ kind: 'taper'; result: TaperFit } | { kind: 'coil'; result: CoilFit });
 
 /** A column chosen by the user when the file's headers were not recognised: index or header text, and its unit. */
 export const ColumnChoiceSchema = z.object({ column: z.union([z.number().int().min(0), z.string().min(1)]), unit: z.string().max(12).optional() });

@@ -3,13 +3,13 @@
 import { and, desc, eq, inArray, isNull } from 'drizzle-orm';
 import type { DbLike } from '@server/db/client';
 import { fits, lots, parts, sweepPoints } from '@server/db/schema';
+import type { FitRow } from '@server/features/sweeps/fit';
 import { normalisedCurve, type ComparePot } from '@shared/analysis/compare';
 import type { CoilFit } from '@shared/analysis/coil';
 import type { TaperFit } from '@shared/analysis/taper';
 import type { CompareSelection } from '@shared/schemas/compare';
 
 type PartRow = typeof parts.$inferSelect;
-type FitRow = typeof fits.$inferSelect;
 
 /** The newest current (not superseded) fit of a kind for each of the given parts. */
 function currentFits(db: DbLike, kind: 'taper' | 'coil', partIds?: number[]): Map<number, FitRow> {

@@ -19,6 +19,7 @@ import {
   NetlistRequestSchema,
   SimulateRequestSchema,
   SweepRequestSchema,
+  type HarnessDesign,
   type HarnessDesignInput,
 } from '@shared/schemas/harness';
 
@@ -202,13 +203,13 @@ export function harnessRoutes(ctx: AppContext) {
   });
 
   const designs = new ApiRouter('/api/harnesses');
-  const mustFind = (id: number) => {
+  const mustFind = (id: number): HarnessDesign => {
     const row = db.select().from(harnesses).where(eq(harnesses.id, id)).get();
     if (!row) throw notFound('That harness design');
     return row;
   };
 
-  designs.get('/', { handle: () => ({ harnesses: db.select().from(harnesses).orderBy(desc(harnesses.id)).all() }) });
+  designs.get('/', { handle: (): { harnesses: HarnessDesign[] } => ({ harnesses: db.select().from(harnesses).orderBy(desc(harnesses.id)).all() }) });
   designs.get('/:id', { schemas: { params: IdParamsSchema }, handle: ({ params }) => mustFind(params.id) });
 
   designs.post('/', {
@@ -226,7 +227,7 @@ export function harnessRoutes(ctx: AppContext) {
 
   designs.put('/:id', {
     schemas: { params: IdParamsSchema, body: HarnessDesignInputSchema },
-    handle: ({ params, body, user }) => {
+    handle: ({ params, body, user }): HarnessDesign => {
       const before = mustFind(params.id);
       if (!mayChangeOwned(before.ownerId, user)) throw forbidden('Only the design\'s owner (or qa/admin) may change it.');
       const design = designRow(body);

@@ -7,7 +7,7 @@ import Papa from 'papaparse';
 import { createLotRowReader, createRowLineCounter, isBlankRow, sniffTable, SNIFF_BYTES, DEFAULT_MAX_LOT_ROWS, type LotQuantity } from '@shared/csv/lots';
 import type { CsvIssue } from '@shared/csv/issues';
 import { isCsvIssue } from '@shared/csv/lots';
-import type { ExplicitMapping } from '@shared/csv/columns';
+import type { ExplicitMapping, NeedsMapping } from '@shared/csv/columns';
 import { isCommentRow } from '@shared/csv/read-table';
 
 export interface LotColumns {
@@ -25,7 +25,7 @@ export interface LotColumns {
   contentHash: string;
 }
 
-export type ReadLotResult = { ok: true; data: LotColumns } | { ok: false; issues: CsvIssue[]; needsMapping?: unknown };
+export type ReadLotResult = { ok: true; data: LotColumns } | { ok: false; issues: CsvIssue[]; needsMapping?: NeedsMapping };
 
 function grow<T extends Float64Array | Uint32Array>(a: T, n: number): T {
   if (n < a.length) return a;

@@ -8,9 +8,13 @@ import { coilFlags, fitCoil, type CoilFit, type CoilPoint } from '@shared/analys
 import { ANALYSIS_ENGINE_VERSION } from '@shared/analysis/engine-version';
 import { fitTaper, type TaperFit, type TaperPoint } from '@shared/analysis/taper';
 import type { ProfileRules } from '@shared/schemas/bench';
+import type { Fit } from '@shared/schemas/sweeps';
 
 export type SweepRow = typeof sweeps.$inferSelect;
 export type FitRow = typeof fits.$inferSelect;
+
+/** A fit row as the API sends it: a row's kind and result are always written together (fitAndStore). */
+export const asFit = (row: FitRow): Fit => row as Fit;
 export type SweepFit = { kind: 'taper'; result: TaperFit } | { kind: 'coil'; result: CoilFit };
 
 /** Stored points back in the engine's input shape (see the sweep_points column comment). */
@@ -70,7 +74,7 @@ export function fitAndStore(db: DbLike, part: PartRow, sweep: SweepRow, userId: 
       sweepId: sweep.id,
       kind: fit.kind,
       engineVersion: ANALYSIS_ENGINE_VERSION,
-      result: fit.result as unknown as Record<string, unknown>,
+      result: fit.result,
       flagged: flags.length > 0,
     })
     .returning()

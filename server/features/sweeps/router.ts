@@ -11,7 +11,7 @@ import { checkFileType, singleFileUpload, withStoredFile } from '@server/uploads
 import { IdParamsSchema } from '@shared/schemas/common';
 import { SweepUploadFieldsSchema } from '@shared/schemas/sweeps';
 import { parseSweepCsv } from '@shared/csv/sweeps';
-import { fitAndStore, sweepInput, type SweepRow } from './fit';
+import { asFit, fitAndStore, sweepInput, type SweepRow } from './fit';
 import { insertSweep, toStoredPoints } from './store';
 
 const MAX_SWEEP_BYTES = 2 * 1024 * 1024;
@@ -23,7 +23,7 @@ export function sweepRoutes(ctx: AppContext) {
 
   const withFits = (list: SweepRow[]) => {
     if (list.length === 0) return [];
-    const current = db.select().from(fits).where(and(inArray(fits.sweepId, list.map((s) => s.id)), isNull(fits.supersededAt))).all();
+    const current = db.select().from(fits).where(and(inArray(fits.sweepId, list.map((s) => s.id)), isNull(fits.supersededAt))).all().map(asFit);
     return list.map((s) => ({ ...s, points: sweepInput(db, s), fit: current.find((f) => f.sweepId === s.id) ?? null }));
   };
 
@@ -59,7 +59,7 @@ export function sweepRoutes(ctx: AppContext) {
             const sweep = insertSweep(tx, ctx.sqlite, { partId: part.id, kind: body.kind, attachmentId: attachment.id, columns: parsed.columns, createdBy: user.id }, stored);
             const fit = fitAndStore(tx, part, sweep, user.id);
             audit(tx, { userId: user.id, action: 'sweep.upload', entity: 'part', entityId: part.id, detail: { sweepId: sweep.id, kind: body.kind, points: stored.length, file: attachment.originalName, flagged: fit.flagged } });
-            return { ...sweep, points: sweepInput(tx, sweep), fit, part: findPart(tx, part.id) };
+            return { ...sweep, points: sweepInput(tx, sweep), fit: asFit(fit), part: findPart(tx, part.id) };
           }),
         );
       } catch (err) {
@@ -73,7 +73,7 @@ export function sweepRoutes(ctx: AppContext) {
     schemas: { params: IdParamsSchema },
     handle: ({ params }) => {
       if (!findPart(db, params.id)) throw notFound('That part');
-      return { fits: db.select().from(fits).where(eq(fits.partId, params.id)).orderBy(desc(fits.id)).all() };
+      return { fits: db.select().from(fits).where(eq(fits.partId, params.id)).orderBy(desc(fits.id)).all().map(asFit) };
     },
   });
 
@@ -87,7 +87,7 @@ export function sweepRoutes(ctx: AppContext) {
       return db.transaction((tx) => {
         const fit = fitAndStore(tx, part, sweep, user.id);
         audit(tx, { userId: user.id, action: 'fit.rerun', entity: 'part', entityId: part.id, detail: { sweepId: sweep.id, fitId: fit.id } });
-        return { fit, part: findPart(tx, part.id) };
+        return { fit: asFit(fit), part: findPart(tx, part.id) };
       });
     },
   });

@@ -5,7 +5,7 @@ import type { AppContext } from '@server/context';
 import { invitations, users } from '@server/db/schema';
 import { HttpError, notFound } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
-import { ChangeRoleInputSchema, InviteInputSchema } from '@shared/schemas/auth';
+import { ChangeRoleInputSchema, InviteInputSchema, type Member } from '@shared/schemas/auth';
 import { z } from 'zod';
 
 const INVITATION_LIFETIME_MS = 7 * 24 * 3600 * 1000;
@@ -16,7 +16,7 @@ export function teamRoutes(ctx: AppContext) {
   const api = new ApiRouter('/api/team');
 
   api.get('/members', {
-    handle: () => ({
+    handle: (): { members: Member[] } => ({
       members: db
         .select({ id: users.id, email: users.email, name: users.name, role: users.role, disabledAt: users.disabledAt, createdAt: users.createdAt })
         .from(users)

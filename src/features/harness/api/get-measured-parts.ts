@@ -5,22 +5,11 @@ import { queryOptions, useQueries, useQuery } from '@tanstack/react-query';
 import type { CoilFit } from '@shared/analysis/coil';
 import type { TaperFit } from '@shared/analysis/taper';
 import type { Part } from '@shared/schemas/parts';
+import type { Fit } from '@shared/schemas/sweeps';
 import { TAPER_LAWS } from '@shared/taper/law';
 import { api } from '@/lib/api-client';
 
 export const MEASURED_LIMIT = 100;
-
-export interface FitRow {
-  id: number;
-  partId: number;
-  sweepId: number | null;
-  kind: 'taper' | 'coil';
-  engineVersion: string;
-  result: Record<string, unknown>;
-  flagged: boolean;
-  supersededAt: number | null;
-  createdAt: number;
-}
 
 type MeasuredKind = 'pickup' | 'pot';
 const FIT_KIND = { pickup: 'coil', pot: 'taper' } as const;
@@ -34,7 +23,7 @@ export const partsOfKindQueryOptions = (kind: MeasuredKind) =>
 export const partFitsQueryOptions = (partId: number) =>
   queryOptions({
     queryKey: ['parts', 'detail', partId, 'fits'],
-    queryFn: ({ signal }) => api.get<{ fits: FitRow[] }>(`/api/parts/${partId}/fits`, { signal }),
+    queryFn: ({ signal }) => api.get<{ fits: Fit[] }>(`/api/parts/${partId}/fits`, { signal }),
   });
 
 /** Part detail, for the label of a part a saved design refers to. Same key as the parts screen. */
@@ -50,12 +39,12 @@ export const usePartLabel = (partId: number | undefined) => {
 };
 
 /** The newest fit of the kind that no later fit of its sweep has replaced. */
-export function latestFit(fits: readonly FitRow[], kind: 'taper' | 'coil'): FitRow | undefined {
+export function latestFit(fits: readonly Fit[], kind: 'taper' | 'coil'): Fit | undefined {
   return fits.filter((f) => f.kind === kind && f.supersededAt === null).sort((a, b) => b.createdAt - a.createdAt || b.id - a.id)[0];
 }
 
-export type MeasuredPickup = { part: Part; fit: FitRow; coil: Pick<CoilFit, 'R' | 'L' | 'C' | 'Rp'> };
-export type MeasuredPot = { part: Part; fit: FitRow; taper: Pick<TaperFit, 'law' | 'm' | 'total'> };
+export type MeasuredPickup = { part: Part; fit: Fit; coil: Pick<CoilFit, 'R' | 'L' | 'C' | 'Rp'> };
+export type MeasuredPot = { part: Part; fit: Fit; taper: Pick<TaperFit, 'law' | 'm' | 'total'> };
 
 export interface MeasuredList<T> {
   items: T[];
@@ -85,6 +74,7 @@ const num = (v: unknown): number | undefined => (typeof v === 'number' && Number
 export function useMeasuredPickups(enabled: boolean): MeasuredList<MeasuredPickup> {
   const { withFits, ...rest } = useMeasured('pickup', enabled);
   const items = withFits.flatMap(({ part, fit }) => {
+    if (fit.kind !== 'coil') return [];
     const R = num(fit.result.R);
     const L = num(fit.result.L);
     const C = num(fit.result.C);
@@ -97,6 +87,7 @@ export function useMeasuredPickups(enabled: boolean): MeasuredList<MeasuredPicku
 export function useMeasuredPots(enabled: boolean): MeasuredList<MeasuredPot> {
   const { withFits, ...rest } = useMeasured('pot', enabled);
   const items = withFits.flatMap(({ part, fit }) => {
+    if (fit.kind !== 'taper') return [];
     const law = TAPER_LAWS.find((l) => l === fit.result.law);
     const m = num(fit.result.m);
     const total = num(fit.result.total);

@@ -1,7 +1,6 @@
 import { useMutation } from '@tanstack/react-query';
-import type { HarnessDesignInput } from '@shared/schemas/harness';
+import type { HarnessDesign, HarnessDesignInput } from '@shared/schemas/harness';
 import { api } from '@/lib/api-client';
-import type { HarnessDesign } from './get-harnesses';
 
 export const createHarness = (input: HarnessDesignInput) => api.post<HarnessDesign>('/api/harnesses', input);
 

@@ -201,10 +201,11 @@ export function designFromSaved(saved: {
   notes: string | null;
   ownerId: string | null;
   preset: HarnessPresetId;
-  values: Partial<HarnessValues>;
+  /** A preset design's values use the one-pickup layout's flat keys. */
+  values: Record<string, unknown>;
   partRefs: Record<string, number> | null;
 }): DesignState {
-  const values: HarnessValues = { ...DEFAULT_HARNESS_VALUES, ...saved.values };
+  const values: HarnessValues = { ...DEFAULT_HARNESS_VALUES, ...(saved.values as Partial<HarnessValues>) };
   if (saved.values.pickupRp === undefined) delete values.pickupRp;
   const refs: DesignState['refs'] = {};
   for (const [k, id] of Object.entries(saved.partRefs ?? {})) {

@@ -5,7 +5,8 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { memo, useEffect, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { roleCan } from '@shared/auth/capabilities';
-import { HarnessDesignInputSchema } from '@shared/schemas/harness';
+import type { HarnessPresetId } from '@shared/circuit/presets';
+import { HarnessDesignInputSchema, type HarnessDesign } from '@shared/schemas/harness';
 import { Alert, Loading } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { TextAreaField, TextField } from '@/components/ui/field';
@@ -13,12 +14,16 @@ import { Panel } from '@/components/ui/page-header';
 import { useCan, useUser } from '@/lib/auth';
 import { formatDateTime } from '@/lib/format';
 import { applyServerError } from '@/lib/form';
-import { useHarnesses, type HarnessDesign } from '../api/get-harnesses';
+import { useHarnesses } from '../api/get-harnesses';
 import { useCreateHarness, useDeleteHarness, useUpdateHarness } from '../api/save-harness';
 import { activeErrors, partRefsOf, presetOf, usedValues, type DesignState } from './design-state';
 
 const SaveFormSchema = HarnessDesignInputSchema.pick({ name: true, notes: true });
 type SaveForm = { name: string; notes?: string | null };
+
+/** A design saved from one of the seven presets: the editor above opens these. */
+export type PresetDesign = HarnessDesign & { preset: HarnessPresetId };
+const isPresetDesign = (d: HarnessDesign): d is PresetDesign => d.preset !== null;
 
 function SaveDesignForm({ state, onSaved }: { state: DesignState; onSaved: (d: HarnessDesign) => void }) {
   const create = useCreateHarness();
@@ -117,8 +122,8 @@ export const DesignsPanel = memo(function DesignsPanel({
   onDeleted,
 }: {
   state: DesignState;
-  onOpen: (d: HarnessDesign) => void;
-  onPin: (d: HarnessDesign) => void;
+  onOpen: (d: PresetDesign) => void;
+  onPin: (d: PresetDesign) => void;
   onSaved: (d: HarnessDesign) => void;
   onDeleted: (id: number) => void;
 }) {
@@ -147,17 +152,23 @@ export const DesignsPanel = memo(function DesignsPanel({
                       {open && <span className="ml-2 inline-block whitespace-nowrap rounded bg-accent-tint px-1.5 py-0.5 align-middle text-xs font-normal text-accent-strong">in the editor</span>}
                     </p>
                     <p className="text-xs text-ink-soft">
-                      {presetOf(d.preset)?.name ?? d.preset} · {formatDateTime(d.updatedAt ?? d.createdAt)}
+                      {d.preset ? (presetOf(d.preset)?.name ?? d.preset) : `Whole instrument (${d.layout}, position ${d.selector})`} · {formatDateTime(d.updatedAt ?? d.createdAt)}
                     </p>
                     {d.notes && <p className="mt-0.5 line-clamp-2 text-sm text-ink-soft">{d.notes}</p>}
                   </div>
                   <div className="flex flex-wrap items-center gap-2">
-                    <Button size="sm" onClick={() => onOpen(d)} aria-label={`Open ${d.name} in the editor`}>
+                    {isPresetDesign(d) ? (
+                      <>
+                        <Button size="sm" onClick={() => onOpen(d)} aria-label={`Open ${d.name} in the editor`}>
                       Open
                     </Button>
                     <Button size="sm" onClick={() => onPin(d)} aria-label={`Pin ${d.name} as A`}>
                       Pin as A
                     </Button>
+                      </>
+                    ) : (
+                      <span className="text-xs text-ink-soft">A whole-instrument design: the preset editor cannot open it</span>
+                    )}
                     {mayDelete && <DeleteButton design={d} onDeleted={onDeleted} />}
                   </div>
                 </li>

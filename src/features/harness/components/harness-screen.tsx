@@ -7,17 +7,17 @@ import type uPlot from 'uplot';
 import { gridCurve } from '@shared/circuit/metrics';
 import type { VolumeToneKnobs as Knobs } from '@shared/circuit/netlist';
 import { HARNESS_PRESETS, type HarnessPresetId } from '@shared/circuit/presets';
+import type { HarnessDesign } from '@shared/schemas/harness';
 import { downloadPng } from '@/components/charts/plot';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { SelectField } from '@/components/ui/field';
 import { PageHeader, Panel } from '@/components/ui/page-header';
 import { downloadCsv, downloadText } from '@/lib/download';
-import type { HarnessDesign } from '../api/get-harnesses';
 import { useSpiceNetlist } from '../api/get-netlist';
 import { ComparisonPanel, type PinnedDesign } from './comparison-panel';
 import { activeErrors, designFromSaved, designReducer, initialDesign, presetOf, usedValues } from './design-state';
-import { DesignsPanel } from './designs-panel';
+import { DesignsPanel, type PresetDesign } from './designs-panel';
 import { InstrumentPanel } from './instrument-panel';
 import { formatKnob } from './harness-format';
 import { KnobSliders } from './knob-sliders';
@@ -81,8 +81,8 @@ export function HarnessScreen() {
   const currentCurve = useMemo<Curve | null>(() => (b && !('error' in b) ? { label: pinned ? 'B: now' : 'Now', db: b.current.magnitudeDb } : null), [b, pinned]);
   const pinnedCurve = useMemo<Curve | null>(() => (pinned && a && !('error' in a) ? { label: `A: ${pinned.label}`, db: a.current.magnitudeDb } : null), [pinned, a]);
 
-  const openSaved = useCallback((d: HarnessDesign) => dispatch({ type: 'replace', state: designFromSaved(d) }), []);
-  const pinSaved = useCallback((d: HarnessDesign) => {
+  const openSaved = useCallback((d: PresetDesign) => dispatch({ type: 'replace', state: designFromSaved(d) }), []);
+  const pinSaved = useCallback((d: PresetDesign) => {
     const s = designFromSaved(d);
     setPinned({ label: d.name, preset: s.preset, values: s.values });
   }, []);

@@ -36,11 +36,3 @@ export interface JobReport {
   text: string;
   csv: string | null;
 }
-
-export interface HarnessDesign {
-  id: number;
-  name: string;
-  preset: string;
-  updatedAt: number | null;
-  createdAt: number;
-}

@@ -2,18 +2,11 @@
 // file's ApiError carries `issues` (line and column of each problem) and, when its columns were not
 // recognised, `details.needsMapping` for the mapping step.
 import { useMutation } from '@tanstack/react-query';
-import type { ExplicitMapping } from '@shared/csv/columns';
+import type { ExplicitMapping, NeedsMapping } from '@shared/csv/columns';
 import { api, isApiError, type FileIssue } from '@/lib/api-client';
 import type { Lot, LotStats } from './types';
 
 export type UploadIssue = FileIssue;
-
-/** What the server found in a file whose columns it could not name by itself. */
-export interface NeedsMapping {
-  header: string[];
-  detected: Partial<Record<string, { index: number; header: string; unit?: string }>>;
-  missing: string[];
-}
 
 /** The columns the server found when a file needs a mapping (from the error's details). */
 export function needsMappingOf(err: unknown): NeedsMapping | null {

@@ -2,11 +2,11 @@
 // column of each problem; a file whose columns were not recognised opens a mapping step (column
 // and unit per role), and the same file is sent again with that mapping.
 import { useId, useRef, useState } from 'react';
-import type { ExplicitMapping } from '@shared/csv/columns';
+import type { ExplicitMapping, NeedsMapping } from '@shared/csv/columns';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { isApiError } from '@/lib/api-client';
-import { needsMappingOf, uploadMs, useUploadLotReadings, type NeedsMapping, type UploadIssue, type UploadResult } from '../api/upload-lot-readings';
+import { needsMappingOf, uploadMs, useUploadLotReadings, type UploadIssue, type UploadResult } from '../api/upload-lot-readings';
 import type { Lot } from '../api/types';
 import { fmtLotValue } from './lot-format';
 

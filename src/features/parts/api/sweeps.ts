@@ -1,26 +1,14 @@
 import { queryOptions, useMutation, useQuery } from '@tanstack/react-query';
-import type { CoilFit, CoilPoint } from '@shared/analysis/coil';
-import type { TaperFit, TaperPoint } from '@shared/analysis/taper';
-import type { ColumnMapping, ColumnRole } from '@shared/csv/columns';
-import type { SweepKind } from '@shared/schemas/sweeps';
+import type { CoilPoint } from '@shared/analysis/coil';
+import type { TaperPoint } from '@shared/analysis/taper';
+import type { ColumnRole } from '@shared/csv/columns';
+import type { Fit, SweepKind } from '@shared/schemas/sweeps';
 import { api } from '@/lib/api-client';
 
-export type FitRow = {
-  id: number;
-  partId: number;
-  sweepId: number | null;
-  engineVersion: string;
-  flagged: boolean;
-  supersededAt: number | null;
-  createdAt: number;
-} & ({ kind: 'taper'; result: TaperFit } | { kind: 'coil'; result: CoilFit });
-
-type SweepBase = { id: number; partId: number; attachmentId: number | null; columns: Record<string, string> | null; pointCount: number; createdAt: number; fit: FitRow | null };
+type SweepBase = { id: number; partId: number; attachmentId: number | null; columns: Record<string, string> | null; pointCount: number; createdAt: number; fit: Fit | null };
 
 /** Points come back in the engines' input shape: taper rotation in percent, impedance as re/im. */
 export type Sweep = SweepBase & ({ kind: 'taper'; points: TaperPoint[] } | { kind: 'impedance'; points: Extract<CoilPoint, { re: number }>[] });
-
-export type NeedsMapping = { header: string[]; detected: ColumnMapping; missing: ColumnRole[] };
 
 export const sweepsQueryOptions = (partId: number) =>
   queryOptions({
@@ -32,7 +20,7 @@ export const useSweeps = (partId: number) => useQuery(sweepsQueryOptions(partId)
 export const fitsQueryOptions = (partId: number) =>
   queryOptions({
     queryKey: ['parts', 'detail', partId, 'fits'],
-    queryFn: ({ signal }) => api.get<{ fits: FitRow[] }>(`/api/parts/${partId}/fits`, { signal }),
+    queryFn: ({ signal }) => api.get<{ fits: Fit[] }>(`/api/parts/${partId}/fits`, { signal }),
   });
 export const useFits = (partId: number) => useQuery(fitsQueryOptions(partId));
 
@@ -57,5 +45,5 @@ export function uploadSweep({ partId, file, kind, fullRotationDeg, mapping }: Sw
 /** A fit moves the part's status, so the whole part is stale. */
 export const useUploadSweep = () => useMutation({ mutationFn: uploadSweep, meta: { invalidates: [['parts']] } });
 
-export const refitSweep = ({ partId, sweepId }: { partId: number; sweepId: number }) => api.post<{ fit: FitRow }>(`/api/parts/${partId}/sweeps/${sweepId}/refit`);
+export const refitSweep = ({ partId, sweepId }: { partId: number; sweepId: number }) => api.post<{ fit: Fit }>(`/api/parts/${partId}/sweeps/${sweepId}/refit`);
 export const useRefitSweep = () => useMutation({ mutationFn: refitSweep, meta: { invalidates: [['parts']] } });

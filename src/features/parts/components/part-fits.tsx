@@ -3,6 +3,7 @@
 import type { ReactNode } from 'react';
 import type { CoilFit } from '@shared/analysis/coil';
 import type { TaperFit } from '@shared/analysis/taper';
+import type { Fit } from '@shared/schemas/sweeps';
 import { TAPER_LAW_LABEL } from '@shared/taper/law';
 import { formatValue } from '@shared/units/format';
 import { Alert, Loading } from '@/components/ui/alert';
@@ -11,7 +12,7 @@ import { Button } from '@/components/ui/button';
 import { useCan } from '@/lib/auth';
 import { formatDateTime } from '@/lib/format';
 import type { PartDetail } from '../api/get-part';
-import { useFits, useRefitSweep, useSweeps, type FitRow } from '../api/sweeps';
+import { useFits, useRefitSweep, useSweeps } from '../api/sweeps';
 
 
 const pct = (x: number, digits = 1) => `${x.toFixed(digits)} %`;
@@ -66,7 +67,7 @@ function CoilFacts({ r }: { r: CoilFit }) {
   );
 }
 
-export function FitFlags({ fit }: { fit: FitRow }) {
+export function FitFlags({ fit }: { fit: Fit }) {
   const flags = fit.result.flags;
   if (flags.length === 0) return <Badge tone="pass" icon="check" label="No flags" />;
   return (
@@ -81,7 +82,7 @@ export function FitFlags({ fit }: { fit: FitRow }) {
   );
 }
 
-const summary = (f: FitRow) =>
+const summary = (f: Fit) =>
   f.kind === 'taper'
     ? `${TAPER_LAW_LABEL[f.result.law]}, m ${pct(f.result.m * 100)}, R² ${f.result.r2.toFixed(4)}`
     : `R ${formatValue(f.result.R, 'Ω')}, L ${formatValue(f.result.L, 'H')}, C ${formatValue(f.result.C, 'F')}, f0 ${formatValue(f.result.f0, 'Hz')}`;

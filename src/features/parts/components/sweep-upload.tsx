@@ -4,13 +4,13 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
-import type { ColumnRole } from '@shared/csv/columns';
+import type { ColumnRole, NeedsMapping } from '@shared/csv/columns';
 import { SweepKindSchema, type SweepKind } from '@shared/schemas/sweeps';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/field';
 import { isApiError, type FileIssue } from '@/lib/api-client';
-import { useUploadSweep, type NeedsMapping, type SweepUpload } from '../api/sweeps';
+import { useUploadSweep, type SweepUpload } from '../api/sweeps';
 
 const UploadSchema = z.object({
   kind: SweepKindSchema,

@@ -1,10 +1,11 @@
+import type { Member } from '@shared/schemas/auth';
 import { ROLES, type Role } from '@shared/schemas/common';
 import { Alert, Loading } from '@/components/ui/alert';
 import { Badge } from '@/components/ui/badge';
 import { Button } from '@/components/ui/button';
 import { useUser } from '@/lib/auth';
 import { ROLE_LABEL, formatDate } from '@/lib/format';
-import { useMembers, type Member } from '../api/get-members';
+import { useMembers } from '../api/get-members';
 import { useUpdateMember } from '../api/update-member';
 
 export function MembersTable() {
