@@ -64,7 +64,21 @@ export function instrumentUncertainty(reading: number, accuracy: Accuracy): numb
   return (pctOfReading / 100) * Math.abs(reading) + counts * resolution;
 }
 
-/** nominal ± tolerance (symmetric percent, or {minusPct, plusPct} for e.g. −20 %/+80 %). */
+/**
+ * The decimal number a limit means: products such as 100 nF × 1.01 land one binary ulp beside the
+ * decimal 101 nF, which would judge a reading typed exactly on the limit as outside it. Rounding
+ * to 15 significant digits (the digits a double always holds, IEEE 754 binary64) gives back the
+ * double nearest the decimal value, the same double the parser makes from "101n".
+ */
+export function decimalLimit(x: number): number {
+  if (!Number.isFinite(x) || x === 0) return x;
+  return Number(x.toPrecision(15));
+}
+
+/**
+ * nominal ± tolerance (symmetric percent, or {minusPct, plusPct} for e.g. −20 %/+80 %), as the
+ * decimal values the user means (see decimalLimit). Lot counts below/above use the same limits.
+ */
 export function limitsFromTolerance(
   nominal: number,
   tolerancePct: number | { minusPct: number; plusPct: number },
@@ -74,8 +88,8 @@ export function limitsFromTolerance(
   if (!Number.isFinite(nominal) || !Number.isFinite(minus) || !Number.isFinite(plus) || minus < 0 || plus < 0) {
     throw new RangeError('limitsFromTolerance needs a finite nominal and non-negative tolerances.');
   }
-  const a = nominal * (1 - minus / 100);
-  const b = nominal * (1 + plus / 100);
+  const a = decimalLimit(nominal * (1 - minus / 100));
+  const b = decimalLimit(nominal * (1 + plus / 100));
   return a <= b ? { lower: a, upper: b } : { lower: b, upper: a };
 }
 
