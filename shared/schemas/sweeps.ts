@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { VALUE_RANGES, rangeWords } from './ranges';
 
 export const SWEEP_KINDS = ['taper', 'impedance'] as const;
 export const SweepKindSchema = z.enum(SWEEP_KINDS);
@@ -29,5 +30,9 @@ export const SweepUploadFieldsSchema = z.object({
   kind: SweepKindSchema,
   mapping: MappingFieldSchema.optional(),
   /** Full mechanical rotation of the pot when the file gives degrees; default 300°. */
-  fullRotationDeg: z.coerce.number().positive().max(3600).optional(),
+  fullRotationDeg: z.coerce
+    .number()
+    .min(VALUE_RANGES.fullRotation.min, `Must be a full rotation ${rangeWords('fullRotation')}.`)
+    .max(VALUE_RANGES.fullRotation.max, `Must be a full rotation ${rangeWords('fullRotation')}.`)
+    .optional(),
 });

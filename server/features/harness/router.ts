@@ -8,6 +8,7 @@ import { ApiRouter } from '@server/http/router';
 import { DEFAULT_FREQUENCIES, simulate, sweepKnobs } from '@shared/circuit/metrics';
 import { validateNetlist, type Netlist } from '@shared/circuit/netlist';
 import { DEFAULT_HARNESS_VALUES, getPreset, HARNESS_PRESETS, HARNESS_VALUE_FIELDS, PICKUP_PRESETS, type HarnessValues } from '@shared/circuit/presets';
+import { HarnessUnsolvableError } from '@shared/circuit/solver';
 import { toSpiceNetlist } from '@shared/circuit/spice';
 import { IdParamsSchema } from '@shared/schemas/common';
 import { HarnessDesignInputSchema, NetlistRequestSchema, SimulateRequestSchema, SweepRequestSchema, type HarnessValuesInput } from '@shared/schemas/harness';
@@ -23,6 +24,16 @@ function netlistOf(body: { preset?: string; netlist?: Netlist; values?: HarnessV
   }
   const preset = getPreset(body.preset!)!;
   return preset.build({ ...preset.defaults, ...(body.values ?? {}) } as HarnessValues);
+}
+
+/** Runs the engine; a circuit without a unique solution is the request's fault (422), in words. */
+function solved<T>(what: 'preset' | 'netlist', run: () => T): T {
+  try {
+    return run();
+  } catch (err) {
+    if (err instanceof HarnessUnsolvableError) throw unprocessable(err.message, { [what]: err.message });
+    throw err;
+  }
 }
 
 export function harnessRoutes(ctx: AppContext) {
@@ -41,7 +52,7 @@ export function harnessRoutes(ctx: AppContext) {
   engine.post('/simulate', {
     schemas: { body: SimulateRequestSchema },
     handle: ({ body }) => {
-      const r = simulate(netlistOf(body), body.knobs, body.frequencies ?? DEFAULT_FREQUENCIES);
+      const r = solved(body.netlist ? 'netlist' : 'preset', () => simulate(netlistOf(body), body.knobs, body.frequencies ?? DEFAULT_FREQUENCIES));
       return { frequencies: Array.from(r.frequencies), magnitudeDb: Array.from(r.magnitudeDb), phaseDeg: Array.from(r.phaseDeg), metrics: r.metrics };
     },
   });
@@ -49,7 +60,9 @@ export function harnessRoutes(ctx: AppContext) {
   engine.post('/sweep', {
     schemas: { body: SweepRequestSchema },
     handle: ({ body }) => {
-      const grid = sweepKnobs(netlistOf(body), { volume: body.volume ?? DIAL, tone: body.tone ?? DIAL }, body.frequencies ?? DEFAULT_FREQUENCIES);
+      const grid = solved(body.netlist ? 'netlist' : 'preset', () =>
+        sweepKnobs(netlistOf(body), { volume: body.volume ?? DIAL, tone: body.tone ?? DIAL }, body.frequencies ?? DEFAULT_FREQUENCIES),
+      );
       return {
         frequencies: Array.from(grid.frequencies),
         volume: grid.volume,
