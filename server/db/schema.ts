@@ -241,6 +241,8 @@ export const sweepPoints = sqliteTable(
     x: real('x').notNull(),
     y: real('y').notNull(),
     z: real('z'),
+    /** Taper only: R13 (lug 1 to lug 3) measured beside the reading, Ω; null when not measured. */
+    total: real('total'),
   },
   (t) => [index('sweep_points_sweep_idx').on(t.sweepId)],
 );

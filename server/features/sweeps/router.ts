@@ -11,7 +11,7 @@ import { checkFileType, singleFileUpload, withStoredFile } from '@server/uploads
 import { IdParamsSchema } from '@shared/schemas/common';
 import { SweepUploadFieldsSchema } from '@shared/schemas/sweeps';
 import { parseSweepCsv } from '@shared/csv/sweeps';
-import { fitAndStore, sweepInput, type SweepRow } from './fit';
+import { fitAndStore, fitInput, sweepInput, type SweepRow } from './fit';
 import { insertSweep, toStoredPoints } from './store';
 
 const MAX_SWEEP_BYTES = 2 * 1024 * 1024;
@@ -57,9 +57,9 @@ export function sweepRoutes(ctx: AppContext) {
               .returning()
               .get();
             const sweep = insertSweep(tx, ctx.sqlite, { partId: part.id, kind: body.kind, attachmentId: attachment.id, columns: parsed.columns, createdBy: user.id }, stored);
-            const fit = fitAndStore(tx, part, sweep, user.id);
+            const fit = fitAndStore(tx, part, sweep, user.id, { points: stored });
             audit(tx, { userId: user.id, action: 'sweep.upload', entity: 'part', entityId: part.id, detail: { sweepId: sweep.id, kind: body.kind, points: stored.length, file: attachment.originalName, flagged: fit.flagged } });
-            return { ...sweep, points: sweepInput(tx, sweep), fit, part: findPart(tx, part.id) };
+            return { ...sweep, points: fitInput(sweep.kind, stored), fit, ignoredColumns: parsed.ignored, notes: parsed.notes, part: findPart(tx, part.id) };
           }),
         );
       } catch (err) {

@@ -51,7 +51,7 @@ export function uploadSweep({ partId, file, kind, fullRotationDeg, mapping }: Sw
   if (kind === 'taper' && fullRotationDeg) form.set('fullRotationDeg', String(fullRotationDeg));
   if (mapping) form.set('mapping', JSON.stringify(mapping));
   form.set('file', file);
-  return api.post<Sweep>(`/api/parts/${partId}/sweeps`, form);
+  return api.post<Sweep & { ignoredColumns: string[]; notes: string[] }>(`/api/parts/${partId}/sweeps`, form);
 }
 
 /** A fit moves the part's status, so the whole part is stale. */

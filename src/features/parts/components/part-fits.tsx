@@ -32,7 +32,12 @@ function Row({ term, children }: { term: string; children: ReactNode }) {
 }
 
 function TaperFacts({ r }: { r: TaperFit }) {
-  const totalWord = { measured: 'measured end to end', 'last-reading': 'last sweep reading', 'last-reading-plus-end': 'last reading + wiper to lug 3' }[r.totalSource];
+  const totalWord = {
+    'sweep-r13': 'R13 column of the sweep',
+    'sweep-halves': 'lug 1 to wiper + wiper to lug 3',
+    'sweep-full-rotation': 'reading at full rotation',
+    'bench-reading': 'bench reading: the sweep gives none',
+  }[r.totalSource];
   return (
     <dl>
       <Row term="Law">{<span className="font-sans">{LAW_WORD[r.law]}</span>}</Row>
@@ -43,8 +48,8 @@ function TaperFacts({ r }: { r: TaperFit }) {
         {formatValue(r.total, 'Ω', { digits: 4 })}
         {r.totalDeviationPct != null && <span className="text-ink-soft"> ({r.totalDeviationPct >= 0 ? '+' : ''}{r.totalDeviationPct.toFixed(1)} % from nominal)</span>}
       </Row>
-      <Row term="End resistance start / end">{`${formatValue(r.endResistance.start, 'Ω')} / ${r.endResistance.end != null ? formatValue(r.endResistance.end, 'Ω') : '—'}`}</Row>
-      <Row term="Half-sum mismatch">{r.halfSumMismatch != null ? formatValue(r.halfSumMismatch, 'Ω') : '—'}</Row>
+      <Row term="End resistance start / end">{`${formatValue(r.endResistance.start, 'Ω')} / ${r.endResistance.end != null ? formatValue(r.endResistance.end, 'Ω') : 'not measured'}`}</Row>
+      <Row term="Half-sum mismatch">{r.halfSumMismatch != null ? formatValue(r.halfSumMismatch, 'Ω') : 'not measured'}</Row>
       <Row term="Monotonic breaks">{r.monotonicBreaks.length === 0 ? 'none' : r.monotonicBreaks.map((b) => `${b.rotation.toFixed(0)} %`).join(', ')}</Row>
     </dl>
   );

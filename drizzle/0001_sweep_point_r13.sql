@@ -1,0 +1,1 @@
+ALTER TABLE `sweep_points` ADD `total` real;
