@@ -74,6 +74,8 @@ export const instruments = sqliteTable('instruments', {
   serial: text('serial'),
   /** Accuracy per quantity: { resistance: { pctOfReading, counts, resolution }, … } as JSON. */
   accuracy: text('accuracy', { mode: 'json' }).notNull().$type<Record<string, unknown>>().default({}),
+  /** Display counts (e.g. 6000); null when not recorded (then each accuracy's fixed resolution is used). */
+  displayCounts: integer('display_counts'),
   /** ISO date (YYYY-MM-DD). */
   calibrationDue: text('calibration_due'),
   notes: text('notes'),

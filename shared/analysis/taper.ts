@@ -53,6 +53,8 @@ export interface TaperInput {
   nominal?: number;
   tolerancePct?: number;
   profile?: TaperProfile;
+  /** Report this law's fit instead of the chosen one ("Fit again" with a forced law). */
+  forceLaw?: TaperLaw;
   /** A drop between successive readings larger than this (% of R13) is a monotonicity break. Default 0.5. */
   monotonicTolerancePct?: number;
 }
@@ -343,6 +345,7 @@ export function fitTaper(input: TaperInput): TaperFit {
   const df2 = Math.max(1, n - 1);
   const fStat = best.ssr > 0 ? (linear.ssr - best.ssr) / (best.ssr / df2) : linear.ssr > 0 ? Infinity : 0;
   if (fStat < fCritical(df2) || Math.abs(best.m - 0.5) <= LINEAR_M_BAND) best = linear;
+  if (input.forceLaw !== undefined) best = fits.find((f) => f.law === input.forceLaw) ?? best;
 
   let maxAbs = 0;
   for (let i = 0; i < n; i++) {

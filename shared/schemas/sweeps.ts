@@ -26,6 +26,15 @@ const jsonField = <T extends z.ZodType>(schema: T) =>
 /** The column mapping as a multipart field (JSON text), for sweep and lot uploads alike. */
 export const MappingFieldSchema = jsonField(ExplicitMappingSchema);
 
+/** "Fit again" choices: the coil's loss resistance on, off or auto; a taper law forced instead of the profile's. */
+export const RefitInputSchema = z
+  .object({
+    withRp: z.union([z.boolean(), z.literal('auto')]).optional(),
+    law: z.enum(['linear', 'audio', 'reverse', 'two-segment']).optional(),
+  })
+  .default({});
+export type RefitInput = z.infer<typeof RefitInputSchema>;
+
 export const SweepUploadFieldsSchema = z.object({
   kind: SweepKindSchema,
   mapping: MappingFieldSchema.optional(),

@@ -61,6 +61,17 @@ describe('stateless analysis routes (any signed-in role)', () => {
     expect(res.body.L).toBeCloseTo(fitCoil({ points }).L, 10);
   });
 
+  test('value: a bare decimal capacitance is µF and says so; a bare 100 is refused with a hint (common practice)', async () => {
+    const viewer = await t.as('viewer');
+    const ok = await viewer.post('/api/analysis/value').send({ text: '.022', quantity: 'capacitance' });
+    expect(ok.status).toBe(200);
+    expect(ok.body).toMatchObject({ value: 22e-9, unit: 'F' });
+    expect(ok.body.readAs).toMatch(/read as 22 nF/);
+    const bare = await viewer.post('/api/analysis/value').send({ text: '100', quantity: 'capacitance' });
+    expect(bare.status).toBe(422);
+    expect(bare.body.error.fields.text).toMatch(/add a unit: 100p, 100n, 100u/);
+  });
+
   test('coil: without withRp the route fits with the loss resistance on "auto", as uploads do', async () => {
     // A pickup with eddy-current loss (Rp = 60 kΩ, invented values); the model is the textbook coil:
     // R and L in series, C and Rp in parallel (common practice).

@@ -212,3 +212,23 @@ describe('refit on start', () => {
     expect(part.statusReason).toMatch(new RegExp(`^refitted by engine version ${ANALYSIS_ENGINE_VERSION.replace(/\./g, '\\.')} \\(was analysis-0\\.9\\.0\\)`));
   });
 });
+
+describe('Fit again with choices', () => {
+  test('a forced taper law and the coil loss resistance off/on are honoured; the default is auto', async () => {
+    const tech = await t.as('tech');
+    const pot = (await tech.post('/api/parts').send({ kind: 'pot', label: 'POT-FORCE', nominal: 500e3, tolerancePct: 20, taperClass: 'audio' }).expect(201)).body.id;
+    const sweep = await upload(pot, 'taper', potCsv());
+    const forced = await tech.post(`/api/parts/${pot}/sweeps/${sweep.body.id}/refit`).send({ law: 'two-segment' });
+    expect(forced.status).toBe(200);
+    expect(forced.body.fit.result.law).toBe('two-segment');
+    const again = await tech.post(`/api/parts/${pot}/sweeps/${sweep.body.id}/refit`).send({});
+    expect(again.body.fit.result.law).toBe('audio');
+    const pu = (await tech.post('/api/parts').send({ kind: 'pickup', label: 'PU-FORCE', nominal: 7.8e3, tolerancePct: 8 }).expect(201)).body.id;
+    const coil = await upload(pu, 'impedance', coilCsv());
+    const on = await tech.post(`/api/parts/${pu}/sweeps/${coil.body.id}/refit`).send({ withRp: true });
+    expect(on.body.fit.result.Rp).not.toBeNull();
+    const off = await tech.post(`/api/parts/${pu}/sweeps/${coil.body.id}/refit`).send({ withRp: false });
+    expect(off.body.fit.result.Rp).toBeNull();
+    expect((await tech.post(`/api/parts/${pu}/sweeps/${coil.body.id}/refit`).send({ withRp: 'sometimes' })).status).toBe(422);
+  });
+});

@@ -8,6 +8,7 @@ import { coilFlags, fitCoil, type CoilFit, type CoilPoint } from '@shared/analys
 import { ANALYSIS_ENGINE_VERSION } from '@shared/analysis/engine-version';
 import { fitTaper, type TaperFit, type TaperPoint } from '@shared/analysis/taper';
 import type { ProfileRules } from '@shared/schemas/bench';
+import type { RefitInput } from '@shared/schemas/sweeps';
 import type { StoredPoint } from './store';
 
 export type SweepRow = typeof sweeps.$inferSelect;
@@ -42,7 +43,7 @@ function latestTotal(db: DbLike, partId: number): number | undefined {
 }
 
 /** Fits a sweep; `points` are the just-parsed points in stored form (else they are read back). */
-export function computeFit(db: DbLike, part: PartRow, sweep: SweepRow, stored?: StoredPoint[]): SweepFit {
+export function computeFit(db: DbLike, part: PartRow, sweep: SweepRow, stored?: StoredPoint[], choices: RefitInput = {}): SweepFit {
   const points = stored ? fitInput(sweep.kind, stored) : sweepInput(db, sweep);
   const rules = (profileForPart(db, part)?.rules ?? {}) as ProfileRules;
   if (sweep.kind === 'taper') {
@@ -52,11 +53,12 @@ export function computeFit(db: DbLike, part: PartRow, sweep: SweepRow, stored?: 
       total: latestTotal(db, part.id),
       nominal: part.nominal ?? undefined,
       tolerancePct: part.tolerancePct ?? undefined,
+      ...(choices.law ? { forceLaw: choices.law } : {}),
       profile: { law: rules.law ?? (part.taperClass as TaperFit['law'] | null) ?? undefined, mMin: rules.mMin, mMax: rules.mMax, maxEndResistance: rules.maxEndResistance },
     });
     return { kind: 'taper', result };
   }
-  const fit = fitCoil({ points: points as CoilPoint[], withRp: 'auto' });
+  const fit = fitCoil({ points: points as CoilPoint[], withRp: choices.withRp ?? 'auto' });
   const flags = coilFlags(fit, {
     dcr: part.nominal != null && part.tolerancePct != null ? { nominal: part.nominal, tolerancePct: part.tolerancePct } : undefined,
     inductance: rules.inductanceNominal && rules.inductanceTolerancePct ? { nominal: rules.inductanceNominal, tolerancePct: rules.inductanceTolerancePct } : undefined,
@@ -74,9 +76,9 @@ export function fitAndStore(
   part: PartRow,
   sweep: SweepRow,
   userId: string | null,
-  opts: { points?: StoredPoint[]; reasonPrefix?: string } = {},
+  opts: { points?: StoredPoint[]; reasonPrefix?: string; choices?: RefitInput } = {},
 ): FitRow {
-  const fit = computeFit(db, part, sweep, opts.points);
+  const fit = computeFit(db, part, sweep, opts.points, opts.choices);
   const flags = fit.result.flags;
   const now = Date.now();
   db.update(fits).set({ supersededAt: now }).where(and(eq(fits.sweepId, sweep.id), eq(fits.partId, part.id))).run();

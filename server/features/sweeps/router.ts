@@ -9,7 +9,7 @@ import { ApiRouter } from '@server/http/router';
 import { fileRefused } from '@server/uploads/refusal';
 import { checkFileType, singleFileUpload, withStoredFile } from '@server/uploads/store';
 import { IdParamsSchema } from '@shared/schemas/common';
-import { SweepUploadFieldsSchema } from '@shared/schemas/sweeps';
+import { RefitInputSchema, SweepUploadFieldsSchema } from '@shared/schemas/sweeps';
 import { parseSweepCsv } from '@shared/csv/sweeps';
 import { fitAndStore, fitInput, sweepInput, type SweepRow } from './fit';
 import { insertSweep, toStoredPoints } from './store';
@@ -79,14 +79,14 @@ export function sweepRoutes(ctx: AppContext) {
 
   // Runs the current engine again over a stored sweep; the previous fit stays in the history.
   api.post('/sweeps/:sweepId/refit', {
-    schemas: { params: IdParamsSchema.extend({ sweepId: z.coerce.number().int().positive() }) },
-    handle: ({ params, user }) => {
+    schemas: { params: IdParamsSchema.extend({ sweepId: z.coerce.number().int().positive() }), body: RefitInputSchema },
+    handle: ({ params, body, user }) => {
       const part = findPart(db, params.id);
       const sweep = db.select().from(sweeps).where(and(eq(sweeps.id, params.sweepId), eq(sweeps.partId, params.id))).get();
       if (!part || !sweep) throw notFound('That sweep');
       return db.transaction((tx) => {
-        const fit = fitAndStore(tx, part, sweep, user.id);
-        audit(tx, { userId: user.id, action: 'fit.rerun', entity: 'part', entityId: part.id, detail: { sweepId: sweep.id, fitId: fit.id } });
+        const fit = fitAndStore(tx, part, sweep, user.id, { choices: body });
+        audit(tx, { userId: user.id, action: 'fit.rerun', entity: 'part', entityId: part.id, detail: { sweepId: sweep.id, fitId: fit.id, choices: body } });
         return { fit, part: findPart(tx, part.id) };
       });
     },

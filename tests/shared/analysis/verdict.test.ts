@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { readFileSync } from 'node:fs';
-import { instrumentUncertainty, judge, limitsFromTolerance } from '@shared/analysis/verdict';
+import { accuracyAt, instrumentUncertainty, judge, limitsFromTolerance, meterRange } from '@shared/analysis/verdict';
 import { parseValue } from '@shared/units/parse';
 
 function readSeries(name: string): number[] {
@@ -156,5 +156,27 @@ describe('judge — simple acceptance when no uncertainty is known', () => {
     expect(() => judge({ value: 1, lower: 2, upper: 1, unit: 'Ω' })).toThrow(RangeError);
     expect(() => judge({ value: NaN, lower: 0, upper: 1, unit: 'Ω' })).toThrow(RangeError);
     expect(() => judge({ value: 1, lower: 0, upper: 2, uncertainty: -1, unit: 'Ω' })).toThrow(RangeError);
+  });
+});
+
+describe('meter accuracy per range (display counts)', () => {
+  // A 6000-count meter: ranges 6 kΩ, 60 kΩ, 600 kΩ …; one count is the range / 6000 (common
+  // practice for auto-ranging meters, no published source). Arithmetic by hand.
+  it('the range is the smallest counts × 10^k that holds the reading', () => {
+    expect(meterRange(598e3, 6000)).toBe(600e3);
+    expect(meterRange(5.98e3, 6000)).toBe(6e3);
+    expect(meterRange(6e3, 6000)).toBe(60e3); // 6000 counts display 0 … 5999
+    expect(meterRange(47e-9, 4000)).toBeCloseTo(400e-9, 20);
+  });
+  it('±(0.5 % + 2 counts): 100 Ω counts on the 600 kΩ range, 1 Ω counts on the 6 kΩ range', () => {
+    const acc = { pctOfReading: 0.5, counts: 2, resolution: 0 };
+    expect(instrumentUncertainty(598e3, accuracyAt(598e3, acc, 6000))).toBeCloseTo(2990 + 200, 9);
+    expect(instrumentUncertainty(5.98e3, accuracyAt(5.98e3, acc, 6000))).toBeCloseTo(29.9 + 2, 9);
+  });
+  it('an accuracy stated for one range is used on that range only', () => {
+    const acc = { pctOfReading: 0.5, counts: 2, resolution: 0, ranges: [{ range: 6e6, pctOfReading: 1.5, counts: 3 }] };
+    expect(accuracyAt(5e6, acc, 6000)).toEqual({ pctOfReading: 1.5, counts: 3, resolution: 1000 });
+    expect(accuracyAt(5e5, acc, 6000)).toEqual({ pctOfReading: 0.5, counts: 2, resolution: 100 });
+    expect(accuracyAt(5e5, acc, null)).toBe(acc); // no display counts recorded: the fixed resolution
   });
 });

@@ -61,7 +61,9 @@ export function readNominal(kind: LotKind, text: string): NominalReading {
   const wantKind = kind === 'capacitor' ? 'capacitor' : 'resistor';
   const asMarking = (): NominalReading | null => {
     try {
-      const d = decodeMarking(t);
+      const all = decodeMarking(t);
+      // An ambiguous code (10K: 10 pF ±10 % or 10 kΩ) is read the way that fits this lot's kind.
+      const d = all.readings.find((r) => r.kind === wantKind) ?? all;
       if (d.kind !== wantKind) return { ok: false, error: `"${t}" is a ${d.kind} marking (${formatValue(d.nominal, d.unit)}), but this is a lot of ${LOT_KIND_LABEL[kind].toLowerCase()}.` };
       return { ok: true, empty: false, nominal: d.nominal, tolerancePct: d.tolerancePct, marking: t, text: formatValue(d.nominal, d.unit) + (d.tolerancePct != null ? ` ±${d.tolerancePct} %` : '') };
     } catch (err) {

@@ -2,7 +2,7 @@ import { queryOptions, useMutation, useQuery } from '@tanstack/react-query';
 import type { CoilFit, CoilPoint } from '@shared/analysis/coil';
 import type { TaperFit, TaperPoint } from '@shared/analysis/taper';
 import type { ColumnMapping, ColumnRole } from '@shared/csv/columns';
-import type { SweepKind } from '@shared/schemas/sweeps';
+import type { RefitInput, SweepKind } from '@shared/schemas/sweeps';
 import { api } from '@/lib/api-client';
 
 export type FitRow = {
@@ -57,5 +57,6 @@ export function uploadSweep({ partId, file, kind, fullRotationDeg, mapping }: Sw
 /** A fit moves the part's status, so the whole part is stale. */
 export const useUploadSweep = () => useMutation({ mutationFn: uploadSweep, meta: { invalidates: [['parts']] } });
 
-export const refitSweep = ({ partId, sweepId }: { partId: number; sweepId: number }) => api.post<{ fit: FitRow }>(`/api/parts/${partId}/sweeps/${sweepId}/refit`);
+export const refitSweep = ({ partId, sweepId, choices }: { partId: number; sweepId: number; choices?: RefitInput }) =>
+  api.post<{ fit: FitRow }>(`/api/parts/${partId}/sweeps/${sweepId}/refit`, choices ?? {});
 export const useRefitSweep = () => useMutation({ mutationFn: refitSweep, meta: { invalidates: [['parts']] } });

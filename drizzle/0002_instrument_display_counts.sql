@@ -1,0 +1,1 @@
+ALTER TABLE `instruments` ADD `display_counts` integer;
