@@ -17,7 +17,7 @@
 // ch. 5). The two-segment law is linear in m, so its fit is closed-form.
 import { formatPercent, formatValue } from '@shared/units/format';
 import { ANALYSIS_ENGINE_VERSION } from '@shared/analysis/engine-version';
-import fQuantile from '@stdlib/stats-base-dists-f-quantile';
+import { fQuantile } from './f-distribution';
 
 export type TaperLaw = 'linear' | 'audio' | 'reverse' | 'two-segment';
 
@@ -319,7 +319,7 @@ const LAWS: TaperLaw[] = ['linear', 'audio', 'reverse', 'two-segment'];
 const F_LEVEL = 0.999;
 const LINEAR_M_BAND = 0.02;
 
-/** The 99.9 % point of F(1, ν) (stdlib's F quantile, via the inverse regularised incomplete beta). */
+/** The 99.9 % point of F(1, ν) (f-distribution.ts: the inverse of the regularised incomplete beta). */
 export function fCritical(df2: number, level = F_LEVEL): number {
   return fQuantile(level, 1, df2);
 }

@@ -1,4 +1,5 @@
 import { readFileSync } from 'node:fs';
+import stdlibFQuantile from '@stdlib/stats-base-dists-f-quantile';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { fCritical, fitTaper, normaliseTaper, taperLawValue, type TaperLaw, type TaperPoint } from '@shared/analysis/taper';
@@ -207,6 +208,14 @@ describe('the linear-versus-curved F test uses F(1, n − 1) for the actual numb
       expect(fCritical(2, p) / ((2 * p * p) / (1 - p * p))).toBeCloseTo(1, 9);
     }
     expect(fCritical(1e6)).toBeCloseTo(10.83, 2); // the large-sample point the test used before
+  });
+
+  it('agrees with @stdlib/stats-base-dists-f-quantile (reference library) to 1e-9 relative', () => {
+    for (const nu of [1, 2, 3, 5, 7, 10, 30, 100, 1000]) {
+      for (const p of [0.9, 0.95, 0.99, 0.999]) {
+        expect(fCritical(nu, p) / stdlibFQuantile(p, 1, nu), `p ${p}, nu ${nu}`).toBeCloseTo(1, 9);
+      }
+    }
   });
 
   it('truly linear pots with 6 readings are rarely called curved (seeded simulation, 3 % noise)', () => {
