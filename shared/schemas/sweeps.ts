@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { TAPER_LAWS } from '@shared/taper/law';
 import { VALUE_RANGES, rangeWords } from './ranges';
 
 export const SWEEP_KINDS = ['taper', 'impedance'] as const;
@@ -30,7 +31,7 @@ export const MappingFieldSchema = jsonField(ExplicitMappingSchema);
 export const RefitInputSchema = z
   .object({
     withRp: z.union([z.boolean(), z.literal('auto')]).optional(),
-    law: z.enum(['linear', 'audio', 'reverse', 'two-segment']).optional(),
+    law: z.enum(TAPER_LAWS).optional(),
   })
   .default({});
 export type RefitInput = z.infer<typeof RefitInputSchema>;

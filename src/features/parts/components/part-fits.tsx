@@ -5,6 +5,7 @@ import { DEFAULT_CABLE, LOAD_IDS, LOADS, loadedResponse, type LoadId } from '@sh
 import type { CoilFit } from '@shared/analysis/coil';
 import type { TaperFit } from '@shared/analysis/taper';
 import type { RefitInput } from '@shared/schemas/sweeps';
+import { TAPER_LAW_LABEL } from '@shared/taper/law';
 import { formatValue } from '@shared/units/format';
 import { Alert, Loading } from '@/components/ui/alert';
 import { Badge } from '@/components/ui/badge';
@@ -14,7 +15,6 @@ import { formatDateTime } from '@/lib/format';
 import type { PartDetail } from '../api/get-part';
 import { useFits, useRefitSweep, useSweeps, type FitRow } from '../api/sweeps';
 
-const LAW_WORD = { linear: 'Linear', audio: 'Audio (exponential)', reverse: 'Reverse audio', 'two-segment': 'Two-segment' } as const;
 
 const pct = (x: number, digits = 1) => `${x.toFixed(digits)} %`;
 const withErr = (v: number, se: number | null | undefined, unit: string) => (
@@ -42,7 +42,7 @@ function TaperFacts({ r }: { r: TaperFit }) {
   }[r.totalSource];
   return (
     <dl>
-      <Row term="Law">{<span className="font-sans">{LAW_WORD[r.law]}</span>}</Row>
+      <Row term="Law">{<span className="font-sans">{TAPER_LAW_LABEL[r.law]}</span>}</Row>
       <Row term="Mid-rotation m">{pct(r.m * 100)}</Row>
       <Row term="R²">{r.r2.toFixed(5)}</Row>
       <Row term="Deviation RMS / max">{`${pct(r.rmsPct, 2)} / ${pct(r.maxPct, 2)}`}</Row>
@@ -171,7 +171,7 @@ export function FitFlags({ fit }: { fit: FitRow }) {
 
 const summary = (f: FitRow) =>
   f.kind === 'taper'
-    ? `${LAW_WORD[f.result.law]}, m ${pct(f.result.m * 100)}, R² ${f.result.r2.toFixed(4)}`
+    ? `${TAPER_LAW_LABEL[f.result.law]}, m ${pct(f.result.m * 100)}, R² ${f.result.r2.toFixed(4)}`
     : `R ${formatValue(f.result.R, 'Ω')}, L ${formatValue(f.result.L, 'H')}, C ${formatValue(f.result.C, 'F')}, f0 ${formatValue(f.result.f0, 'Hz')}`;
 
 export function PartFits({ part }: { part: PartDetail }) {
@@ -202,7 +202,7 @@ export function PartFits({ part }: { part: PartDetail }) {
             <div className="space-y-3">
               {refit.isSuccess && refit.variables?.sweepId === s.id && (
                 <p role="status" className="text-sm text-ink-soft">
-                  Fitted again: {refit.data.fit.kind === 'taper' ? `${LAW_WORD[refit.data.fit.result.law]}, m ${pct(refit.data.fit.result.m * 100)}` : `R ${formatValue(refit.data.fit.result.R, 'Ω')}, L ${formatValue(refit.data.fit.result.L, 'H')}, loss resistance ${refit.data.fit.result.Rp != null ? formatValue(refit.data.fit.result.Rp, 'Ω') : 'not used'}`}; the earlier fit is kept below.
+                  Fitted again: {refit.data.fit.kind === 'taper' ? `${TAPER_LAW_LABEL[refit.data.fit.result.law]}, m ${pct(refit.data.fit.result.m * 100)}` : `R ${formatValue(refit.data.fit.result.R, 'Ω')}, L ${formatValue(refit.data.fit.result.L, 'H')}, loss resistance ${refit.data.fit.result.Rp != null ? formatValue(refit.data.fit.result.Rp, 'Ω') : 'not used'}`}; the earlier fit is kept below.
                 </p>
               )}
               <FitFlags fit={fit} />

@@ -1,1 +1,0 @@
-ALTER TABLE `sweep_points` ADD `total` real;

@@ -1,1 +1,0 @@
-ALTER TABLE `instruments` ADD `display_counts` integer;
