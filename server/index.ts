@@ -2,6 +2,7 @@ import { fileURLToPath } from 'node:url';
 import { createApp } from '@server/app';
 import { createContext } from '@server/bootstrap';
 import { seedDemo } from '@server/demo/seed';
+import { refitOutdatedTaperFits } from '@server/features/sweeps/refit-on-start';
 import { readEnv } from '@server/env';
 
 const env = readEnv();
@@ -19,6 +20,10 @@ if (env.LUGBOOK_SEED_DEMO) {
   const seeded = await seedDemo(ctx, { password: env.LUGBOOK_DEMO_PASSWORD });
   if (seeded) console.log(`Seeded the demo workshop into ${env.dbFile}`);
 }
+
+const refit = refitOutdatedTaperFits(ctx.db);
+if (refit.refitted > 0) console.log(`Refitted ${refit.refitted} stored taper fit(s) made by an older engine version.`);
+for (const f of refit.failed) console.log(`Sweep ${f.sweepId} kept its old fit: ${f.reason}`);
 
 const server = createApp(ctx).listen(env.PORT, () => {
   console.log(`Lugbook is serving on http://localhost:${env.PORT} (data in ${env.LUGBOOK_DATA_DIR})`);

@@ -82,6 +82,8 @@ export const instruments = sqliteTable('instruments', {
   serial: text('serial'),
   /** Accuracy per quantity: { resistance: { pctOfReading, counts, resolution }, … } as JSON. */
   accuracy: text('accuracy', { mode: 'json' }).notNull().$type<Record<string, unknown>>().default({}),
+  /** Display counts (e.g. 6000); null when not recorded (then each accuracy's fixed resolution is used). */
+  displayCounts: integer('display_counts'),
   /** ISO date (YYYY-MM-DD). */
   calibrationDue: text('calibration_due'),
   notes: text('notes'),
@@ -249,6 +251,8 @@ export const sweepPoints = sqliteTable(
     x: real('x').notNull(),
     y: real('y').notNull(),
     z: real('z'),
+    /** Taper only: R13 (lug 1 to lug 3) measured beside the reading, Ω; null when not measured. */
+    total: real('total'),
   },
   (t) => [index('sweep_points_sweep_idx').on(t.sweepId)],
 );

@@ -71,7 +71,10 @@ export interface CoilFit {
 
 export interface CoilFitInput {
   points: CoilPoint[];
-  /** Include the parallel loss resistance; 'auto' keeps it only when it improves the fit significantly. Default false. */
+  /**
+   * Include the parallel loss resistance; 'auto' keeps it only when it improves the fit
+   * significantly. Default 'auto', the same for uploads, "Fit again" and the stateless route.
+   */
   withRp?: boolean | 'auto';
 }
 
@@ -405,7 +408,7 @@ const POOR_PHASE_DEG = 3;
 
 export function fitCoil(input: CoilFitInput): CoilFit {
   const samples = toSamples(input.points);
-  const mode = input.withRp ?? false;
+  const mode = input.withRp ?? 'auto';
   const minPoints = mode === false ? 3 : 4;
   if (samples.length < minPoints) throw new RangeError(`A coil fit needs at least ${minPoints} points with a positive frequency.`);
   const start = startFromData(samples);

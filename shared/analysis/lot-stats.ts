@@ -108,21 +108,37 @@ function compensatedSum(x: Float64Array): number {
   return sum + c;
 }
 
+/**
+ * SD from the corrected two-pass sums with the squares taken of d / spread (spread = the largest
+ * |x − m0|), so that neither squaring overflows at 1e200 nor underflows at 1e-200 (the scaling
+ * LAPACK's dnrm2 uses, Anderson 2017 "Algorithm 978: Safe scaling in the Level 1 BLAS").
+ * s1 is the plain sum of d, s2 the sum of (d / spread)².
+ */
+function scaledSd(s1: number, s2: number, inv: number, spread: number, n: number): number {
+  if (n < 2) return NaN;
+  const s1s = s1 * inv;
+  const v = Math.max(0, (s2 - (s1s * s1s) / n) / (n - 1));
+  return spread > 0 ? spread * Math.sqrt(v) : 0;
+}
+
 /** Mean and sample SD by the corrected two-pass algorithm (Chan, Golub & LeVeque 1983, eq. 1.7). */
 function meanSd(x: Float64Array): { mean: number; sd: number } {
   const n = x.length;
   if (n === 0) return { mean: NaN, sd: NaN };
   const m0 = compensatedSum(x) / n;
+  let spread = 0;
+  for (let i = 0; i < n; i++) spread = Math.max(spread, Math.abs(x[i]! - m0));
+  const inv = spread > 0 ? 1 / spread : 1;
   let s1 = 0;
   let s2 = 0;
   for (let i = 0; i < n; i++) {
     const d = x[i]! - m0;
+    const ds = d * inv;
     s1 += d;
-    s2 += d * d;
+    s2 += ds * ds;
   }
   const mean = m0 + s1 / n;
-  const sd = n < 2 ? NaN : Math.sqrt(Math.max(0, (s2 - (s1 * s1) / n) / (n - 1)));
-  return { mean, sd };
+  return { mean, sd: scaledSd(s1, s2, inv, spread, n) };
 }
 
 function summaryFromSorted(sorted: Float64Array, mean: number, sd: number): SummaryStatistics {
@@ -227,13 +243,16 @@ export function lotStatistics(input: LotInput): LotStatistics {
   let countAbove = 0;
   let s1 = 0;
   let s2 = 0;
+  const spread = Math.max(max - m0, m0 - min);
+  const inv = spread > 0 ? 1 / spread : 1;
   const invNom = 100 / Math.abs(nominal); // as in verdict.ts, so a negative nominal keeps "below" below
   const invW = 1 / binWidth;
   for (let i = 0; i < n; i++) {
     const v = x[i]!;
     const d = v - m0;
+    const ds = d * inv;
     s1 += d;
-    s2 += d * d;
+    s2 += ds * ds;
     const dev = (v - nominal) * invNom;
     deviationsPct[i] = dev;
     const below = v < lower;
@@ -258,7 +277,7 @@ export function lotStatistics(input: LotInput): LotStatistics {
     if (binIndices !== null) binIndices[b]!.push(i);
   }
   const mean = m0 + s1 / n;
-  const sd = n < 2 ? NaN : Math.sqrt(Math.max(0, (s2 - (s1 * s1) / n) / (n - 1)));
+  const sd = scaledSd(s1, s2, inv, spread, n);
   const capable = n >= 2 && sd > 0;
   // NIST/SEMATECH e-Handbook §6.1.6.
   const cp = capable ? (upper - lower) / (6 * sd) : null;

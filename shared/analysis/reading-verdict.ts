@@ -3,7 +3,7 @@
 import type { ProfileRules } from '@shared/schemas/bench';
 import type { PartKind } from '@shared/schemas/common';
 import { QUANTITY_UNIT, type Quantity } from '@shared/units/quantities';
-import { instrumentUncertainty, judge, limitsFromTolerance, type Accuracy, type Verdict } from './verdict';
+import { accuracyAt, instrumentUncertainty, judge, limitsFromTolerance, type Accuracy, type Verdict } from './verdict';
 
 export interface PartSpec {
   kind: PartKind;
@@ -39,10 +39,10 @@ export interface ReadingJudgement extends Verdict {
 export function judgeReading(
   part: PartSpec,
   reading: ReadingToJudge,
-  opts: { profile?: ProfileSpec | null; accuracy?: Accuracy | null } = {},
+  opts: { profile?: ProfileSpec | null; accuracy?: Accuracy | null; displayCounts?: number | null } = {},
 ): ReadingJudgement | null {
   const unit = QUANTITY_UNIT[reading.quantity];
-  const uncertainty = opts.accuracy ? instrumentUncertainty(reading.value, opts.accuracy) : null;
+  const uncertainty = opts.accuracy ? instrumentUncertainty(reading.value, accuracyAt(reading.value, opts.accuracy, opts.displayCounts)) : null;
   const rules = opts.profile?.rules ?? {};
 
   if (reading.quantity === nominalQuantity(part.kind) && part.nominal != null) {

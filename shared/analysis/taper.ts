@@ -9,6 +9,7 @@
 // ch. 5). The two-segment law is linear in m, so its fit is closed-form.
 import { formatPercent, formatValue } from '@shared/units/format';
 import { ANALYSIS_ENGINE_VERSION } from '@shared/analysis/engine-version';
+import { fQuantile } from './f-distribution';
 import { lawCurve, taperLawValue, TAPER_LAWS, type ProfileLaw, type TaperLawKind } from '@shared/taper/law';
 
 export interface TaperPoint {
@@ -17,6 +18,8 @@ export interface TaperPoint {
   resistance: number;
   /** Wiper to lug 3, Ω, when measured. */
   resistanceW3?: number;
+  /** Lug 1 to lug 3 (R13), Ω, when the sweep measured it beside the reading. */
+  total?: number;
 }
 
 export interface TaperProfile {
@@ -33,14 +36,25 @@ export interface TaperInput {
   rotationUnit: 'deg' | 'percent';
   /** Full mechanical rotation in degrees; default 300 — common practice (no published source). */
   fullRotationDeg?: number;
-  /** R13 as measured, Ω. */
+  /**
+   * R13 from a bench reading, Ω: used only when the sweep itself cannot give R13 (no R13 column, no
+   * reading with both halves, no reading at full rotation), and the fit then says so.
+   */
   total?: number;
   nominal?: number;
   tolerancePct?: number;
   profile?: TaperProfile;
+  /** Report this law's fit instead of the chosen one ("Fit again" with a forced law). */
+  forceLaw?: TaperLawKind;
   /** A drop between successive readings larger than this (% of R13) is a monotonicity break. Default 0.5. */
   monotonicTolerancePct?: number;
 }
+
+export const TOTAL_SOURCES = ['sweep-r13', 'sweep-halves', 'sweep-full-rotation', 'bench-reading'] as const;
+export type TotalSource = (typeof TOTAL_SOURCES)[number];
+
+/** "Full rotation" is x ≥ 0.99 of the rotation. */
+const FULL_ROTATION_X = 0.99;
 
 export interface TaperCandidate {
   law: TaperLawKind;
@@ -65,8 +79,13 @@ export interface TaperFit {
   m: number;
   /** R13 used for the normalisation, Ω. */
   total: number;
-  /** Where `total` came from: given, or the largest-rotation reading (plus its wiper-to-lug-3 value). */
-  totalSource: 'measured' | 'last-reading' | 'last-reading-plus-end';
+  /**
+   * Where `total` came from, in this order of preference: the sweep's own R13 column (mean of its
+   * readings); R1W + RW3 where both halves were measured (mean over those readings); the reading
+   * at full rotation (x ≥ 0.99; the end resistance is then unknown); a bench reading given with
+   * the sweep, only when the sweep gives none of these.
+   */
+  totalSource: TotalSource;
   totalDeviationPct: number | null;
   r2: number;
   /** RMS and largest |residual| of the best law, in % of R13. */
@@ -114,21 +133,28 @@ export function normaliseTaper(input: TaperInput): NormalisedTaper {
     })
     .sort((a, b) => (input.points[a] as TaperPoint).rotation - (input.points[b] as TaperPoint).rotation);
   if (order.length < 3) throw new RangeError('A taper fit needs at least three readings.');
-  let total: number;
-  let totalSource: TaperFit['totalSource'];
-  if (input.total !== undefined) {
-    total = input.total;
-    totalSource = 'measured';
-  } else {
-    const last = input.points[order[order.length - 1] as number] as TaperPoint;
-    const w3 = last.resistanceW3;
-    total = last.resistance + (w3 !== undefined && Number.isFinite(w3) ? w3 : 0);
-    totalSource = w3 !== undefined && Number.isFinite(w3) ? 'last-reading-plus-end' : 'last-reading';
-  }
-  if (!(total > 0)) throw new RangeError('The end-to-end resistance (R13) must be positive.');
   const x = order.map((i) => (input.points[i] as TaperPoint).rotation / full);
+  const { total, totalSource } = totalFromSweep(input, order, x);
+  if (!(total > 0)) throw new RangeError('The end-to-end resistance (R13) must be positive.');
   const y = order.map((i) => (input.points[i] as TaperPoint).resistance / total);
   return { x, y, order, total, totalSource };
+}
+
+const finite = (v: number | undefined): v is number => v !== undefined && Number.isFinite(v);
+
+/** R13 from the sweep itself (see TaperFit.totalSource), else the bench reading. */
+function totalFromSweep(input: TaperInput, order: number[], x: number[]): { total: number; totalSource: TotalSource } {
+  const pts = order.map((i) => input.points[i] as TaperPoint);
+  const r13 = pts.map((p) => p.total).filter(finite);
+  if (r13.length > 0) return { total: r13.reduce((a, b) => a + b, 0) / r13.length, totalSource: 'sweep-r13' };
+  const halves = pts.filter((p) => finite(p.resistanceW3)).map((p) => p.resistance + (p.resistanceW3 as number));
+  if (halves.length > 0) return { total: halves.reduce((a, b) => a + b, 0) / halves.length, totalSource: 'sweep-halves' };
+  const lastX = x[x.length - 1] as number;
+  if (lastX >= FULL_ROTATION_X) return { total: (pts[pts.length - 1] as TaperPoint).resistance, totalSource: 'sweep-full-rotation' };
+  if (input.total !== undefined && Number.isFinite(input.total)) return { total: input.total, totalSource: 'bench-reading' };
+  throw new RangeError(
+    'The sweep gives no end-to-end resistance (R13): it has no R13 column, no reading of both halves (R1W and RW3) and no reading at full rotation, and no bench reading of R13 was given.',
+  );
 }
 
 function ssrOf(law: TaperLawKind, m: number, x: number[], y: number[]): number {
@@ -246,10 +272,16 @@ function fitLaw(law: TaperLawKind, x: number[], y: number[]): { m: number; ssr: 
 
 // Model choice: the one-parameter law with the smallest sum of squares, unless the linear law
 // (no free parameter) is not significantly worse: F = (SSR_lin − SSR_1)/(SSR_1/(n − 1)) below the
-// 99.9 % point of F(1, ∞) ≈ 10.83, or the fitted m is within 0.02 of one half. Both thresholds
-// are this project's choice.
-const F_LINEAR = 10.83;
+// 99.9 % point of F(1, n − 1) for the actual number of readings (the extra-sum-of-squares F test,
+// e.g. Draper & Smith, "Applied Regression Analysis", 3rd ed., §6.1), or the fitted m is within
+// 0.02 of one half. The 99.9 % level and the 0.02 band are this project's choice.
+const F_LEVEL = 0.999;
 const LINEAR_M_BAND = 0.02;
+
+/** The 99.9 % point of F(1, ν) (f-distribution.ts: the inverse of the regularised incomplete beta). */
+export function fCritical(df2: number, level = F_LEVEL): number {
+  return fQuantile(level, 1, df2);
+}
 
 const fmt = (v: number, digits = 3) => v.toPrecision(digits);
 
@@ -269,8 +301,10 @@ export function fitTaper(input: TaperInput): TaperFit {
 
   const linear = fits[0] as (typeof fits)[number];
   let best = fits.slice(1).reduce((a, b) => (b.ssr < a.ssr ? b : a));
-  const fStat = best.ssr > 0 ? (linear.ssr - best.ssr) / (best.ssr / Math.max(1, n - 1)) : linear.ssr > 0 ? Infinity : 0;
-  if (fStat < F_LINEAR || Math.abs(best.m - 0.5) <= LINEAR_M_BAND) best = linear;
+  const df2 = Math.max(1, n - 1);
+  const fStat = best.ssr > 0 ? (linear.ssr - best.ssr) / (best.ssr / df2) : linear.ssr > 0 ? Infinity : 0;
+  if (fStat < fCritical(df2) || Math.abs(best.m - 0.5) <= LINEAR_M_BAND) best = linear;
+  if (input.forceLaw !== undefined) best = fits.find((f) => f.law === input.forceLaw) ?? best;
 
   let maxAbs = 0;
   for (let i = 0; i < n; i++) {
@@ -290,7 +324,9 @@ export function fitTaper(input: TaperInput): TaperFit {
   const last = input.points[order[n - 1] as number] as TaperPoint;
   let end: number | null = null;
   if (last.resistanceW3 !== undefined && Number.isFinite(last.resistanceW3)) end = last.resistanceW3;
-  else if (totalSource === 'measured' && (x[n - 1] as number) >= 0.99) end = Math.max(0, total - last.resistance);
+  else if ((totalSource === 'sweep-r13' || totalSource === 'bench-reading') && (x[n - 1] as number) >= FULL_ROTATION_X) {
+    end = Math.max(0, total - last.resistance);
+  }
 
   let halfSumMismatch: number | null = null;
   for (const p of input.points) {

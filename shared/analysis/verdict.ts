@@ -16,9 +16,43 @@ import type { Quantity } from '@shared/units/quantities';
 export type Accuracy = {
   pctOfReading: number;
   counts: number;
-  /** The value of one count (least significant digit) at the range in use, in SI units. */
+  /**
+   * The value of one count (least significant digit), in SI units: fixed, for an instrument whose
+   * display counts are not recorded. With display counts it follows the range of each reading.
+   */
   resolution: number;
+  /** Accuracy on particular ranges (range = counts × 10^k in SI units), when it differs from the default. */
+  ranges?: { range: number; pctOfReading: number; counts: number }[];
 };
+
+/**
+ * The range a reading falls on: the smallest decade range counts × 10^k (SI units) that holds it,
+ * a display of `displayCounts` counts showing 0 … displayCounts − 1. A 6000-count meter reads
+ * 598 kΩ on its 600 kΩ range (common practice for auto-ranging meters, no published source).
+ */
+export function meterRange(reading: number, displayCounts: number): number {
+  if (!(displayCounts >= 2) || !Number.isFinite(displayCounts)) throw new RangeError('Display counts must be 2 or more.');
+  const a = Math.abs(reading);
+  if (!Number.isFinite(a)) throw new RangeError('meterRange needs a finite reading.');
+  if (a === 0) return displayCounts * 1e-3; // the lowest range a meter offers; any small decade does here
+  let k = Math.ceil(Math.log10(a / displayCounts));
+  const at = (e: number) => Number(`${displayCounts}e${e}`);
+  while (at(k) <= a) k++;
+  while (at(k - 1) > a) k--;
+  return at(k);
+}
+
+/** The accuracy that applies to one reading: on a meter with display counts, per range (see meterRange). */
+export function accuracyAt(reading: number, accuracy: Accuracy, displayCounts?: number | null): Accuracy {
+  if (!displayCounts) return accuracy;
+  const range = meterRange(reading, displayCounts);
+  const own = accuracy.ranges?.find((r) => Math.abs(r.range - range) <= range * 1e-9);
+  return {
+    pctOfReading: own?.pctOfReading ?? accuracy.pctOfReading,
+    counts: own?.counts ?? accuracy.counts,
+    resolution: range / displayCounts,
+  };
+}
 
 export type VerdictKind = 'pass' | 'fail' | 'marginal';
 
@@ -64,7 +98,21 @@ export function instrumentUncertainty(reading: number, accuracy: Accuracy): numb
   return (pctOfReading / 100) * Math.abs(reading) + counts * resolution;
 }
 
-/** nominal ± tolerance (symmetric percent, or {minusPct, plusPct} for e.g. −20 %/+80 %). */
+/**
+ * The decimal number a limit means: products such as 100 nF × 1.01 land one binary ulp beside the
+ * decimal 101 nF, which would judge a reading typed exactly on the limit as outside it. Rounding
+ * to 15 significant digits (the digits a double always holds, IEEE 754 binary64) gives back the
+ * double nearest the decimal value, the same double the parser makes from "101n".
+ */
+export function decimalLimit(x: number): number {
+  if (!Number.isFinite(x) || x === 0) return x;
+  return Number(x.toPrecision(15));
+}
+
+/**
+ * nominal ± tolerance (symmetric percent, or {minusPct, plusPct} for e.g. −20 %/+80 %), as the
+ * decimal values the user means (see decimalLimit). Lot counts below/above use the same limits.
+ */
 export function limitsFromTolerance(
   nominal: number,
   tolerancePct: number | { minusPct: number; plusPct: number },
@@ -74,8 +122,8 @@ export function limitsFromTolerance(
   if (!Number.isFinite(nominal) || !Number.isFinite(minus) || !Number.isFinite(plus) || minus < 0 || plus < 0) {
     throw new RangeError('limitsFromTolerance needs a finite nominal and non-negative tolerances.');
   }
-  const a = nominal * (1 - minus / 100);
-  const b = nominal * (1 + plus / 100);
+  const a = decimalLimit(nominal * (1 - minus / 100));
+  const b = decimalLimit(nominal * (1 + plus / 100));
   return a <= b ? { lower: a, upper: b } : { lower: b, upper: a };
 }
 

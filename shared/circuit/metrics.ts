@@ -41,7 +41,16 @@ function levelDb(c: CompiledHarness, f: number): number {
   return DB_PER_LN * Math.log(c.hRe * c.hRe + c.hIm * c.hIm);
 }
 
+/**
+ * Below this level everywhere in the swept range the output is "no signal": −120 dB of a pickup's
+ * ~100 mV is 0.1 µV, under the input noise of any amplifier (common practice, no published source).
+ * A volume pot at 0 leaves only its 1 mΩ clamp (netlist.ts), about −170 dB: no peak to speak of.
+ */
+export const NO_SIGNAL_DB = -120;
+
 export interface ResponseMetrics {
+  /** True when the whole curve lies below NO_SIGNAL_DB: the other figures then describe nothing audible. */
+  noSignal: boolean;
   /**
    * The highest point of the curve. When it lies inside the swept range it is refined by a
    * golden-section search on the log-frequency axis with exact solves (to 1e-9 of a decade);
@@ -137,6 +146,7 @@ function curveMetrics(c: CompiledHarness, freqs: ArrayLike<number>, db: ArrayLik
     : { frequency: freqs[iMax]!, levelDb: db[iMax]!, interior };
   const lowFrequencyDb = db[0]!;
   return {
+    noSignal: !(db[iMax]! >= NO_SIGNAL_DB),
     peak,
     peakRiseDb: peak.levelDb - lowFrequencyDb,
     lowFrequencyDb,

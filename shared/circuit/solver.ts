@@ -75,6 +75,18 @@ interface BatchScratch {
   bad: Uint8Array;
 }
 
+/**
+ * The circuit has no unique solution at some frequency: a node (or a group of nodes) has no path
+ * to the rest of the circuit there, e.g. a part connected only through a capacitor to a node that
+ * floats. The API answers it as a 422 in words; the message never reaches a user as it is.
+ */
+export class HarnessUnsolvableError extends Error {
+  constructor() {
+    super('The circuit cannot be solved: some node has no connection to ground at one of the frequencies (check that every part is wired at both ends).');
+    this.name = 'HarnessUnsolvableError';
+  }
+}
+
 export interface CompiledHarness {
   readonly netlist: Netlist;
   /** Node names by matrix index; the output node is last. */
@@ -618,7 +630,7 @@ function solvePivoting(c: CompiledHarness, w: number): void {
         p = i;
       }
     }
-    if (best === 0) throw new Error('harness matrix is singular (a node with no connection at this frequency?)');
+    if (best === 0) throw new HarnessUnsolvableError();
     if (p !== k) {
       for (let j = k; j < n; j++) {
         const a = k * n + j;
@@ -669,7 +681,7 @@ function solvePivoting(c: CompiledHarness, w: number): void {
   const pr = are[last]!;
   const pi = aim[last]!;
   const pd = pr * pr + pi * pi;
-  if (!(pd > 0)) throw new Error('harness matrix is singular (a node with no connection at this frequency?)');
+  if (!(pd > 0)) throw new HarnessUnsolvableError();
   let sr = 0;
   let si = 0;
   for (let g = 0; g < ng; g++) {

@@ -17,6 +17,7 @@ export type ColumnRole =
   | 'rotation'
   | 'resistance'
   | 'resistanceW3'
+  | 'total'
   | 'frequency'
   | 'magnitude'
   | 'phase'
@@ -70,7 +71,7 @@ export const REQUIRED_ROLES: Record<TableKind, ColumnRole[]> = {
 };
 
 export const ROLES_OF: Record<TableKind, ColumnRole[]> = {
-  taper: ['rotation', 'resistance', 'resistanceW3'],
+  taper: ['rotation', 'resistance', 'resistanceW3', 'total'],
   impedance: ['frequency', 'magnitude', 'phase', 're', 'im'],
   lot: ['item', 'value', 'second', 'testFrequency'],
 };
@@ -153,17 +154,20 @@ export function splitHeader(header: string): HeaderParts {
 }
 
 // Names by role, compared with the compact form (lower case, no spaces or punctuation).
-// R13 (end to end) and "total" are known names that map to no role: the sweep's total comes from
-// the part record or the fit, and a constant column is not a reading per rotation.
+// Lug numbering (lug 1 counter-clockwise end, lug 2 the wiper, lug 3 the clockwise end, common
+// practice): R1-2 / 1-W is lug 1 to wiper, R2-3 / W-3 wiper to lug 3, R1-3 end to end (the
+// sweep's own R13, which the taper fit prefers to any bench reading).
 const NAMES: Record<ColumnRole, ReadonlySet<string>> = {
   rotation: new Set(['rot', 'rotation', 'rotationangle', 'angle', 'shaftangle', 'position', 'pos', 'travel', 'wiperposition', 'shaft', 'knob', 'turn']),
   resistanceW3: new Set([
     'rw3', 'rwiper3', 'rwiperto3', 'rwipertolug3', 'rwiperlug3', 'r23', 'r32', 'r3w', 'r2', 'resistancew3', 'resistancewiper3', 'rwl3',
+    'w3', '3w', '23', 'r2 3', 'r w 3',
   ]),
   resistance: new Set([
     'r', 'r1w', 'r1', 'r12', 'r21', 'rw1', 'rw', 'r1wiper', 'rwiper', 'r1towiper', 'rlug1wiper', 'rlug1w', 'resistance',
-    'res', 'resistance1w', 'rmeas',
+    'res', 'resistance1w', 'rmeas', '1w', 'w1', '12', 'r1 2', 'r1 w',
   ]),
+  total: new Set(['r13', 'r31', '13', 'r1 3', 'rtotal', 'total', 'rtot', 'endtoend', 'rendtoend', 'r1to3', 'rlug1lug3']),
   frequency: new Set(['f', 'freq', 'frequency', 'fr', 'frq']),
   magnitude: new Set(['z', 'mag', 'magnitude', 'absz', 'zabs', 'zmag', 'magz', 'impedance', 'modz', 'modulus', 'zmagnitude', 'magnitudez']),
   phase: new Set(['phase', 'angle', 'θ', 'theta', 'phi', 'φ', 'ϕ', 'arg', 'argz', 'zphase', 'phasez', 'phaseangle', 'zθ', 'θz', 'zangle']),
@@ -174,7 +178,7 @@ const NAMES: Record<ColumnRole, ReadonlySet<string>> = {
   second: new Set(['d', 'df', 'tanδ', 'tand', 'tandelta', 'tan', 'dissipation', 'dissipationfactor', 'esr', 'lossfactor']),
   testFrequency: new Set(['f', 'freq', 'frequency', 'testfreq', 'testfrequency', 'fr', 'frq']),
 };
-const IGNORED_TAPER_NAMES = new Set(['r13', 'r31', 'rtotal', 'total', 'rtot', 'rend', 'endtoend', 'rendtoend']);
+const IGNORED_TAPER_NAMES = new Set(['rend']);
 const ALL_NAMES = new Set(Object.values(NAMES).flatMap((set) => [...set]));
 
 /** Units each role accepts ('' = none written). */
@@ -182,6 +186,7 @@ const ROLE_DIMENSIONS: Record<ColumnRole, readonly UnitDimension[]> = {
   rotation: ['deg', 'percent', ''],
   resistance: ['Ω', ''],
   resistanceW3: ['Ω', ''],
+  total: ['Ω', ''],
   frequency: ['Hz', ''],
   magnitude: ['Ω', ''],
   phase: ['deg', 'rad', ''],
@@ -289,6 +294,7 @@ const ROLE_WORD: Record<ColumnRole, string> = {
   rotation: 'rotation',
   resistance: 'resistance lug 1 to wiper',
   resistanceW3: 'resistance wiper to lug 3',
+  total: 'resistance lug 1 to lug 3 (R13)',
   frequency: 'frequency',
   magnitude: 'impedance magnitude',
   phase: 'phase',

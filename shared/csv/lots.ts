@@ -16,7 +16,10 @@
 //
 // Decisions: an empty item or value cell is an error; an empty second or frequency cell is null;
 // a negative value, D, ESR or frequency is an error; a zero value is kept (an open capacitor reads
-// 0 and must show up as out of tolerance). A value column with no unit in its header is in SI (F, Ω).
+// 0 and must show up as out of tolerance). A value column with no unit in its header is in SI (F, Ω);
+// for capacitance only while every value is below 1e-3 (no capacitor in a lot is a millifarad: a
+// bare 47 or 0.047 in such a column is nF or µF written without its unit), else the upload stops and
+// asks for the column's unit (common practice).
 import Papa from 'papaparse';
 import { readNumberCell } from './cell-number';
 import {
@@ -119,6 +122,7 @@ export function createLotRowReader(header: string[], opts: LotReaderOptions): Lo
   const value = numberColumn(valueInfo!);
   const second = cols.mapping.second ? numberColumn(cols.mapping.second) : null;
   const freq = cols.mapping.testFrequency ? numberColumn(cols.mapping.testFrequency) : null;
+  const bareFarads = opts.quantity === 'capacitance' && (valueInfo!.dimension ?? '') === '' && valueInfo!.scale === 1;
   const secondName = cols.mapping.second?.secondQuantity === 'esr' ? 'an ESR' : 'a dissipation factor';
 
   // Returns the scaled number, or an issue; `optional` turns an empty cell into null.
@@ -143,6 +147,13 @@ export function createLotRowReader(header: string[], opts: LotReaderOptions): Lo
     const v = num(value, cells, line, false);
     if (v === null || typeof v === 'object') return v ?? csvIssue(line, value.header, 'the cell is empty.');
     if (v < 0) return csvIssue(line, value.header, `${cells[value.index]!.trim()} is negative; a ${opts.quantity} cannot be.`);
+    if (bareFarads && v >= 1e-3) {
+      return csvIssue(
+        line,
+        value.header,
+        `${cells[value.index]!.trim()} in a capacitance column whose header names no unit would be ${v} F; give the column's unit (for example "${value.header} (nF)" or choose it in the column mapping).`,
+      );
+    }
     let s: number | null = null;
     if (second) {
       const r = num(second, cells, line, true);

@@ -6,6 +6,7 @@
 // delimiter; decimal commas (with a semicolon or tab delimiter, or inside quoted cells); quoted
 // cells; blank lines anywhere; CRLF, LF or CR line ends. Papaparse does the tokenising; this file
 // decides the delimiter, finds the header and keeps every row's line number for the messages.
+import { parseUnit } from './columns';
 import Papa from 'papaparse';
 import { capIssues, csvIssue, type CsvIssue } from './issues';
 
@@ -226,6 +227,24 @@ export type ScanResult =
   | (Extract<TableResult, { ok: true }> & { raggedIssues: CsvIssue[] })
   | { ok: false; issues: CsvIssue[] };
 
+/** A unit cell without its brackets: `(kΩ)` → `kΩ`. */
+function unitText(cell: string): string {
+  return cell.trim().replace(/^[([]\s*(.*?)\s*[)\]]$/, '$1');
+}
+
+/** A row whose every filled cell is a unit (`deg`, `kOhm`, `(Ω)`, `%`) and at least one names a dimension. */
+function isUnitsRow(cells: string[]): boolean {
+  let dims = 0;
+  for (const c of cells) {
+    const u = unitText(c);
+    if (u === '') continue;
+    const parsed = parseUnit(u);
+    if (!parsed) return false;
+    if (parsed.dimension !== '') dims++;
+  }
+  return dims > 0;
+}
+
 export function scanTable(text: string, opts: ReadTableOptions = {}): ScanResult {
   const minRows = Math.max(1, opts.minRows ?? 1);
   if (text.length === 0 || (text.charCodeAt(0) === 0xfeff && text.length === 1)) {
@@ -258,13 +277,25 @@ export function scanTable(text: string, opts: ReadTableOptions = {}): ScanResult
   }
   const rows = all.filter((r) => !isBlank(r.cells) && !isCommentRow(r.cells));
 
-  const h = findHeader(rows);
+  let h = findHeader(rows);
   if (h < 0) return { ok: false, issues: capIssues([...issues, noHeaderIssue(rows, minRows)]) };
+  // A units row under the names (`Angle;R1-2;R2-3` then `deg;kOhm;kOhm`): the finder takes the
+  // units row for the header, since it is the text row right above the numbers. Names and units
+  // are joined into `Angle (deg)`, `R1-2 (kOhm)` so each column keeps its name and its unit.
+  let unitsRow: string[] | null = null;
+  if (h > 0 && isUnitsRow(rows[h]!.cells) && !isUnitsRow(rows[h - 1]!.cells) && rows[h - 1]!.cells.length >= rows[h]!.cells.length) {
+    unitsRow = rows[h]!.cells.map((c) => c.trim());
+    h -= 1;
+  }
   const headerRow = rows[h]!;
-  const header = headerRow.cells.map((c) => c.trim());
+  const header = headerRow.cells.map((c, i) => {
+    const name = c.trim();
+    const unit = unitsRow ? unitText(unitsRow[i] ?? '') : '';
+    return unit === '' ? name : `${name} (${unit})`;
+  });
   while (header.length > 1 && header[header.length - 1] === '') header.pop(); // trailing delimiter
   const width = header.length;
-  const data = rows.slice(h + 1);
+  const data = rows.slice(h + (unitsRow ? 2 : 1));
 
   const good: TableRow[] = [];
   const ragged: CsvIssue[] = [];

@@ -47,6 +47,8 @@ interface SweepOkBase {
   ok: true;
   /** role → header text of the column used. */
   columns: Record<string, string>;
+  /** Header texts of the file's columns that the reader did not use: listed back to the user, never dropped silently. */
+  ignored: string[];
   rowCount: number;
   /** Decisions the reader took that the user should see (e.g. a rotation unit inferred from the values). */
   notes: string[];
@@ -162,9 +164,13 @@ export function parseSweepCsv(text: string, kind: SweepKind, opts: SweepOptions 
       needsMapping: { header: table.header, detected: cols.detected, missing: cols.missing },
     };
   }
-  return kind === 'taper'
-    ? readTaper(table.rows, cols.mapping, table.decimalComma, table.raggedIssues)
-    : readImpedance(table.rows, cols.mapping, table.decimalComma, table.raggedIssues);
+  const result =
+    kind === 'taper'
+      ? readTaper(table.rows, cols.mapping, table.decimalComma, table.raggedIssues)
+      : readImpedance(table.rows, cols.mapping, table.decimalComma, table.raggedIssues);
+  if (!result.ok) return result;
+  const used = new Set(Object.values(result.columns));
+  return { ...result, ignored: table.header.filter((h) => !used.has(h)) };
 }
 
 function readTaper(rows: TableRow[], mapping: ColumnMapping, decimalComma: boolean, ragged: CsvIssue[]): TaperSweepResult {
@@ -173,6 +179,7 @@ function readTaper(rows: TableRow[], mapping: ColumnMapping, decimalComma: boole
   const rot = new ColumnReader(mapping.rotation!, decimalComma, issues);
   const res = new ColumnReader(mapping.resistance!, decimalComma, issues);
   const w3 = mapping.resistanceW3 ? new ColumnReader(mapping.resistanceW3, decimalComma, issues) : null;
+  const r13 = mapping.total ? new ColumnReader(mapping.total, decimalComma, issues) : null;
 
   const raw: { x: number; line: number; point: TaperPoint }[] = [];
   const rotations: { row: TableRow; value: number | null }[] = [];
@@ -183,9 +190,12 @@ function readTaper(rows: TableRow[], mapping: ColumnMapping, decimalComma: boole
     if (r !== null && r < 0) res.problem(row, `${formatNumber(r / res.info.scale)} is negative; a resistance cannot be.`);
     const r3 = w3 ? w3.read(row, true) : null;
     if (w3 && r3 !== null && r3 < 0) w3.problem(row, `${formatNumber(r3 / w3.info.scale)} is negative; a resistance cannot be.`);
-    if (x === null || r === null || r < 0 || (r3 !== null && r3 < 0)) continue;
+    const rt = r13 ? r13.read(row, true) : null;
+    if (r13 && rt !== null && !(rt > 0)) r13.problem(row, `${formatNumber(rt / r13.info.scale)} is not an end-to-end resistance: it must be greater than zero.`);
+    if (x === null || r === null || r < 0 || (r3 !== null && r3 < 0) || (rt !== null && !(rt > 0))) continue;
     const point: TaperPoint = { rotation: x, resistance: r };
     if (r3 !== null) point.resistanceW3 = r3;
+    if (rt !== null) point.total = rt;
     raw.push({ x, line: row.line, point });
   }
 
@@ -212,7 +222,7 @@ function readTaper(rows: TableRow[], mapping: ColumnMapping, decimalComma: boole
   }
   const points = sortAndFindRepeats(inRange, mapping.rotation!.header, 'rotation', sign, issues);
   if (issues.length > 0) return { ok: false, issues: capIssues(issues) };
-  return { ok: true, kind: 'taper', points, rotationUnit: unit, columns: columnsUsed(mapping, ROLES_OF.taper), rowCount: rows.length, notes };
+  return { ok: true, kind: 'taper', points, rotationUnit: unit, columns: columnsUsed(mapping, ROLES_OF.taper), ignored: [], rowCount: rows.length, notes };
 }
 
 function readImpedance(rows: TableRow[], mapping: ColumnMapping, decimalComma: boolean, ragged: CsvIssue[]): ImpedanceSweepResult {
@@ -248,5 +258,5 @@ function readImpedance(rows: TableRow[], mapping: ColumnMapping, decimalComma: b
   const points = sortAndFindRepeats(raw, mapping.frequency!.header, 'frequency', ' Hz', issues);
   if (issues.length > 0) return { ok: false, issues: capIssues(issues) };
   const roles: ColumnRole[] = polar ? ['frequency', 'magnitude', 'phase'] : ['frequency', 're', 'im'];
-  return { ok: true, kind: 'impedance', points, columns: columnsUsed(mapping, roles), rowCount: rows.length, notes: [] };
+  return { ok: true, kind: 'impedance', points, columns: columnsUsed(mapping, roles), ignored: [], rowCount: rows.length, notes: [] };
 }

@@ -2,6 +2,7 @@
 import { z } from 'zod';
 import { PROFILE_LAWS } from '@shared/taper/law';
 import { QUANTITIES } from '@shared/units/quantities';
+import { rangeNumber } from './ranges';
 
 const finite = z.number().finite();
 const nonNegative = finite.min(0, 'Must be zero or more.');
@@ -27,16 +28,16 @@ export const TaperRequestSchema = z.object({
     .min(3, 'A taper fit needs at least three readings.')
     .max(20_000),
   rotationUnit: z.enum(['deg', 'percent']),
-  fullRotationDeg: positive.max(3600).optional(),
-  total: positive.optional(),
+  fullRotationDeg: rangeNumber('fullRotation').optional(),
+  total: rangeNumber('resistance').optional(),
   nominal: positive.optional(),
   tolerancePct: positive.max(100).optional(),
   profile: TaperProfileSchema.optional(),
 });
 export type TaperRequest = z.infer<typeof TaperRequestSchema>;
 
-const MagPhasePoint = z.object({ frequency: positive, magnitude: nonNegative, phaseDeg: finite.min(-180).max(180) });
-const ReImPoint = z.object({ frequency: positive, re: finite, im: finite });
+const MagPhasePoint = z.object({ frequency: rangeNumber('frequency'), magnitude: nonNegative, phaseDeg: finite.min(-180).max(180) });
+const ReImPoint = z.object({ frequency: rangeNumber('frequency'), re: finite, im: finite });
 
 export const CoilRequestSchema = z.object({
   points: z.union([z.array(MagPhasePoint), z.array(ReImPoint)]).refine((p) => p.length >= 5, 'A coil fit needs at least five points.').refine((p) => p.length <= 20_000, 'At most 20,000 points.'),

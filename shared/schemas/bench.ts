@@ -10,8 +10,13 @@ export type ReadingQuantity = z.infer<typeof ReadingQuantitySchema>;
 export const AccuracySchema = z.object({
   pctOfReading: z.number().finite().min(0).max(100),
   counts: z.number().finite().min(0).max(10_000),
-  /** The value of one count at the range in use, SI units. */
+  /** The value of one count at the range in use, SI units (used when the display counts are not recorded). */
   resolution: z.number().finite().min(0),
+  /** Accuracy on particular ranges (counts × 10^k, SI units), when it differs from the line above. */
+  ranges: z
+    .array(z.object({ range: z.number().finite().positive(), pctOfReading: z.number().finite().min(0).max(100), counts: z.number().finite().min(0).max(10_000) }))
+    .max(12)
+    .optional(),
 });
 
 export const INSTRUMENT_KINDS = ['multimeter', 'lcr-meter', 'analyser', 'other'] as const;
@@ -20,6 +25,8 @@ export const InstrumentInputSchema = z.object({
   kind: z.enum(INSTRUMENT_KINDS),
   serial: z.string().trim().max(60).optional().nullable(),
   accuracy: z.partialRecord(ReadingQuantitySchema, AccuracySchema).default({}),
+  /** The display's counts (e.g. 6000): the count size then follows each reading's range. */
+  displayCounts: z.number().int().min(2).max(10_000_000).optional().nullable(),
   calibrationDue: z
     .string()
     .regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2027-03-31.')

@@ -2,8 +2,12 @@
 import { z } from 'zod';
 import { LAYOUT_IDS } from '../circuit/layouts';
 import { TAPER_LAWS } from '@shared/taper/law';
+import { rangeNumber, rangeNumberOrZero } from './ranges';
 
-const positive = z.number().finite().positive('Must be more than zero.');
+// Every value's bounds come from the one range table (ranges.ts).
+const ohms = rangeNumber('resistance');
+const farads = rangeNumber('capacitance');
+const henries = rangeNumber('inductance');
 /** A pot's law with its mid-rotation value m = y(0.5) (shared/taper/law.ts); linear has none. */
 export const TaperLawSchema = z.discriminatedUnion('kind', [
   z.object({ kind: z.literal('linear') }),
@@ -24,47 +28,47 @@ export const HarnessPresetIdSchema = z.enum(HARNESS_PRESET_IDS);
 /** Any subset of a preset's values; the rest come from the preset's defaults. SI units. */
 export const HarnessValuesSchema = z
   .object({
-    pickupR: positive,
-    pickupL: positive,
-    pickupC: positive,
-    pickupRp: positive.optional(),
-    volumeR: positive,
+    pickupR: ohms,
+    pickupL: henries,
+    pickupC: farads,
+    pickupRp: ohms.optional(),
+    volumeR: ohms,
     volumeLaw: TaperLawSchema,
-    toneR: positive,
+    toneR: ohms,
     toneLaw: TaperLawSchema,
-    toneC: positive,
-    bleedC: positive,
-    bleedR: positive,
-    floorR: positive,
-    secondC: positive,
-    cableCapPerMetre: z.number().finite().min(0),
-    cableLength: z.number().finite().min(0).max(100),
-    ampR: positive,
+    toneC: farads,
+    bleedC: farads,
+    bleedR: ohms,
+    floorR: ohms,
+    secondC: farads,
+    cableCapPerMetre: rangeNumber('cableCapPerMetre'),
+    cableLength: rangeNumber('cableLength'),
+    ampR: ohms,
   })
   .partial();
 export type HarnessValuesInput = z.infer<typeof HarnessValuesSchema>;
 
 const node = z.string().min(1).max(40);
-const KnobRefSchema = z.union([z.string().min(1).max(40), z.object({ fixed: z.number().min(0).max(10) })]);
+const KnobRefSchema = z.union([z.string().min(1).max(40), z.object({ fixed: rangeNumber('knob') })]);
 export const NetlistSchema = z.object({
   title: z.string().max(120).optional(),
   parts: z
     .array(
       z.discriminatedUnion('kind', [
-        z.object({ kind: z.literal('resistor'), id: z.string().min(1).max(40), a: node, b: node, R: positive }),
-        z.object({ kind: z.literal('capacitor'), id: z.string().min(1).max(40), a: node, b: node, C: positive }),
-        z.object({ kind: z.literal('inductor'), id: z.string().min(1).max(40), a: node, b: node, L: positive }),
-        z.object({ kind: z.literal('pot'), id: z.string().min(1).max(40), a: node, b: node.optional(), w: node, R: positive, law: TaperLawSchema, knob: KnobRefSchema }),
+        z.object({ kind: z.literal('resistor'), id: z.string().min(1).max(40), a: node, b: node, R: ohms }),
+        z.object({ kind: z.literal('capacitor'), id: z.string().min(1).max(40), a: node, b: node, C: farads }),
+        z.object({ kind: z.literal('inductor'), id: z.string().min(1).max(40), a: node, b: node, L: henries }),
+        z.object({ kind: z.literal('pot'), id: z.string().min(1).max(40), a: node, b: node.optional(), w: node, R: ohms, law: TaperLawSchema, knob: KnobRefSchema }),
         z.object({
           kind: z.literal('pickup'),
           id: z.string().min(1).max(40),
           hot: node,
           cold: node,
-          R: positive,
-          L: z.number().min(0),
-          C: z.number().min(0),
-          Rp: positive.optional(),
-          emf: z.number().finite().refine((v) => v !== 0, 'A source of 0 V gives nothing.').optional(),
+          R: ohms,
+          L: rangeNumberOrZero('inductance'),
+          C: rangeNumberOrZero('capacitance'),
+          Rp: ohms.optional(),
+          emf: z.number().finite().min(-1e3).max(1e3).refine((v) => v !== 0, 'A source of 0 V gives nothing.').optional(),
           group: z.string().min(1).max(40).optional(),
         }),
       ]),
@@ -73,7 +77,7 @@ export const NetlistSchema = z.object({
     .max(200),
 });
 
-const knob = z.number().finite().min(0, 'Knobs go from 0 to 10.').max(10, 'Knobs go from 0 to 10.');
+const knob = rangeNumber('knob');
 export const KnobsSchema = z.object({ volume: knob, tone: knob });
 /** Knob settings by knob id; a knob left out is at 10. */
 export const KnobRecordSchema = z.record(z.string().min(1).max(40), knob);
@@ -83,7 +87,10 @@ export const LayoutIdSchema = z.enum(LAYOUT_IDS as [string, ...string[]]);
 export const LayoutValuesSchema = z.record(z.string().min(1).max(40), z.union([z.number(), TaperLawSchema]));
 export const LayoutOptionsSchema = z.record(z.string().min(1).max(40), z.string().min(1).max(40));
 
-const FrequenciesSchema = z.array(z.number().finite().positive().max(1e6)).min(2).max(2000);
+const FrequenciesSchema = z
+  .array(rangeNumber('frequency'))
+  .min(2, 'Give at least two frequencies (the list is empty or has one).')
+  .max(2000);
 
 /**
  * What a request simulates: a layout with its selector position, options and values (the whole

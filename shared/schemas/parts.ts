@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { TAPER_LAWS } from '@shared/taper/law';
 import { PartKindSchema, PartStatusSchema, SiPositive, type PartKind } from './common';
+import { inRange, rangeWords, VALUE_RANGES } from './ranges';
 
 export const TaperClassSchema = z.enum(TAPER_LAWS);
 
@@ -22,7 +23,7 @@ const LabelSchema = z
 
 const optionalText = (max: number) => z.string().trim().max(max).optional().nullable();
 
-export const CreatePartInputSchema = z.object({
+const PartFieldsSchema = z.object({
   kind: PartKindSchema,
   label: LabelSchema,
   nominal: SiPositive.optional().nullable(),
@@ -35,9 +36,17 @@ export const CreatePartInputSchema = z.object({
   tags: optionalText(200),
   notes: optionalText(2000),
 });
+/** A new part; its nominal must lie in the physical range of its kind's quantity (ranges.ts). */
+export const CreatePartInputSchema = PartFieldsSchema.superRefine((p, ctx) => {
+  if (p.nominal === undefined || p.nominal === null) return;
+  const q = NOMINAL_QUANTITY[p.kind];
+  if (!inRange(q, p.nominal)) {
+    ctx.addIssue({ code: 'custom', path: ['nominal'], message: `Must be ${VALUE_RANGES[q].what} ${rangeWords(q)}.` });
+  }
+});
 export type CreatePartInput = z.infer<typeof CreatePartInputSchema>;
 
-export const UpdatePartInputSchema = CreatePartInputSchema.omit({ kind: true })
+export const UpdatePartInputSchema = PartFieldsSchema.omit({ kind: true })
   .partial()
   .extend({
     status: PartStatusSchema.optional(),

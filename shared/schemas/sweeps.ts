@@ -1,6 +1,8 @@
 import { z } from 'zod';
 import type { CoilFit } from '@shared/analysis/coil';
 import type { TaperFit } from '@shared/analysis/taper';
+import { TAPER_LAWS } from '@shared/taper/law';
+import { VALUE_RANGES, rangeWords } from './ranges';
 
 export const SWEEP_KINDS = ['taper', 'impedance'] as const;
 export const SweepKindSchema = z.enum(SWEEP_KINDS);
@@ -41,9 +43,22 @@ const jsonField = <T extends z.ZodType>(schema: T) =>
 /** The column mapping as a multipart field (JSON text), for sweep and lot uploads alike. */
 export const MappingFieldSchema = jsonField(ExplicitMappingSchema);
 
+/** "Fit again" choices: the coil's loss resistance on, off or auto; a taper law forced instead of the profile's. */
+export const RefitInputSchema = z
+  .object({
+    withRp: z.union([z.boolean(), z.literal('auto')]).optional(),
+    law: z.enum(TAPER_LAWS).optional(),
+  })
+  .default({});
+export type RefitInput = z.infer<typeof RefitInputSchema>;
+
 export const SweepUploadFieldsSchema = z.object({
   kind: SweepKindSchema,
   mapping: MappingFieldSchema.optional(),
   /** Full mechanical rotation of the pot when the file gives degrees; default 300°. */
-  fullRotationDeg: z.coerce.number().positive().max(3600).optional(),
+  fullRotationDeg: z.coerce
+    .number()
+    .min(VALUE_RANGES.fullRotation.min, `Must be a full rotation ${rangeWords('fullRotation')}.`)
+    .max(VALUE_RANGES.fullRotation.max, `Must be a full rotation ${rangeWords('fullRotation')}.`)
+    .optional(),
 });

@@ -13,9 +13,14 @@
 // - A bare `M` is mega, except for capacitance: a megafarad is no component value, and old
 //   capacitor markings use M / MF / MFD for microfarad, so `1M` and `1MF` are refused there.
 // - A comma is a decimal separator (`0,022 µF`); digit grouping is not accepted.
+// - A capacitance written as a bare number, with no prefix, unit or exponent: below 1 it is read in
+//   microfarads, as film capacitors print `.022` or `0.1` (common practice, no published source),
+//   and the result says how it was read; 1 or more (`100`, `470`) could be picofarads or a code, so
+//   it is refused with a hint. Exponent notation (`2.2e-8`) stays in farads.
 // - `µ` (U+00B5 micro sign), `μ` (U+03BC Greek mu) and `u` are micro; `Ω` (U+03A9) and the ohm
 //   sign U+2126 are both ohm; `ohm`, `Ohm`, `ohms` and a trailing `R` (as in 470R) also are.
 
+import { formatValue } from './format';
 import { NON_NEGATIVE_QUANTITIES, QUANTITY_LABEL, QUANTITY_UNIT, type Quantity } from './quantities';
 
 export type ValueParseReason =
@@ -37,7 +42,7 @@ export class ValueParseError extends Error {
   }
 }
 
-export type TryParseResult = { ok: true; value: number; unit: string } | { ok: false; error: string };
+export type TryParseResult = { ok: true; value: number; unit: string; readAs?: string } | { ok: false; error: string };
 
 /** Power of ten for each accepted prefix. */
 const PREFIX_EXP: Readonly<Record<string, number>> = {
@@ -138,7 +143,7 @@ function quantityName(q: Quantity): string {
  * quantity's SI unit; without one, the written unit (or '') is returned.
  * Throws ValueParseError with a message that says what is wrong.
  */
-export function parseValue(text: string, quantity?: Quantity): { value: number; unit: string } {
+export function parseValue(text: string, quantity?: Quantity): { value: number; unit: string; readAs?: string } {
   const input = text;
   let s = normalise(String(text ?? ''));
   if (s === '') {
@@ -275,17 +280,33 @@ export function parseValue(text: string, quantity?: Quantity): { value: number; 
     throw new ValueParseError('not-finite', input, `"${input}" is too large to be a value.`);
   }
   if (value === 0) value = 0; // no negative zero
+  let readAs: string | undefined;
+  const bare = !rkm && prefix === null && unitText === '' && !/[eE]/.test(s);
+  if (quantity === 'capacitance' && bare && value !== 0) {
+    if (Math.abs(value) < 1) {
+      value = Number(`${sign}${digits}e-6`);
+      readAs = `read as ${formatValue(value, 'F')}: a bare decimal on a capacitor is in microfarads`;
+    } else {
+      const n = s.replace(/^[+-]/, '');
+      throw new ValueParseError(
+        'ambiguous',
+        input,
+        `"${input}" has no unit: on a capacitor a bare ${n} could be picofarads or a marking code; add a unit: ${n}p, ${n}n, ${n}u.`,
+      );
+    }
+  }
   if (value < 0 && quantity !== undefined && NON_NEGATIVE_QUANTITIES.has(quantity)) {
     throw new ValueParseError('negative', input, `"${input}" is negative, but ${quantityName(quantity)} cannot be.`);
   }
-  return { value, unit: quantity !== undefined ? QUANTITY_UNIT[quantity] : unit };
+  const out = { value, unit: quantity !== undefined ? QUANTITY_UNIT[quantity] : unit };
+  return readAs !== undefined ? { ...out, readAs } : out;
 }
 
 /** Like parseValue, but returns the error message instead of throwing. */
 export function tryParseValue(text: string, quantity?: Quantity): TryParseResult {
   try {
-    const { value, unit } = parseValue(text, quantity);
-    return { ok: true, value, unit };
+    const r = parseValue(text, quantity);
+    return r.readAs !== undefined ? { ok: true, value: r.value, unit: r.unit, readAs: r.readAs } : { ok: true, value: r.value, unit: r.unit };
   } catch (err) {
     if (err instanceof ValueParseError) return { ok: false, error: err.message };
     throw err;

@@ -62,6 +62,34 @@ describe('stateless analysis routes (any signed-in role)', () => {
     expect(res.body.L).toBeCloseTo(fitCoil({ points }).L, 10);
   });
 
+  test('value: a bare decimal capacitance is µF and says so; a bare 100 is refused with a hint (common practice)', async () => {
+    const viewer = await t.as('viewer');
+    const ok = await viewer.post('/api/analysis/value').send({ text: '.022', quantity: 'capacitance' });
+    expect(ok.status).toBe(200);
+    expect(ok.body).toMatchObject({ value: 22e-9, unit: 'F' });
+    expect(ok.body.readAs).toMatch(/read as 22 nF/);
+    const bare = await viewer.post('/api/analysis/value').send({ text: '100', quantity: 'capacitance' });
+    expect(bare.status).toBe(422);
+    expect(bare.body.error.fields.text).toMatch(/add a unit: 100p, 100n, 100u/);
+  });
+
+  test('coil: without withRp the route fits with the loss resistance on "auto", as uploads do', async () => {
+    // A pickup with eddy-current loss (Rp = 60 kΩ, invented values); the model is the textbook coil:
+    // R and L in series, C and Rp in parallel (common practice).
+    const truth = { R: 6500, L: 2.6, C: 110e-12, Rp: 60e3 };
+    const points = Array.from({ length: 200 }, (_, i) => {
+      const frequency = 20 * Math.pow(1000, i / 199);
+      const z = coilImpedance(truth, frequency);
+      return { frequency, re: z.re, im: z.im };
+    });
+    const res = await (await t.as('viewer')).post('/api/analysis/coil').send({ points });
+    expect(res.status).toBe(200);
+    expect(res.body.Rp).not.toBeNull();
+    expect(res.body.L / truth.L).toBeCloseTo(1, 3);
+    expect(res.body.C / truth.C).toBeCloseTo(1, 3);
+    expect(res.body.L).toBe(fitCoil({ points, withRp: 'auto' }).L);
+  });
+
   test('lot: statistics equal the engine\'s; a second quantity of the wrong length is refused', async () => {
     const values = Array.from({ length: 500 }, (_, i) => 47e-9 * (1 + 0.03 * Math.sin(i * 1.7)));
     const res = await (await t.as('qa')).post('/api/analysis/lot').send({ values, nominal: 47e-9, tolerancePct: 5 });

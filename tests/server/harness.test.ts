@@ -82,3 +82,49 @@ test('a harness without cable (0 m) is solved, and differs from one with cable o
   // More capacitance across the pickup lowers its resonance (standard circuit theory).
   expect(some.body.metrics.peak.frequency).toBeLessThan(none.body.metrics.peak.frequency);
 });
+
+describe('harness inputs outside their physical range (the range table in shared/schemas/ranges.ts)', () => {
+  // The ranges are common practice (no published source); each bad input is a 422 naming its field.
+  const cases: [string, Record<string, unknown>, string][] = [
+    ['knob above 10', { preset: 'bleed-cap', knobs: { volume: 10.5, tone: 5 } }, 'knobs.volume'],
+    ['knob below 0', { preset: 'bleed-cap', knobs: { volume: 5, tone: -0.1 } }, 'knobs.tone'],
+    ['knob not a number (NaN arrives as null in JSON)', { preset: 'bleed-cap', knobs: { volume: null, tone: 5 } }, 'knobs.volume'],
+    ['negative cable length', { preset: 'bleed-cap', values: { cableLength: -1 }, knobs: { volume: 5, tone: 5 } }, 'values.cableLength'],
+    ['empty frequency list', { preset: 'bleed-cap', frequencies: [], knobs: { volume: 5, tone: 5 } }, 'frequencies'],
+    ['frequency below 1 Hz', { preset: 'bleed-cap', frequencies: [0.5, 100], knobs: { volume: 5, tone: 5 } }, 'frequencies.0'],
+    ['frequency above 1 MHz', { preset: 'bleed-cap', frequencies: [100, 2e6], knobs: { volume: 5, tone: 5 } }, 'frequencies.1'],
+    ['tone capacitor of 1 F', { preset: 'bleed-cap', values: { toneC: 1 }, knobs: { volume: 5, tone: 5 } }, 'values.toneC'],
+    ['volume pot of 1 GΩ', { preset: 'bleed-cap', values: { volumeR: 1e9 }, knobs: { volume: 5, tone: 5 } }, 'values.volumeR'],
+    ['pickup of 1000 H', { preset: 'bleed-cap', values: { pickupL: 1000 }, knobs: { volume: 5, tone: 5 } }, 'values.pickupL'],
+  ];
+  for (const [name, body, field] of cases) {
+    test(name, async () => {
+      const res = await (await t.as('viewer')).post('/api/harness/simulate').send(body);
+      expect(res.status).toBe(422);
+      expect(Object.keys(res.body.error.fields ?? {})).toContain(field);
+    });
+  }
+
+  test('a circuit with a floating island answers 422 in words, never "matrix is singular"', async () => {
+    const netlist = {
+      parts: [
+        { kind: 'pickup', id: 'PU', hot: 'hot', cold: '0', R: 6000, L: 2.5, C: 100e-12 },
+        { kind: 'resistor', id: 'R1', a: 'hot', b: 'out', R: 1000 },
+        { kind: 'resistor', id: 'R2', a: 'out', b: '0', R: 1e6 },
+        { kind: 'capacitor', id: 'C3', a: 'x', b: 'y', C: 1e-9 },
+      ],
+    };
+    const res = await (await t.as('viewer')).post('/api/harness/simulate').send({ netlist, knobs: { volume: 5, tone: 5 } });
+    expect(res.status).toBe(422);
+    expect(JSON.stringify(res.body)).not.toMatch(/singular/i);
+    expect(res.body.error.fields).toHaveProperty(['netlist']);
+  });
+
+  test('at volume 0 the figures say "no signal" (no peak at −170 dB)', async () => {
+    const res = await (await t.as('viewer')).post('/api/harness/simulate').send({ preset: 'independent-tone', knobs: { volume: 0, tone: 10 } });
+    expect(res.status).toBe(200);
+    expect(res.body.metrics.noSignal).toBe(true);
+    const up = await (await t.as('viewer')).post('/api/harness/simulate').send({ preset: 'independent-tone', knobs: { volume: 10, tone: 10 } });
+    expect(up.body.metrics.noSignal).toBe(false);
+  });
+});

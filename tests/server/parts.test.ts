@@ -51,3 +51,15 @@ describe('parts', () => {
     expect((await tech.get('/api/parts/999999')).status).toBe(404);
   });
 });
+
+test('a nominal outside the physical range of its kind is refused naming the field (ranges.ts, common practice)', async () => {
+  const tech = await t.as('tech');
+  // 22 mF read from a bare "22" typed as farads is no film capacitor; 1 GΩ is no pot.
+  const cap = await tech.post('/api/parts').send({ kind: 'capacitor', label: 'CAP-RANGE', nominal: 22 });
+  expect(cap.status).toBe(422);
+  expect(cap.body.error.fields).toHaveProperty(['nominal']);
+  const pot = await tech.post('/api/parts').send({ kind: 'pot', label: 'POT-RANGE', nominal: 1e9 });
+  expect(pot.status).toBe(422);
+  expect(pot.body.error.fields.nominal).toMatch(/1 mΩ to 100 MΩ/);
+  expect((await tech.post('/api/parts').send({ kind: 'capacitor', label: 'CAP-RANGE', nominal: 4.7e-3 })).status).toBe(201);
+});

@@ -108,3 +108,18 @@ describe('instruments and profiles', () => {
     expect(res.body.reading.verdictReason).toMatch(/250k audio strict/);
   });
 });
+
+test('an instrument with display counts sizes its counts by each reading\'s range', async () => {
+  // A 6000-count meter, ±(0.5 % + 2 counts): 100 Ω counts at 487 kΩ (600 kΩ range), 1 Ω at 4.87 kΩ
+  // (6 kΩ range). Arithmetic by hand; the range rule is common practice.
+  const qa = await t.as('qa');
+  const meter = await qa.post('/api/instruments').send({ name: 'Counts meter', kind: 'multimeter', displayCounts: 6000, accuracy: { resistance: { pctOfReading: 0.5, counts: 2, resolution: 0 } } });
+  expect(meter.status).toBe(201);
+  expect(meter.body.displayCounts).toBe(6000);
+  const tech = await t.as('tech');
+  const pot = await newPot('POT-COUNTS');
+  const big = await tech.post(`/api/parts/${pot.id}/readings`).send({ quantity: 'resistance', value: 487e3, instrumentId: meter.body.id });
+  expect(big.body.reading.uncertainty).toBeCloseTo(2435 + 200, 6);
+  const small = await tech.post(`/api/parts/${pot.id}/readings`).send({ quantity: 'resistance', value: 4.87e3, instrumentId: meter.body.id });
+  expect(small.body.reading.uncertainty).toBeCloseTo(24.35 + 2, 6);
+});

@@ -2,6 +2,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { coilImpedance, fitCoil } from '@shared/analysis/coil';
+import { ANALYSIS_ENGINE_VERSION } from '@shared/analysis/engine-version';
 import { fitTaper } from '@shared/analysis/taper';
 import { taperLawValue } from '@shared/taper/law';
 import { createTestApp, type TestApp } from '../support/app';
@@ -133,5 +134,102 @@ describe('sweep uploads', () => {
     const back = await (await t.as('viewer')).get(`/api/attachments/${ok.body.id}/file`);
     expect(back.status).toBe(200);
     expect(back.headers['content-type']).toBe('image/png');
+  });
+});
+
+describe('one taper sweep in every file style gives the clean file\'s fit', () => {
+  // The same invented 500 kΩ audio pot (m = 0.15, 300° travel, 300 Ω at each end), written as a
+  // bench exports it in several common styles (common practice).
+  const degs = Array.from({ length: 31 }, (_, i) => i * 10);
+  const r1w = (deg: number) => 300 + 499_400 * taperLawValue('audio', 0.15, deg / 300);
+  const rw3 = (deg: number) => 500_000 - r1w(deg);
+  const k = (ohms: number) => (ohms / 1e3).toFixed(4);
+  const table = (rows: string[][], d: string, decimalComma = false) =>
+    rows.map((r) => r.map((c) => (decimalComma ? c.replace('.', ',') : c)).join(d)).join('\n') + '\n';
+
+  const clean = table([['Rotation (deg)', 'R1-W (kOhm)', 'RW-3 (kOhm)', 'R13 (kOhm)'], ...degs.map((d) => [String(d), k(r1w(d)), k(rw3(d)), '500.0000'])], ',');
+  const styles: [string, string][] = [
+    ['lug numbering with a units row (comma)', table([['Angle', 'R1-2', 'R2-3', 'R1-3'], ['deg', 'kOhm', 'kOhm', 'kOhm'], ...degs.map((d) => [String(d), k(r1w(d)), k(rw3(d)), '500.0000'])], ',')],
+    ['1-W / W-3 headers, tab-separated', table([['Angle (deg)', '1-W (kOhm)', 'W-3 (kOhm)', 'R13 (kOhm)'], ...degs.map((d) => [String(d), k(r1w(d)), k(rw3(d)), '500.0000'])], '\t')],
+    ['semicolons, decimal commas, units row', table([['Angle', 'R1-2', 'R2-3', 'R1-3'], ['deg', 'kOhm', 'kOhm', 'kOhm'], ...degs.map((d) => [String(d), k(r1w(d)), k(rw3(d)), '500.0000'])], ';', true)],
+  ];
+
+  let cleanFit: Record<string, unknown>;
+  let pot: number;
+  beforeAll(async () => {
+    const tech = await t.as('tech');
+    pot = (await tech.post('/api/parts').send({ kind: 'pot', label: 'POT-STYLES', nominal: 500e3, tolerancePct: 20, taperClass: 'audio' }).expect(201)).body.id;
+    // A stale bench reading that the sweep must not be normalised by.
+    expect((await tech.post(`/api/parts/${pot}/readings`).send({ quantity: 'resistance', value: 475e3 })).status).toBe(201);
+    const res = await upload(pot, 'taper', clean);
+    expect(res.status).toBe(201);
+    cleanFit = res.body.fit.result;
+    expect(cleanFit).toMatchObject({ law: 'audio', totalSource: 'sweep-r13', total: 500e3 });
+    expect(res.body.ignoredColumns).toEqual([]);
+  });
+
+  test.each(styles)('%s', async (_name, text) => {
+    const res = await upload(pot, 'taper', text);
+    expect(res.status).toBe(201);
+    expect(res.body.fit.result).toEqual(cleanFit);
+    expect(res.body.ignoredColumns).toEqual([]);
+  });
+
+  test('a sweep without R13: R1W + RW3 give the same R13 and fit', async () => {
+    const text = table([['Angle', 'R1-2', 'R2-3'], ['deg', 'kOhm', 'kOhm'], ...degs.map((d) => [String(d), k(r1w(d)), k(rw3(d))])], ',');
+    const res = await upload(pot, 'taper', text);
+    expect(res.status).toBe(201);
+    expect(res.body.fit.result.totalSource).toBe('sweep-halves');
+    expect(res.body.fit.result.total).toBeCloseTo(500e3, 6);
+    expect(res.body.fit.result.law).toBe(cleanFit.law);
+    expect(res.body.fit.result.m).toBeCloseTo(cleanFit.m as number, 9);
+  });
+
+  test('a column the reader does not use is listed back as ignored', async () => {
+    const text = table([['Angle (deg)', 'R1-W (kOhm)', 'Temp (C)'], ...degs.map((d) => [String(d), k(r1w(d)), '21.5'])], ',');
+    const res = await upload(pot, 'taper', text);
+    expect(res.status).toBe(201);
+    expect(res.body.ignoredColumns).toEqual(['Temp (C)']);
+    expect(res.body.fit.result.totalSource).toBe('sweep-full-rotation');
+  });
+});
+
+describe('refit on start', () => {
+  test('a stored taper fit of an older engine version is refitted once; the old fit stays as history and the status says why', async () => {
+    const tech = await t.as('tech');
+    const pot = (await tech.post('/api/parts').send({ kind: 'pot', label: 'POT-REFIT', nominal: 500e3, tolerancePct: 20, taperClass: 'audio' }).expect(201)).body.id;
+    const res = await upload(pot, 'taper', potCsv());
+    expect(res.status).toBe(201);
+    // Make the stored fit look like one an older engine made.
+    t.ctx.sqlite.prepare(`update fits set engine_version = 'analysis-0.9.0' where id = ?`).run(res.body.fit.id);
+    const { refitOutdatedTaperFits } = await import('@server/features/sweeps/refit-on-start');
+    const first = refitOutdatedTaperFits(t.ctx.db);
+    expect(first.refitted).toBeGreaterThanOrEqual(1);
+    expect(refitOutdatedTaperFits(t.ctx.db).refitted).toBe(0); // once
+    const fits = (await tech.get(`/api/parts/${pot}/fits`)).body.fits as { engineVersion: string; supersededAt: number | null }[];
+    expect(fits.map((f) => f.engineVersion).sort()).toEqual(['analysis-0.9.0', ANALYSIS_ENGINE_VERSION].sort());
+    expect(fits.find((f) => f.engineVersion === 'analysis-0.9.0')!.supersededAt).not.toBeNull();
+    const part = (await tech.get(`/api/parts/${pot}`)).body;
+    expect(part.statusReason).toMatch(new RegExp(`^refitted by engine version ${ANALYSIS_ENGINE_VERSION.replace(/\./g, '\\.')} \\(was analysis-0\\.9\\.0\\)`));
+  });
+});
+
+describe('Fit again with choices', () => {
+  test('a forced taper law and the coil loss resistance off/on are honoured; the default is auto', async () => {
+    const tech = await t.as('tech');
+    const pot = (await tech.post('/api/parts').send({ kind: 'pot', label: 'POT-FORCE', nominal: 500e3, tolerancePct: 20, taperClass: 'audio' }).expect(201)).body.id;
+    const sweep = await upload(pot, 'taper', potCsv());
+    const forced = await tech.post(`/api/parts/${pot}/sweeps/${sweep.body.id}/refit`).send({ law: 'two-segment' });
+    expect(forced.status).toBe(200);
+    expect(forced.body.fit.result.law).toBe('two-segment');
+    const again = await tech.post(`/api/parts/${pot}/sweeps/${sweep.body.id}/refit`).send({});
+    expect(again.body.fit.result.law).toBe('audio');
+    const pu = (await tech.post('/api/parts').send({ kind: 'pickup', label: 'PU-FORCE', nominal: 7.8e3, tolerancePct: 8 }).expect(201)).body.id;
+    const coil = await upload(pu, 'impedance', coilCsv());
+    const on = await tech.post(`/api/parts/${pu}/sweeps/${coil.body.id}/refit`).send({ withRp: true });
+    expect(on.body.fit.result.Rp).not.toBeNull();
+    const off = await tech.post(`/api/parts/${pu}/sweeps/${coil.body.id}/refit`).send({ withRp: false });
+    expect(off.body.fit.result.Rp).toBeNull();
+    expect((await tech.post(`/api/parts/${pu}/sweeps/${coil.body.id}/refit`).send({ withRp: 'sometimes' })).status).toBe(422);
   });
 });

@@ -10,6 +10,7 @@ import { buildLayoutNetlist, getLayout, LAYOUTS, layoutKnobs, PRESET_AS_LAYOUT, 
 import { DEFAULT_FREQUENCIES, simulateInstrument, sweepKnobs } from '@shared/circuit/metrics';
 import { validateNetlist, type Netlist } from '@shared/circuit/netlist';
 import { DEFAULT_HARNESS_VALUES, getPreset, HARNESS_PRESETS, HARNESS_VALUE_FIELDS, PICKUP_PRESETS, type HarnessValues } from '@shared/circuit/presets';
+import { HarnessUnsolvableError } from '@shared/circuit/solver';
 import { toSpiceNetlist } from '@shared/circuit/spice';
 import { IdParamsSchema } from '@shared/schemas/common';
 import {
@@ -107,6 +108,16 @@ function designRow(body: HarnessDesignInput) {
   };
 }
 
+/** Runs the engine; a circuit without a unique solution is the request's fault (422), in words. */
+function solved<T>(what: 'preset' | 'netlist', run: () => T): T {
+  try {
+    return run();
+  } catch (err) {
+    if (err instanceof HarnessUnsolvableError) throw unprocessable(err.message, { [what]: err.message });
+    throw err;
+  }
+}
+
 export function harnessRoutes(ctx: AppContext) {
   const { db } = ctx;
   const engine = new ApiRouter('/api/harness');
@@ -139,7 +150,7 @@ export function harnessRoutes(ctx: AppContext) {
     schemas: { body: SimulateRequestSchema },
     handle: ({ body }) => {
       const { netlist, layout } = sourceOf(body);
-      const r = simulateInstrument(netlist, knobsOf(layout, body.knobs), body.frequencies ?? DEFAULT_FREQUENCIES);
+      const r = solved(body.netlist ? 'netlist' : 'preset', () => simulateInstrument(netlist, knobsOf(layout, body.knobs), body.frequencies ?? DEFAULT_FREQUENCIES));
       return {
         frequencies: Array.from(r.frequencies),
         magnitudeDb: Array.from(r.magnitudeDb),
@@ -160,11 +171,11 @@ export function harnessRoutes(ctx: AppContext) {
       const toneKnob = body.toneKnob ?? (layout ? toneKnobs(layout)[0]! : 'tone');
       checkKnobIds([volumeKnob], layout, 'volumeKnob');
       checkKnobIds([toneKnob], layout, 'toneKnob');
-      const grid = sweepKnobs(netlist, { volume: body.volume ?? DIAL, tone: body.tone ?? DIAL }, body.frequencies ?? DEFAULT_FREQUENCIES, {
+      const grid = solved(body.netlist ? 'netlist' : 'preset', () => sweepKnobs(netlist, { volume: body.volume ?? DIAL, tone: body.tone ?? DIAL }, body.frequencies ?? DEFAULT_FREQUENCIES, {
         volumeKnob,
         toneKnob,
         knobs: knobsOf(layout, body.knobs),
-      });
+      }));
       return {
         frequencies: Array.from(grid.frequencies),
         volumeKnob,

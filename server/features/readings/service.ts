@@ -25,7 +25,7 @@ export function recordReading(db: DbLike, part: PartRow, input: CreateReadingInp
   const instrument = input.instrumentId ? db.select().from(instruments).where(eq(instruments.id, input.instrumentId)).get() : undefined;
   if (input.instrumentId && !instrument) throw new HttpError(422, 'invalid', 'That instrument does not exist.', { instrumentId: 'Unknown instrument.' });
   const accuracy = (instrument?.accuracy as Partial<Record<string, Accuracy>> | undefined)?.[input.quantity] ?? null;
-  const judgement = judgeReading(part, input, { profile: toProfileSpec(profileForPart(db, part)), accuracy });
+  const judgement = judgeReading(part, input, { profile: toProfileSpec(profileForPart(db, part)), accuracy, displayCounts: instrument?.displayCounts ?? null });
 
   const row = db
     .insert(readings)

@@ -9,9 +9,9 @@ import { ApiRouter } from '@server/http/router';
 import { fileRefused } from '@server/uploads/refusal';
 import { checkFileType, singleFileUpload, withStoredFile } from '@server/uploads/store';
 import { IdParamsSchema } from '@shared/schemas/common';
-import { SweepUploadFieldsSchema } from '@shared/schemas/sweeps';
+import { RefitInputSchema, SweepUploadFieldsSchema } from '@shared/schemas/sweeps';
 import { parseSweepCsv } from '@shared/csv/sweeps';
-import { asFit, fitAndStore, sweepInput, type SweepRow } from './fit';
+import { asFit, fitAndStore, fitInput, sweepInput, type SweepRow } from './fit';
 import { insertSweep, toStoredPoints } from './store';
 
 const MAX_SWEEP_BYTES = 2 * 1024 * 1024;
@@ -57,9 +57,9 @@ export function sweepRoutes(ctx: AppContext) {
               .returning()
               .get();
             const sweep = insertSweep(tx, ctx.sqlite, { partId: part.id, kind: body.kind, attachmentId: attachment.id, columns: parsed.columns, createdBy: user.id }, stored);
-            const fit = fitAndStore(tx, part, sweep, user.id);
+            const fit = fitAndStore(tx, part, sweep, user.id, { points: stored });
             audit(tx, { userId: user.id, action: 'sweep.upload', entity: 'part', entityId: part.id, detail: { sweepId: sweep.id, kind: body.kind, points: stored.length, file: attachment.originalName, flagged: fit.flagged } });
-            return { ...sweep, points: sweepInput(tx, sweep), fit: asFit(fit), part: findPart(tx, part.id) };
+            return { ...sweep, points: fitInput(sweep.kind, stored), fit: asFit(fit), ignoredColumns: parsed.ignored, notes: parsed.notes, part: findPart(tx, part.id) };
           }),
         );
       } catch (err) {
@@ -79,14 +79,14 @@ export function sweepRoutes(ctx: AppContext) {
 
   // Runs the current engine again over a stored sweep; the previous fit stays in the history.
   api.post('/sweeps/:sweepId/refit', {
-    schemas: { params: IdParamsSchema.extend({ sweepId: z.coerce.number().int().positive() }) },
-    handle: ({ params, user }) => {
+    schemas: { params: IdParamsSchema.extend({ sweepId: z.coerce.number().int().positive() }), body: RefitInputSchema },
+    handle: ({ params, body, user }) => {
       const part = findPart(db, params.id);
       const sweep = db.select().from(sweeps).where(and(eq(sweeps.id, params.sweepId), eq(sweeps.partId, params.id))).get();
       if (!part || !sweep) throw notFound('That sweep');
       return db.transaction((tx) => {
-        const fit = fitAndStore(tx, part, sweep, user.id);
-        audit(tx, { userId: user.id, action: 'fit.rerun', entity: 'part', entityId: part.id, detail: { sweepId: sweep.id, fitId: fit.id } });
+        const fit = fitAndStore(tx, part, sweep, user.id, { choices: body });
+        audit(tx, { userId: user.id, action: 'fit.rerun', entity: 'part', entityId: part.id, detail: { sweepId: sweep.id, fitId: fit.id, choices: body } });
         return { fit: asFit(fit), part: findPart(tx, part.id) };
       });
     },

@@ -28,6 +28,8 @@ export type Instrument = {
   kind: InstrumentKind;
   serial: string | null;
   accuracy: Partial<Record<ReadingQuantity, Accuracy>>;
+  /** Display counts (e.g. 6000); null when not recorded. */
+  displayCounts: number | null;
   /** YYYY-MM-DD */
   calibrationDue: string | null;
   notes: string | null;

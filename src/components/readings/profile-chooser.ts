@@ -20,5 +20,6 @@ export function previewVerdict(
   return judgeReading(part, reading, {
     profile: toProfileSpec(chooseProfile(profiles, part)),
     accuracy: instrument?.accuracy[reading.quantity] ?? null,
+    displayCounts: instrument?.displayCounts ?? null,
   });
 }

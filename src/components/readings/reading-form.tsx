@@ -152,7 +152,7 @@ export const ReadingForm = forwardRef<ReadingFormHandle, ReadingFormProps>(funct
           spellCheck={false}
           autoFocus={autoFocus}
           inputClassName={`num ${bench ? 'text-xl sm:text-xl py-2.5' : ''}`}
-          hint={parsed?.ok ? <span>Reads as <span className="num text-ink">{formatReading(quantity, parsed.value)}</span> · Enter saves</span> : QUANTITY_EXAMPLES[quantity]}
+          hint={parsed?.ok ? <span>Reads as <span className="num text-ink">{formatReading(quantity, parsed.value)}</span>{parsed.readAs ? ' (a bare decimal on a capacitor is µF)' : ''} · Enter saves</span> : QUANTITY_EXAMPLES[quantity]}
           error={errors.value?.message ?? (parsed && !parsed.ok ? parsed.error : undefined)}
           {...form.register('value')}
         />

@@ -298,3 +298,31 @@ describe('invariance under permutation (property)', () => {
     );
   });
 });
+
+describe('standard deviation at extreme magnitudes (scaled before squaring)', () => {
+  // Values 1, 2, 3, 4, 5 times a scale have sample variance 2.5 · scale² (arithmetic by hand:
+  // squared deviations 4 + 1 + 0 + 1 + 4 = 10, over n − 1 = 4). Squaring 1e200 overflows a
+  // double and squaring 1e-200 underflows to 0 (IEEE 754 binary64 range ≈ 1e±308).
+  for (const scale of [1e200, 1e-200, 1e-300, 1]) {
+    it(`sd of (1…5) × ${scale} is √2.5 × ${scale}`, () => {
+      const values = [1, 2, 3, 4, 5].map((k) => k * scale);
+      const want = Math.sqrt(2.5) * scale;
+      expect(summaryStatistics(values).sd / want).toBeCloseTo(1, 12);
+      const lotR = lotStatistics({ values, nominal: 3 * scale, tolerancePct: 10 });
+      expect(lotR.sd / want).toBeCloseTo(1, 12);
+      expect(lotR.mean / (3 * scale)).toBeCloseTo(1, 12);
+    });
+  }
+});
+
+describe('lot counts on decimal limits', () => {
+  it('parts exactly on 100 nF ± 1 % (99 nF, 101 nF) and 10 pF ± 20 % (8 pF, 12 pF) are inside', () => {
+    // The limits are the decimal values 99 nF and 101 nF (what the tolerance means); common practice.
+    const a = lotStatistics({ values: [99e-9, 100e-9, 101e-9], nominal: 100e-9, tolerancePct: 1 });
+    expect([a.countBelow, a.countAbove]).toEqual([0, 0]);
+    const b = lotStatistics({ values: [8e-12, 10e-12, 12e-12], nominal: 10e-12, tolerancePct: 20 });
+    expect([b.countBelow, b.countAbove]).toEqual([0, 0]);
+    const c = lotStatistics({ values: [7.99e-12, 12.01e-12], nominal: 10e-12, tolerancePct: 20 });
+    expect([c.countBelow, c.countAbove]).toEqual([1, 1]);
+  });
+});

@@ -1,6 +1,8 @@
+import { readFileSync } from 'node:fs';
+import stdlibFQuantile from '@stdlib/stats-base-dists-f-quantile';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { fitTaper, normaliseTaper, type TaperPoint } from '@shared/analysis/taper';
+import { fCritical, fitTaper, normaliseTaper, type TaperPoint } from '@shared/analysis/taper';
 import { taperLawValue, type TaperLawKind } from '@shared/taper/law';
 import { seededNormals } from '@shared/random/seeded';
 
@@ -81,7 +83,9 @@ describe('fitTaper', () => {
     );
     fc.assert(
       fc.property(lawAndM, fc.integer({ min: 25, max: 300 }), fc.integer({ min: 1, max: 2 ** 31 - 1 }), ([law, m], n, seed) => {
-        const fit = fitTaper({ points: synthetic(law, m, n, 250_000, { seed, rel: 0.01, abs: 0.002 }), rotationUnit: 'deg', total: 250_000 });
+        // R13 measured beside every reading (an R13 column), so the normalisation carries no noise.
+        const points = synthetic(law, m, n, 250_000, { seed, rel: 0.01, abs: 0.002 }).map((p) => ({ ...p, total: 250_000 }));
+        const fit = fitTaper({ points, rotationUnit: 'deg' });
         expect(fit.law).toBe(law);
         expect(Math.abs(fit.m - m)).toBeLessThan(0.02);
       }),
@@ -89,7 +93,7 @@ describe('fitTaper', () => {
     );
   });
 
-  it('normalises percent rotation and takes R13 from the last reading plus its wiper-to-lug-3 value', () => {
+  it('normalises percent rotation and takes R13 from the readings of both halves (R1W + RW3)', () => {
     const points = [0, 25, 50, 75, 100].map((pct) => {
       const r = 100_000 * taperLawValue('audio', 0.15, pct / 100);
       return { rotation: pct, resistance: r * 0.98, resistanceW3: 100_000 - r * 0.98 };
@@ -98,10 +102,10 @@ describe('fitTaper', () => {
     const shuffled = [points[3], points[0], points[4], points[2], points[1]] as TaperPoint[];
     const norm = normaliseTaper({ points: shuffled, rotationUnit: 'percent' });
     expect(norm.x).toEqual([0, 0.25, 0.5, 0.75, 1]);
-    expect(norm.totalSource).toBe('last-reading-plus-end');
+    expect(norm.totalSource).toBe('sweep-halves');
     expect(norm.total).toBeCloseTo(100_000, 6);
     const fit = fitTaper({ points: shuffled, rotationUnit: 'percent' });
-    expect(fit.totalSource).toBe('last-reading-plus-end');
+    expect(fit.totalSource).toBe('sweep-halves');
     expect(fit.halfSumMismatch).toBeCloseTo(0, 6);
     expect(fit.endResistance.end).toBeCloseTo(2000, 6);
   });
@@ -112,6 +116,7 @@ describe('fitTaper', () => {
       rotation: p.rotation,
       resistance: p.resistance + 3000, // 3 kΩ stuck at the start of the track
       resistanceW3: i === 10 ? total - p.resistance - 3000 + 1500 : undefined,
+      total, // an R13 column in the sweep
     }));
     const fit = fitTaper({
       points,
@@ -153,5 +158,76 @@ describe('fitTaper', () => {
 
   it('rejects fewer than three usable readings', () => {
     expect(() => fitTaper({ points: [{ rotation: 0, resistance: 0 }, { rotation: 300, resistance: 1 }], rotationUnit: 'deg' })).toThrow(/three/);
+  });
+});
+
+describe('R13 comes from the sweep itself', () => {
+  // A linear 250 kΩ pot swept to full rotation, after a stale bench reading of 237.5 kΩ: the sweep's
+  // own full-rotation reading normalises it (common practice: R13 is the resistance at full rotation).
+  const linear250k = synthetic('linear', 0.5, 11, 250_000).map((p) => ({ ...p, resistance: Math.max(p.resistance, 50) }));
+
+  it('a stale bench reading does not turn a linear sweep into a reverse law', () => {
+    const fit = fitTaper({ points: linear250k, rotationUnit: 'deg', total: 237_500 });
+    expect(fit.totalSource).toBe('sweep-full-rotation');
+    expect(fit.total).toBe(250_000);
+    expect(fit.law).toBe('linear');
+    expect(fit.endResistance.end).toBeNull(); // not measured: R13 is the full-rotation reading itself
+  });
+
+  it('prefers an R13 column, then both halves, then full rotation, then the bench reading', () => {
+    const withR13 = linear250k.map((p) => ({ ...p, total: 251_000, resistanceW3: 250_000 - p.resistance }));
+    expect(fitTaper({ points: withR13, rotationUnit: 'deg', total: 1 }).totalSource).toBe('sweep-r13');
+    expect(fitTaper({ points: withR13, rotationUnit: 'deg', total: 1 }).total).toBe(251_000);
+    const halves = withR13.map(({ total: _t, ...p }) => p);
+    expect(fitTaper({ points: halves, rotationUnit: 'deg', total: 1 }).totalSource).toBe('sweep-halves');
+    const partial = linear250k.filter((p) => p.rotation <= 270); // stops at 90 % of the rotation
+    const bench = fitTaper({ points: partial, rotationUnit: 'deg', total: 250_000 });
+    expect(bench.totalSource).toBe('bench-reading');
+    expect(bench.law).toBe('linear');
+    expect(() => fitTaper({ points: partial, rotationUnit: 'deg' })).toThrow(/no end-to-end resistance/);
+  });
+});
+
+describe('the linear-versus-curved F test uses F(1, n − 1) for the actual number of readings', () => {
+  // Published F table: tests/fixtures/f-distribution/f-1-nu-upper-points.txt (sources inside).
+  const rows = readFileSync(new URL('../../fixtures/f-distribution/f-1-nu-upper-points.txt', import.meta.url), 'utf8')
+    .split('\n')
+    .filter((l) => /^\d/.test(l))
+    .map((l) => l.trim().split(/\s+/).map(Number) as [number, number, number]);
+
+  it('fCritical matches the published table to the printed digits', () => {
+    expect(rows.length).toBe(30);
+    for (const [alpha, nu, f] of rows) {
+      const digits = String(f).replace('.', '').replace(/^0+/, '').length;
+      expect(Number(fCritical(nu, 1 - alpha).toPrecision(Math.max(digits, 4))), `alpha ${alpha}, nu ${nu}`).toBeCloseTo(f, 3 - Math.floor(Math.log10(f)) - 1);
+    }
+  });
+
+  it('closed forms: F(1, 1) = tan²(πp/2), F(1, 2) = 2p²/(1 − p²) (t with 1 and 2 degrees of freedom, squared)', () => {
+    for (const p of [0.9, 0.99, 0.999]) {
+      expect(fCritical(1, p) / Math.tan((Math.PI * p) / 2) ** 2).toBeCloseTo(1, 9);
+      expect(fCritical(2, p) / ((2 * p * p) / (1 - p * p))).toBeCloseTo(1, 9);
+    }
+    expect(fCritical(1e6)).toBeCloseTo(10.83, 2); // the large-sample point the test used before
+  });
+
+  it('agrees with @stdlib/stats-base-dists-f-quantile (reference library) to 1e-9 relative', () => {
+    for (const nu of [1, 2, 3, 5, 7, 10, 30, 100, 1000]) {
+      for (const p of [0.9, 0.95, 0.99, 0.999]) {
+        expect(fCritical(nu, p) / stdlibFQuantile(p, 1, nu), `p ${p}, nu ${nu}`).toBeCloseTo(1, 9);
+      }
+    }
+  });
+
+  it('truly linear pots with 6 readings are rarely called curved (seeded simulation, 3 % noise)', () => {
+    let curved = 0;
+    const runs = 1500;
+    for (let k = 0; k < runs; k++) {
+      const points = synthetic('linear', 0.5, 6, 100_000, { seed: 1000 + k, rel: 0, abs: 0.03 }).map((p) => ({ ...p, total: 100_000 }));
+      if (fitTaper({ points, rotationUnit: 'deg' }).law !== 'linear') curved++;
+    }
+    // Measured once: about 0.3 % with F(1, 5) (the laws are bounded and not nested in the linear
+    // one, so the nominal 0.1 % is approximate); 2.7 % with the old F(1, ∞) = 10.83.
+    expect(curved / runs).toBeLessThan(0.01);
   });
 });

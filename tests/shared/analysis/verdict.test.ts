@@ -1,6 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { instrumentUncertainty, judge, limitsFromTolerance } from '@shared/analysis/verdict';
+import { readFileSync } from 'node:fs';
+import { accuracyAt, instrumentUncertainty, judge, limitsFromTolerance, meterRange } from '@shared/analysis/verdict';
+import { parseValue } from '@shared/units/parse';
+
+function readSeries(name: string): number[] {
+  const text = readFileSync(new URL(`../../fixtures/iec/iec60063-${name}.txt`, import.meta.url), 'utf8');
+  return text.split('\n').filter((l) => /^\d+$/.test(l.trim())).map(Number);
+}
 
 describe('limitsFromTolerance', () => {
   it('nominal ± tolerance, and the asymmetric −20 %/+80 % of the Z letter', () => {
@@ -9,6 +16,43 @@ describe('limitsFromTolerance', () => {
     expect(z.lower).toBeCloseTo(17.6e-9, 20);
     expect(z.upper).toBeCloseTo(39.6e-9, 20);
     expect(() => limitsFromTolerance(1, -5)).toThrow(RangeError);
+  });
+});
+
+describe('a reading exactly on a decimal tolerance limit conforms (simple acceptance)', () => {
+  // The limit a tolerance means is the decimal value nominal · (1 ± tol/100); a reading typed as that
+  // decimal conforms (ILAC-G8:09/2019 §4.2.1: simple acceptance, limits inclusive).
+  it('101 nF on 100 nF ± 1 % and 12 pF on 10 pF ± 20 % pass', () => {
+    const a = limitsFromTolerance(100e-9, 1);
+    expect(judge({ value: parseValue('101n', 'capacitance').value, ...a, unit: 'F' }).verdict).toBe('pass');
+    expect(judge({ value: parseValue('99n', 'capacitance').value, ...a, unit: 'F' }).verdict).toBe('pass');
+    const b = limitsFromTolerance(10e-12, 20);
+    expect(judge({ value: parseValue('12p', 'capacitance').value, ...b, unit: 'F' }).verdict).toBe('pass');
+    expect(judge({ value: parseValue('12.0001p', 'capacitance').value, ...b, unit: 'F' }).verdict).toBe('fail');
+  });
+
+  it('property: E24 nominals 1 pF … 1 MΩ, tolerances 0.1 … 20 %, a reading typed on either limit passes', () => {
+    // E24 values: IEC 60063 (tests/fixtures/iec/iec60063-E24.txt).
+    const e24 = readSeries('E24');
+    fc.assert(
+      fc.property(
+        fc.constantFrom(...e24),
+        fc.integer({ min: -12, max: 5 }), // 10…91 × 10^k covers 1 pF … 1 MΩ (in F or Ω)
+        fc.integer({ min: 1, max: 200 }), // tolerance in tenths of a percent: 0.1 … 20 %
+        fc.boolean(),
+        (d, k, tenths, upperSide) => {
+          const nominal = Number(`${d}e${k - 1}`);
+          // The limit as decimal text, by integer arithmetic: d·(1000 ± tenths) × 10^(k − 1 − 3).
+          const mant = d * (1000 + (upperSide ? tenths : -tenths));
+          const typed = `${mant}e${k - 4}`;
+          const reading = parseValue(typed).value;
+          const lim = limitsFromTolerance(nominal, tenths / 10);
+          const v = judge({ value: reading, nominal, ...lim, unit: 'F' });
+          expect(v.verdict, `${typed} on ${nominal} ± ${tenths / 10} %`).toBe('pass');
+        },
+      ),
+      { numRuns: 2000 },
+    );
   });
 });
 
@@ -112,5 +156,27 @@ describe('judge — simple acceptance when no uncertainty is known', () => {
     expect(() => judge({ value: 1, lower: 2, upper: 1, unit: 'Ω' })).toThrow(RangeError);
     expect(() => judge({ value: NaN, lower: 0, upper: 1, unit: 'Ω' })).toThrow(RangeError);
     expect(() => judge({ value: 1, lower: 0, upper: 2, uncertainty: -1, unit: 'Ω' })).toThrow(RangeError);
+  });
+});
+
+describe('meter accuracy per range (display counts)', () => {
+  // A 6000-count meter: ranges 6 kΩ, 60 kΩ, 600 kΩ …; one count is the range / 6000 (common
+  // practice for auto-ranging meters, no published source). Arithmetic by hand.
+  it('the range is the smallest counts × 10^k that holds the reading', () => {
+    expect(meterRange(598e3, 6000)).toBe(600e3);
+    expect(meterRange(5.98e3, 6000)).toBe(6e3);
+    expect(meterRange(6e3, 6000)).toBe(60e3); // 6000 counts display 0 … 5999
+    expect(meterRange(47e-9, 4000)).toBeCloseTo(400e-9, 20);
+  });
+  it('±(0.5 % + 2 counts): 100 Ω counts on the 600 kΩ range, 1 Ω counts on the 6 kΩ range', () => {
+    const acc = { pctOfReading: 0.5, counts: 2, resolution: 0 };
+    expect(instrumentUncertainty(598e3, accuracyAt(598e3, acc, 6000))).toBeCloseTo(2990 + 200, 9);
+    expect(instrumentUncertainty(5.98e3, accuracyAt(5.98e3, acc, 6000))).toBeCloseTo(29.9 + 2, 9);
+  });
+  it('an accuracy stated for one range is used on that range only', () => {
+    const acc = { pctOfReading: 0.5, counts: 2, resolution: 0, ranges: [{ range: 6e6, pctOfReading: 1.5, counts: 3 }] };
+    expect(accuracyAt(5e6, acc, 6000)).toEqual({ pctOfReading: 1.5, counts: 3, resolution: 1000 });
+    expect(accuracyAt(5e5, acc, 6000)).toEqual({ pctOfReading: 0.5, counts: 2, resolution: 100 });
+    expect(accuracyAt(5e5, acc, null)).toBe(acc); // no display counts recorded: the fixed resolution
   });
 });

@@ -97,3 +97,21 @@ describe('lot rows', () => {
     expect(!r.ok && r.issues[0]!.line).toBe(4);
   });
 });
+
+describe('a capacitance column whose header names no unit (common practice)', () => {
+  it('is read in farads when every value is below 1e-3', () => {
+    const r = parseLotRows('Item,C\n1,4.7e-8\n2,4.71e-8\n', { quantity: 'capacitance' });
+    if (!r.ok) throw new Error(JSON.stringify(r.issues));
+    expect(r.rows.map((row) => row.value)).toEqual([4.7e-8, 4.71e-8]);
+  });
+  it('asks for the unit when a value is 1e-3 or more (47 is not 47 F)', () => {
+    const r = parseLotRows('Item,C\n1,47.1\n2,46.9\n', { quantity: 'capacitance' });
+    expect(r.ok).toBe(false);
+    expect(!r.ok && r.issues[0]!.message).toMatch(/give the column's unit/);
+    expect(!r.ok && r.issues[0]!.column).toBe('C');
+  });
+  it('keeps reading a header unit as given: C (nF)', () => {
+    const r = parseLotRows('Item,C (nF)\n1,47.1\n', { quantity: 'capacitance' });
+    expect(r.ok).toBe(true);
+  });
+});

@@ -52,3 +52,33 @@ describe('decodeMarking dispatches by form', () => {
     expect(decodeResistorCode('470K').nominal).toBe(470e3);
   });
 });
+
+describe('markings as printed on film capacitors', () => {
+  // IEC 60062: value code, tolerance letter, then the rated voltage beside them (the voltage is
+  // printed in volts on film capacitors: common practice); Z is −20 %/+80 % (fixture row tolerance-letter|Z).
+  it.each([
+    ['473J 100V', 47e-9, 5, 100],
+    ['104K 63V', 100e-9, 10, 63],
+    ['2n2J/400V', 2.2e-9, 5, 400],
+  ])('%s: %s F ±%s %, rated %s V', (code, nominal, pct, volts) => {
+    const d = decodeMarking(code);
+    expect(d.nominal).toBe(nominal);
+    expect(d.tolerancePct).toBe(pct);
+    expect(d.ratedVoltage).toBe(volts);
+  });
+
+  it('Z gives asymmetric limits −20 %/+80 % instead of being dropped', () => {
+    const d = decodeMarking('104Z');
+    expect(d.tolerance).toEqual({ kind: 'asymmetric', minusPct: 20, plusPct: 80 });
+    expect(d.limits).toEqual({ lower: 80e-9, upper: 180e-9 });
+  });
+
+  it('10K lists every reading: 10 pF ±10 % (capacitor code) and 10 kΩ (RKM resistor value)', () => {
+    const d = decodeMarking('10K');
+    expect(d.readings.map((r) => [r.kind, r.nominal, r.tolerancePct])).toEqual([
+      ['capacitor', 10e-12, 10],
+      ['resistor', 10e3, null],
+    ]);
+    expect(decodeMarking('473J').readings).toHaveLength(1);
+  });
+});

@@ -161,3 +161,29 @@ describe('parseValue ∘ formatValue round trip (property)', () => {
     );
   });
 });
+
+describe('capacitance written as printed on film capacitors (common practice: bare decimals are µF)', () => {
+  it.each([
+    ['.022', 22e-9, '22 nF'],
+    ['0.022', 22e-9, '22 nF'],
+    ['0,047', 47e-9, '47 nF'],
+    ['0.1', 100e-9, '100 nF'],
+  ])('%s reads as %s F and says so', (text, value, shown) => {
+    const r = tryParseValue(text, 'capacitance');
+    expect(r).toMatchObject({ ok: true, value, unit: 'F' });
+    expect(r.ok && r.readAs).toMatch(new RegExp(`read as ${shown}`));
+  });
+
+  it.each(['100', '470', '1', '22'])('a bare %s is refused with a hint to add a unit', (text) => {
+    const r = tryParseValue(text, 'capacitance');
+    expect(r.ok).toBe(false);
+    expect(!r.ok && r.error).toMatch(new RegExp(`add a unit: ${text}p, ${text}n, ${text}u`));
+  });
+
+  it('units, prefixes, exponents and other quantities are unchanged', () => {
+    expect(tryParseValue('0.022u', 'capacitance')).toEqual({ ok: true, value: 22e-9, unit: 'F' });
+    expect(tryParseValue('2.2e-8', 'capacitance')).toEqual({ ok: true, value: 2.2e-8, unit: 'F' });
+    expect(tryParseValue('0.5', 'resistance')).toEqual({ ok: true, value: 0.5, unit: 'Ω' });
+    expect(tryParseValue('0', 'capacitance')).toEqual({ ok: true, value: 0, unit: 'F' });
+  });
+});

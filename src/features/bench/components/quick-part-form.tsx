@@ -78,7 +78,7 @@ export function QuickPartForm({ label, onCreated, onCancel }: { label: string; o
           autoComplete="off"
           spellCheck={false}
           inputClassName="num"
-          hint={parsed?.ok ? <span>Reads as <span className="num text-ink">{formatValue(parsed.value, parsed.unit)}</span></span> : NOMINAL_QUANTITY[kind] === 'capacitance' ? 'e.g. 22n, 0.047u' : 'e.g. 500k, 4k7, 1meg'}
+          hint={parsed?.ok ? <span>Reads as <span className="num text-ink">{formatValue(parsed.value, parsed.unit)}</span>{parsed.readAs ? ' (a bare decimal on a capacitor is µF)' : ''}</span> : NOMINAL_QUANTITY[kind] === 'capacitance' ? 'e.g. 22n, 0.047u' : 'e.g. 500k, 4k7, 1meg'}
           error={errors.nominal?.message}
           {...form.register('nominal')}
         />

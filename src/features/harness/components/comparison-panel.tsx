@@ -200,7 +200,7 @@ export function ComparisonPanel({
                       </th>
                       <td className="num whitespace-nowrap py-1 pr-2 text-right">{formatMetric(ra)}</td>
                       <td className="num whitespace-nowrap py-1 pr-2 text-right">{formatMetric(rb)}</td>
-                      <td className="num whitespace-nowrap py-1 text-right">{difference(ra.kind, ra.value, rb.value)}</td>
+                      <td className="num whitespace-nowrap py-1 text-right">{ra.text !== undefined || rb.text !== undefined ? '—' : difference(ra.kind, ra.value, rb.value)}</td>
                     </tr>
                   );
                 })}

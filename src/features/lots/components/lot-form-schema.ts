@@ -63,7 +63,9 @@ export function readNominal(kind: LotKind, text: string): NominalReading {
   let decoded = false;
   const asMarking = (): NominalReading | null => {
     try {
-      const d = decodeMarking(t);
+      const all = decodeMarking(t);
+      // An ambiguous code (10K: 10 pF ±10 % or 10 kΩ) is read the way that fits this lot's kind.
+      const d = all.readings.find((r) => r.kind === wantKind) ?? all;
       decoded = true;
       if (d.kind !== wantKind) return { ok: false, error: `"${t}" is a ${d.kind} marking (${formatValue(d.nominal, d.unit)}), but this is a lot of ${LOT_KIND_LABEL[kind].toLowerCase()}.` };
       return { ok: true, empty: false, nominal: d.nominal, tolerancePct: d.tolerancePct, marking: t, text: formatValue(d.nominal, d.unit) + (d.tolerancePct != null ? ` ±${d.tolerancePct} %` : '') };

@@ -2,7 +2,7 @@ import { queryOptions, useMutation, useQuery } from '@tanstack/react-query';
 import type { CoilPoint } from '@shared/analysis/coil';
 import type { TaperPoint } from '@shared/analysis/taper';
 import type { ColumnRole } from '@shared/csv/columns';
-import type { Fit, SweepKind } from '@shared/schemas/sweeps';
+import type { Fit, RefitInput, SweepKind } from '@shared/schemas/sweeps';
 import { api } from '@/lib/api-client';
 
 type SweepBase = { id: number; partId: number; attachmentId: number | null; columns: Record<string, string> | null; pointCount: number; createdAt: number; fit: Fit | null };
@@ -39,11 +39,12 @@ export function uploadSweep({ partId, file, kind, fullRotationDeg, mapping }: Sw
   if (kind === 'taper' && fullRotationDeg) form.set('fullRotationDeg', String(fullRotationDeg));
   if (mapping) form.set('mapping', JSON.stringify(mapping));
   form.set('file', file);
-  return api.post<Sweep>(`/api/parts/${partId}/sweeps`, form);
+  return api.post<Sweep & { ignoredColumns: string[]; notes: string[] }>(`/api/parts/${partId}/sweeps`, form);
 }
 
 /** A fit moves the part's status, so the whole part is stale. */
 export const useUploadSweep = () => useMutation({ mutationFn: uploadSweep, meta: { invalidates: [['parts']] } });
 
-export const refitSweep = ({ partId, sweepId }: { partId: number; sweepId: number }) => api.post<{ fit: Fit }>(`/api/parts/${partId}/sweeps/${sweepId}/refit`);
+export const refitSweep = ({ partId, sweepId, choices }: { partId: number; sweepId: number; choices?: RefitInput }) =>
+  api.post<{ fit: Fit }>(`/api/parts/${partId}/sweeps/${sweepId}/refit`, choices ?? {});
 export const useRefitSweep = () => useMutation({ mutationFn: refitSweep, meta: { invalidates: [['parts']] } });

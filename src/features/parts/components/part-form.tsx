@@ -47,6 +47,7 @@ function PartFields({ register, errors, kind, nominalText, kindLocked, wide }: F
     parsed.ok && parsed.value !== null ? (
       <span aria-live="polite">
         Reads as <span className="num text-ink">{formatValue(parsed.value, parsed.unit)}</span>
+        {'readAs' in parsed && parsed.readAs ? ' (a bare decimal on a capacitor is µF)' : ''}
       </span>
     ) : (
       NOMINAL_EXAMPLES[NOMINAL_QUANTITY[kind]] + (kind === 'pickup' ? ' (DC resistance)' : '')

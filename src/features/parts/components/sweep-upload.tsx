@@ -50,6 +50,7 @@ const ROLE_LABEL: Record<string, string> = {
   rotation: 'Rotation',
   resistance: 'Resistance, lug 1 to wiper',
   resistanceW3: 'Resistance, wiper to lug 3 (optional)',
+  total: 'Resistance, lug 1 to lug 3 (R13, optional)',
   frequency: 'Frequency',
   magnitude: 'Impedance magnitude |Z|',
   phase: 'Phase',
@@ -78,6 +79,7 @@ const ROLE_UNITS: Record<string, { value: string; label: string }[]> = {
   ],
 };
 ROLE_UNITS.resistanceW3 = ROLE_UNITS.resistance!;
+ROLE_UNITS.total = ROLE_UNITS.resistance!;
 ROLE_UNITS.magnitude = ROLE_UNITS.resistance!;
 ROLE_UNITS.re = ROLE_UNITS.resistance!;
 ROLE_UNITS.im = ROLE_UNITS.resistance!;
@@ -99,19 +101,19 @@ function MappingStep({
   onCancel: () => void;
 }) {
   const [form, setForm] = useState<'polar' | 'rect'>(needs.detected.re || needs.detected.im ? 'rect' : 'polar');
-  const roles: ColumnRole[] = kind === 'taper' ? ['rotation', 'resistance', 'resistanceW3'] : form === 'polar' ? ['frequency', 'magnitude', 'phase'] : ['frequency', 're', 'im'];
+  const roles: ColumnRole[] = kind === 'taper' ? ['rotation', 'resistance', 'resistanceW3', 'total'] : form === 'polar' ? ['frequency', 'magnitude', 'phase'] : ['frequency', 're', 'im'];
   const initial = (role: ColumnRole, i: number): Choice => {
     const d = needs.detected[role];
     const units = ROLE_UNITS[role]!;
     const unitFromHeader = d?.unit && units.some((u) => u.value === d.unit) ? d.unit : units[0]!.value;
     if (d) return { column: String(d.index), unit: unitFromHeader };
     // Unknown headers: suggest the columns in file order, but never for the optional column.
-    if (role === 'resistanceW3') return { column: '', unit: unitFromHeader };
+    if (role === 'resistanceW3' || role === 'total') return { column: '', unit: unitFromHeader };
     return { column: i < needs.header.length ? String(i) : '', unit: unitFromHeader };
   };
   const [choices, setChoices] = useState<Record<string, Choice>>(() =>
-    Object.fromEntries((['rotation', 'resistance', 'resistanceW3', 'frequency', 'magnitude', 'phase', 're', 'im'] as ColumnRole[]).map((r) => {
-      const list = kind === 'taper' ? ['rotation', 'resistance', 'resistanceW3'] : r === 're' || r === 'im' ? ['frequency', 're', 'im'] : ['frequency', 'magnitude', 'phase'];
+    Object.fromEntries((['rotation', 'resistance', 'resistanceW3', 'total', 'frequency', 'magnitude', 'phase', 're', 'im'] as ColumnRole[]).map((r) => {
+      const list = kind === 'taper' ? ['rotation', 'resistance', 'resistanceW3', 'total'] : r === 're' || r === 'im' ? ['frequency', 're', 'im'] : ['frequency', 'magnitude', 'phase'];
       return [r, initial(r, Math.max(0, list.indexOf(r)))];
     })),
   );
@@ -123,7 +125,7 @@ function MappingStep({
     for (const role of roles) {
       const c = choices[role]!;
       if (c.column === '') {
-        if (role === 'resistanceW3') continue;
+        if (role === 'resistanceW3' || role === 'total') continue;
         return setError(`Choose the column that holds the ${ROLE_LABEL[role]!.toLowerCase()}.`);
       }
       if (used.has(c.column)) return setError(`One column cannot hold both the ${ROLE_LABEL[used.get(c.column)!]!.toLowerCase()} and the ${ROLE_LABEL[role]!.toLowerCase()}.`);
@@ -162,7 +164,7 @@ function MappingStep({
           return (
             <div key={role} className="grid grid-cols-[1fr_7rem] gap-2 sm:col-span-3 md:col-span-1 md:grid-cols-1">
               <SelectField label={ROLE_LABEL[role]} value={c.column} onChange={(e) => set({ column: e.target.value })}>
-                <option value="">{role === 'resistanceW3' ? 'Not in the file' : 'Choose a column'}</option>
+                <option value="">{role === 'resistanceW3' || role === 'total' ? 'Not in the file' : 'Choose a column'}</option>
                 {needs.header.map((h, i) => (
                   <option key={i} value={i}>
                     {i + 1}: {h || '(no name)'}
@@ -215,7 +217,9 @@ export function SweepUploadForm({ partId, partKind, onDone }: { partId: number; 
       setPending(null);
       form.reset({ ...form.getValues(), file: undefined });
       setFileKey((k) => k + 1);
-      setDone(`Read ${sweep.pointCount} points from ${input.file.name} and fitted them.`);
+      const ignored = sweep.ignoredColumns.length > 0 ? ` Columns not used: ${sweep.ignoredColumns.map((h) => `“${h}”`).join(', ')}.` : '';
+      const notes = sweep.notes.length > 0 ? ` ${sweep.notes.join(' ')}` : '';
+      setDone(`Read ${sweep.pointCount} points from ${input.file.name} and fitted them.${ignored}${notes}`);
       onDone?.();
     } catch (err) {
       if (isApiError(err) && err.code === 'needs_mapping' && err.details?.needsMapping) {

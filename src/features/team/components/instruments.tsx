@@ -34,6 +34,7 @@ const Fields = z.object({
   name: z.string(),
   kind: z.enum(INSTRUMENT_KINDS),
   serial: z.string(),
+  displayCounts: z.string(),
   calibrationDue: z.string(),
   notes: z.string(),
   accuracy: z.object(Object.fromEntries(READING_QUANTITIES.map((q) => [q, Acc])) as Record<ReadingQuantity, typeof Acc>),
@@ -61,10 +62,12 @@ const Schema = Fields.transform((v, ctx): InstrumentInput => {
       accuracy[q] = { pctOfReading: pct.value ?? 0, counts: counts.value ?? 0, resolution: resolution.value ?? 0 };
     }
   }
+  const counts = v.displayCounts.trim() === '' ? null : Number(v.displayCounts.trim());
   const checked = InstrumentInputSchema.safeParse({
     name: v.name,
     kind: v.kind,
     serial: v.serial.trim() || null,
+    displayCounts: counts,
     calibrationDue: v.calibrationDue || null,
     notes: v.notes.trim() || null,
     accuracy,
@@ -85,6 +88,7 @@ const toValues = (i?: Instrument): Values => ({
   name: i?.name ?? '',
   kind: i?.kind ?? 'multimeter',
   serial: i?.serial ?? '',
+  displayCounts: i?.displayCounts != null ? String(i.displayCounts) : '',
   calibrationDue: i?.calibrationDue ?? '',
   notes: i?.notes ?? '',
   accuracy: Object.fromEntries(
@@ -104,7 +108,7 @@ function InstrumentForm({ instrument, onDone }: { instrument?: Instrument; onDon
       await save.mutateAsync({ id: instrument?.id, input });
       onDone();
     } catch (err) {
-      applyServerError(err, form.setError, ['name', 'kind', 'serial', 'calibrationDue', 'notes']);
+      applyServerError(err, form.setError, ['name', 'kind', 'serial', 'displayCounts', 'calibrationDue', 'notes']);
     }
   });
   return (
@@ -122,6 +126,14 @@ function InstrumentForm({ instrument, onDone }: { instrument?: Instrument; onDon
         </SelectField>
         <TextField label="Serial" autoComplete="off" error={errors.serial?.message} {...form.register('serial')} />
         <TextField label="Calibration due" type="date" error={errors.calibrationDue?.message} {...form.register('calibrationDue')} />
+        <TextField
+          label="Display counts"
+          inputMode="numeric"
+          autoComplete="off"
+          hint="e.g. 6000: one count is then the range ÷ counts, range by range; blank uses the resolution below"
+          error={errors.displayCounts?.message}
+          {...form.register('displayCounts')}
+        />
       </div>
       <fieldset>
         <legend className="mb-1 text-xs font-medium uppercase tracking-wide text-ink-soft">Accuracy: ±(% of reading + counts × resolution); leave a row blank when the meter does not measure it</legend>
