@@ -16,9 +16,9 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
-function potCsv(): string {
+function potCsv(endOhms = 300): string {
   const lines = ['Rotation (deg),R (kOhm)'];
-  for (let deg = 0; deg <= 300; deg += 10) lines.push(`${deg},${((490e3 * taperLawValue('audio', 0.15, deg / 300) + 300) / 1e3).toFixed(4)}`);
+  for (let deg = 0; deg <= 300; deg += 10) lines.push(`${deg},${((490e3 * taperLawValue('audio', 0.15, deg / 300) + endOhms) / 1e3).toFixed(4)}`);
   return lines.join('\n') + '\n';
 }
 
@@ -45,6 +45,8 @@ async function upload(partId: number, kind: string, content: string | Buffer, na
 
 describe('sweep uploads', () => {
   test('a pot rotation sweep is stored with its taper fit, equal to the engine on the same points', async () => {
+    const stored = () => fs.existsSync(t.ctx.config.uploadsDir) ? fs.readdirSync(t.ctx.config.uploadsDir, { recursive: true, encoding: 'utf8' }).filter((f) => /^[0-9a-f]{2}\/[0-9a-f]{64}$/.test(f)) : [];
+    const before = stored().length;
     const res = await upload(potId, 'taper', potCsv());
     expect(res.status).toBe(201);
     expect(res.body.pointCount).toBe(31);
@@ -54,8 +56,8 @@ describe('sweep uploads', () => {
     expect(res.body.fit.result).toEqual(JSON.parse(JSON.stringify(engine)));
     expect(res.body.fit.result.law).toBe('audio');
     expect(res.body.part.status).toBe('passed');
-    const files = fs.readdirSync(t.ctx.config.uploadsDir, { recursive: true, encoding: 'utf8' }).filter((f) => /^[0-9a-f]{2}\/[0-9a-f]{64}$/.test(f));
-    expect(files.length).toBe(1);
+    // one stored file for the upload (other tests may have stored theirs before)
+    expect(stored().length - before).toBe(1);
   });
 
   test('a coil impedance sweep gets the coil fit; a refit keeps the old fit as history', async () => {
@@ -72,9 +74,13 @@ describe('sweep uploads', () => {
   });
 
   test('a viewer can read sweeps and fits but not upload', async () => {
+    // this test's own pot and sweep, so it passes alone and in any order
+    const tech = await t.as('tech');
+    const ownPot = (await tech.post('/api/parts').send({ kind: 'pot', label: 'POT-SW-VIEW', nominal: 500e3, tolerancePct: 20, taperClass: 'audio' }).expect(201)).body.id;
+    expect((await upload(ownPot, 'taper', potCsv(310))).status).toBe(201);
     const viewer = await t.as('viewer');
-    expect((await viewer.get(`/api/parts/${potId}/sweeps`)).body.sweeps[0].fit.kind).toBe('taper');
-    expect((await viewer.get(`/api/parts/${potId}/fits`)).status).toBe(200);
+    expect((await viewer.get(`/api/parts/${ownPot}/sweeps`)).body.sweeps[0].fit.kind).toBe('taper');
+    expect((await viewer.get(`/api/parts/${ownPot}/fits`)).status).toBe(200);
     const res = await viewer.post(`/api/parts/${potId}/sweeps`).field('kind', 'taper').attach('file', Buffer.from(potCsv()), 'sweep.csv');
     expect(res.status).toBe(403);
   });
