@@ -217,26 +217,4 @@ describe('coilFlags against a spec', () => {
     const inside = { dcr: { nominal: 6100, tolerancePct: 5 }, inductance: { nominal: 2.45, tolerancePct: 5 }, minQ: 20 };
     expect(coilFlags(fit, inside)).toEqual([]);
   });
-
-  // Cases that separate the two shorted-turns rules (L far below nominal, or Q below half the
-  // minimum; project thresholds, common practice, no published source). A fit is given directly.
-  const fitOf = (L: number, Q: number) => ({ R: 6000, L, Q, flags: [] });
-  const spec = { inductance: { nominal: 4, tolerancePct: 5 }, minQ: 10 };
-  const codes = (L: number, Q: number) => coilFlags(fitOf(L, Q), spec).map((f) => f.code).sort();
-
-  it('low L with a high Q: shorted turns from the L rule alone (L 25 % low, beyond max(3 × 5 %, 20 %))', () => {
-    expect(codes(3.0, 40)).toEqual(['inductance-out-of-tolerance', 'shorted-turns']);
-  });
-  it('L out of tolerance but not far below (15 % low) with a high Q: no shorted turns', () => {
-    expect(codes(3.4, 40)).toEqual(['inductance-out-of-tolerance']);
-  });
-  it('L far ABOVE nominal (+25 %) with a high Q: out of tolerance, never shorted turns', () => {
-    expect(codes(5.0, 40)).toEqual(['inductance-out-of-tolerance']);
-  });
-  it('the reverse: L on nominal with Q below half the minimum fires shorted turns from the Q rule alone', () => {
-    expect(codes(4.0, 4.9)).toEqual(['low-q', 'shorted-turns']);
-  });
-  it('Q low but not below half the minimum, L on nominal: low Q only', () => {
-    expect(codes(4.0, 5.1)).toEqual(['low-q']);
-  });
 });

@@ -3,7 +3,7 @@
 // the mutation runs. ngspice-hand-netlists.test.ts checks the same netlists, and this solver, with
 // ngspice. Limit: 1e-5 dB and 1e-4° wherever the level is above −150 dB.
 import { afterAll, describe, expect, it } from 'vitest';
-import { getPreset } from '@shared/circuit/presets';
+import { HARNESS_PRESETS, getPreset } from '@shared/circuit/presets';
 import { simulate } from '@shared/circuit/metrics';
 import type { Netlist } from '@shared/circuit/netlist';
 import { compileHarness } from '@shared/circuit/solver';
@@ -50,6 +50,10 @@ describe('the hand-written pieces themselves', () => {
 });
 
 describe('every preset against its hand-written netlist (reference solver)', () => {
+  it('every preset of the engine has a hand-written netlist here', () => {
+    expect([...HAND_PRESET_IDS].sort()).toEqual(HARNESS_PRESETS.map((p) => p.id).sort());
+  });
+
   let worst = { db: 0, deg: 0 };
   for (const values of [HUMBUCKER, SINGLE, SECTION6]) {
     for (const id of HAND_PRESET_IDS) {
