@@ -8,7 +8,7 @@ export default {
   testRunner: 'vitest',
   vitest: { configFile: 'tests/mutation/vitest.config.ts', related: true },
   plugins: ['@stryker-mutator/vitest-runner'],
-  mutate: ['shared/analysis/**/*.ts', 'shared/circuit/**/*.ts', 'shared/units/**/*.ts', 'shared/markings/**/*.ts', 'shared/series/**/*.ts'],
+  mutate: ['shared/analysis/**/*.ts', 'shared/circuit/**/*.ts', 'shared/taper/**/*.ts', 'shared/units/**/*.ts', 'shared/markings/**/*.ts', 'shared/series/**/*.ts'],
   coverageAnalysis: 'perTest',
   concurrency: 1,
   incremental: true,

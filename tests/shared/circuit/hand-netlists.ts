@@ -58,12 +58,12 @@ export interface HandValues {
 
 /**
  * The engine's `reverse` law parameter for a reverse pot whose y(0.5) is `mid`. Convention used
- * here: the engine's reverse law is y = 1 − f_audio(m, 1 − x), so its m is the mirrored audio
- * law's mid value and y(0.5) = 1 − m. If the engine's reverse parameter becomes m = y(0.5), this
- * line becomes `return mid` and nothing else in these tests changes.
+ * here: m = y(0.5) for every law, reverse included (the engine's convention), so the parameter is
+ * the mid-rotation value itself; the halves above are still computed from the mirrored audio
+ * formula, not from the engine's law.
  */
 export function engineReverseM(mid: number): number {
-  return 1 - mid;
+  return mid;
 }
 
 function engineLaw(law: HandLaw): HarnessValues['volumeLaw'] {

@@ -94,7 +94,7 @@ describe('the engine\'s own SPICE export through ngspice (within 1e-5 dB and 1e-
         volumeR: 250e3,
         volumeLaw: { kind: 'linear' },
         toneR: 250e3,
-        toneLaw: { kind: 'reverse', m: 0.2 },
+        toneLaw: { kind: 'reverse', m: 0.8 },
         toneC: 47e-9,
         cableLength: 6,
       };
