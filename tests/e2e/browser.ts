@@ -2,7 +2,7 @@ import fs from 'node:fs';
 import { chromium, type Browser, type Page } from 'playwright-core';
 import { expect, inject } from 'vitest';
 
-/** Debian's Chromium, never a downloaded browser. */
+/** Debian's Chromium, never a downloaded browser (DEVELOPERS.md, Set-up). */
 export function launchBrowser(): Promise<Browser> {
   return chromium.launch({
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',

@@ -40,7 +40,7 @@ describe('the hand-written pieces themselves', () => {
     expect(potHalves(1, { kind: 'reverse', mid: 0.8 }, 5)[0]).toBeCloseTo(0.8, 14);
   });
 
-  it('the reference solver gives the RC low-pass its textbook corner: −3.0103 dB and −45° at 1/(2πRC)', () => {
+  it('the reference solver gives the RC low-pass its standard corner: −3.0103 dB and −45° at 1/(2πRC)', () => {
     // standard circuit theory (any introductory circuits text)
     const fc = 1 / (2 * Math.PI * 10e3 * 10e-9);
     const [z] = solveAc(parseSpice('rc\nV1 in 0 DC 0 AC 1\nR1 in out 10000\nC1 out 0 10e-9\n.end'), [fc]);

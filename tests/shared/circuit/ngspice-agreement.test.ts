@@ -204,8 +204,8 @@ describe('hand-written netlists through ngspice (within 1e-5 dB and 1e-4° where
 
   it('treble retention at volume 5, tone 10 from ngspice on the hand-written netlists: the trade figures, and the engine within 4e-5 dB', async () => {
     // Treble retention: (L(3 kHz) − L(200 Hz)) at volume 5 minus the same at volume 10, tone 10.
-    // Expected figures (about −3.8, −3.2, +11, +0.9, +3 dB) are the trade behaviours of the
-    // harness notes, common practice (no published source); ngspice supplies the numbers here, the
+    // Expected figures (about −3.8, −3.2, +11, +0.9, +3 dB) are the trade behaviours of
+    // docs/computation.md §6, common practice (no published source); ngspice supplies the numbers, the
     // engine's own figures (behaviours.test.ts) are held to ngspice's. Four levels each within
     // 1e-5 dB give at most 4e-5 dB.
     const tilt = async (id: HandPresetId, volume: number) => {
