@@ -24,7 +24,7 @@ export default defineConfig({
     environment: 'node',
     include: ['tests/**/*.test.ts'],
     exclude: ['tests/e2e/**', 'node_modules/**'],
-    setupFiles: ['tests/setup/console.ts', 'tests/setup/fast-check.ts'],
+    setupFiles: ['tests/setup/console.ts', 'tests/setup/fast-check.ts', 'tests/setup/server-errors.ts'],
     testTimeout: 30_000,
     hookTimeout: 60_000,
     pool: 'forks',

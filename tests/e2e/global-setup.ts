@@ -11,6 +11,8 @@ declare module 'vitest' {
   export interface ProvidedContext {
     baseUrl: string;
     demoPassword: string;
+    /** File that receives everything the server writes to stderr (watched by every test). */
+    serverStderrFile: string;
   }
 }
 
@@ -56,12 +58,18 @@ export default async function setup(project: TestProject) {
     // Its own process group, so the teardown ends npx, tsx and the server together.
     detached: true,
   });
+  const serverStderrFile = path.join(dataDir, 'server-stderr.log');
+  fs.writeFileSync(serverStderrFile, '');
   child.stdout?.on('data', (d) => (output += d));
-  child.stderr?.on('data', (d) => (output += d));
+  child.stderr?.on('data', (d) => {
+    output += d;
+    fs.appendFileSync(serverStderrFile, d);
+  });
   const baseUrl = `http://localhost:${port}`;
   await waitFor(`${baseUrl}/api/health`, child, () => output);
   project.provide('baseUrl', baseUrl);
   project.provide('demoPassword', DEMO_PASSWORD);
+  project.provide('serverStderrFile', serverStderrFile);
   return () => {
     try {
       process.kill(-child.pid!, 'SIGTERM');

@@ -2,7 +2,7 @@
 // create one, and the server refuses the viewer's hand-made request.
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, expect, inject, test } from 'vitest';
-import { launchBrowser, signIn } from './browser';
+import { launchBrowser, signIn, watchedPage } from './browser';
 
 const baseUrl = inject('baseUrl');
 const password = inject('demoPassword');
@@ -16,7 +16,8 @@ afterAll(async () => {
 });
 
 test('a tech creates a part in the browser and finds it in the list', async () => {
-  const page = await browser.newPage();
+  const watched = await watchedPage(browser);
+  const { page } = watched;
   await signIn(page, baseUrl, 'tech@lugbook.test', password);
   expect(new URL(page.url()).pathname).toBe('/bench');
   await page.goto(`${baseUrl}/parts`);
@@ -32,11 +33,13 @@ test('a tech creates a part in the browser and finds it in the list', async () =
   const row = page.getByRole('row', { name: /E2E-POT-1/ });
   await row.waitFor();
   expect(await row.textContent()).toMatch(/500\s*kΩ/);
-  await page.close();
+  watched.expectNoProblems();
+  await watched.close();
 });
 
 test('a viewer sees no way to create a part, and the server refuses one sent by hand', async () => {
-  const page = await browser.newPage();
+  const watched = await watchedPage(browser);
+  const { page } = watched;
   await signIn(page, baseUrl, 'viewer@lugbook.test', password);
   expect(new URL(page.url()).pathname).toBe('/compare');
   await page.goto(`${baseUrl}/parts`);
@@ -47,5 +50,7 @@ test('a viewer sees no way to create a part, and the server refuses one sent by 
     return res.status;
   });
   expect(status).toBe(403);
-  await page.close();
+  // the browser logs the refused request (403, asked for on purpose); nothing else may appear
+  watched.expectNoProblems([/status of 403/]);
+  await watched.close();
 });

@@ -10,6 +10,15 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
+/** A new member of the team, invited by the admin, with the invitation accepted; signed in. */
+async function newMember(email: string, role: 'tech' | 'viewer' = 'tech') {
+  const admin = await t.as('admin');
+  await admin.post('/api/team/invitations').send({ email, role }).expect(201);
+  const agent = t.anon();
+  await agent.post('/api/auth/accept-invite').send({ token: lastMailedToken(email), name: 'Bench Member', password: 'a-long-bench-passphrase' }).expect(200);
+  return agent;
+}
+
 /** The token of the newest outbox message's link (`?token=…`). */
 function lastMailedToken(to: string): string {
   const rows = t.ctx.db.select().from(outbox).where(eq(outbox.to, to)).all();
@@ -56,11 +65,15 @@ describe('sign-in and sessions', () => {
   });
 
   test('a session past its absolute lifetime is ended although it was used recently', async () => {
+    // Only this agent's session is aged, so other tests' admin sessions live on (any order).
+    const admin = t.ctx.db.select().from(users).where(eq(users.email, 'admin@lugbook.test')).get()!;
+    const before = new Set(t.ctx.db.select().from(sessions).where(eq(sessions.userId, admin.id)).all().map((x) => x.id));
     const agent = t.anon();
     await agent.post('/api/auth/sign-in').send({ email: 'admin@lugbook.test', password: TEST_PASSWORD }).expect(200);
     expect((await agent.get('/api/auth/me')).body.user).not.toBeNull();
-    const admin = t.ctx.db.select().from(users).where(eq(users.email, 'admin@lugbook.test')).get()!;
-    t.ctx.db.update(sessions).set({ createdAt: Date.now() - SESSION_ABSOLUTE_MS - 1000 }).where(eq(sessions.userId, admin.id)).run();
+    const mine = t.ctx.db.select().from(sessions).where(eq(sessions.userId, admin.id)).all().filter((x) => !before.has(x.id));
+    expect(mine).toHaveLength(1);
+    t.ctx.db.update(sessions).set({ createdAt: Date.now() - SESSION_ABSOLUTE_MS - 1000 }).where(eq(sessions.id, mine[0]!.id)).run();
     expect((await agent.get('/api/auth/me')).body.user).toBeNull();
     expect((await agent.get('/api/team/members')).status).toBe(401);
   });
@@ -108,17 +121,19 @@ describe('invitations and password reset', () => {
 
   test('a disabled member is signed out and cannot sign in', async () => {
     const admin = await t.as('admin');
+    await newMember('leaving.tech@lugbook.test');
     const victim = t.anon();
-    await victim.post('/api/auth/sign-in').send({ email: 'new.tech@lugbook.test', password: 'a-long-bench-passphrase' }).expect(200);
-    const member = t.ctx.db.select().from(users).where(eq(users.email, 'new.tech@lugbook.test')).get()!;
+    await victim.post('/api/auth/sign-in').send({ email: 'leaving.tech@lugbook.test', password: 'a-long-bench-passphrase' }).expect(200);
+    const member = t.ctx.db.select().from(users).where(eq(users.email, 'leaving.tech@lugbook.test')).get()!;
     await admin.patch(`/api/team/members/${member.id}`).send({ disabled: true }).expect(200);
     expect((await victim.get('/api/auth/me')).body.user).toBeNull();
-    expect((await t.anon().post('/api/auth/sign-in').send({ email: 'new.tech@lugbook.test', password: 'a-long-bench-passphrase' })).status).toBe(401);
+    expect((await t.anon().post('/api/auth/sign-in').send({ email: 'leaving.tech@lugbook.test', password: 'a-long-bench-passphrase' })).status).toBe(401);
   });
 });
 
-test('the outbox holds each message as nodemailer built it', () => {
-  const row = t.ctx.db.select().from(outbox).where(eq(outbox.to, 'new.tech@lugbook.test')).get()!;
+test('the outbox holds each message as nodemailer built it', async () => {
+  await (await t.as('admin')).post('/api/team/invitations').send({ email: 'outbox.reader@lugbook.test', role: 'viewer' }).expect(201);
+  const row = t.ctx.db.select().from(outbox).where(eq(outbox.to, 'outbox.reader@lugbook.test')).get()!;
   expect(row.transport).toBe('outbox');
   expect(row.raw).toMatch(/^Content-Type: text\/plain/m);
   expect(row.raw).toMatch(/^Subject: You are invited to Lugbook/m);

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
-import { simulate } from '@shared/circuit/metrics';
+import { simulate, sweepKnobs } from '@shared/circuit/metrics';
 import { getPreset, type HarnessValues } from '@shared/circuit/presets';
 import { HARNESS_PRESET_IDS } from '@shared/schemas/harness';
 import { createTestApp, type TestApp } from '../support/app';
@@ -32,7 +32,10 @@ describe('harness engine routes', () => {
     expect(res.status).toBe(200);
     expect(res.body.magnitudeDb).toHaveLength(3 * 2 * res.body.frequencies.length);
     expect(res.body.volumeTaperDb[2]).toBeCloseTo(0, 12);
-    expect(typeof res.body.interactionIndexDb).toBe('number');
+    const preset = getPreset('bleed-cap')!;
+    const grid = sweepKnobs(preset.build(preset.defaults), { volume: [2, 5, 10], tone: [0, 10] });
+    expect(res.body.interactionIndexDb).toBe(grid.interactionIndexDb);
+    expect(res.body.interactionIndexDb).toBeGreaterThan(0);
   });
 
   test('the netlist export is SPICE text with an AC 1 source and the output node out', async () => {

@@ -36,8 +36,9 @@ describe('role matrix: every route, every role and anonymous', () => {
       const permission = ROUTE_PERMISSIONS[key]!;
       const allowed = permission === 'public' || (who !== 'anonymous' && (CAPABILITIES[permission] as readonly string[]).includes(who));
       const res = await agent[route.method.toLowerCase() as 'get'](concrete(route.path)).send({});
-      const expected = allowed ? 'not 401/403' : who === 'anonymous' ? '401' : '403';
-      const ok = allowed ? res.status !== 401 && res.status !== 403 : res.status === (who === 'anonymous' ? 401 : 403);
+      // An allowed call must be answered, not crash: any 5xx is a mismatch too.
+      const expected = allowed ? 'not 401/403 and below 500' : who === 'anonymous' ? '401' : '403';
+      const ok = allowed ? res.status !== 401 && res.status !== 403 && res.status < 500 : res.status === (who === 'anonymous' ? 401 : 403);
       if (!ok) mismatches.push(`${key}: expected ${expected}, got ${res.status}`);
     }
     expect(mismatches).toEqual([]);

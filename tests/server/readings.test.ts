@@ -101,6 +101,9 @@ describe('instruments and profiles', () => {
 
   test('a part without its own tolerance follows the most specific matching profile', async () => {
     const tech = await t.as('tech');
+    // this test's own profile (the one of the test above has another name)
+    const profile = { name: 'Pots, 250k audio strict (own)', kind: 'pot', nominalMin: 200e3, nominalMax: 300e3, tolerancePct: 10, rules: { law: 'audio', mMin: 0.1, mMax: 0.18 } };
+    expect((await (await t.as('qa')).post('/api/profiles').send(profile)).status).toBe(201);
     const pot = (await tech.post('/api/parts').send({ kind: 'pot', label: 'POT-R-250', nominal: 250e3, taperClass: 'audio' }).expect(201)).body;
     // 280 kΩ is +12 %: inside the general ±20 % pot profile, outside the 250k ±10 % one.
     const res = await tech.post(`/api/parts/${pot.id}/readings`).send({ quantity: 'resistance', value: 280e3 });

@@ -18,9 +18,9 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
-function potCsv(): string {
+function potCsv(endOhms = 300): string {
   const lines = ['Rotation (deg),R (kOhm)'];
-  for (let deg = 0; deg <= 300; deg += 10) lines.push(`${deg},${((490e3 * taperLawValue('audio', 0.15, deg / 300) + 300) / 1e3).toFixed(4)}`);
+  for (let deg = 0; deg <= 300; deg += 10) lines.push(`${deg},${((490e3 * taperLawValue('audio', 0.15, deg / 300) + endOhms) / 1e3).toFixed(4)}`);
   return lines.join('\n') + '\n';
 }
 
@@ -47,6 +47,8 @@ async function upload(partId: number, kind: string, content: string | Buffer, na
 
 describe('sweep uploads', () => {
   test('a pot rotation sweep is stored with its taper fit, equal to the engine on the same points', async () => {
+    const stored = () => fs.existsSync(t.ctx.config.uploadsDir) ? fs.readdirSync(t.ctx.config.uploadsDir, { recursive: true, encoding: 'utf8' }).filter((f) => /^[0-9a-f]{2}\/[0-9a-f]{64}$/.test(f)) : [];
+    const before = stored().length;
     const res = await upload(potId, 'taper', potCsv());
     expect(res.status).toBe(201);
     expect(res.body.pointCount).toBe(31);
@@ -56,8 +58,8 @@ describe('sweep uploads', () => {
     expect(res.body.fit.result).toEqual(JSON.parse(JSON.stringify(engine)));
     expect(res.body.fit.result.law).toBe('audio');
     expect(res.body.part.status).toBe('passed');
-    const files = fs.readdirSync(t.ctx.config.uploadsDir, { recursive: true, encoding: 'utf8' }).filter((f) => /^[0-9a-f]{2}\/[0-9a-f]{64}$/.test(f));
-    expect(files.length).toBe(1);
+    // one stored file for the upload (other tests may have stored theirs before)
+    expect(stored().length - before).toBe(1);
   });
 
   test('a coil impedance sweep gets the coil fit; a refit keeps the old fit as history', async () => {
@@ -74,33 +76,37 @@ describe('sweep uploads', () => {
   });
 
   test('a viewer can read sweeps and fits but not upload', async () => {
+    // this test's own pot and sweep, so it passes alone and in any order
+    const tech = await t.as('tech');
+    const ownPot = (await tech.post('/api/parts').send({ kind: 'pot', label: 'POT-SW-VIEW', nominal: 500e3, tolerancePct: 20, taperClass: 'audio' }).expect(201)).body.id;
+    expect((await upload(ownPot, 'taper', potCsv(310))).status).toBe(201);
     const viewer = await t.as('viewer');
-    expect((await viewer.get(`/api/parts/${potId}/sweeps`)).body.sweeps[0].fit.kind).toBe('taper');
-    expect((await viewer.get(`/api/parts/${potId}/fits`)).status).toBe(200);
+    expect((await viewer.get(`/api/parts/${ownPot}/sweeps`)).body.sweeps[0].fit.kind).toBe('taper');
+    expect((await viewer.get(`/api/parts/${ownPot}/fits`)).status).toBe(200);
     const res = await viewer.post(`/api/parts/${potId}/sweeps`).field('kind', 'taper').attach('file', Buffer.from(potCsv()), 'sweep.csv');
     expect(res.status).toBe(403);
   });
 
   const header = 'Rotation (deg),R (kOhm)';
   const good = (n: number) => Array.from({ length: n }, (_, i) => `${i * 30},${(i * 50 + 0.3).toFixed(1)}`);
-  const malformed: { name: string; kind?: string; content: string | Buffer; file?: string; status: number; mentions?: RegExp }[] = [
+  const malformed: { name: string; kind?: string; content: string | Buffer; file?: string; status: number; mentions: RegExp }[] = [
     { name: 'text in a number column', content: [header, ...good(5), '180,12k7x', ...good(3).slice(1)].join('\n'), status: 422, mentions: /line 7.*R \(kOhm\)|R \(kOhm\).*line 7/i },
-    { name: 'negative resistance', content: [header, '0,0.3', '30,5', '60,-12', '90,20'].join('\n'), status: 422, mentions: /line 4/i },
-    { name: 'duplicate rotation points', content: [header, '0,0.3', '30,5', '30,6', '90,20'].join('\n'), status: 422, mentions: /duplicate|twice|again/i },
-    { name: 'missing column', content: ['Rotation (deg)', '0', '30', '60', '90'].join('\n'), status: 422 },
-    { name: 'wrong delimiter mix', content: [header, '0;0,3', '30;5', '60;12', '90;20'].join('\n'), status: 422 },
-    { name: 'a binary file named .csv', content: Buffer.from([0x50, 0x4b, 0x03, 0x04, 0, 0, 0, 8, 0, 0, 1, 2, 3, 0, 0, 0]), status: 415 },
-    { name: 'an empty file', content: '', status: 422 },
-    { name: 'a header only', content: header + '\n', status: 422 },
-    { name: 'one data row', content: [header, '0,0.3'].join('\n'), status: 422 },
-    { name: 'ragged rows', content: [header, '0,0.3', '30,5,7', '60,12', '90,20'].join('\n'), status: 422, mentions: /line 3/i },
-    { name: 'rotation beyond a full turn', content: [header, '0,0.3', '100,5', '200,12', '900,20'].join('\n'), status: 422, mentions: /line 5/i },
-    { name: 'a spreadsheet file', content: 'PK', file: 'sweep.xlsx', status: 415 },
-    { name: 'no file extension', content: potCsv(), file: 'sweep', status: 415 },
-    { name: 'an unknown sweep kind', kind: 'spectrum', content: potCsv(), status: 422 },
-    { name: 'unrecognised headers (needs a column mapping)', content: ['alpha,beta', ...good(5)].join('\n'), status: 422, mentions: /columns/i },
-    { name: 'a taper sweep for a pickup', content: potCsv(), status: 422 },
-    { name: 'an impedance sweep with a zero frequency', kind: 'impedance', content: ['Freq (Hz),|Z| (ohm),Phase (deg)', '0,100,1', '10,200,2', '20,300,3', '40,400,4', '80,500,5'].join('\n'), status: 422, mentions: /line 2/i },
+    { name: 'negative resistance', content: [header, '0,0.3', '30,5', '60,-12', '90,20'].join('\n'), status: 422, mentions: /Line 4, column \\"R \(kOhm\)\\": -12 is negative/ },
+    { name: 'duplicate rotation points', content: [header, '0,0.3', '30,5', '30,6', '90,20'].join('\n'), status: 422, mentions: /Line 4, column \\"Rotation \(deg\)\\": the rotation 30° appears twice/ },
+    { name: 'missing column', content: ['Rotation (deg)', '0', '30', '60', '90'].join('\n'), status: 422, mentions: /No header line found: expected a line of column names/ },
+    { name: 'wrong delimiter mix', content: [header, '0;0,3', '30;5', '60;12', '90;20'].join('\n'), status: 422, mentions: /rows of numbers \(from line 2\).*at least two columns/ },
+    { name: 'a binary file named .csv', content: Buffer.from([0x50, 0x4b, 0x03, 0x04, 0, 0, 0, 8, 0, 0, 1, 2, 3, 0, 0, 0]), status: 415, mentions: /named \.csv but its content is not a CSV file/ },
+    { name: 'an empty file', content: '', status: 422, mentions: /"file":"The file is empty/ },
+    { name: 'a header only', content: header + '\n', status: 422, mentions: /header \(line 1\) but no data rows; at least 3/ },
+    { name: 'one data row', content: [header, '0,0.3'].join('\n'), status: 422, mentions: /only 1 data row; at least 3/ },
+    { name: 'ragged rows', content: [header, '0,0.3', '30,5,7', '60,12', '90,20'].join('\n'), status: 422, mentions: /Line 3: the row has 3 cells, but the header \(line 1\) has 2/ },
+    { name: 'rotation beyond a full turn', content: [header, '0,0.3', '100,5', '200,12', '900,20'].join('\n'), status: 422, mentions: /Line 5, column \\"Rotation \(deg\)\\": 900° is outside/ },
+    { name: 'a spreadsheet file', content: 'PK', file: 'sweep.xlsx', status: 415, mentions: /\.xlsx.*not accepted/ },
+    { name: 'no file extension', content: potCsv(), file: 'sweep', status: 415, mentions: /not accepted here; use \.csv/ },
+    { name: 'an unknown sweep kind', kind: 'spectrum', content: potCsv(), status: 422, mentions: /"fields":\{"kind":"Invalid option/ },
+    { name: 'unrecognised headers (needs a column mapping)', content: ['alpha,beta', ...good(5)].join('\n'), status: 422, mentions: /columns of this file were not recognised.*Line 1: no column found for the rotation/ },
+    { name: 'a taper sweep for a pickup', content: potCsv(), status: 422, mentions: /"kind":"This part is a pickup/ },
+    { name: 'an impedance sweep with a zero frequency', kind: 'impedance', content: ['Freq (Hz),|Z| (ohm),Phase (deg)', '0,100,1', '10,200,2', '20,300,3', '40,400,4', '80,500,5'].join('\n'), status: 422, mentions: /Line 2, column \\"Freq \(Hz\)\\": 0 is not a frequency/ },
   ];
 
   test.each(malformed)('refused whole, leaving no rows and no files: $name', async ({ kind, content, file, status, mentions, name }) => {
@@ -109,7 +115,7 @@ describe('sweep uploads', () => {
     const res = await upload(target, kind ?? 'taper', content, file);
     expect(res.status).toBe(status);
     expect(res.body.error.message.length).toBeGreaterThan(10);
-    if (mentions) expect(JSON.stringify(res.body.error)).toMatch(mentions);
+    expect(JSON.stringify(res.body.error)).toMatch(mentions);
     expect(snapshot()).toEqual(before);
   });
 

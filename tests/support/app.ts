@@ -10,6 +10,7 @@ import type { AppContext } from '@server/context';
 import { DEMO_USERS, seedDemo } from '@server/demo/seed';
 import type { SignInLimits } from '@server/features/auth/sign-in-limiter';
 import type { Role } from '@shared/schemas/common';
+import { recordServerError } from './server-errors';
 
 export const TEST_PASSWORD = 'correct-horse-bench-staple';
 export const ORIGIN = 'http://lugbook.test';
@@ -37,7 +38,12 @@ export async function createTestApp(opts: { signInLimits?: SignInLimits; studies
     dbFile: path.join(dataDir, 'lugbook.db'),
     uploadsDir: path.join(dataDir, 'uploads'),
     signInLimits: opts.signInLimits ?? { perAddress: 1000, perAccount: 1000, windowMs: 60_000 },
-    log: (m) => logs.push(m),
+    // A message with a detail is the error handler's "Unhandled error" (a 500): recorded so the
+    // test after which it was logged fails (tests/setup/server-errors.ts).
+    log: (m, detail) => {
+      logs.push(m);
+      if (detail !== undefined) recordServerError(m, detail);
+    },
   });
   await seedDemo(ctx, { password: TEST_PASSWORD, studies: opts.studies ?? false });
   const app = createApp(ctx);

@@ -105,8 +105,9 @@ describe('fitCoil on ngspice sweeps', () => {
     const peak = Math.max(...mags);
     const inside = r.frequencies.filter((_, i) => (mags[i] as number) >= peak / Math.SQRT2);
     const width = (inside[inside.length - 1] as number) - (inside[0] as number);
-    // Q ≈ 26 here; the bandwidth relation is approximate (seen: 2e-4 apart), so 0.5 %.
-    expect(rel(fit.Q, fit.peakFrequency / width)).toBeLessThan(0.005);
+    // Q ≈ 26 here; the bandwidth relation is approximate (seen: 2e-4 apart), so 4e-4.
+    console.info(`coil Q against the half-power bandwidth: relative difference ${rel(fit.Q, fit.peakFrequency / width).toExponential(2)}`);
+    expect(rel(fit.Q, fit.peakFrequency / width)).toBeLessThan(4e-4);
   });
 
   it('auto leaves Rp out when the data has none', async () => {

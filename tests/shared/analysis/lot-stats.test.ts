@@ -215,6 +215,37 @@ describe('matched sets', () => {
     expect(lotStatistics({ values, nominal: 100, tolerancePct: 20 }).matchedSets).toEqual([]);
   });
 
+  it('exact boundary sizes: a lot of exactly setSize values forms one set; one fewer forms none', () => {
+    const three = Float64Array.from([100, 100.5, 101]);
+    const { sorted, order } = sortWithIndex(three);
+    expect(matchSets(sorted, order, 1, 3).map((s) => s.indices)).toEqual([[0, 1, 2]]);
+    const two = sortWithIndex(Float64Array.from([100, 101]));
+    expect(matchSets(two.sorted, two.order, 1, 3)).toEqual([]);
+    expect(matchSets(two.sorted, two.order, 1, 2).map((s) => s.indices)).toEqual([[0, 1]]);
+    // the last possible set sits at the very end of the sorted values
+    const tail = sortWithIndex(Float64Array.from([50, 80, 100, 100.5, 101]));
+    expect(matchSets(tail.sorted, tail.order, 1, 3).map((s) => s.indices)).toEqual([[2, 3, 4]]);
+  });
+
+  it('the spread limit is inclusive: (max − min) = matchPct % of min matches, a little more does not', () => {
+    const at = sortWithIndex(Float64Array.from([200, 202])); // 2 = 1 % of 200
+    expect(matchSets(at.sorted, at.order, 1, 2)).toHaveLength(1);
+    expect(matchSets(at.sorted, at.order, 1)).toHaveLength(1);
+    const over = sortWithIndex(Float64Array.from([200, 202.001]));
+    expect(matchSets(over.sorted, over.order, 1, 2)).toHaveLength(0);
+    expect(matchSets(over.sorted, over.order, 1)).toHaveLength(0);
+  });
+
+  it('fixed seed: 9 pairs from seededRandom(20261202) agree with the brute-force maximum', () => {
+    const rnd = seededRandom(20261202);
+    for (let round = 0; round < 40; round++) {
+      const ints = Array.from({ length: 9 }, () => 990 + Math.floor(rnd() * 21));
+      const x = Float64Array.from(ints);
+      const { sorted, order } = sortWithIndex(x);
+      expect(matchSets(sorted, order, 1, 2).length, ints.join(',')).toBe(bruteMaxPairs(ints, 0.01));
+    }
+  });
+
   /** Largest number of disjoint pairs with (max − min) ≤ f·min, by trying every pairing. */
   function bruteMaxPairs(v: number[], f: number): number {
     if (v.length < 2) return 0;

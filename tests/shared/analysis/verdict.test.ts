@@ -102,6 +102,30 @@ describe('judge — guarded acceptance', () => {
     );
   });
 
+  it('an interval straddling both limits names the nearer one (JCGM 106:2012 §8 zones; naming is ours)', () => {
+    // 490–510 Ω with U = 25 Ω: at 505 Ω the upper limit is 5 Ω away and the lower 15 Ω, at 495 Ω the reverse.
+    const up = judge({ value: 505, lower: 490, upper: 510, uncertainty: 25, unit: 'Ω' });
+    expect(up.verdict).toBe('marginal');
+    expect(up.reason).toMatch(/of the upper limit 510 Ω/);
+    const down = judge({ value: 495, lower: 490, upper: 510, uncertainty: 25, unit: 'Ω' });
+    expect(down.verdict).toBe('marginal');
+    expect(down.reason).toMatch(/of the lower limit 490 Ω/);
+  });
+
+  it('an interval straddling one limit names that limit, from either side of it', () => {
+    // U = 10 Ω around each reading; only one limit lies within reach.
+    for (const [value, which] of [
+      [595, 'upper limit 600 Ω'],
+      [605, 'upper limit 600 Ω'],
+      [405, 'lower limit 400 Ω'],
+      [395, 'lower limit 400 Ω'],
+    ] as const) {
+      const v = judge({ value, lower: 400, upper: 600, uncertainty: 10, unit: 'Ω' });
+      expect(v.verdict, String(value)).toBe('marginal');
+      expect(v.reason, String(value)).toContain(`of the ${which}`);
+    }
+  });
+
   it('boundaries: an interval touching a limit from inside passes, from outside is marginal', () => {
     expect(judge({ value: 590, lower: 400, upper: 600, uncertainty: 10, unit: 'Ω' }).verdict).toBe('pass');
     expect(judge({ value: 610, lower: 400, upper: 600, uncertainty: 10, unit: 'Ω' }).verdict).toBe('marginal');

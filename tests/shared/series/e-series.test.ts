@@ -2,7 +2,7 @@ import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { E_SERIES, E_SERIES_NAMES, isPreferredValue, nearestPreferred, type ESeriesName } from '@shared/series/e-series';
+import { E_SERIES, E_SERIES_NAMES, E_SERIES_TOLERANCE_PCT, isPreferredValue, nearestPreferred, type ESeriesName } from '@shared/series/e-series';
 
 // Source: tests/fixtures/iec/iec60063-<series>.txt — IEC 60063 values as tabulated in a public
 // library, cross-checked against a university book appendix (each file's first line says so).
@@ -45,6 +45,11 @@ describe('nearestPreferred', () => {
     const r = nearestPreferred(v, s);
     expect(r.value).toBe(p);
     expect(r.deviationPct).toBeCloseTo(((v - p) / p) * 100, 12);
+  });
+
+  it('names what it refuses: the value, or an unknown series', () => {
+    expect(() => nearestPreferred(-2.5, 'E12')).toThrow(/positive finite value, got -2\.5/);
+    expect(() => nearestPreferred(1, 'E7' as ESeriesName)).toThrow(/Unknown series "E7"/);
   });
 
   it('refuses non-positive and non-finite values', () => {
@@ -90,4 +95,24 @@ describe('nearestPreferred', () => {
       }
     }
   });
+});
+
+describe('isPreferredValue', () => {
+  it('members within the relative tolerance (inclusive), others not; non-positive and non-finite values are not members', () => {
+    expect(isPreferredValue(4.7e3, 'E12')).toBe(true);
+    expect(isPreferredValue(4.8e3, 'E12')).toBe(false);
+    // 10.625 against the E6 member 10: 0.625 apart, exactly 6.25 % of 10 (binary-exact numbers)
+    expect(isPreferredValue(10.625, 'E6', 0.0625)).toBe(true);
+    expect(isPreferredValue(10.625, 'E6', 0.06)).toBe(false);
+    for (const v of [0, -4.7, NaN, Infinity]) expect(isPreferredValue(v, 'E12'), String(v)).toBe(false);
+  });
+});
+
+describe('E_SERIES_TOLERANCE_PCT against the fixtures ("Nominal tolerance usually associated")', () => {
+  for (const s of E_SERIES_NAMES) {
+    it(s, () => {
+      const pct = Number(/usually associated: ([\d.]+)%/.exec(fixture(s).source)![1]);
+      expect(E_SERIES_TOLERANCE_PCT[s]).toBe(pct);
+    });
+  }
 });
