@@ -304,6 +304,8 @@ export const jobParts = sqliteTable(
       .notNull()
       .references(() => parts.id, { onDelete: 'restrict' }),
     position: text('position').notNull(),
+    /** Why a flagged or never-judged part went in anyway (the tech's words), or null. */
+    overrideReason: text('override_reason'),
     installedBy: text('installed_by').references(() => users.id, { onDelete: 'set null' }),
     installedAt: createdAt(),
   },

@@ -89,6 +89,7 @@ function InstalledParts({ job, canWrite }: { job: JobDetail; canWrite: boolean }
               <td className="num px-3 py-2 text-right whitespace-nowrap">{formatNominal(p.kind, p.nominal)}</td>
               <td className="px-3 py-2">
                 <StatusBadge status={p.status} />
+                {p.overrideReason && <p className="mt-1 text-xs text-marginal">Installed over its status: {p.overrideReason}</p>}
               </td>
               <td className="px-3 py-2 whitespace-nowrap">{formatDateTime(p.installedAt)}</td>
               {canWrite && (

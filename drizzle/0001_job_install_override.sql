@@ -1,0 +1,1 @@
+ALTER TABLE `job_parts` ADD `override_reason` text;
