@@ -21,6 +21,7 @@ export const ROUTE_PERMISSIONS: Record<string, RoutePermission> = {
   // Team, outbox, audit (admin)
   'GET /api/team/members': 'admin',
   'PATCH /api/team/members/:id': 'admin',
+  'GET /api/team/label-clashes': 'admin',
   'GET /api/team/invitations': 'admin',
   'POST /api/team/invitations': 'admin',
   'DELETE /api/team/invitations/:id': 'admin',

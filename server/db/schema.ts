@@ -160,7 +160,10 @@ export const parts = sqliteTable(
     createdAt: createdAt(),
     updatedAt: integer('updated_at'),
   },
-  (t) => [uniqueIndex('parts_label_unique').on(t.label), index('parts_lot_idx').on(t.lotId)],
+  // Labels are unique in any case: the server checks lower(label) before every insert and rename
+  // (a unique index on it would refuse to build where older labels differ only in case; those are
+  // listed at start and on the Team screen instead of being renamed).
+  (t) => [uniqueIndex('parts_label_unique').on(t.label), index('parts_label_lower_idx').on(sql`lower(${t.label})`), index('parts_lot_idx').on(t.lotId)],
 );
 
 export const partStatusEvents = sqliteTable('part_status_events', {

@@ -1,6 +1,6 @@
 // Items of a lot (chosen ones, a deviation bin or a matched set) become parts in the registry,
 // keeping their lot link and their readings.
-import { inArray } from 'drizzle-orm';
+import { inArray, sql } from 'drizzle-orm';
 import { audit } from '@server/audit';
 import type { AppContext } from '@server/context';
 import { parts, partStatusEvents } from '@server/db/schema';
@@ -30,7 +30,7 @@ export function promoteToParts(ctx: AppContext, lot: LotRow, input: PromoteInput
   if (indices.length > 1000) throw unprocessable('Promote at most 1,000 items at once.', { readingIds: 'Too many.' });
 
   const labels = indices.map((i) => `${lot.code}-${data.items[i]}`.slice(0, 60));
-  const taken = db.select({ label: parts.label }).from(parts).where(inArray(parts.label, labels)).all();
+  const taken = db.select({ label: parts.label }).from(parts).where(inArray(sql`lower(${parts.label})`, labels.map((l) => l.toLowerCase()))).all();
   if (taken.length > 0) throw conflict(`Parts exist already for ${taken.length} of these items (e.g. ${taken[0]!.label}).`);
 
   return db.transaction((tx) => {

@@ -11,6 +11,7 @@ import { formatDate, formatTolerance } from '@/lib/format';
 import { useLot } from '../api/get-lot';
 import { useLotItems } from '../api/get-lot-items';
 import { usePromoteLotItems } from '../api/promote-lot';
+import { LotItemScan } from './lot-item-scan';
 import { DEFAULT_MATCH, type LotDetail, type MatchOptions } from '../api/types';
 import { LotDisposition } from './lot-disposition';
 import { LOT_KIND_LABEL, SECOND_LABEL, SECOND_UNIT } from './lot-form-schema';
@@ -249,6 +250,7 @@ export function LotScreen({ id }: { id: number }) {
                 ) : null
               }
             >
+              {canWrite && itemsQuery.data && <LotItemScan items={itemsQuery.data} selected={selected} onSelectedChange={onSelectedChange} />}
               <FilterBar lot={lot} filters={filters} onChange={setFilters} setCount={stats.matchedSets.length} />
               {itemsQuery.isPending ? (
                 <Loading what={`Loading ${lot.count.toLocaleString()} items`} />

@@ -1,0 +1,1 @@
+CREATE INDEX `parts_label_lower_idx` ON `parts` (lower("label"));
