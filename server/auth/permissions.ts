@@ -58,6 +58,7 @@ export const ROUTE_PERMISSIONS: Record<string, RoutePermission> = {
   'POST /api/lots/:id/disposition': 'qa',
   'POST /api/lots/:id/reopen': 'admin',
   'PUT /api/lots/:id/watchers': 'write',
+  'GET /api/lots/watcher-candidates': 'qa',
   'GET /api/lots/:id/export.csv': 'read',
   'POST /api/lots/:id/promote': 'write',
 

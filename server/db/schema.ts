@@ -93,6 +93,9 @@ export const lots = sqliteTable('lots', {
   expectedCount: integer('expected_count'),
   secondQuantity: text('second_quantity'),
   secondLimit: real('second_limit'),
+  /** The meter the lot was measured with and its test frequency (Hz): carried to promoted parts' readings. */
+  instrumentId: integer('instrument_id').references(() => instruments.id, { onDelete: 'set null' }),
+  testFrequency: real('test_frequency'),
   status: text('status', { enum: ['open', 'accepted', 'rejected', 'sorted'] })
     .notNull()
     .default('open'),

@@ -41,10 +41,12 @@ export function promoteToParts(ctx: AppContext, lot: LotRow, input: PromoteInput
         .returning()
         .get();
       tx.insert(partStatusEvents).values({ partId: part.id, toStatus: 'incoming', reason: `promoted from lot ${lot.code}`, userId }).run();
-      recordReading(tx, part, { quantity: lot.kind === 'capacitor' ? 'capacitance' : 'resistance', value: data.values[i]! }, userId, 'lot');
+      // The lot's meter and test frequency go with each reading, when the lot has them.
+      const conditions = { ...(lot.instrumentId != null ? { instrumentId: lot.instrumentId } : {}), ...(lot.testFrequency != null ? { frequency: lot.testFrequency } : {}) };
+      recordReading(tx, part, { quantity: lot.kind === 'capacitor' ? 'capacitance' : 'resistance', value: data.values[i]!, ...conditions }, userId, 'lot');
       const second = data.second[i]!;
       const secondQuantity = lot.secondQuantity === 'dissipation' || lot.secondQuantity === 'esr' ? SECOND_READING[lot.secondQuantity] : null;
-      if (secondQuantity && !Number.isNaN(second)) recordReading(tx, tx.select().from(parts).where(inArray(parts.id, [part.id])).get()!, { quantity: secondQuantity, value: second }, userId, 'lot');
+      if (secondQuantity && !Number.isNaN(second)) recordReading(tx, tx.select().from(parts).where(inArray(parts.id, [part.id])).get()!, { quantity: secondQuantity, value: second, ...conditions }, userId, 'lot');
       return part.id;
     });
     audit(tx, { userId, action: 'lot.promote', entity: 'lot', entityId: lot.id, detail: { parts: created.length, selection: input } });
