@@ -2,9 +2,10 @@ import { fileURLToPath } from 'node:url';
 import { createApp } from '@server/app';
 import { createContext } from '@server/bootstrap';
 import { seedDemo } from '@server/db/seed';
-import { readEnv } from '@server/env';
+import { readEnv, startupWarnings } from '@server/env';
 
 const env = readEnv();
+for (const warning of startupWarnings()) console.warn(`Warning: ${warning}`);
 const ctx = createContext({
   dbFile: env.dbFile,
   uploadsDir: env.uploadsDir,

@@ -324,6 +324,8 @@ export const comparisons = sqliteTable('comparisons', {
   /** The selection: filters and explicit part ids, as JSON. */
   selection: text('selection', { mode: 'json' }).notNull().$type<Record<string, unknown>>(),
   settings: text('settings', { mode: 'json' }).$type<Record<string, unknown>>(),
+  /** What the comparison is for and what it showed, in the author's words. */
+  notes: text('notes'),
   ownerId: text('owner_id').references(() => users.id, { onDelete: 'set null' }),
   createdAt: createdAt(),
   updatedAt: integer('updated_at'),
