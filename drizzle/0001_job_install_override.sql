@@ -1,1 +1,0 @@
-ALTER TABLE `job_parts` ADD `override_reason` text;

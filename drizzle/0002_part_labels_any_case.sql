@@ -1,1 +1,0 @@
-CREATE INDEX `parts_label_lower_idx` ON `parts` (lower("label"));

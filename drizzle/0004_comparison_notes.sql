@@ -1,1 +1,0 @@
-ALTER TABLE `comparisons` ADD `notes` text;
