@@ -1,4 +1,4 @@
-import { taperLawValue } from '@shared/analysis/taper';
+import { taperLawValue } from '@shared/taper/law';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { createTestApp, type TestApp } from '../support/app';
 
