@@ -43,7 +43,7 @@ test('Install takes a label scanned with no delay, shows a flagged part’s stat
   await signIn(page, baseUrl, 'tech@lugbook.test', password);
   await page.goto(`${baseUrl}/jobs`);
   await page.getByRole('link', { name: /JOB-0001/ }).first().click();
-  await page.getByLabel('Position').fill('bleed resistor');
+  await page.getByRole('textbox', { name: 'Position' }).fill('bleed resistor');
   const field = page.getByLabel('Part label');
   await field.click();
   await field.pressSequentially('res-006', { delay: 0 });
