@@ -3,6 +3,7 @@ import { createLucia } from '@server/auth/session';
 import { openDatabase } from '@server/db/client';
 import type { AppContext } from '@server/context';
 import { DEFAULT_SIGN_IN_LIMITS, type SignInLimits } from '@server/features/auth/sign-in-limiter';
+import { labelClashes } from '@server/features/parts/repository';
 import { createMailer } from '@server/mail/mailer';
 
 export interface ContextOptions {
@@ -21,6 +22,12 @@ export interface ContextOptions {
 export function createContext(opts: ContextOptions): AppContext {
   const { db, sqlite } = openDatabase(opts.dbFile);
   fs.mkdirSync(opts.uploadsDir, { recursive: true });
+  const log: AppContext['log'] = opts.log ?? ((message, detail) => console.error(`[lugbook] ${message}`, detail ?? ''));
+  // Labels that differ only in case, from before labels were compared without case: nothing is
+  // renamed; an admin sees them here and on the Team screen, and a look-up by one answers 409.
+  for (const clash of labelClashes(db)) {
+    log(`Part labels differ only in case (rename one): ${clash.parts.map((p) => `${p.label} (id ${p.id})`).join(', ')}`);
+  }
   return {
     db,
     sqlite,
@@ -33,6 +40,6 @@ export function createContext(opts: ContextOptions): AppContext {
       clientDir: opts.clientDir,
       signInLimits: opts.signInLimits ?? DEFAULT_SIGN_IN_LIMITS,
     },
-    log: opts.log ?? ((message, detail) => console.error(`[lugbook] ${message}`, detail ?? '')),
+    log,
   };
 }

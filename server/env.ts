@@ -22,6 +22,19 @@ const EnvSchema = z.object({
   PUBLIC_URL: z.string().url().default('http://localhost:3000'),
 });
 
+const DEFAULT_PUBLIC_URL = 'http://localhost:3000';
+
+/** What the server should warn about at start: a production server whose e-mail links would point to localhost. */
+export function startupWarnings(source: NodeJS.ProcessEnv = process.env): string[] {
+  const env = EnvSchema.safeParse(source);
+  if (!env.success) return [];
+  const warnings: string[] = [];
+  if (env.data.NODE_ENV === 'production' && (!source.PUBLIC_URL || env.data.PUBLIC_URL === DEFAULT_PUBLIC_URL)) {
+    warnings.push(`NODE_ENV=production with the default PUBLIC_URL (${DEFAULT_PUBLIC_URL}): links in e-mails will point to localhost. Set PUBLIC_URL to the address people open.`);
+  }
+  return warnings;
+}
+
 export type Env = z.infer<typeof EnvSchema> & { dbFile: string; uploadsDir: string };
 
 export function readEnv(source: NodeJS.ProcessEnv = process.env): Env {

@@ -3,9 +3,10 @@ import { createApp } from '@server/app';
 import { createContext } from '@server/bootstrap';
 import { seedDemo } from '@server/demo/seed';
 import { refitOutdatedTaperFits } from '@server/features/sweeps/refit-on-start';
-import { readEnv } from '@server/env';
+import { readEnv, startupWarnings } from '@server/env';
 
 const env = readEnv();
+for (const warning of startupWarnings()) console.warn(`Warning: ${warning}`);
 const ctx = createContext({
   dbFile: env.dbFile,
   uploadsDir: env.uploadsDir,

@@ -21,6 +21,7 @@ export const ROUTE_PERMISSIONS: Record<string, RoutePermission> = {
   // Team, outbox, audit (admin)
   'GET /api/team/members': 'admin',
   'PATCH /api/team/members/:id': 'admin',
+  'GET /api/team/label-clashes': 'admin',
   'GET /api/team/invitations': 'admin',
   'POST /api/team/invitations': 'admin',
   'DELETE /api/team/invitations/:id': 'admin',
@@ -57,6 +58,7 @@ export const ROUTE_PERMISSIONS: Record<string, RoutePermission> = {
   'POST /api/lots/:id/disposition': 'qa',
   'POST /api/lots/:id/reopen': 'admin',
   'PUT /api/lots/:id/watchers': 'write',
+  'GET /api/lots/watcher-candidates': 'qa',
   'GET /api/lots/:id/export.csv': 'read',
   'POST /api/lots/:id/promote': 'write',
 

@@ -103,6 +103,9 @@ export const lots = sqliteTable('lots', {
   expectedCount: integer('expected_count'),
   secondQuantity: text('second_quantity'),
   secondLimit: real('second_limit'),
+  /** The meter the lot was measured with and its test frequency (Hz): carried to promoted parts' readings. */
+  instrumentId: integer('instrument_id').references(() => instruments.id, { onDelete: 'set null' }),
+  testFrequency: real('test_frequency'),
   status: text('status', { enum: LOT_STATUSES })
     .notNull()
     .default('open'),
@@ -170,7 +173,10 @@ export const parts = sqliteTable(
     createdAt: createdAt(),
     updatedAt: integer('updated_at'),
   },
-  (t) => [uniqueIndex('parts_label_unique').on(t.label), index('parts_lot_idx').on(t.lotId)],
+  // Labels are unique in any case: the server checks lower(label) before every insert and rename
+  // (a unique index on it would refuse to build where older labels differ only in case; those are
+  // listed at start and on the Team screen instead of being renamed).
+  (t) => [uniqueIndex('parts_label_unique').on(t.label), index('parts_label_lower_idx').on(sql`lower(${t.label})`), index('parts_lot_idx').on(t.lotId)],
 );
 
 export const partStatusEvents = sqliteTable('part_status_events', {
@@ -322,6 +328,8 @@ export const jobParts = sqliteTable(
       .notNull()
       .references(() => parts.id, { onDelete: 'restrict' }),
     position: text('position').notNull(),
+    /** Why a flagged or never-judged part went in anyway (the tech's words), or null. */
+    overrideReason: text('override_reason'),
     installedBy: text('installed_by').references(() => users.id, { onDelete: 'set null' }),
     installedAt: createdAt(),
   },
@@ -334,6 +342,8 @@ export const comparisons = sqliteTable('comparisons', {
   /** The selection: filters and explicit part ids, as JSON. */
   selection: text('selection', { mode: 'json' }).notNull().$type<Record<string, unknown>>(),
   settings: text('settings', { mode: 'json' }).$type<Record<string, unknown>>(),
+  /** What the comparison is for and what it showed, in the author's words. */
+  notes: text('notes'),
   ownerId: text('owner_id').references(() => users.id, { onDelete: 'set null' }),
   createdAt: createdAt(),
   updatedAt: integer('updated_at'),

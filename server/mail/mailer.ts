@@ -2,7 +2,7 @@ import nodemailer, { type Transporter } from 'nodemailer';
 import type { Db } from '@server/db/client';
 import { outbox } from '@server/db/schema';
 
-export type MailTopic = 'invitation' | 'password-reset' | 'lot-disposition' | 'customer-report';
+export type MailTopic = 'invitation' | 'password-reset' | 'lot-disposition' | 'lot-reopen' | 'customer-report';
 
 export interface MailMessage {
   to: string;

@@ -83,6 +83,7 @@ export const ComparisonInputSchema = z.object({
   name: z.string().trim().min(1, 'Give the comparison a name.').max(120, 'Keep the name to 120 characters.'),
   selection: CompareSelectionSchema,
   settings: CompareSettingsSchema.partial().optional(),
+  notes: z.string().trim().max(4000, 'Keep the notes to 4,000 characters.').optional().nullable(),
 });
 export type ComparisonInput = z.infer<typeof ComparisonInputSchema>;
 
@@ -90,5 +91,6 @@ export const ComparisonUpdateSchema = z.object({
   name: ComparisonInputSchema.shape.name.optional(),
   selection: CompareSelectionSchema.optional(),
   settings: CompareSettingsSchema.partial().optional(),
+  notes: ComparisonInputSchema.shape.notes,
 });
 export type ComparisonUpdate = z.infer<typeof ComparisonUpdateSchema>;

@@ -18,6 +18,8 @@ export const InstallPartInputSchema = z.object({
   partId: z.number().int().positive(),
   /** Where it went, in the shop's words: "volume, neck", "tone cap". */
   position: z.string().trim().min(1, 'Say where the part went.').max(80),
+  /** Required to install a flagged or never-judged (incoming) part: why it goes in anyway. */
+  overrideReason: z.string().trim().min(3, 'Give a reason of at least 3 characters.').max(300, 'Keep the reason under 300 characters.').optional(),
 });
 export type InstallPartInput = z.infer<typeof InstallPartInputSchema>;
 

@@ -18,6 +18,9 @@ export const CreateLotInputSchema = z
     expectedCount: z.number().int().positive().max(1_000_000).optional().nullable(),
     secondQuantity: z.enum(SECOND_QUANTITIES).optional().nullable(),
     secondLimit: z.number().finite().positive().optional().nullable(),
+    instrumentId: z.number().int().positive().optional().nullable(),
+    /** The LCR meter's test frequency in Hz (100 Hz, 1 kHz …). */
+    testFrequency: z.number().finite().positive().max(10e6).optional().nullable(),
     watcherIds: z.array(z.string().min(1).max(64)).max(50).default([]),
     notes: z.string().trim().max(2000).optional().nullable(),
   })

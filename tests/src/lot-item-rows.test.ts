@@ -14,6 +14,7 @@ const items: LotItems = {
   set: [0, -1, -1, 0, 1, -1],
   outlier: [0, 0, 0, 0, 0, 1],
   secondFail: [0, 0, 1, 0, 0, 1],
+  partIds: [null, null, null, null, null, null],
 };
 const stats = { lower: 90, upper: 110 } as LotStats;
 const rows = (f: Partial<ItemFilters>) => Array.from(filterRows(items, stats, { ...NO_FILTERS, ...f }));

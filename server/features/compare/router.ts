@@ -45,6 +45,7 @@ export function compareRoutes(ctx: AppContext) {
         name: comparisons.name,
         selection: comparisons.selection,
         settings: comparisons.settings,
+        notes: comparisons.notes,
         ownerId: comparisons.ownerId,
         ownerName: users.name,
         createdAt: comparisons.createdAt,
@@ -68,7 +69,7 @@ export function compareRoutes(ctx: AppContext) {
       const id = db.transaction((tx) => {
         const row = tx
           .insert(comparisons)
-          .values({ name: body.name, selection: body.selection as Record<string, unknown>, settings: (body.settings ?? {}) as Record<string, unknown>, ownerId: user.id })
+          .values({ name: body.name, selection: body.selection as Record<string, unknown>, settings: (body.settings ?? {}) as Record<string, unknown>, notes: body.notes || null, ownerId: user.id })
           .returning()
           .get();
         audit(tx, { userId: user.id, action: 'comparison.create', entity: 'comparison', entityId: row.id, detail: { name: body.name } });
@@ -89,6 +90,7 @@ export function compareRoutes(ctx: AppContext) {
             ...(body.name !== undefined ? { name: body.name } : {}),
             ...(body.selection !== undefined ? { selection: body.selection as Record<string, unknown> } : {}),
             ...(body.settings !== undefined ? { settings: body.settings as Record<string, unknown> } : {}),
+            ...(body.notes !== undefined ? { notes: body.notes || null } : {}),
             updatedAt: Date.now(),
           })
           .where(eq(comparisons.id, params.id))

@@ -1,8 +1,10 @@
 // The customer report: what was installed (with the measured values and verdicts) and, when the
 // job has a harness design, what the wiring will do at a few knob settings.
-import { desc, eq } from 'drizzle-orm';
+import { eq } from 'drizzle-orm';
 import type { DbLike } from '@server/db/client';
-import { harnesses, readings } from '@server/db/schema';
+import { harnesses } from '@server/db/schema';
+import { describeVerdict, partEvidence } from '@server/features/parts/evidence';
+import { findPart } from '@server/features/parts/repository';
 import { buildLayoutNetlist, getLayout, layoutKnobs, resolveLayoutConfig, toneKnobs, volumeKnobs } from '@shared/circuit/layouts';
 import { simulateInstrument, sweepKnobs } from '@shared/circuit/metrics';
 import { getPreset } from '@shared/circuit/presets';
@@ -48,14 +50,31 @@ export function harnessSummary(db: DbLike, harnessId: number | null): { text: st
   return { text: lines.join('\n'), csv: csvRows.join('\n') + '\n' };
 }
 
+/** One installed part's line: its status as the evidence has it, the evidence, any override. */
+export function partLine(db: DbLike, p: JobDetail['parts'][number]): string {
+  const part = findPart(db, p.partId);
+  const q = nominalQuantity(p.kind);
+  const nominal = p.nominal != null ? ` ${formatValue(p.nominal, QUANTITY_UNIT[q])}` : '';
+  const head = `  ${p.position}: ${p.kind} ${p.label}${nominal}`;
+  if (!part) return `${head}: not found`;
+  const ev = partEvidence(db, part);
+  const flagWords = ev.fits.flatMap((f) => f.flags.map((fl) => fl.code.replace(/^m-/, 'mid-rotation-').replace(/-/g, ' ')));
+  const failed = ev.verdicts.filter((v) => v.verdict === 'fail' || v.verdict === 'marginal').map((v) => `${v.quantity} ${v.verdict}`);
+  const status = ev.judged === 'flagged' ? `flagged: ${[...failed, ...flagWords].join(', ')}` : ev.judged === 'passed' ? 'passed' : 'not checked';
+  const evidence = [
+    ...ev.verdicts.map((v) => `latest ${describeVerdict(v)}`),
+    ...ev.fits.map((f) => {
+      const fitted = f.law ? ` law ${f.law}${f.m != null ? `, mid-rotation ${(f.m * 100).toFixed(1)} %` : ''}` : '';
+      return `${f.kind} fit${fitted}: ${f.flags.length ? f.flags.map((fl) => fl.message).join(' ') : 'no flags'}`;
+    }),
+  ];
+  const lines = [`${head}: ${status}.`, `      evidence: ${evidence.length ? evidence.join('; ') : 'not measured'}`];
+  if (p.overrideReason) lines.push(`      installed despite its status; reason given: ${p.overrideReason}`);
+  return lines.join('\n');
+}
+
 export function reportText(db: DbLike, job: JobDetail, shopMessage?: string): { text: string; csv: string | null } {
-  const partLines = job.parts.map((p) => {
-    const q = nominalQuantity(p.kind);
-    const last = db.select().from(readings).where(eq(readings.partId, p.partId)).orderBy(desc(readings.id)).all().find((r) => r.quantity === q);
-    const measured = last ? `measured ${formatValue(last.value, QUANTITY_UNIT[q])}${last.verdict ? ` (${last.verdict})` : ''}` : 'not measured';
-    const nominal = p.nominal != null ? `${formatValue(p.nominal, QUANTITY_UNIT[q])}` : '';
-    return `  ${p.position}: ${p.kind} ${p.label} ${nominal}, ${measured}`;
-  });
+  const partLines = job.parts.map((p) => partLine(db, p));
   const harness = harnessSummary(db, job.harnessId);
   const text = [
     `Hello ${job.customer},`,
@@ -67,7 +86,7 @@ export function reportText(db: DbLike, job: JobDetail, shopMessage?: string): { 
     ...(partLines.length ? partLines : ['  (none recorded)']),
     ...(harness ? ['', harness.text, '', 'The predicted curves are attached as CSV (level in dB against frequency).'] : []),
     '',
-    'Predictions come from a circuit model with the measured parts; your amplifier and cable change the exact figures.',
-  ].join('\n');
+    ...(harness ? ["Predictions come from a circuit model of the wiring design with the design's typical part values, not the measured parts above; your amplifier and cable change the exact figures."] : []),
+  ].join('\n').trimEnd();
   return { text, csv: harness?.csv ?? null };
 }

@@ -4,7 +4,7 @@ import { harnesses, jobParts, jobs, parts } from '@server/db/schema';
 
 export type JobRow = typeof jobs.$inferSelect;
 export interface JobDetail extends JobRow {
-  parts: { partId: number; label: string; kind: (typeof parts.$inferSelect)['kind']; nominal: number | null; status: string; position: string; installedAt: number }[];
+  parts: { partId: number; label: string; kind: (typeof parts.$inferSelect)['kind']; nominal: number | null; status: string; position: string; overrideReason: string | null; installedAt: number }[];
   harnessName: string | null;
 }
 
@@ -21,7 +21,7 @@ export function jobDetail(db: DbLike, id: number): JobDetail | undefined {
   const job = db.select().from(jobs).where(eq(jobs.id, id)).get();
   if (!job) return undefined;
   const installed = db
-    .select({ partId: parts.id, label: parts.label, kind: parts.kind, nominal: parts.nominal, status: parts.status, position: jobParts.position, installedAt: jobParts.installedAt })
+    .select({ partId: parts.id, label: parts.label, kind: parts.kind, nominal: parts.nominal, status: parts.status, position: jobParts.position, overrideReason: jobParts.overrideReason, installedAt: jobParts.installedAt })
     .from(jobParts)
     .innerJoin(parts, eq(jobParts.partId, parts.id))
     .where(eq(jobParts.jobId, id))

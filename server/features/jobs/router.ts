@@ -4,7 +4,8 @@ import { audit } from '@server/audit';
 import type { AppContext } from '@server/context';
 import { harnesses, jobParts, jobs } from '@server/db/schema';
 import { findPart, setPartStatus } from '@server/features/parts/repository';
-import { conflict, notFound, unprocessable } from '@server/http/errors';
+import { installCheck } from '@server/features/parts/evidence';
+import { conflict, HttpError, notFound, unprocessable } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
 import { IdParamsSchema } from '@shared/schemas/common';
 import { CreateJobInputSchema, InstallPartInputSchema, JobReportInputSchema, UpdateJobInputSchema } from '@shared/schemas/jobs';
@@ -66,10 +67,23 @@ export function jobRoutes(ctx: AppContext) {
         throw conflict(`${part.label} is installed already (${where}).`);
       }
       if (part.status === 'rejected' || part.status === 'retired') throw conflict(`${part.label} is ${part.status}; it cannot be installed.`);
+      const check = installCheck(db, part);
+      if (check.needsOverride && !body.overrideReason) {
+        throw new HttpError(409, 'needs_override', `${part.label} is ${check.status}: ${check.reasons.join('; ')}. Give an override reason to install it anyway.`, undefined, {
+          details: { status: check.status, reasons: check.reasons },
+        });
+      }
+      const overrideReason = check.needsOverride ? body.overrideReason! : null;
       db.transaction((tx) => {
-        tx.insert(jobParts).values({ jobId: job.id, partId: part.id, position: body.position, installedBy: user.id }).run();
-        setPartStatus(tx, part, 'installed', `installed in ${job.code} (${body.position})`, user.id);
-        audit(tx, { userId: user.id, action: 'job.install', entity: 'job', entityId: job.id, detail: { partId: part.id, label: part.label, position: body.position, previousStatus: part.status } });
+        tx.insert(jobParts).values({ jobId: job.id, partId: part.id, position: body.position, overrideReason, installedBy: user.id }).run();
+        setPartStatus(tx, part, 'installed', `installed in ${job.code} (${body.position})${overrideReason ? ` over ${check.status} status: ${overrideReason}` : ''}`, user.id);
+        audit(tx, {
+          userId: user.id,
+          action: overrideReason ? 'job.install-override' : 'job.install',
+          entity: 'job',
+          entityId: job.id,
+          detail: { partId: part.id, label: part.label, position: body.position, previousStatus: part.status, ...(overrideReason ? { overrideReason, overridden: check.reasons } : {}) },
+        });
       });
       return mustFind(job.id);
     },

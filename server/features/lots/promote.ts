@@ -1,6 +1,6 @@
 // Items of a lot (chosen ones, a deviation bin or a matched set) become parts in the registry,
 // keeping their lot link and their readings.
-import { inArray } from 'drizzle-orm';
+import { inArray, sql } from 'drizzle-orm';
 import { audit } from '@server/audit';
 import type { AppContext } from '@server/context';
 import { parts, partStatusEvents } from '@server/db/schema';
@@ -30,7 +30,7 @@ export function promoteToParts(ctx: AppContext, lot: LotRow, input: PromoteInput
   if (indices.length > 1000) throw unprocessable('Promote at most 1,000 items at once.', { readingIds: 'Too many.' });
 
   const labels = indices.map((i) => `${lot.code}-${data.items[i]}`.slice(0, 60));
-  const taken = db.select({ label: parts.label }).from(parts).where(inArray(parts.label, labels)).all();
+  const taken = db.select({ label: parts.label }).from(parts).where(inArray(sql`lower(${parts.label})`, labels.map((l) => l.toLowerCase()))).all();
   if (taken.length > 0) throw conflict(`Parts exist already for ${taken.length} of these items (e.g. ${taken[0]!.label}).`);
 
   return db.transaction((tx) => {
@@ -41,10 +41,12 @@ export function promoteToParts(ctx: AppContext, lot: LotRow, input: PromoteInput
         .returning()
         .get();
       tx.insert(partStatusEvents).values({ partId: part.id, toStatus: 'incoming', reason: `promoted from lot ${lot.code}`, userId }).run();
-      recordReading(tx, part, { quantity: lot.kind === 'capacitor' ? 'capacitance' : 'resistance', value: data.values[i]! }, userId, 'lot');
+      // The lot's meter and test frequency go with each reading, when the lot has them.
+      const conditions = { ...(lot.instrumentId != null ? { instrumentId: lot.instrumentId } : {}), ...(lot.testFrequency != null ? { frequency: lot.testFrequency } : {}) };
+      recordReading(tx, part, { quantity: lot.kind === 'capacitor' ? 'capacitance' : 'resistance', value: data.values[i]!, ...conditions }, userId, 'lot');
       const second = data.second[i]!;
       const secondQuantity = lot.secondQuantity === 'dissipation' || lot.secondQuantity === 'esr' ? SECOND_READING[lot.secondQuantity] : null;
-      if (secondQuantity && !Number.isNaN(second)) recordReading(tx, tx.select().from(parts).where(inArray(parts.id, [part.id])).get()!, { quantity: secondQuantity, value: second }, userId, 'lot');
+      if (secondQuantity && !Number.isNaN(second)) recordReading(tx, tx.select().from(parts).where(inArray(parts.id, [part.id])).get()!, { quantity: secondQuantity, value: second, ...conditions }, userId, 'lot');
       return part.id;
     });
     audit(tx, { userId, action: 'lot.promote', entity: 'lot', entityId: lot.id, detail: { parts: created.length, selection: input } });

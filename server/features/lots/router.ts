@@ -6,9 +6,12 @@ import Papa from 'papaparse';
 import { z } from 'zod';
 import { audit } from '@server/audit';
 import type { AppContext } from '@server/context';
-import { lots, lotWatchers, users } from '@server/db/schema';
+import { instruments, lots, lotWatchers, users } from '@server/db/schema';
 import { conflict, HttpError, notFound, unprocessable } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
+import { lotHistory } from './history';
+import { itemPartIds } from './promoted';
+import { assertWatcherChange, notifyReopen, registerWatcherRoutes } from './watchers';
 import { fileRefused } from '@server/uploads/refusal';
 import { contentPath } from '@server/uploads/store';
 import { decodeMarking } from '@shared/markings/decode';
@@ -57,6 +60,7 @@ export function lotRoutes(ctx: AppContext) {
     return lot;
   };
 
+  registerWatcherRoutes(api, ctx);
   api.get('/', { handle: () => ({ lots: listLots(db).map((l) => ({ ...lotSummary(l), count: l.count })) }) });
 
   api.post('/', {
@@ -78,6 +82,10 @@ export function lotRoutes(ctx: AppContext) {
       const code = body.code ?? `LOT-${new Date().toISOString().slice(0, 10).replace(/-/g, '')}-${(db.select({ n: sql<number>`count(*)` }).from(lots).get()?.n ?? 0) + 1}`;
       if (db.select().from(lots).where(eq(lots.code, code)).get()) throw conflict(`A lot with code ${code} exists already.`);
       assertMembers(body.watcherIds, 'watcherIds');
+      assertWatcherChange(user, [], body.watcherIds);
+      if (body.instrumentId != null && !db.select({ id: instruments.id }).from(instruments).where(eq(instruments.id, body.instrumentId)).get()) {
+        throw unprocessable('That instrument does not exist.', { instrumentId: 'Unknown instrument.' });
+      }
       return db.transaction((tx) => {
         const lot = tx
           .insert(lots)
@@ -93,6 +101,8 @@ export function lotRoutes(ctx: AppContext) {
             expectedCount: body.expectedCount ?? null,
             secondQuantity: body.secondQuantity ?? null,
             secondLimit: body.secondLimit ?? null,
+            instrumentId: body.instrumentId ?? null,
+            testFrequency: body.testFrequency ?? null,
             notes: body.notes ?? null,
             createdBy: user.id,
           })
@@ -117,6 +127,7 @@ export function lotRoutes(ctx: AppContext) {
         disposedByName,
         count: data.values.length,
         watchers: lotWatcherRows(db, lot.id),
+        history: lotHistory(db, lot),
         // The first sets only (a 100,000-item lot has ~50,000 pairs); the items route carries every item's set.
         stats: stats && { ...stats, deviationsPct: undefined, matchedSets: stats.matchedSets.slice(0, MAX_LISTED_SETS), matchedSetCount: stats.matchedSets.length },
       };
@@ -148,6 +159,7 @@ export function lotRoutes(ctx: AppContext) {
         bin: Array.from(bin),
         set: Array.from(set),
         outlier: Array.from(outlier),
+        partIds: itemPartIds(db, lot.id, data.items),
         secondFail: Array.from(secondFail),
       };
     },
@@ -247,14 +259,15 @@ export function lotRoutes(ctx: AppContext) {
 
   api.post('/:id/reopen', {
     schemas: { params: IdParamsSchema, body: ReopenInputSchema },
-    handle: ({ params, body, user }) => {
+    handle: async ({ params, body, user }) => {
       const lot = mustFind(params.id);
       if (lot.status === 'open') throw conflict('The lot is open already.');
       db.transaction((tx) => {
         tx.update(lots).set({ status: 'open', dispositionReason: null, disposedBy: null, disposedAt: null }).where(eq(lots.id, lot.id)).run();
         audit(tx, { userId: user.id, action: 'lot.reopen', entity: 'lot', entityId: lot.id, detail: { was: lot.status, previousReason: lot.dispositionReason, reason: body.reason } });
       });
-      return { lot: lotSummary(mustFind(lot.id)) };
+      const notified = await notifyReopen(ctx, lot, user, body.reason);
+      return { lot: lotSummary(mustFind(lot.id)), notified };
     },
   });
 
@@ -263,6 +276,7 @@ export function lotRoutes(ctx: AppContext) {
     handle: ({ params, body, user }) => {
       const lot = mustFind(params.id);
       assertMembers(body.userIds, 'userIds');
+      assertWatcherChange(user, lotWatcherRows(db, lot.id).map((w) => w.id), body.userIds);
       db.transaction((tx) => {
         tx.delete(lotWatchers).where(eq(lotWatchers.lotId, lot.id)).run();
         for (const userId of new Set(body.userIds)) tx.insert(lotWatchers).values({ lotId: lot.id, userId }).run();

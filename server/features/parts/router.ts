@@ -4,12 +4,12 @@ import { z } from 'zod';
 import { audit } from '@server/audit';
 import type { AppContext } from '@server/context';
 import { lots, parts, partStatusEvents, users } from '@server/db/schema';
-import { conflict, notFound } from '@server/http/errors';
+import { notFound } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
 import { IdParamsSchema } from '@shared/schemas/common';
 import { CreatePartInputSchema, PartListQuerySchema, UpdatePartInputSchema } from '@shared/schemas/parts';
 import { jobsOfPart } from '@server/features/jobs/repository';
-import { findPart, findPartByLabel, listParts, setPartStatus } from './repository';
+import { assertLabelFree, findPart, findPartByLabel, listParts, setPartStatus } from './repository';
 
 export function partRoutes(ctx: AppContext) {
   const { db } = ctx;
@@ -24,7 +24,7 @@ export function partRoutes(ctx: AppContext) {
     status: 201,
     schemas: { body: CreatePartInputSchema },
     handle: ({ body, user }) => {
-      if (findPartByLabel(db, body.label)) throw conflict(`A part labelled "${body.label}" exists already.`);
+      assertLabelFree(db, body.label);
       return db.transaction((tx) => {
         const part = tx.insert(parts).values({ ...body, createdBy: user.id }).returning().get();
         tx.insert(partStatusEvents).values({ partId: part.id, fromStatus: null, toStatus: part.status, reason: 'created', userId: user.id }).run();
@@ -82,9 +82,7 @@ export function partRoutes(ctx: AppContext) {
     handle: ({ params, body, user }) => {
       const part = findPart(db, params.id);
       if (!part) throw notFound('That part');
-      if (body.label && body.label !== part.label && findPartByLabel(db, body.label)) {
-        throw conflict(`A part labelled "${body.label}" exists already.`);
-      }
+      if (body.label && body.label !== part.label) assertLabelFree(db, body.label, part.id);
       const { status, statusReason, ...fields } = body;
       return db.transaction((tx) => {
         const changed = Object.fromEntries(Object.entries(fields).filter(([k, v]) => part[k as keyof typeof part] !== v));

@@ -3,6 +3,7 @@ import { audit } from '@server/audit';
 import { newId, newToken } from '@server/auth/tokens';
 import type { AppContext } from '@server/context';
 import { invitations, users } from '@server/db/schema';
+import { labelClashes } from '@server/features/parts/repository';
 import { HttpError, notFound } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
 import { ChangeRoleInputSchema, InviteInputSchema, type Member } from '@shared/schemas/auth';
@@ -24,6 +25,9 @@ export function teamRoutes(ctx: AppContext) {
         .all(),
     }),
   });
+
+  // Part labels that differ only in case (kept as they were when labels became case-insensitive).
+  api.get('/label-clashes', { handle: () => ({ clashes: labelClashes(db) }) });
 
   api.patch('/members/:id', {
     schemas: { params: UserIdParams, body: ChangeRoleInputSchema },

@@ -52,6 +52,8 @@ export interface SavedComparison {
   settings: Partial<CompareSettings> | null;
   ownerId: string | null;
   ownerName: string | null;
+  /** What the study is for and what it showed. */
+  notes: string | null;
   createdAt: number;
   updatedAt: number | null;
 }

@@ -1,11 +1,12 @@
 // Saved comparisons: open one (anyone), save the current study under a name, save changes to the
 // open one or delete it (write roles; the server lets only the owner or qa/admin change it).
 import { zodResolver } from '@hookform/resolvers/zod';
+import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { ComparisonInputSchema, type CompareSelection, type CompareSettings } from '@shared/schemas/compare';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
-import { SelectField, TextField } from '@/components/ui/field';
+import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
 import { useCan } from '@/lib/auth';
 import { applyServerError } from '@/lib/form';
 import { formatDate } from '@/lib/format';
@@ -13,7 +14,7 @@ import { useComparisons } from '../api/get-comparisons';
 import { useCreateComparison, useDeleteComparison, useUpdateComparison } from '../api/save-comparison';
 import type { SavedComparison } from '../api/types';
 
-const NameSchema = ComparisonInputSchema.pick({ name: true });
+const NameSchema = ComparisonInputSchema.pick({ name: true, notes: true });
 
 interface Props {
   open: SavedComparison | null;
@@ -28,12 +29,14 @@ export function SavedStudies({ open, selection, settings, onOpen }: Props) {
   const create = useCreateComparison();
   const update = useUpdateComparison();
   const remove = useDeleteComparison();
-  const form = useForm({ resolver: zodResolver(NameSchema), defaultValues: { name: '' } });
+  const form = useForm({ resolver: zodResolver(NameSchema), defaultValues: { name: '', notes: '' } });
+  const [notes, setNotes] = useState<{ id: number; text: string } | null>(null);
+  const notesText = open ? (notes?.id === open.id ? notes.text : (open.notes ?? '')) : '';
 
-  const onSave = form.handleSubmit(async ({ name }) => {
+  const onSave = form.handleSubmit(async ({ name, notes: newNotes }) => {
     try {
-      const saved = await create.mutateAsync({ name, selection, settings });
-      form.reset({ name: '' });
+      const saved = await create.mutateAsync({ name, selection, settings, notes: newNotes || null });
+      form.reset({ name: '', notes: '' });
       onOpen(saved.id);
     } catch (err) {
       applyServerError(err, form.setError, ['name']);
@@ -58,9 +61,13 @@ export function SavedStudies({ open, selection, settings, onOpen }: Props) {
             </option>
           ))}
         </SelectField>
+        {open && !canWrite && open.notes && <p className="mt-2 text-sm whitespace-pre-wrap">Notes: {open.notes}</p>}
+        {canWrite && open && (
+          <TextAreaField label="Notes on this study" rows={3} className="mt-2" value={notesText} onChange={(e) => setNotes({ id: open.id, text: e.target.value })} hint="Saved with “Save changes”." />
+        )}
         {canWrite && open && (
           <div className="mt-2 flex flex-wrap gap-2">
-            <Button size="sm" variant="primary" busy={update.isPending} busyText="Saving…" onClick={() => update.mutate({ id: open.id, selection, settings })}>
+            <Button size="sm" variant="primary" busy={update.isPending} busyText="Saving…" onClick={() => update.mutate({ id: open.id, selection, settings, notes: notesText || null })}>
               Save changes to “{open.name}”
             </Button>
             <Button
@@ -89,6 +96,7 @@ export function SavedStudies({ open, selection, settings, onOpen }: Props) {
           <Button type="submit" className="mt-6" busy={create.isPending} busyText="Saving…">
             Save
           </Button>
+          <TextAreaField label="Notes (optional)" rows={2} className="w-full" {...form.register('notes')} error={form.formState.errors.notes?.message} />
         </form>
       ) : (
         <p className="self-end text-sm text-ink-soft">Viewers can open and export studies; saving needs a bench, QA or admin account.</p>

@@ -27,6 +27,8 @@ export interface InstalledPart {
   nominal: number | null;
   status: PartStatus;
   position: string;
+  /** Why a flagged or never-judged part went in anyway. */
+  overrideReason: string | null;
   installedAt: number;
 }
 

@@ -81,7 +81,7 @@ function InstalledParts({ job, canWrite }: { job: JobDetail; canWrite: boolean }
             <tr key={p.partId} className="border-b border-paper-edge/70 last:border-b-0">
               <td className="px-3 py-2 font-medium">{p.position}</td>
               <td className="px-3 py-2">
-                <Link to={paths.app.part.getHref(p.partId)} className="num text-accent underline-offset-2 hover:underline">
+                <Link to={paths.app.part.getHref(p.partId)} className="num whitespace-nowrap text-accent underline-offset-2 hover:underline">
                   {p.label}
                 </Link>
               </td>
@@ -89,6 +89,7 @@ function InstalledParts({ job, canWrite }: { job: JobDetail; canWrite: boolean }
               <td className="num px-3 py-2 text-right whitespace-nowrap">{formatNominal(p.kind, p.nominal)}</td>
               <td className="px-3 py-2">
                 <StatusBadge status={p.status} />
+                {p.overrideReason && <p className="mt-1 text-xs text-marginal">Installed over its status: {p.overrideReason}</p>}
               </td>
               <td className="px-3 py-2 whitespace-nowrap">{formatDateTime(p.installedAt)}</td>
               {canWrite && (

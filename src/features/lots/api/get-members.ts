@@ -1,14 +1,22 @@
-// The member list is for admins only (GET /api/team/members); the lot form asks for it only then.
-import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { Member } from '@shared/schemas/auth';
+// The members a watcher can be chosen from (GET /api/lots/watcher-candidates, qa and admin); the
+// lot form and page ask for it only for those roles. Techs may only watch a lot themselves.
+import { queryOptions, useMutation, useQuery } from '@tanstack/react-query';
+import type { Member as TeamMember } from '@shared/schemas/auth';
 import { api } from '@/lib/api-client';
+import type { LotWatcher } from './types';
 
-export const getMembers = (signal?: AbortSignal) => api.get<{ members: Member[] }>('/api/team/members', { signal });
+/** What the watcher list needs of a member. */
+export type Member = Pick<TeamMember, 'id' | 'email' | 'name' | 'role'>;
+
+export const getMembers = (signal?: AbortSignal) => api.get<{ members: Member[] }>('/api/lots/watcher-candidates', { signal });
 
 export const membersQueryOptions = () =>
   queryOptions({
-    queryKey: ['team', 'members'],
+    queryKey: ['lots', 'watcher-candidates'],
     queryFn: ({ signal }) => getMembers(signal),
   });
 
 export const useMembers = (enabled: boolean) => useQuery({ ...membersQueryOptions(), enabled });
+
+export const setWatchers = ({ id, userIds }: { id: number; userIds: string[] }) => api.put<{ watchers: LotWatcher[] }>(`/api/lots/${id}/watchers`, { userIds });
+export const useSetWatchers = () => useMutation({ mutationFn: setWatchers, meta: { invalidates: [['lots']] } });

@@ -22,6 +22,9 @@ export interface Lot {
   expectedCount: number | null;
   secondQuantity: SecondQuantity | null;
   secondLimit: number | null;
+  /** The meter and test frequency (Hz) of the lot's readings, carried to promoted parts. */
+  instrumentId: number | null;
+  testFrequency: number | null;
   status: LotStatus;
   dispositionReason: string | null;
   disposedBy: string | null;
@@ -46,7 +49,21 @@ export interface LotWatcher {
   name: string;
 }
 
-export type LotDetail = LotListRow & { watchers: LotWatcher[]; stats: LotStats | null; disposedByName: string | null };
+/** One event of a lot's history, oldest first (server/features/lots/history.ts). */
+export interface LotHistoryEvent {
+  kind: 'created' | 'upload' | 'disposition' | 'reopen' | 'watchers' | 'promote';
+  at: number;
+  by: string | null;
+  file?: string;
+  rows?: number;
+  replaced?: boolean;
+  status?: string;
+  was?: string;
+  reason?: string;
+  parts?: number;
+}
+
+export type LotDetail = LotListRow & { watchers: LotWatcher[]; history: LotHistoryEvent[]; stats: LotStats | null; disposedByName: string | null };
 
 /** Every item of a lot as columns (GET /api/lots/:id/items); -1 in bin/set means none. */
 export interface LotItems {
@@ -59,6 +76,8 @@ export interface LotItems {
   set: number[];
   outlier: (0 | 1)[];
   secondFail: (0 | 1)[];
+  /** The part each item was promoted to, or null. */
+  partIds: (number | null)[];
 }
 
 /** The matched-set chooser: parts agreeing within matchPct %, in sets of setSize. */

@@ -18,11 +18,13 @@ export const LotFormFields = z.object({
   expectedCount: z.string(),
   secondQuantity: z.string(),
   secondLimit: z.string(),
+  instrumentId: z.string(),
+  testFrequency: z.string(),
   watcherIds: z.array(z.string()),
   notes: z.string(),
 });
 export type LotFormValues = z.input<typeof LotFormFields>;
-export const LOT_FORM_FIELDS = ['code', 'kind', 'nominal', 'tolerancePct', 'supplier', 'receivedOn', 'expectedCount', 'secondQuantity', 'secondLimit', 'watcherIds', 'notes'] as const;
+export const LOT_FORM_FIELDS = ['code', 'kind', 'nominal', 'tolerancePct', 'supplier', 'receivedOn', 'expectedCount', 'secondQuantity', 'secondLimit', 'instrumentId', 'testFrequency', 'watcherIds', 'notes'] as const;
 
 export const LOT_KIND_LABEL: Record<LotKind, string> = { capacitor: 'Capacitors', pot: 'Pots', resistor: 'Resistors' };
 export const LOT_UNIT: Record<LotKind, string> = { capacitor: 'F', pot: 'Ω', resistor: 'Ω' };
@@ -130,6 +132,12 @@ export const CreateLotFormSchema = LotFormFields.transform((v, ctx): CreateLotIn
     expectedCount = Number(v.expectedCount.replace(/[\s,]/g, ''));
     if (!Number.isInteger(expectedCount)) fail('expectedCount', 'A whole number of parts, such as 500.');
   }
+  let testFrequency: number | null = null;
+  if (v.testFrequency.trim() !== '') {
+    const f = tryParseValue(v.testFrequency.trim(), 'frequency');
+    if (f.ok) testFrequency = f.value;
+    else fail('testFrequency', f.error);
+  }
   if (failed) return z.NEVER;
 
   const candidate = {
@@ -142,6 +150,8 @@ export const CreateLotFormSchema = LotFormFields.transform((v, ctx): CreateLotIn
     expectedCount,
     secondQuantity: second,
     secondLimit: limit.ok ? limit.value : null,
+    instrumentId: v.instrumentId ? Number(v.instrumentId) : null,
+    testFrequency,
     watcherIds: v.watcherIds,
     notes: blankToNull(v.notes),
   };
@@ -163,6 +173,8 @@ export const emptyLotForm = (kind: LotKind = 'capacitor', watcherIds: string[] =
   expectedCount: '',
   secondQuantity: '',
   secondLimit: '',
+  instrumentId: '',
+  testFrequency: '',
   watcherIds,
   notes: '',
 });

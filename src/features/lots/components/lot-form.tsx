@@ -11,6 +11,7 @@ import { applyServerError } from '@/lib/form';
 import { ROLE_LABEL } from '@/lib/format';
 import { useCreateLot } from '../api/create-lot';
 import { useMembers } from '../api/get-members';
+import { useInstruments } from '@/components/readings/api';
 import { CreateLotFormSchema, LOT_FORM_FIELDS, LOT_KIND_LABEL, SECOND_CHOICES, emptyLotForm, readNominal, type LotFormValues } from './lot-form-schema';
 
 const NOMINAL_HINT = {
@@ -19,16 +20,16 @@ const NOMINAL_HINT = {
   resistor: 'Value (4k7, 1meg) or a code such as 4K7, 470R',
 } as const;
 
-/** Watchers: admins choose members; others can only add themselves (the member list is admin-only). */
+/** Watchers: qa leads and admins choose any member; others can only add themselves. */
 function WatcherChoice({ value, onChange, error }: { value: string[]; onChange: (ids: string[]) => void; error?: string }) {
   const user = useUser();
-  const isAdmin = user?.role === 'admin';
+  const isAdmin = user?.role === 'admin' || user?.role === 'qa';
   const members = useMembers(isAdmin);
   const toggle = (id: string, on: boolean) => onChange(on ? [...new Set([...value, id])] : value.filter((x) => x !== id));
   return (
     <fieldset className="sm:col-span-2 lg:col-span-4">
       <legend className="mb-1 text-sm font-medium">Watchers</legend>
-      <p className="mb-2 text-xs text-ink-soft">Watchers get an e-mail when the lot’s disposition is recorded.</p>
+      <p className="mb-2 text-xs text-ink-soft">Watchers get an e-mail when the lot’s disposition is recorded and when it is reopened.</p>
       {isAdmin ? (
         members.isPending ? (
           <p className="text-sm text-ink-soft">Loading members…</p>
@@ -36,14 +37,12 @@ function WatcherChoice({ value, onChange, error }: { value: string[]; onChange: 
           <Alert>{members.error.message}</Alert>
         ) : (
           <div className="flex flex-wrap gap-x-5 gap-y-2">
-            {members.data.members
-              .filter((m) => !m.disabledAt)
-              .map((m) => (
+            {members.data.members.map((m) => (
                 <label key={m.id} className="inline-flex min-h-8 items-center gap-2 text-sm">
                   <input type="checkbox" className="size-4 accent-accent" checked={value.includes(m.id)} onChange={(e) => toggle(m.id, e.target.checked)} />
                   {m.name} <span className="text-xs text-ink-soft">({ROLE_LABEL[m.role]})</span>
                 </label>
-              ))}
+            ))}
           </div>
         )
       ) : user ? (
@@ -70,6 +69,7 @@ export function CreateLotForm({ onClose }: { onClose: () => void }) {
   const nominalText = form.watch('nominal');
   const secondQuantity = form.watch('secondQuantity');
   const watcherIds = form.watch('watcherIds');
+  const instruments = useInstruments();
   const reading = readNominal(kind, nominalText);
   const secondChoices = SECOND_CHOICES[kind];
   const secondChoice = secondChoices.find((c) => c.value === secondQuantity);
@@ -170,6 +170,15 @@ export function CreateLotForm({ onClose }: { onClose: () => void }) {
           <div className="sm:col-span-2" />
         )}
         <WatcherChoice value={watcherIds} onChange={(ids) => form.setValue('watcherIds', ids, { shouldDirty: true })} error={errors.watcherIds?.message} />
+        <SelectField label="Instrument" hint="The meter the lot is measured with; its readings carry it when items become parts." error={errors.instrumentId?.message} {...form.register('instrumentId')}>
+          <option value="">Not recorded</option>
+          {instruments.data?.instruments.map((i) => (
+            <option key={i.id} value={i.id}>
+              {i.name}
+            </option>
+          ))}
+        </SelectField>
+        <TextField label="Test frequency" placeholder="1k" hint="The LCR meter's test frequency in Hz (100, 1k …); blank if not recorded." autoComplete="off" inputClassName="num" error={errors.testFrequency?.message} {...form.register('testFrequency')} />
         <TextAreaField label="Notes" className="sm:col-span-2 lg:col-span-4" rows={2} error={errors.notes?.message} {...form.register('notes')} />
       </div>
       <div className="flex flex-wrap gap-2">

@@ -1,6 +1,8 @@
 // Every item of a lot in one virtualised table: the rows are filtered and sorted here over the
 // server's columns (typed work on index arrays, no object per item), and only the rows in view are
 // rendered, so 100,000 items scroll as smoothly as 100.
+import { Link } from 'react-router-dom';
+import { paths } from '@/config/paths';
 import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
 import { useVirtualizer } from '@tanstack/react-virtual';
 import { useMemo, useRef, useState } from 'react';
@@ -90,7 +92,20 @@ export function LotItemsTable({ items, stats, nominal, unit, secondQuantity, fil
             }),
           ]
         : []),
-      col.accessor((i) => i, { id: 'item', header: 'Item', enableSorting: true, cell: (c) => items.items[c.row.original], meta: { width: '6.5rem' } }),
+      col.accessor((i) => i, { id: 'item', header: 'Item', enableSorting: true, cell: (c) => {
+          const i = c.row.original;
+          const partId = items.partIds?.[i];
+          return (
+            <span className="flex flex-nowrap items-center gap-1.5">
+              {items.items[i]}
+              {partId != null && (
+                <Link to={paths.app.part.getHref(partId)} className="rounded-full border border-accent/40 px-1.5 text-xs whitespace-nowrap text-accent hover:underline" title="Promoted to a part: open it" aria-label={`Item ${items.items[i]} was promoted: open its part`}>
+                  part
+                </Link>
+              )}
+            </span>
+          );
+        }, meta: { width: '9rem' } }),
       col.accessor((i) => i, {
         id: 'value',
         header: `Value (${scale.unit})`,
@@ -134,6 +149,7 @@ export function LotItemsTable({ items, stats, nominal, unit, secondQuantity, fil
               {out ? <Badge tone="fail" icon="cross" label={v < stats.lower ? 'Below limit' : 'Above limit'} /> : <Badge tone="pass" icon="check" label="In tolerance" />}
               {items.outlier[i] ? <Badge tone="marginal" icon="edge" label="Outlier" /> : null}
               {items.secondFail[i] && secondQuantity ? <Badge tone="fail" icon="flag" label={`${SECOND_LABEL[secondQuantity]} high`} /> : null}
+
             </span>
           );
         },

@@ -11,6 +11,10 @@ import { formatDate, formatTolerance } from '@/lib/format';
 import { useLot } from '../api/get-lot';
 import { useLotItems } from '../api/get-lot-items';
 import { usePromoteLotItems } from '../api/promote-lot';
+import { LotItemScan } from './lot-item-scan';
+import { LotHistory } from './lot-history';
+import { LotWatchers } from './lot-watchers';
+import { useInstruments } from '@/components/readings/api';
 import { DEFAULT_MATCH, type LotDetail, type MatchOptions } from '../api/types';
 import { LotDisposition } from './lot-disposition';
 import { LOT_KIND_LABEL, SECOND_LABEL, SECOND_UNIT } from './lot-form-schema';
@@ -32,6 +36,8 @@ function Fact({ term, children }: { term: string; children: ReactNode }) {
 }
 
 function LotFacts({ lot }: { lot: LotDetail }) {
+  const instruments = useInstruments();
+  const instrumentName = instruments.data?.instruments.find((i) => i.id === lot.instrumentId)?.name;
   return (
     <dl className="mb-6 grid grid-cols-2 gap-x-6 gap-y-3 rounded-lg border border-paper-edge bg-paper-bright p-4 sm:grid-cols-4">
       <Fact term="Nominal">
@@ -56,6 +62,8 @@ function LotFacts({ lot }: { lot: LotDetail }) {
         )}
       </Fact>
       <Fact term="Watchers">{lot.watchers.length ? lot.watchers.map((w) => w.name).join(', ') : 'none'}</Fact>
+      <Fact term="Test frequency">{lot.testFrequency != null ? <span className="num">{formatValue(lot.testFrequency, 'Hz')}</span> : 'not recorded'}</Fact>
+      <Fact term="Instrument">{lot.instrumentId != null ? (instrumentName ?? `instrument ${lot.instrumentId}`) : 'not recorded'}</Fact>
       <Fact term="Created">{formatDate(lot.createdAt)}</Fact>
       {lot.notes && <Fact term="Notes">{lot.notes}</Fact>}
     </dl>
@@ -249,6 +257,7 @@ export function LotScreen({ id }: { id: number }) {
                 ) : null
               }
             >
+              {canWrite && itemsQuery.data && <LotItemScan items={itemsQuery.data} selected={selected} onSelectedChange={onSelectedChange} />}
               <FilterBar lot={lot} filters={filters} onChange={setFilters} setCount={stats.matchedSets.length} />
               {itemsQuery.isPending ? (
                 <Loading what={`Loading ${lot.count.toLocaleString()} items`} />
@@ -271,6 +280,14 @@ export function LotScreen({ id }: { id: number }) {
           </>
         )}
 
+        <div className="grid gap-6 lg:grid-cols-2">
+          <Panel title="History" id="lot-history">
+            <LotHistory history={lot.history} />
+          </Panel>
+          <Panel title="Watchers" id="lot-watchers">
+            <LotWatchers lot={lot} />
+          </Panel>
+        </div>
         <Panel title="Disposition" id="lot-disposition">
           <LotDisposition lot={lot} />
         </Panel>

@@ -2,6 +2,7 @@ import { PageHeader, Panel } from '@/components/ui/page-header';
 import { useCan } from '@/lib/auth';
 import { InstrumentsBlock } from './instruments';
 import { InvitationsList, InviteForm } from './invitations';
+import { LabelClashes } from './label-clashes';
 import { MembersTable } from './members-table';
 import { ProfilesBlock } from './profiles';
 
@@ -18,6 +19,7 @@ export function TeamScreen() {
       <div className="space-y-6">
         {isAdmin && (
           <>
+            <LabelClashes />
             <Panel id="team-members" title="Members">
               <MembersTable />
             </Panel>
