@@ -65,6 +65,7 @@ export const ROUTE_PERMISSIONS: Record<string, RoutePermission> = {
   'POST /api/harness/simulate': 'read',
   'POST /api/harness/sweep': 'read',
   'POST /api/harness/netlist': 'read',
+  'POST /api/harness/render': 'read',
   'GET /api/harnesses': 'read',
   'POST /api/harnesses': 'write',
   'GET /api/harnesses/:id': 'read',
