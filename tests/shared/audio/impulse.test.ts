@@ -20,7 +20,7 @@ import {
 import { simulate } from '@shared/circuit/metrics';
 import type { Knobs, Netlist } from '@shared/circuit/netlist';
 import { getPreset, HARNESS_PRESETS, type HarnessPresetId } from '@shared/circuit/presets';
-import { lawValue } from '@shared/circuit/taper-law';
+import { lawValue } from '@shared/taper/law';
 import { seededRandom } from '@shared/random/seeded';
 
 function dft(x: ArrayLike<number>): { re: Float64Array; im: Float64Array } {
