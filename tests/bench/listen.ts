@@ -60,7 +60,7 @@ export async function bench(): Promise<BenchFigure[]> {
       met: renderMs <= 150,
     },
     {
-      name: 'Listen: synthesise the built-in phrase (6.1 s at 48 kHz, one pickup)',
+      name: 'Listen: synthesise the built-in phrase (6 s at 48 kHz, one pickup)',
       measured: fmt(phraseMs),
       reference: `render of 10 s ${fmt(renderMs)}`,
       goal: 'no goal set (shown for the record)',
