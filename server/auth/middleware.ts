@@ -6,7 +6,7 @@ import { ROUTE_PERMISSIONS } from './permissions';
 import { SESSION_ABSOLUTE_MS, type AppLucia, type AuthUser } from './session';
 
 declare global {
-  // eslint-disable-next-line @typescript-eslint/no-namespace
+  // eslint-disable-next-line @typescript-eslint/no-namespace -- Express declares its Request type in a global namespace; augmenting it needs one
   namespace Express {
     interface Request {
       user: AuthUser | null;

@@ -21,7 +21,7 @@ export async function verifyPassword(hashed: string, password: string): Promise<
 const COMMON = new Set([
   'password', 'password1', 'password123', '12345678', '123456789', '1234567890', 'qwertyuiop',
   'qwerty123', 'iloveyou', 'sunshine', 'princess', 'football', 'baseball', 'welcome1', 'letmein1',
-  'admin123', 'abc12345', 'passw0rd', '11111111', '00000000', 'trustno1', 'superman', 'starwars',
+  'admin123', 'abc12345', 'passw0rd', '11111111', '00000000', 'trustno1', 'zaq12wsx', 'qazwsx123',
   'guitar123', 'changeme', 'lugbook1', 'lugbook123',
 ]);
 

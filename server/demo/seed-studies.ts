@@ -1,7 +1,7 @@
 // The invented demo scenario, second half: lots of pots from two suppliers with rotation sweeps
 // (for Compare), capacitor lots (one of 100,000 items, for the Lots screen), pickups with impedance
 // sweeps, harness designs and jobs. All values are made up around typical trade figures
-// (common practice, no published source).
+// — common practice (no published source).
 import type Database from 'better-sqlite3';
 import { eq } from 'drizzle-orm';
 import type { Tx } from '@server/db/client';
@@ -126,7 +126,7 @@ function seedDesignsAndJobs(s: Seeders): void {
     .insert(harnesses)
     .values([
       { name: 'Keeps its treble at low volume', preset: 'bleed-cap-parallel-r', values: { bleedC: 1.2e-9, bleedR: 150e3, cableLength: 4.5 }, notes: 'For players who ride the volume knob.', ownerId: s.users.tech },
-      { name: 'Warm neck position, 50s wiring', preset: 'interactive-tone', values: { toneC: 15e-9, volumeR: 250e3, toneR: 250e3 }, ownerId: s.users.tech },
+      { name: 'Warm neck position, tone from the volume wiper', preset: 'interactive-tone', values: { toneC: 15e-9, volumeR: 250e3, toneR: 250e3 }, ownerId: s.users.tech },
       { name: 'Tone knob with a usable bottom', preset: 'tone-floor-resistor', values: { floorR: 8.2e3 }, ownerId: s.users.qa },
     ])
     .returning()

@@ -1,5 +1,5 @@
 // The invented demo scenario: a small repair workshop with a parts bench and a harness line.
-// Every name here is made up; values are typical of the trade (common practice).
+// Every name here is made up; values are typical of the trade — common practice (no published source).
 import { sql } from 'drizzle-orm';
 import { hashPassword } from '@server/auth/password';
 import { newId } from '@server/auth/tokens';
@@ -11,7 +11,7 @@ import { seedStudies } from './seed-studies';
 import { seededRandom } from '@shared/random/seeded';
 
 export const DEMO_USERS = [
-  { email: 'admin@lugbook.test', name: 'Avery Admin', role: 'admin' },
+  { email: 'admin@lugbook.test', name: 'Noor Admin', role: 'admin' },
   { email: 'qa@lugbook.test', name: 'Quinn Inspector', role: 'qa' },
   { email: 'tech@lugbook.test', name: 'Tam Bench', role: 'tech' },
   { email: 'viewer@lugbook.test', name: 'Vic Reader', role: 'viewer' },

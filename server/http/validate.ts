@@ -13,7 +13,7 @@ export interface Schemas {
 export type Out<S> = S extends z.ZodType ? z.output<S> : undefined;
 
 declare global {
-  // eslint-disable-next-line @typescript-eslint/no-namespace
+  // eslint-disable-next-line @typescript-eslint/no-namespace -- Express declares its Request type in a global namespace; augmenting it needs one
   namespace Express {
     interface Request {
       /** The parsed, validated params, query and body (set by `validate`). */

@@ -1,11 +1,11 @@
-// Pickup coil model (COMPUTATION.md §4): the winding's DC resistance R in series with its
+// Pickup coil model (docs/computation.md §4): the winding's DC resistance R in series with its
 // inductance L, the self-capacitance C across the terminals and, optionally, a parallel loss
 // resistance Rp standing for eddy-current losses:
 //
 //     Z(ω) = ((R + jωL) ∥ 1/(jωC)) [∥ Rp]
 //
 // the lumped model used in the physics literature on magnetic pickups (e.g. D. Carson, UIUC senior
-// thesis 2009; F. T. Ban, Penn State; see reference/SOURCES.md §4–6).
+// thesis 2009; F. T. Ban, "Analysis of Electric Guitar Pickups", Penn State; docs/computation.md §4).
 //
 // The sweep is fitted by the engine's one least-squares path (./least-squares) on ln Z, i.e. on
 // ln|Z| (nepers) and the phase (radians) together with equal weights. Why equal: a measurement error
@@ -49,7 +49,7 @@ export interface CoilFit {
   /**
    * Q of the equivalent parallel resonator at ω0 = 1/√(LC): Q = R_par/(ω0·L), where
    * R_par = (L/(R·C)) ∥ Rp is the series branch's loss turned into a parallel resistance
-   * (L/(RC), the textbook series-to-parallel conversion at resonance) in parallel with Rp.
+   * (L/(RC), the series-to-parallel conversion at resonance: standard theory, derived here) in parallel with Rp.
    * Without Rp this is exactly ω0·L/R, the series branch's Q.
    */
   Q: number;
@@ -105,7 +105,7 @@ export function resonanceFrequency(L: number, C: number): number {
  * capacitance c1 across it, default 0: the coil alone) and at f2 with a known capacitance cx across
  * it. With f = 1/(2π√(L(C + C_added))): C = (f2²·cx − f1²·c1)/(f1² − f2²), which for c1 = 0 is
  * C = cx/((f1/f2)² − 1); then L = 1/(4π²·f1²·(C + c1)). Method: smeter.net, "Determining Coil
- * Distributed Capacitance" (2004); closed form derived (reference/worked-examples.txt, coil-cd-textbook).
+ * Distributed Capacitance" (2004); closed form derived here (tests/fixtures/examples/coil-self-capacitance.txt).
  */
 export function coilFromTwoResonances(input: { f1: number; f2: number; cx: number; c1?: number }): { C: number; L: number } {
   const { f1, f2, cx } = input;
@@ -179,7 +179,7 @@ function median(values: number[]): number {
   return s.length % 2 ? (s[mid] as number) : 0.5 * ((s[mid - 1] as number) + (s[mid] as number));
 }
 
-/** Starting values from the data (COMPUTATION.md §4). */
+/** Starting values from the data (docs/computation.md §4). */
 function startFromData(samples: Sample[]): { R: number; L: number; C: number; Rp: number; peakIndex: number } {
   let peakIndex = 0;
   samples.forEach((s, i) => {
@@ -499,10 +499,10 @@ export function fitCoil(input: CoilFitInput): CoilFit {
   };
 }
 
-// Thresholds against a part's spec (project choice, common practice, no published source):
+// Thresholds against a part's spec — project choice, common practice (no published source):
 // shorted turns when L is below nominal by more than max(3 × its tolerance, 20 %), or Q is below half
 // the spec's minimum; an open coil when the fit flagged it or R exceeds 1 MΩ (pickup windings are
-// a few kΩ to a few tens of kΩ — common practice).
+// a few kΩ to a few tens of kΩ — common practice (no published source)).
 const OPEN_R = 1e6;
 const SHORT_L_MIN_DROP_PCT = 20;
 

@@ -1,4 +1,4 @@
-// Taper comparison (DESIGN.md scenario 5): group statistics of fitted pots, mean curves with
+// Taper comparison (docs/screens.md, Compare): group statistics of fitted pots, mean curves with
 // spread envelopes on a common rotation grid, the loaded volume taper in dB through the harness
 // engine, and matching of pots whose loaded tapers track.
 //
@@ -8,7 +8,7 @@
 //   point outside a pot's measured rotation range gets no value (it is not extrapolated).
 // - The ±2σ envelope is mean ± 2·(sample SD) at each grid point, pointwise; with fewer than two
 //   curves at a point there is no SD and no ±2σ band.
-// - The loaded taper is the level at 1 kHz (COMPUTATION.md §6: LEVEL_FREQUENCY) of a small netlist:
+// - The loaded taper is the level at 1 kHz (docs/computation.md §6: LEVEL_FREQUENCY) of a small netlist:
 //   pickup → volume pot (lug 3 to the pickup's hot, wiper to the output, lug 1 to ground) → cable
 //   capacitance and amplifier input resistance from the output to ground, relative to full rotation.
 import { summaryStatistics, type SummaryStatistics } from './lot-stats';
@@ -285,7 +285,7 @@ export function dialAtLevel(dial: readonly number[], relativeDb: readonly number
  * volume control is practically off, and near the end stop the level falls towards −∞ where tiny
  * differences in end resistance make huge dB differences that nobody hears; clamping at the floor
  * keeps those out while a curve that crosses the floor earlier than the other is still counted up to
- * the floor. (−40 dB as "practically off": common practice, no published source.)
+ * the floor. (−40 dB as "practically off": common practice (no published source).)
  */
 export function taperDistanceDb(a: readonly number[], b: readonly number[], floorDb = -40): number {
   let worst = 0;

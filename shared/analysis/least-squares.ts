@@ -16,7 +16,8 @@
 // angle between the residual vector and the Jacobian's columns, as in MINPACK's gtol test: Moré,
 // Garbow, Hillstrom, "User Guide for MINPACK-1", ANL-80-74, 1980).
 // Covariance: σ²·(JᵀJ)⁻¹ with σ² = SSR/(n − p), the usual linearised estimate (the NIST StRD
-// certified standard deviations are computed this way: SOURCES.md §1 checked it to 2e-8).
+// certified standard deviations follow this estimate; tests/shared/analysis/nist-nonlinear.test.ts
+// compares them).
 import { levenbergMarquardt } from 'ml-levenberg-marquardt';
 
 export interface LeastSquaresProblem {

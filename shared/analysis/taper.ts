@@ -1,4 +1,4 @@
-// Potentiometer taper fit (COMPUTATION.md §3).
+// Potentiometer taper fit (docs/computation.md §3).
 //
 // Readings of the resistance from lug 1 to the wiper against rotation are normalised to
 // x = rotation fraction, y = R1W / R13 and compared with the four laws of shared/taper/law.ts
@@ -31,7 +31,7 @@ export interface TaperProfile {
 export interface TaperInput {
   points: TaperPoint[];
   rotationUnit: 'deg' | 'percent';
-  /** Full mechanical rotation in degrees; default 300 (common practice, no published source). */
+  /** Full mechanical rotation in degrees; default 300 — common practice (no published source). */
   fullRotationDeg?: number;
   /** R13 as measured, Ω. */
   total?: number;

@@ -1,4 +1,4 @@
-// What each role may do (DESIGN.md, Roles). The server's route map refers to these capabilities;
+// What each role may do (docs/domain.md, Roles). The server's route map refers to these capabilities;
 // the client uses the same table only to hide what a role cannot do.
 import type { Role } from '@shared/schemas/common';
 
@@ -22,7 +22,7 @@ export function roleCan(role: Role | null | undefined, capability: Capability): 
   return (CAPABILITIES[capability] as readonly Role[]).includes(role);
 }
 
-/** Where each role's day starts (DESIGN.md: techs to Bench, QA to Lots, viewers to Compare). */
+/** Where each role's day starts (docs/screens.md: techs to Bench, QA to Lots, viewers to Compare). */
 export const HOME_BY_ROLE: Record<Role, string> = {
   admin: '/bench',
   tech: '/bench',

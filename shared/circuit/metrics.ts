@@ -1,4 +1,4 @@
-// Figures of a harness response (COMPUTATION.md §6): the curve in dB and degrees, the resonant peak,
+// Figures of a harness response (docs/computation.md §6): the curve in dB and degrees, the resonant peak,
 // the corner above it, the level at 1 kHz, and over knob sweeps the volume taper, the treble
 // retention and an interaction index. Every figure at a named frequency (1 kHz, 200 Hz, 3 kHz) and
 // every refined peak or corner is computed with extra exact solves, not read off the curve.

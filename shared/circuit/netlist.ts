@@ -70,9 +70,9 @@ export interface PotPart {
 }
 
 /**
- * The pickup's lumped model (COMPUTATION.md §4): an EMF (1 V unless given) in series with R and L
+ * The pickup's lumped model (docs/computation.md §4): an EMF (1 V unless given) in series with R and L
  * from the cold to the hot terminal, C across the terminals and optionally a loss resistance Rp.
- * R must be positive; L and C may be 0 (an ideal resistive source, used by the textbook checks).
+ * R must be positive; L and C may be 0 (an ideal resistive source, used by the closed-form checks).
  */
 export interface PickupPart {
   kind: 'pickup';

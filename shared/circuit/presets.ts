@@ -1,4 +1,4 @@
-// Harness presets (COMPUTATION.md §6): the passive networks between a pickup and the amplifier that
+// Harness presets (docs/computation.md §6): the passive networks between a pickup and the amplifier that
 // the harness page offers, each a function from a flat set of part values to a netlist.
 //
 // Node names used by every preset: 'hot' (pickup hot = volume pot's input end), 'out' (volume
@@ -62,7 +62,7 @@ export type PickupValues = Pick<HarnessValues, 'pickupR' | 'pickupL' | 'pickupC'
 
 /**
  * Typical pickup values: common practice (no published source), from memory; the humbucker-like
- * figures are the ones COMPUTATION.md §6 uses for its cross-check.
+ * figures are the ones docs/computation.md §6 uses for its cross-check.
  */
 export const PICKUP_PRESETS: readonly { id: 'single-coil-like' | 'humbucker-like'; name: string; values: PickupValues }[] = [
   { id: 'single-coil-like', name: 'Single-coil-like pickup', values: { pickupR: 6e3, pickupL: 2.5, pickupC: 100e-12 } },
@@ -72,7 +72,7 @@ export const PICKUP_PRESETS: readonly { id: 'single-coil-like' | 'humbucker-like
 /**
  * Defaults of our own choosing. Pots: 500 kΩ with the exponential audio law at m = 0.15 (the
  * mid-rotation value B. Holmes 2017 calls "quite a good approximation of a log pot"; 500 kΩ audio
- * pots are common practice, no published source). Tone capacitor 22 nF, bleed 1 nF and 150 kΩ,
+ * pots are common practice (no published source)). Tone capacitor 22 nF, bleed 1 nF and 150 kΩ,
  * floor resistor 10 kΩ, second capacitor 10 nF: common practice (no published source). Cable 100 pF
  * per metre (Sound On Sound, "Guitar cables", Nov 2009: "around 30 picofarads per foot (or 100
  * picofarads per metre)") × 3 m; amplifier input 1 MΩ (Guitar World, "How impedance affects your
@@ -150,7 +150,7 @@ export const HARNESS_PRESETS: readonly HarnessPreset[] = [
   preset(
     'interactive-tone',
     'Interactive tone',
-    'As the independent tone, but the tone branch starts at the volume wiper (the output), so the volume setting changes what the tone control does and the other way round (the trade calls this "50s wiring").',
+    'As the independent tone, but the tone branch starts at the volume wiper (the output), so the volume setting changes what the tone control does and the other way round; the tone capacitor loads the output rather than the pickup.',
     (v) => plainTone(v, OUTPUT),
   ),
   preset(

@@ -1,4 +1,4 @@
-// A lot export (DESIGN.md "Lot"): one row per part — item, value, optionally a second reading
+// A lot export (docs/domain.md, "Lot"): one row per part — item, value, optionally a second reading
 // (dissipation factor or ESR) and the test frequency — up to 100,000 rows.
 //
 // Built for a server that streams the upload through papaparse rather than holding it whole:

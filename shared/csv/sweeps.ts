@@ -1,4 +1,4 @@
-// A sweep file (DESIGN.md "Sweep"): a pot's rotation sweep or a pickup's impedance sweep, read into
+// A sweep file (docs/domain.md, "Sweep"): a pot's rotation sweep or a pickup's impedance sweep, read into
 // the points the taper and coil fits take (shared/analysis/taper.ts, shared/analysis/coil.ts).
 //
 // Every problem is reported with its line and column, all of them (up to MAX_ISSUES, in line
@@ -7,7 +7,7 @@
 //   (see ./cell-number.ts); `12.5k` and `12k7` are refused.
 // - Rows may come in any order (a fixture sweeping back) and are sorted; a repeated rotation or
 //   frequency is an error, since the fits would weigh it twice and a repeat usually means a pasted block.
-// - Rotation: 0–100 % or 0–360° (single-turn pots; 300° is the usual travel — common practice).
+// - Rotation: 0–100 % or 0–360° — single-turn pots; 300° is the usual travel — common practice (no published source).
 //   A rotation column with no unit is read as degrees when any value exceeds 100, else as percent,
 //   and the result's notes say so.
 // - Resistance and wiper-to-lug-3 values must not be negative (zero is a real reading at the track's

@@ -7,7 +7,7 @@
 // older ones; orange and yellow are missing from older charts, yellow is ±5 % on some HV parts).
 // Forms: 3 bands (digit, digit, multiplier; no tolerance band = ±20 %), 4 bands (… tolerance),
 // 5 bands (three digits, multiplier, tolerance), 6 bands (… temperature coefficient), and one black
-// band for a zero-ohm link (common practice, no published source).
+// band for a zero-ohm link — common practice (no published source).
 
 import { MarkingError } from './tolerance-letters';
 

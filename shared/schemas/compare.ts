@@ -1,4 +1,4 @@
-// Bodies of the compare routes and saved comparisons (DESIGN.md scenario 5: taper study).
+// Bodies of the compare routes and saved comparisons (docs/screens.md, Compare: taper study).
 import { z } from 'zod';
 import { SiPositive } from './common';
 import { TaperClassSchema } from './parts';
@@ -62,7 +62,7 @@ export type CompareSettings = z.infer<typeof CompareSettingsSchema>;
 
 /**
  * Defaults: group by lot, min–max envelope, humbucker-like preset pickup, 3 m cable, 1 MΩ input
- * (the harness engine's defaults, COMPUTATION.md §6), pairs within 1 dB above −40 dB (common
+ * (the harness engine's defaults, docs/computation.md §6), pairs within 1 dB above −40 dB (common
  * practice, no published source).
  */
 export const DEFAULT_COMPARE_SETTINGS: CompareSettings = {

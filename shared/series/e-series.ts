@@ -34,7 +34,7 @@ export const E_SERIES: Readonly<Record<ESeriesName, readonly number[]>> = {
   ],
 };
 
-/** Tolerance usually paired with each series (reference SOURCES.md §2: read from the same library, not the standard). */
+/** Tolerance usually paired with each series (read in the same library and book appendix named in the source lines of tests/fixtures/iec/iec60063-*.txt, not in the standard). */
 export const E_SERIES_TOLERANCE_PCT: Readonly<Record<ESeriesName, number>> = {
   E6: 20,
   E12: 10,

@@ -15,7 +15,7 @@
 //    1 − (a^(1−x) − 1)/(a − 1) = (a − a^(1−x))/(a − 1), and dividing through by a gives the
 //    formula in b = 1/a, whose m is 1 − (1 − m) = m);
 //  - two-segment: two straight tracks meeting at (0.5, m), as many carbon audio tracks are made
-//    (common practice, no published source).
+//    — common practice (no published source).
 
 /** Every law, in the order the fit lists its candidates and the screens list their choices. */
 export const TAPER_LAWS = ['linear', 'audio', 'reverse', 'two-segment'] as const;

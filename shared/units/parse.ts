@@ -4,7 +4,7 @@
 // Prefix rules (decided here; the SI itself is case-sensitive, the trade is not):
 // - With an explicit unit the SI prefixes are read case-sensitively (SI Brochure, 9th ed., §3):
 //   `1mF`, `1mH`, `1mΩ` are milli, `1MΩ`, `1MHz` are mega. `k` and `K` both mean kilo, since
-//   `470K` is how resistors are written in the trade (common practice, no published source).
+//   `470K` is how resistors are written in the trade — common practice (no published source).
 // - `meg` (any case) is always mega, as in SPICE, and is the unambiguous way to write megohms.
 // - A bare `m` (no unit after it) is refused for resistance, ESR and capacitance, and when no
 //   quantity is given: in the trade `1m` on a resistor is often meant as 1 MΩ, while the SI says

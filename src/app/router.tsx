@@ -1,4 +1,4 @@
-// Every screen of DESIGN.md. To add a screen: write src/app/routes/<screen>.tsx exporting
+// Every screen of docs/screens.md. To add a screen: write src/app/routes/<screen>.tsx exporting
 // `Component` (and `makeLoader` to prefetch), add its path to src/config/paths.ts, list it below,
 // and give it a nav entry in src/config/nav.ts if it belongs in the menu.
 import type { QueryClient } from '@tanstack/react-query';

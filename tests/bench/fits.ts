@@ -1,4 +1,4 @@
-// Speed of the taper and coil fits (COMPUTATION.md §7), each beside a reference measured in the same
+// Speed of the taper and coil fits (docs/computation.md §7), each beside a reference measured in the same
 // run: a plain loop that evaluates the model once over the same points.
 import { fitCoil, coilImpedance, type CoilPoint } from '@shared/analysis/coil';
 import { fitTaper, type TaperPoint } from '@shared/analysis/taper';
@@ -34,7 +34,7 @@ function taperFigure(): BenchFigure {
 
 function coilFigure(): BenchFigure {
   const g = seededNormals(11);
-  const truth = { R: 8000, L: 4.4, C: 120e-12 }; // humbucker-like, common practice
+  const truth = { R: 8000, L: 4.4, C: 120e-12 }; // humbucker-like, common practice (no published source)
   const frequencies = Array.from({ length: 400 }, (_, i) => 10 * 10 ** ((4 * i) / 399));
   const points: CoilPoint[] = frequencies.map((frequency) => {
     const z = coilImpedance(truth, frequency);

@@ -1,4 +1,4 @@
-// Harness engine benchmark (COMPUTATION.md §7): for each preset, the 11 × 11 knob grid × 151
+// Harness engine benchmark (docs/computation.md §7): for each preset, the 11 × 11 knob grid × 151
 // frequencies through the engine (warm median) and through ngspice (warm, one netlist per knob
 // setting from the engine's SPICE export, `.ac dec 50 20 20k` = the same 151 points) in the same
 // run, the largest dB difference between the two grids, and one 151-point curve with its metrics.

@@ -1,6 +1,6 @@
 // A 100,000-row lot through the real HTTP route (multipart upload → streamed parse → one
 // transaction → statistics), beside a bare better-sqlite3 prepared insert of the same rows in one
-// transaction in the same process (COMPUTATION.md §7).
+// transaction in the same process (docs/computation.md §7).
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';

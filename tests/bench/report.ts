@@ -8,7 +8,7 @@ export interface BenchFigure {
   measured: string;
   /** The reference measured in the same run, e.g. "ngspice warm 180 ms (ratio 85×)". */
   reference: string;
-  /** The goal from COMPUTATION.md §7, e.g. "≤ 1 ms". */
+  /** The goal from docs/computation.md §7, e.g. "≤ 1 ms". */
   goal: string;
   met: boolean;
 }

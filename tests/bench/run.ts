@@ -1,4 +1,4 @@
-// `npm run bench`: every speed figure of COMPUTATION.md §7 beside its reference, measured in this run.
+// `npm run bench`: every speed figure of docs/computation.md §7 beside its reference, measured in this run.
 import { bench as fits } from './fits';
 import { bench as harness } from './harness';
 import { bench as listen } from './listen';

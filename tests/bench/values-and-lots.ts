@@ -1,4 +1,4 @@
-// Speed of lot statistics and value parsing (COMPUTATION.md §5 and §7). Each figure is printed
+// Speed of lot statistics and value parsing (docs/computation.md §5 and §7). Each figure is printed
 // beside a reference measured in the same run: a plain Float64Array sort of the same 100 000
 // values, the one n log n step the statistics cannot avoid.
 import { lotStatistics } from '@shared/analysis/lot-stats';
@@ -53,14 +53,14 @@ export async function bench(): Promise<BenchFigure[]> {
       name: 'lot statistics with matched pairs within 0.1 %, 100 000 readings',
       measured: ms(tMatch),
       reference: `plain Float64Array sort ${ms(sortRef)} (ratio ${(tMatch / sortRef).toFixed(2)}×)`,
-      goal: '≤ 1 s (COMPUTATION.md §5: well under a second)',
+      goal: '≤ 1 s (docs/computation.md §5: well under a second)',
       met: tMatch <= 1000,
     },
     {
       name: 'parseValue, 100 000 engineering-notation strings (a lot typed with units)',
       measured: ms(tParse),
       reference: `Number() on 100 000 plain decimal strings ${ms(tNumber)} (ratio ${(tParse / tNumber).toFixed(1)}×)`,
-      goal: '≤ 250 ms (chosen here: a quarter of the 1 s lot budget of COMPUTATION.md §7)',
+      goal: '≤ 250 ms (chosen here: a quarter of the 1 s lot budget of docs/computation.md §7)',
       met: tParse <= 250,
     },
   ];

@@ -1,6 +1,6 @@
 import { chromium, type Browser, type Page } from 'playwright-core';
 
-/** Debian's Chromium, never a downloaded browser (../shared/STACK-NOTES.md). */
+/** Debian's Chromium, never a downloaded browser (DEVELOPERS.md, Set-up). */
 export function launchBrowser(): Promise<Browser> {
   return chromium.launch({
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',

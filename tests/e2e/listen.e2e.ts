@@ -9,11 +9,18 @@ import path from 'node:path';
 import { build } from 'esbuild';
 import { chromium, type Browser, type Page } from 'playwright-core';
 import { afterAll, beforeAll, expect, inject, test } from 'vitest';
+import type { harnessResponse, impulseResponse } from '@shared/audio/impulse';
 import { synthesizePhrase } from '@shared/audio/phrase';
 import { simulate } from '@shared/circuit/metrics';
 import { getPreset } from '@shared/circuit/presets';
 import { welchPsd } from '../support/welch';
 import { signIn } from './browser';
+
+/** What the page holds after the bundle and the helper script (types only: the functions run in Chromium). */
+interface PageGlobals {
+  lugbookAudio: { harnessResponse: typeof harnessResponse; impulseResponse: typeof impulseResponse; synthesizePhrase: typeof synthesizePhrase; getPreset: typeof getPreset; seededNormals: (seed: number) => () => number };
+  f32ToBase64: (x: Float32Array) => string;
+}
 
 const baseUrl = inject('baseUrl');
 const password = inject('demoPassword');
@@ -57,8 +64,8 @@ test('the phrase generator gives the same samples in Chromium as in Node (within
     const browserTracks = (
       await page.evaluate(
         ({ sampleRate, positions }) => {
-          const g = globalThis as any;
-          return g.lugbookAudio.synthesizePhrase({ sampleRate, pickupPositions: positions }).tracks.map((t: Float32Array) => g.f32ToBase64(t)) as string[];
+          const g = globalThis as unknown as PageGlobals;
+          return g.lugbookAudio.synthesizePhrase({ sampleRate, pickupPositions: positions }).tracks.map((t) => g.f32ToBase64(t));
         },
         { sampleRate, positions: [...positions] },
       )
@@ -86,8 +93,8 @@ test('white noise through the shared impulse response in an OfflineAudioContext:
   for (const c of cases) {
     const { input, output, delay } = await page.evaluate(
       async ({ fs, c }) => {
-        const a = (globalThis as any).lugbookAudio;
-        const preset = a.getPreset(c.preset);
+        const a = (globalThis as unknown as PageGlobals).lugbookAudio;
+        const preset = a.getPreset(c.preset)!;
         const ir = a.impulseResponse(a.harnessResponse(preset.build(preset.defaults), c.knobs), fs);
         const frames = fs * 8;
         const ctx = new OfflineAudioContext(1, frames, fs);
@@ -103,8 +110,8 @@ test('white noise through the shared impulse response in an OfflineAudioContext:
         node.connect(conv).connect(ctx.destination);
         node.start();
         const rendered = await ctx.startRendering();
-        const g2 = globalThis as any;
-        return { input: g2.f32ToBase64(noise) as string, output: g2.f32ToBase64(rendered.getChannelData(0)) as string, delay: ir.delay as number };
+        const g2 = globalThis as unknown as PageGlobals;
+        return { input: g2.f32ToBase64(noise), output: g2.f32ToBase64(rendered.getChannelData(0)), delay: ir.delay };
       },
       { fs, c },
     );

@@ -92,7 +92,7 @@ describe('taper comparison', () => {
     const fit = sweeps[0].fit.result;
     expect(a1.fit.m).toBe(fit.m);
     expect(a1.fit.total).toBe(fit.total);
-    // y = R1W / R13 with the fit's total; x = rotation fraction (stored sweep points, COMPUTATION.md §3).
+    // y = R1W / R13 with the fit's total; x = rotation fraction (stored sweep points, docs/computation.md §3).
     sweeps[0].points.forEach((p: { rotation: number; resistance: number }, i: number) => {
       expect(a1.curve.x[i]).toBeCloseTo(p.rotation / 100, 12);
       expect(a1.curve.y[i]).toBeCloseTo(p.resistance / fit.total, 12);

@@ -1,5 +1,7 @@
-// The import boundaries of CONVENTIONS.md: shared/ imports neither server/ nor src/; server/ and
-// src/ never import each other; client features do not import each other. Run by `npm run lint`
+// The import boundaries DEVELOPERS.md states ("Layout"): shared/ imports neither server/ nor src/
+// (nor Node, DOM or server packages); server/ and src/ never import each other; client features do
+// not import each other; src/components and src/lib import neither features nor app; features do
+// not import app; a server feature never imports another feature's router. Run by `npm run lint`
 // and by tests/architecture.test.ts.
 import fs from 'node:fs';
 import path from 'node:path';
@@ -28,6 +30,28 @@ function resolveSpecifier(file: string, spec: string): string | null {
 
 const NODE_OR_DOM_IN_SHARED = /^(node:|fs$|path$|crypto$|better-sqlite3|express|drizzle-orm|react)/;
 
+/** Inside src/: components and lib below features, features below app, features apart. */
+export function clientLayerViolations(file: string, target: string, spec: string): string[] {
+  const problems: string[] = [];
+  const norm = (p: string) => p.split(path.sep).join('/');
+  const [from, to] = [norm(file), norm(target)];
+  const feature = from.match(/^src\/features\/([^/]+)\//)?.[1];
+  const targetFeature = to.match(/^src\/features\/([^/]+)(\/|$)/)?.[1];
+  const targetIsApp = /^src\/app(\/|$)/.test(to);
+  if (feature && targetFeature && feature !== targetFeature) problems.push(`${file}: feature ${feature} imports feature ${targetFeature}`);
+  if (/^src\/(components|lib)\//.test(from) && (targetFeature || targetIsApp)) problems.push(`${file}: shared client code imports ${targetIsApp ? 'app' : `feature ${targetFeature}`} (${spec})`);
+  if (feature && targetIsApp) problems.push(`${file}: feature ${feature} imports app (${spec})`);
+  return problems;
+}
+
+/** Inside server/: a feature may use another feature's repository or service, never its router. */
+export function serverFeatureViolations(file: string, target: string, spec: string): string[] {
+  const norm = (p: string) => p.split(path.sep).join('/');
+  const feature = norm(file).match(/^server\/features\/([^/]+)\//)?.[1];
+  const routerOf = norm(target).match(/^server\/features\/([^/]+)\/router(\.ts)?$/)?.[1];
+  return feature && routerOf && routerOf !== feature ? [`${file}: server feature ${feature} imports the router of ${routerOf} (${spec})`] : [];
+}
+
 export function importViolations(): string[] {
   const problems: string[] = [];
   for (const top of ['shared', 'server', 'src']) {
@@ -42,9 +66,7 @@ export function importViolations(): string[] {
         if (top === 'shared' && targetTop !== 'shared') problems.push(`${file}: shared/ imports ${spec}`);
         if (top === 'server' && targetTop === 'src') problems.push(`${file}: server/ imports the client (${spec})`);
         if (top === 'src' && targetTop === 'server') problems.push(`${file}: the client imports server/ (${spec})`);
-        const feature = file.match(/^src\/features\/([^/]+)\//)?.[1];
-        const targetFeature = target.match(/^src\/features\/([^/]+)\//)?.[1];
-        if (feature && targetFeature && feature !== targetFeature) problems.push(`${file}: feature ${feature} imports feature ${targetFeature}`);
+        problems.push(...clientLayerViolations(file, target, spec), ...serverFeatureViolations(file, target, spec));
       }
     }
   }

@@ -1,4 +1,4 @@
-// Compare (DESIGN.md scenario 5): taper overlays of selected pots with group statistics, and saved
+// Compare (docs/screens.md, Compare): taper overlays of selected pots with group statistics, and saved
 // comparisons (a named selection with its settings) that anyone can open and export and the
 // owner (or qa/admin) can change.
 import { desc, eq } from 'drizzle-orm';

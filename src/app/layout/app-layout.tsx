@@ -1,4 +1,4 @@
-import { useEffect, useState } from 'react';
+import { useState } from 'react';
 import { Navigate, NavLink, Outlet, useLocation, useNavigation } from 'react-router-dom';
 import { roleCan } from '@shared/auth/capabilities';
 import type { User } from '@shared/schemas/auth';
@@ -64,9 +64,10 @@ export function AppLayout() {
   const location = useLocation();
   const navigation = useNavigation();
   const signOut = useSignOut();
-  const [menuOpen, setMenuOpen] = useState(false);
-
-  useEffect(() => setMenuOpen(false), [location.pathname]);
+  // The menu is open on the page where it was opened: moving to another page closes it.
+  const [menuOpenOn, setMenuOpenOn] = useState<string | null>(null);
+  const menuOpen = menuOpenOn === location.pathname;
+  const setMenuOpen = (open: boolean) => setMenuOpenOn(open ? location.pathname : null);
 
   if (me.isPending) return <Loading what="Opening Lugbook" />;
   const user = me.data?.user ?? null;
@@ -116,7 +117,7 @@ export function AppLayout() {
               type="button"
               aria-expanded={menuOpen}
               aria-controls="mobile-nav"
-              onClick={() => setMenuOpen((o) => !o)}
+              onClick={() => setMenuOpen(!menuOpen)}
               className="inline-flex min-h-11 items-center gap-2 rounded-md border border-paper-edge bg-paper-bright px-3 text-sm font-medium"
             >
               <svg viewBox="0 0 16 16" className="size-4" aria-hidden="true">

@@ -1,6 +1,6 @@
 // One uPlot chart that follows its container's width. Every plot in Lugbook goes through this
 // component, so axes, fonts, colours and the PNG export look the same everywhere.
-import { useEffect, useRef } from 'react';
+import { useEffect, useLayoutEffect, useRef } from 'react';
 import uPlot, { type AlignedData, type Options } from 'uplot';
 import 'uplot/dist/uPlot.min.css';
 
@@ -19,7 +19,10 @@ export function Plot({ options, data, label, className, onReady }: PlotProps) {
   const host = useRef<HTMLDivElement>(null);
   const plot = useRef<uPlot | null>(null);
   const readyRef = useRef(onReady);
-  readyRef.current = onReady;
+  // The latest callback, stored after each render (layout effects run before the effect below).
+  useLayoutEffect(() => {
+    readyRef.current = onReady;
+  });
 
   // Rebuild when the options change (series, scales); data alone is set in place below.
   useEffect(() => {
@@ -40,7 +43,7 @@ export function Plot({ options, data, label, className, onReady }: PlotProps) {
       plot.current = null;
       readyRef.current?.(null);
     };
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- data is set in place by the next effect; a rebuild per data change would lose zoom and cursor
   }, [options]);
 
   useEffect(() => {

@@ -1,6 +1,7 @@
 // The reading form of the Bench and the part page: quantity, value in engineering notation, test
 // frequency, instrument. The verdict is computed in the browser as the user types (the same
 // judgeReading the server uses), and the server's stored verdict is shown after saving.
+import { EsrDischargeNote } from '@/components/safety/safety-notes';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { forwardRef, useImperativeHandle, useMemo, useState } from 'react';
 import { useForm } from 'react-hook-form';
@@ -144,6 +145,7 @@ export const ReadingForm = forwardRef<ReadingFormHandle, ReadingFormProps>(funct
             </option>
           ))}
         </SelectField>
+        {quantity === 'esr' && <EsrDischargeNote className="sm:col-span-2" />}
         <TextField
           label={`Value${QUANTITY_UNIT[quantity] ? ` (${QUANTITY_UNIT[quantity]})` : ''}`}
           autoComplete="off"

@@ -1,5 +1,5 @@
 // Verdicts and part statuses always show a word and an icon as well as a colour, so they read the
-// same in greyscale, in print and for colour-blind users (DESIGN.md).
+// same in greyscale, in print and for colour-blind users.
 import type { PartStatus, Verdict } from '@shared/schemas/common';
 
 export type BadgeTone = 'pass' | 'fail' | 'marginal' | 'accent' | 'neutral';

@@ -1,5 +1,5 @@
 // Guards the silent data-loss trap of drizzle-kit table rebuilds on SQLite (drizzle-orm issues
-// #5782 and #4938, ../shared/STACK-NOTES.md): a rebuild's `PRAGMA foreign_keys=OFF` is ignored
+// #5782 and #4938; decision in DEVELOPERS.md, "Database and migrations"): a rebuild's `PRAGMA foreign_keys=OFF` is ignored
 // inside the migrator's transaction, so its DROP TABLE would cascade-delete child rows.
 import fs from 'node:fs';
 import os from 'node:os';

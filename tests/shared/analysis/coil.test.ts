@@ -1,6 +1,6 @@
 // Coil model and fit, checked against ngspice's AC analysis (the reference simulator, npm
 // `eecircuit-engine`, through tests/support/ngspice.ts) and the worked examples of
-// /work/shared/reference/worked-examples.txt (values copied beside each check).
+// tests/fixtures/examples/ (lc-resonance.txt, coil-self-capacitance.txt; values copied beside each check).
 import { beforeAll, describe, expect, it } from 'vitest';
 import { Ngspice } from '../../support/ngspice';
 import { seededNormals } from '@shared/random/seeded';
@@ -78,7 +78,7 @@ describe('fitCoil on ngspice sweeps', () => {
     expect(rel(fit.L, SINGLE.L)).toBeLessThan(1e-3);
     expect(rel(fit.C, SINGLE.C)).toBeLessThan(1e-3);
     expect(fit.Rp).toBeNull();
-    // f0 = 1/(2π√(LC)) of the true values (textbook formula)
+    // f0 = 1/(2π√(LC)) of the true values (standard theory)
     expect(rel(fit.f0, 1 / (2 * Math.PI * Math.sqrt(SINGLE.L * SINGLE.C)))).toBeLessThan(1e-3);
     // Q of the series branch ω0·L/R for this model without Rp
     expect(rel(fit.Q, (2 * Math.PI * fit.f0 * SINGLE.L) / SINGLE.R)).toBeLessThan(1e-3);
@@ -98,7 +98,7 @@ describe('fitCoil on ngspice sweeps', () => {
     }
   });
 
-  it('Q agrees with the half-power bandwidth of the ngspice peak (Q ≈ f0/Δf for a high-Q resonator, textbook)', async () => {
+  it('Q agrees with the half-power bandwidth of the ngspice peak (Q ≈ f0/Δf for a high-Q resonator, standard theory)', async () => {
     const fit = fitCoil({ points: await sweep(SINGLE) });
     const r = await ng.runAc(['* peak', 'I1 0 out DC 0 AC 1', `R1 out a ${SINGLE.R}`, `L1 a 0 ${SINGLE.L}`, `C1 out 0 ${SINGLE.C}`, '.ac lin 40001 8k 12k', '.end'].join('\n'));
     const mags = (r.nodes.out ?? []).map((z) => Math.hypot(z.re, z.im));
@@ -164,13 +164,13 @@ describe('fitCoil on ngspice sweeps', () => {
 });
 
 describe('resonance and LCR readings', () => {
-  it('f0 = 1/(2π√(LC)) matches the worked examples resonance-1 and resonance-2 (DERIVED, textbook formula)', () => {
+  it('f0 = 1/(2π√(LC)) matches lc-resonance.txt rows resonance-1 and resonance-2 (standard theory, derived there)', () => {
     expect(resonanceFrequency(2.4, 300e-12)).toBeCloseTo(5931, 0); // L = 2.4 H, C = 300 pF → 5931 Hz
     expect(resonanceFrequency(2.4, 2.4e-9)).toBeCloseTo(2097, 0); // L = 2.4 H, C = 2.4 nF → 2097 Hz
   });
 
-  it('two resonances: worked example coil-cd-textbook (2 MHz with 18 pF, 1 MHz with 81 pF → 3 pF, 301.55 µH, 5.2915 MHz)', () => {
-    // inputs READ (gradestack solved problem), results DERIVED in worked-examples.txt
+  it('two resonances: coil-self-capacitance.txt row coil-cd-two-resonances (2 MHz with 18 pF, 1 MHz with 81 pF → 3 pF, 301.55 µH, 5.2915 MHz)', () => {
+    // inputs READ (gradestack solved problem), results DERIVED: coil-self-capacitance.txt
     const { C, L } = coilFromTwoResonances({ f1: 2e6, c1: 18e-12, f2: 1e6, cx: 81e-12 });
     expect(C).toBeCloseTo(3e-12, 18);
     expect(L * 1e6).toBeCloseTo(301.55, 2);

@@ -14,8 +14,8 @@ function lot(n: number, seed: number, nominal = 500e3, spreadPct = 5): Float64Ar
 
 describe('Cp and Cpk (NIST/SEMATECH e-Handbook §6.1.6)', () => {
   it('the handbook example USL = 20, LSL = 8, x̄ = 16, s = 2 gives Cp = 1, Cpk = 2/3', () => {
-    // Example numbers SECONDHAND (a public test file quoting the handbook; see
-    // reference/worked-examples.txt row capability-nist); re-derived here: Cpu = 4/6, Cpl = 8/6.
+    // Example numbers SECONDHAND (a public known-answer test module quoting the handbook, named in
+    // tests/fixtures/examples/process-capability.txt); re-derived here: Cpu = 4/6, Cpl = 8/6.
     // Data 14, 16, 18 have mean 16 and sample SD 2 exactly; nominal 14 ± 300/7 % gives 8 … 20.
     const r = lotStatistics({ values: [14, 16, 18], nominal: 14, tolerancePct: 300 / 7 });
     expect(r.mean).toBe(16);

@@ -92,7 +92,7 @@ function fitSet(name: string, start: 1 | 2) {
 // every certified standard deviation and the residual sum of squares.
 const SIX_DIGITS = 1e-6;
 
-// Required (COMPUTATION.md §1 of the checks): lower and average difficulty, from both starts.
+// Required (docs/computation.md §1 of the checks): lower and average difficulty, from both starts.
 // Stretch sets (higher difficulty) listed here are the ones this path reaches; Eckerle4 from
 // start 1 does not (see the report) and is not listed.
 const cases: [string, 1 | 2][] = [

@@ -5,7 +5,7 @@ import { taperLawValue, type TaperLawKind } from '@shared/taper/law';
 import { seededNormals } from '@shared/random/seeded';
 
 // Check values of the exponential ("log") law y = (b^x − 1)/(b − 1), b = (1/y_m − 1)², copied from
-// /work/shared/reference/worked-examples.txt (lines pot-exp-10, -15, -20, -85). Source of the law:
+// tests/fixtures/examples/pot-laws.txt (rows pot-exp-10, -15, -20, -85). Source of the law:
 // B. Holmes, "Modelling logarithmic potentiometer laws", 2017 (READ); the numbers are DERIVED there.
 const HOLMES_CHECKS: { m: number; at: [number, number][] }[] = [
   { m: 0.1, at: [[0.25, 0.025], [0.5, 0.1], [0.75, 0.325]] },
@@ -37,7 +37,7 @@ describe('taperLawValue', () => {
     expect(10_000 * taperLawValue('audio', 0.1, 0.5)).toBeCloseTo(1000, 9);
   });
 
-  it('reverse audio is 1 − f(1 − x) of the audio law with mid value 1 − m (COMPUTATION.md §3)', () => {
+  it('reverse audio is 1 − f(1 − x) of the audio law with mid value 1 − m (docs/computation.md §3)', () => {
     for (const m of [0.6, 0.75, 0.85, 0.9]) {
       for (const x of [0, 0.1, 0.33, 0.5, 0.8, 1]) {
         expect(taperLawValue('reverse', m, x)).toBeCloseTo(1 - taperLawValue('audio', 1 - m, 1 - x), 12);

@@ -1,9 +1,9 @@
-// The behaviours COMPUTATION.md §6 lists as facts of the trade — common practice (no published
-// source) — each as its own test, plus the figures §6 quotes from the project's own independent
-// check (a small numpy solver; typical values: 4.4 H / 8 kΩ / 120 pF coil, 500 kΩ audio pots,
-// 22 nF, 300 pF cable, 1 MΩ). §6 does not give the pot law or the bleed parts; with pots of the
+// The behaviours docs/computation.md §6 lists as facts of the trade — common practice (no published
+// source) — each as its own test, plus the figures of an independent re-computation
+// (tests/fixtures/examples/harness-behaviours.txt: a small numpy solver; typical values: 4.4 H /
+// 8 kΩ / 120 pF coil, 500 kΩ audio pots, 22 nF, 300 pF cable, 1 MΩ). It does not give the pot law or the bleed parts; with pots of the
 // exponential law at m = 0.10 (B. Holmes 2017; 10 % at mid-rotation) and a 1 nF / 150 kΩ bleed
-// (common practice, no published source) all five treble-retention figures are met to within
+// — common practice (no published source) all five treble-retention figures are met to within
 // 0.2 dB, so those are the values used here. The values are this file's, not the presets' defaults.
 import { describe, expect, it } from 'vitest';
 import { DEFAULT_HARNESS_VALUES, getPreset, type HarnessPresetId, type HarnessValues } from '@shared/circuit/presets';
@@ -45,11 +45,11 @@ const capBleed = sweep('bleed-cap');
 const parallelBleed = sweep('bleed-cap-parallel-r');
 const seriesBleed = sweep('bleed-cap-series-r');
 
-describe('behaviours of the trade (common practice, no published source)', () => {
+describe('behaviours of the trade — common practice (no published source)', () => {
   it('independent tone: rolling the volume down loses treble', () => {
     const r = retention(independent);
     for (let i = 0; i < VOLUMES.length - 1; i++) expect(r[i]!).toBeLessThan(-0.5);
-    // COMPUTATION.md §6 figure: about −3.8 dB at volume 5
+    // harness-behaviours.txt figure: about −3.8 dB at volume 5
     expect(at5(r)).toBeCloseTo(-3.8, 0);
     expect(Math.abs(at5(r) - -3.8)).toBeLessThan(0.2);
   });
@@ -57,7 +57,7 @@ describe('behaviours of the trade (common practice, no published source)', () =>
   it('a capacitor-only treble bleed is brighter than full volume as the volume goes down', () => {
     const r = retention(capBleed);
     for (let i = 1; i < VOLUMES.length - 1; i++) expect(r[i]!).toBeGreaterThan(1);
-    // §6: about +11 dB at volume 5
+    // harness-behaviours.txt: about +11 dB at volume 5
     expect(Math.abs(at5(r) - 11)).toBeLessThan(0.5);
   });
 
@@ -67,7 +67,7 @@ describe('behaviours of the trade (common practice, no published source)', () =>
     const zeros = VOLUMES.map(() => 0);
     expect(rms(par, zeros)).toBeLessThan(rms(cap, zeros) / 3);
     for (let i = 1; i < VOLUMES.length - 1; i++) expect(Math.abs(par[i]!)).toBeLessThan(Math.abs(cap[i]!));
-    // §6: about +0.9 dB at volume 5
+    // harness-behaviours.txt: about +0.9 dB at volume 5
     expect(Math.abs(at5(par) - 0.9)).toBeLessThan(0.2);
   });
 
@@ -76,7 +76,7 @@ describe('behaviours of the trade (common practice, no published source)', () =>
     const dSeries = rms(taper(seriesBleed), bare);
     const dParallel = rms(taper(parallelBleed), bare);
     expect(dSeries).toBeLessThan(dParallel);
-    // and it still keeps some treble: §6 gives about +3 dB at volume 5
+    // and it still keeps some treble: harness-behaviours.txt gives about +3 dB at volume 5
     expect(Math.abs(at5(retention(seriesBleed)) - 3)).toBeLessThan(0.5);
   });
 
@@ -84,7 +84,7 @@ describe('behaviours of the trade (common practice, no published source)', () =>
     const ind = retention(independent);
     const int = retention(interactive);
     for (let i = 0; i < VOLUMES.length - 1; i++) expect(int[i]!).toBeGreaterThan(ind[i]!);
-    // §6: about −3.2 dB at volume 5 (against −3.8 dB independent)
+    // harness-behaviours.txt: about −3.2 dB at volume 5 (against −3.8 dB independent)
     expect(Math.abs(at5(int) - -3.2)).toBeLessThan(0.2);
   });
 
@@ -113,8 +113,8 @@ describe('behaviours of the trade (common practice, no published source)', () =>
     const plain = simulate(net('independent-tone'), { volume: 10, tone: 0 }).metrics.cornerHz!;
     const dual = simulate(net('dual-cap-tone'), { volume: 10, tone: 0 }).metrics.cornerHz!;
     expect(dual).toBeGreaterThan(1.5 * plain);
-    // §6: corner near 1.3 kHz against 0.75 kHz for the plain branch (corner = −3 dB below the
-    // low-frequency level). The second capacitor's value is not given in §6; 10 nF is our choice.
+    // harness-behaviours.txt: corner near 1.3 kHz against 0.75 kHz for the plain branch (corner = −3 dB below the
+    // low-frequency level). The second capacitor's value is not given there; 10 nF is our choice.
     expect(Math.abs(dual - 1300) / 1300).toBeLessThan(0.05);
     expect(Math.abs(plain - 750) / 750).toBeLessThan(0.03);
   });

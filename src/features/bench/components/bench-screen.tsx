@@ -8,7 +8,7 @@ import type { Part } from '@shared/schemas/parts';
 import { useInstruments, useProfiles } from '@/components/readings/api';
 import { chooseProfile } from '@shared/analysis/profile-match';
 import { ReadingForm } from '@/components/readings/reading-form';
-import { SafetyNote } from '@/components/readings/safety-note';
+import { BenchSafetyNote } from '@/components/safety/safety-notes';
 import { Alert, Loading } from '@/components/ui/alert';
 import { StatusBadge } from '@/components/ui/badge';
 import { Button } from '@/components/ui/button';
@@ -146,6 +146,8 @@ export function BenchScreen() {
                 <Alert>{(profiles.error ?? instruments.error)?.message}</Alert>
               ) : (
                 <div
+                  // Catches Escape bubbling from the reading form's fields (back to the part search).
+                  role="presentation"
                   onKeyDown={(e) => {
                     if (e.key === 'Escape') {
                       e.preventDefault();
@@ -167,7 +169,7 @@ export function BenchScreen() {
             </Panel>
           )}
         </div>
-        <SafetyNote className="self-start" />
+        <BenchSafetyNote className="self-start" />
       </div>
 
       <Panel id="bench-recent" title="Recent readings" className="mt-6">

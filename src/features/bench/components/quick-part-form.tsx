@@ -57,7 +57,9 @@ export function QuickPartForm({ label, onCreated, onCancel }: { label: string; o
   });
 
   return (
-    <form onSubmit={onSubmit} noValidate aria-labelledby="quick-part-heading" className="space-y-3" onKeyDown={(e) => e.key === 'Escape' && onCancel()}>
+    // Escape from any field cancels: the wrapper only catches the keys its fields let bubble.
+    <div role="presentation" onKeyDown={(e) => e.key === 'Escape' && onCancel()}>
+    <form onSubmit={onSubmit} noValidate aria-labelledby="quick-part-heading" className="space-y-3">
       <h3 id="quick-part-heading" className="text-sm font-semibold">
         New part
       </h3>
@@ -99,5 +101,6 @@ export function QuickPartForm({ label, onCreated, onCancel }: { label: string; o
         <Button onClick={onCancel}>Cancel</Button>
       </div>
     </form>
+    </div>
   );
 }

@@ -1,4 +1,4 @@
-// Compare (DESIGN.md scenario 5): "how do the pots of these lots really behave, and what does the
+// Compare (docs/screens.md, Compare): "how do the pots of these lots really behave, and what does the
 // player hear?" Opens on every pot with a sweep, grouped by lot, so the study starts at once.
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
@@ -70,7 +70,7 @@ export function CompareScreen() {
   const pickup = pickupModel(settings.pickup, candidates.data?.pickups ?? []);
   const loaded = useMemo(
     () => (data && pickup ? loadedTapers(data.pots, pickup.model, settings) : []),
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- the pickup enters by its four model values, so an equal model fetched again does not recompute
     [data, pickup?.model.R, pickup?.model.L, pickup?.model.C, pickup?.model.Rp, settings.cableLength, settings.ampR],
   );
 

@@ -111,12 +111,13 @@ export function LoadedChart({ loaded, colours, pickupName }: { loaded: PotLoaded
       series.push({ label: `${db} dB`, stroke: GUIDE, width: 1, dash: [2, 4], points: { show: false } });
       columns.push(x.map(() => db));
     }
-    let focused = -1;
+    // The series uPlot's cursor focus is on, -1 for none; an object the chart hooks update.
+    const focus = { series: -1 };
     const update = (u: uPlot) => {
       const idx = u.cursor.idx;
-      if (idx === null || idx === undefined || focused < 1 || focused > loaded.length) return setReadout(null);
-      const v = u.data[focused]?.[idx];
-      setReadout(v === null || v === undefined ? null : `${String(u.series[focused]!.label)} · volume ${u.data[0][idx]!.toFixed(1)} · ${v.toFixed(1)} dB`);
+      if (idx === null || idx === undefined || focus.series < 1 || focus.series > loaded.length) return setReadout(null);
+      const v = u.data[focus.series]?.[idx];
+      setReadout(v === null || v === undefined ? null : `${String(u.series[focus.series]!.label)} · volume ${u.data[0][idx]!.toFixed(1)} · ${v.toFixed(1)} dB`);
     };
     const opts: Omit<Options, 'width' | 'height'> & { height?: number } = {
       height: 340,
@@ -131,7 +132,7 @@ export function LoadedChart({ loaded, colours, pickupName }: { loaded: PotLoaded
         setSeries: [
           (u, sidx, o) => {
             const f = (o as { focus?: boolean } | undefined)?.focus;
-            if (f !== undefined) focused = f && sidx !== null ? sidx : -1;
+            if (f !== undefined) focus.series = f && sidx !== null ? sidx : -1;
             update(u);
           },
         ],

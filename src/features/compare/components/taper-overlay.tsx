@@ -73,20 +73,21 @@ export function TaperOverlay({ data, colours, envelope }: { data: CompareTapersR
         setSeries: [
           (u, sidx, opts) => {
             const f = (opts as { focus?: boolean } | undefined)?.focus;
-            if (f !== undefined) focused = f && sidx !== null ? sidx : -1;
+            if (f !== undefined) focus.series = f && sidx !== null ? sidx : -1;
             updateReadout(u);
           },
         ],
       },
     };
-    // The series uPlot's cursor focus is on (the curve nearest the pointer), -1 for none.
-    let focused = -1;
+    // The series uPlot's cursor focus is on (the curve nearest the pointer), -1 for none; an
+    // object the chart hooks update.
+    const focus = { series: -1 };
     function updateReadout(u: uPlot) {
       const idx = u.cursor.idx;
-      if (idx === null || idx === undefined || focused < 1) return setReadout(null);
-      const v = u.data[focused]?.[idx];
+      if (idx === null || idx === undefined || focus.series < 1) return setReadout(null);
+      const v = u.data[focus.series]?.[idx];
       if (v === null || v === undefined) return setReadout(null);
-      setReadout({ series: String(u.series[focused]!.label), rotation: u.data[0][idx]!, value: v });
+      setReadout({ series: String(u.series[focus.series]!.label), rotation: u.data[0][idx]!, value: v });
     }
     return { options: opts, aligned: [x, ...columns] as AlignedData };
   }, [data, colours, envelope, references]);

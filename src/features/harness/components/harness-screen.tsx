@@ -1,6 +1,7 @@
 // The Harness screen: choose a wiring, set its part values (typed or measured), turn the knobs and
 // see the predicted response at once, with the volume taper, the treble retention, A/B comparison,
 // saved designs and downloads. All curves are computed in the browser with the shared engine.
+import { HarnessSafetyNote } from '@/components/safety/safety-notes';
 import { useCallback, useMemo, useReducer, useRef, useState } from 'react';
 import type uPlot from 'uplot';
 import { gridCurve } from '@shared/circuit/metrics';
@@ -139,6 +140,7 @@ export function HarnessScreen() {
           </>
         }
       />
+      <HarnessSafetyNote className="mb-4" />
       {netlist.isError && (
         <div className="mb-4">
           <Alert title="The netlist could not be written">{netlist.error.message}</Alert>

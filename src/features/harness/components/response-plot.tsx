@@ -62,7 +62,7 @@ export function ResponsePlot({
       ],
     }),
     // Rebuilt only when the set of curves changes, not with the numbers in them.
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- the curves enter through familyKey and their labels; numbers change the data, not the options
     [familyKey, current.label, pinned?.label, height],
   );
   const data = useMemo(

@@ -31,10 +31,10 @@ export function SweepPlot({
   height?: number;
 }) {
   const markerRef = useRef(marker);
-  markerRef.current = marker;
   const plotRef = useRef<uPlot | null>(null);
   // The marker moves with the volume knob while the curves (which depend on the tone) stay put.
   useEffect(() => {
+    markerRef.current = marker;
     plotRef.current?.redraw(false, false);
   }, [marker]);
   const key = series.map((s) => `${s.label}:${s.colour}:${s.dash?.join(',') ?? ''}`).join('|');
@@ -65,7 +65,7 @@ export function SweepPlot({
         ],
       },
     }),
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- series enter through their key (label, colour, dash), so new numbers do not rebuild the chart
     [key, yLabel, range, height],
   );
   const data = useMemo(() => [volumes, ...series.map((s) => s.values)] as uPlot.AlignedData, [volumes, series]);

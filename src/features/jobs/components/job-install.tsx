@@ -7,6 +7,7 @@ import { Alert } from '@/components/ui/alert';
 import { StatusBadge } from '@/components/ui/badge';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';
+import { InstallSafetyNote } from '@/components/safety/safety-notes';
 import { paths } from '@/config/paths';
 import { useDebouncedValue } from '@/hooks/use-debounced-value';
 import { isApiError } from '@/lib/api-client';
@@ -50,6 +51,7 @@ export function InstallPartForm({ jobId }: { jobId: number }) {
     <form onSubmit={submit} noValidate className="space-y-3" aria-label="Install a part">
       {errors.root && <Alert>{errors.root}</Alert>}
       {done && <Alert tone="success">{done}</Alert>}
+      <InstallSafetyNote />
       <div className="grid gap-3 sm:grid-cols-[1fr_1fr_auto] sm:items-start">
         <TextField
           label="Part label"

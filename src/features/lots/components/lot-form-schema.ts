@@ -27,7 +27,7 @@ export const LOT_FORM_FIELDS = ['code', 'kind', 'nominal', 'tolerancePct', 'supp
 export const LOT_KIND_LABEL: Record<LotKind, string> = { capacitor: 'Capacitors', pot: 'Pots', resistor: 'Resistors' };
 export const LOT_UNIT: Record<LotKind, string> = { capacitor: 'F', pot: 'Ω', resistor: 'Ω' };
 
-/** Second quantities that make sense for each kind of lot (COMPUTATION.md §5). */
+/** Second quantities that make sense for each kind of lot (docs/computation.md §5). */
 export const SECOND_CHOICES: Record<LotKind, { value: SecondQuantity; label: string; hint: string }[]> = {
   capacitor: [
     { value: 'dissipation', label: 'Dissipation factor D (max)', hint: 'A fraction or a percentage: 0.01 or 1 %' },
@@ -59,9 +59,12 @@ export function readNominal(kind: LotKind, text: string): NominalReading {
   if (t === '') return { ok: true, empty: true };
   const quantity = kind === 'capacitor' ? 'capacitance' : 'resistance';
   const wantKind = kind === 'capacitor' ? 'capacitor' : 'resistor';
+  // Set when the text is a marking at all (of either kind), so a wrong-kind marking is named as such.
+  let decoded = false;
   const asMarking = (): NominalReading | null => {
     try {
       const d = decodeMarking(t);
+      decoded = true;
       if (d.kind !== wantKind) return { ok: false, error: `"${t}" is a ${d.kind} marking (${formatValue(d.nominal, d.unit)}), but this is a lot of ${LOT_KIND_LABEL[kind].toLowerCase()}.` };
       return { ok: true, empty: false, nominal: d.nominal, tolerancePct: d.tolerancePct, marking: t, text: formatValue(d.nominal, d.unit) + (d.tolerancePct != null ? ` ±${d.tolerancePct} %` : '') };
     } catch (err) {
@@ -75,7 +78,7 @@ export function readNominal(kind: LotKind, text: string): NominalReading {
     return { ok: true, empty: false, nominal: parsed.value, tolerancePct: null, marking: null, text: formatValue(parsed.value, LOT_UNIT[kind]) };
   }
   const marking = asMarking();
-  if (marking?.ok) return marking;
+  if (marking && (marking.ok || decoded)) return marking;
   return { ok: false, error: `${parsed.error} Or type a marking code such as ${kind === 'capacitor' ? '473J' : '4K7'}.` };
 }
 

@@ -9,18 +9,9 @@ import type { LotItems, LotStats } from '../api/types';
 import { displayScale, fmtPct, fmtSecond } from './lot-format';
 import { SECOND_LABEL, SECOND_UNIT } from './lot-form-schema';
 import type { SecondQuantity } from '../api/types';
+import { filterRows, sortRows, type ItemFilters } from './lot-item-rows';
 
-export interface ItemFilters {
-  tolerance: 'all' | 'out' | 'in';
-  outlier: boolean;
-  secondFail: boolean;
-  /** Deviation-bin index, or -1 for all. */
-  bin: number;
-  /** 'any', 'in' (in some matched set), 'none', or a set number S1 = 0. */
-  set: 'any' | 'in' | 'none' | number;
-}
-
-export const NO_FILTERS: ItemFilters = { tolerance: 'all', outlier: false, secondFail: false, bin: -1, set: 'any' };
+export { NO_FILTERS, type ItemFilters } from './lot-item-rows';
 
 const ROW_HEIGHT = 37;
 const MAX_SELECTION = 1000;
@@ -40,66 +31,11 @@ interface Props {
 const col = createColumnHelper<number>();
 
 declare module '@tanstack/react-table' {
-  // eslint-disable-next-line @typescript-eslint/no-unused-vars
+  // eslint-disable-next-line @typescript-eslint/no-unused-vars -- the merged declaration must repeat the library's two type parameters
   interface ColumnMeta<TData, TValue> {
     numeric?: boolean;
     /** A fixed column width (CSS), for the fixed table layout. */
     width?: string;
-  }
-}
-
-/** Row indices that pass the filters, in upload order. */
-function filterRows(items: LotItems, stats: LotStats, f: ItemFilters): Int32Array {
-  const n = items.values.length;
-  const out = new Int32Array(n);
-  let k = 0;
-  const { lower, upper } = stats;
-  for (let i = 0; i < n; i++) {
-    const v = items.values[i]!;
-    const outside = v < lower || v > upper;
-    if (f.tolerance === 'out' && !outside) continue;
-    if (f.tolerance === 'in' && outside) continue;
-    if (f.outlier && !items.outlier[i]) continue;
-    if (f.secondFail && !items.secondFail[i]) continue;
-    if (f.bin >= 0 && items.bin[i] !== f.bin) continue;
-    const s = items.set[i]!;
-    if (f.set === 'in' && s < 0) continue;
-    if (f.set === 'none' && s >= 0) continue;
-    if (typeof f.set === 'number' && s !== f.set) continue;
-    out[k++] = i;
-  }
-  return out.subarray(0, k);
-}
-
-function sortRows(rows: Int32Array, items: LotItems, sorting: SortingState): number[] {
-  const order = Array.from(rows);
-  const s = sorting[0];
-  if (!s) return order;
-  const dir = s.desc ? -1 : 1;
-  const numKey = (arr: ArrayLike<number | null>) => (a: number, b: number) => {
-    const x = arr[a] ?? -Infinity;
-    const y = arr[b] ?? -Infinity;
-    return (x < y ? -1 : x > y ? 1 : a - b) * dir;
-  };
-  switch (s.id) {
-    case 'item': {
-      // Item names are usually numbers ("1" … "100000"): compare them as numbers when they all are.
-      const asNum = items.items.map((t) => (/^\s*-?\d+(\.\d+)?\s*$/.test(t) ? Number(t) : NaN));
-      if (asNum.every((x) => !Number.isNaN(x))) return order.sort(numKey(asNum));
-      const collator = new Intl.Collator(undefined, { numeric: true });
-      return order.sort((a, b) => collator.compare(items.items[a]!, items.items[b]!) * dir);
-    }
-    case 'value':
-    case 'deviation':
-      return order.sort(numKey(items.values));
-    case 'second':
-      return order.sort(numKey(items.second));
-    case 'bin':
-      return order.sort(numKey(items.bin));
-    case 'set':
-      return order.sort(numKey(items.set));
-    default:
-      return order;
   }
 }
 
@@ -272,6 +208,8 @@ export function LotItemsTable({ items, stats, nominal, unit, secondQuantity, fil
         // the rest of a long page.
         style={{ contain: 'strict', height: `${Math.min(34 * 16, (rows.length + 1) * ROW_HEIGHT + 8)}px` }}
         className="relative overflow-auto rounded-lg border border-paper-edge bg-paper-bright"
+        // A scrolling region is reached by keyboard (WCAG 2.1.1), so it is a labelled, focusable region.
+        role="region"
         tabIndex={0}
         aria-label="Items of the lot (scrolls)"
       >

@@ -2,7 +2,7 @@ import { useInstruments, useProfiles, type Reading } from '@/components/readings
 import { OverdueMark } from '@/components/readings/overdue-mark';
 import { chooseProfile } from '@shared/analysis/profile-match';
 import { ReadingForm } from '@/components/readings/reading-form';
-import { SafetyNote } from '@/components/readings/safety-note';
+import { BenchSafetyNote } from '@/components/safety/safety-notes';
 import { QUANTITY_NAME, formatReading } from '@/components/readings/words';
 import { Alert, Loading } from '@/components/ui/alert';
 import { VerdictBadge } from '@/components/ui/badge';
@@ -103,7 +103,7 @@ export function PartReadings({ part }: { part: PartDetail }) {
           ) : (
             <ReadingForm part={part} profiles={profiles.data.profiles} instruments={instruments.data.instruments} />
           )}
-          <SafetyNote compact className="mt-3" />
+          <BenchSafetyNote compact className="mt-3" />
         </div>
       )}
       {readings.isPending ? (

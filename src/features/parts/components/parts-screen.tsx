@@ -34,7 +34,7 @@ export function PartsScreen() {
       { replace: true },
     );
     // Only a settled change of the text should move the address.
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- only a settled change of the text moves the address, not a new setter identity
   }, [settled]);
 
   const setFilter = (key: 'kind' | 'status', value: string) =>

@@ -46,7 +46,7 @@ const columns = [
 ];
 
 declare module '@tanstack/react-table' {
-  // eslint-disable-next-line @typescript-eslint/no-unused-vars
+  // eslint-disable-next-line @typescript-eslint/no-unused-vars -- the merged declaration must repeat the library's two type parameters
   interface ColumnMeta<TData, TValue> {
     /** Numbers: mono font, right-aligned. */
     numeric?: boolean;

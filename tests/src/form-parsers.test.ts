@@ -1,0 +1,100 @@
+// The client's form parsers: what a person types into the part, lot and harness forms, read into
+// the values the API takes, with a message naming what is wrong otherwise. Values: IEC 60062
+// markings as in tests/fixtures/iec/iec60062-marking-codes.txt (473 = 47 nF, J = ±5 %, 4K7 = 4.7 kΩ).
+import { describe, expect, it } from 'vitest';
+import { CreatePartFormSchema, emptyPartForm, parseNominal, parseTolerance } from '@/features/parts/components/part-form-schema';
+import { readNominal, readPercent, readSecondLimit } from '@/features/lots/components/lot-form-schema';
+import { fieldOf, parseField, parseMid } from '@/features/harness/components/design-state';
+
+describe('part form', () => {
+  it('tolerance: "10", "±10 %", "2,5" read; blank is none; words are refused by name', () => {
+    expect(parseTolerance('10')).toEqual({ ok: true, value: 10 });
+    expect(parseTolerance('±10 %')).toEqual({ ok: true, value: 10 });
+    expect(parseTolerance('2,5')).toEqual({ ok: true, value: 2.5 });
+    expect(parseTolerance('  ')).toEqual({ ok: true, value: null });
+    const bad = parseTolerance('ten');
+    expect(bad.ok).toBe(false);
+    expect(!bad.ok && bad.error).toMatch(/"ten" is not a percentage/);
+  });
+
+  it('nominal by the kind: 500k on a pot is 500 000 Ω, 22n on a capacitor is 22 nF, blank is none', () => {
+    const pot = parseNominal('pot', '500k');
+    expect(pot.ok && pot.value).toBe(500e3);
+    const cap = parseNominal('capacitor', '22n');
+    expect(cap.ok && cap.value).toBeCloseTo(22e-9, 20);
+    const blank = parseNominal('resistor', '');
+    expect(blank.ok && blank.value).toBeNull();
+    expect(parseNominal('capacitor', '1m').ok).toBe(false);
+  });
+
+  it('the whole form: a bad nominal and a bad tolerance are reported on their own fields', () => {
+    const r = CreatePartFormSchema.safeParse({ ...emptyPartForm('pot'), label: 'POT-900', nominal: '500q', tolerancePct: 'x' });
+    expect(r.success).toBe(false);
+    const paths = r.error!.issues.map((i) => i.path.join('.'));
+    expect(paths).toContain('nominal');
+    expect(paths).toContain('tolerancePct');
+    const ok = CreatePartFormSchema.safeParse({ ...emptyPartForm('pot'), label: 'POT-900', nominal: '500k', tolerancePct: '20' });
+    expect(ok.success).toBe(true);
+    expect(ok.data).toMatchObject({ kind: 'pot', label: 'POT-900', nominal: 500e3, tolerancePct: 20 });
+  });
+});
+
+describe('lot form', () => {
+  it('a capacitor marking is decoded with its tolerance letter', () => {
+    const r = readNominal('capacitor', '473J');
+    expect(r).toMatchObject({ ok: true, empty: false, tolerancePct: 5, marking: '473J' });
+    expect(r.ok && !r.empty && r.nominal).toBeCloseTo(47e-9, 20);
+  });
+
+  it('engineering notation, an RKM marking on resistors, and a marking of the wrong kind is refused', () => {
+    const n = readNominal('resistor', '4k7');
+    expect(n.ok && !n.empty && n.nominal).toBe(4700);
+    const rkm = readNominal('resistor', '4K7J');
+    expect(rkm).toMatchObject({ ok: true, empty: false, nominal: 4700, tolerancePct: 5 });
+    const wrong = readNominal('resistor', '2n2J');
+    expect(wrong.ok).toBe(false);
+    expect(!wrong.ok && wrong.error).toMatch(/capacitor marking/);
+    expect(readNominal('pot', '')).toEqual({ ok: true, empty: true });
+    expect(readNominal('pot', '0').ok).toBe(false);
+  });
+
+  it('percent and the second-quantity limit: D as a fraction or in %, ESR in Ω', () => {
+    expect(readPercent('±5 %')).toEqual({ ok: true, value: 5 });
+    expect(readPercent('')).toEqual({ ok: true, value: null });
+    expect(readPercent('five').ok).toBe(false);
+    expect(readSecondLimit('dissipation', '1 %')).toEqual({ ok: true, value: 0.01 });
+    expect(readSecondLimit('dissipation', '0.02')).toEqual({ ok: true, value: 0.02 });
+    expect(readSecondLimit('esr', '0R5')).toEqual({ ok: true, value: 0.5 });
+    expect(readSecondLimit('esr', '')).toEqual({ ok: true, value: null });
+    expect(readSecondLimit('dissipation', 'low').ok).toBe(false);
+  });
+});
+
+describe('harness value fields', () => {
+  it('cable length in metres ("4.5 m"), within 0 to 100 m', () => {
+    const len = fieldOf('cableLength');
+    expect(parseField(len, '4.5 m')).toEqual({ ok: true, value: 4.5 });
+    expect(parseField(len, '3')).toEqual({ ok: true, value: 3 });
+    expect(parseField(len, '0').ok).toBe(false);
+    expect(parseField(len, '150').ok).toBe(false);
+  });
+
+  it('capacitance per metre ("100 pF/m"), a part value, and the optional loss resistance', () => {
+    const r = parseField(fieldOf('cableCapPerMetre'), '100 pF/m');
+    expect(r.ok && r.value).toBeCloseTo(100e-12, 22);
+    const c = parseField(fieldOf('toneC'), '22n');
+    expect(c.ok && c.value).toBeCloseTo(22e-9, 20);
+    expect(parseField(fieldOf('toneC'), '').ok).toBe(false);
+    expect(parseField(fieldOf('pickupRp'), '')).toEqual({ ok: true, value: undefined });
+    expect(parseField(fieldOf('volumeR'), '-5k').ok).toBe(false);
+  });
+
+  it('mid-rotation in percent: "15", "15 %", "12,5" read; the ends and words refused', () => {
+    expect(parseMid('15')).toEqual({ ok: true, value: 0.15 });
+    expect(parseMid('15 %')).toEqual({ ok: true, value: 0.15 });
+    expect(parseMid('12,5')).toEqual({ ok: true, value: 0.125 });
+    expect(parseMid('0').ok).toBe(false);
+    expect(parseMid('100').ok).toBe(false);
+    expect(parseMid('half').ok).toBe(false);
+  });
+});
