@@ -268,7 +268,13 @@ export const fits = sqliteTable(
 export const harnesses = sqliteTable('harnesses', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   name: text('name').notNull(),
-  preset: text('preset').notNull(),
+  /** The whole instrument: layout id, selector position, option choices, knob settings. */
+  layout: text('layout').notNull().default('one-pickup'),
+  selector: integer('selector').notNull().default(0),
+  options: text('options', { mode: 'json' }).notNull().default({}).$type<Record<string, string>>(),
+  knobs: text('knobs', { mode: 'json' }).$type<Record<string, number>>(),
+  /** The preset a design was first saved from (older designs); null for designs saved as a layout. */
+  preset: text('preset'),
   values: text('values', { mode: 'json' }).notNull().$type<Record<string, unknown>>(),
   /** Measured parts whose values feed this design: { volumePot: partId, … } as JSON. */
   partRefs: text('part_refs', { mode: 'json' }).$type<Record<string, number>>(),

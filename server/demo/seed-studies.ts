@@ -125,9 +125,10 @@ function seedDesignsAndJobs(s: Seeders): void {
   const [keepTreble, darkNeck] = s.tx
     .insert(harnesses)
     .values([
-      { name: 'Keeps its treble at low volume', preset: 'bleed-cap-parallel-r', values: { bleedC: 1.2e-9, bleedR: 150e3, cableLength: 4.5 }, notes: 'For players who ride the volume knob.', ownerId: s.users.tech },
-      { name: 'Warm neck position, tone from the volume wiper', preset: 'interactive-tone', values: { toneC: 15e-9, volumeR: 250e3, toneR: 250e3 }, ownerId: s.users.tech },
-      { name: 'Tone knob with a usable bottom', preset: 'tone-floor-resistor', values: { floorR: 8.2e3 }, ownerId: s.users.qa },
+      { name: 'Keeps its treble at low volume', preset: 'bleed-cap-parallel-r', layout: 'one-pickup', options: { bleed: 'cap-parallel-r' }, values: { bleedC: 1.2e-9, bleedR: 150e3, cableLength: 4.5 }, notes: 'For players who ride the volume knob.', ownerId: s.users.tech },
+      { name: 'Warm neck position, tone from the volume wiper', preset: 'interactive-tone', layout: 'one-pickup', options: { toneWiring: 'interactive' }, values: { toneC: 15e-9, volumeR: 250e3, toneR: 250e3 }, ownerId: s.users.tech },
+      { name: 'Tone knob with a usable bottom', preset: 'tone-floor-resistor', layout: 'one-pickup', options: { toneNetwork: 'floor-resistor' }, values: { floorR: 8.2e3 }, ownerId: s.users.qa },
+      { name: 'Two pickups, bridge reversed in the middle position', layout: 'two-pickups-3way', selector: 1, options: { phase: 'reversed', bleed: 'cap' }, knobs: { 'neck.volume': 7 }, values: { 'neck.bleedC': 680e-12, 'bridge.bleedC': 680e-12 }, ownerId: s.users.tech },
     ])
     .returning()
     .all();

@@ -33,7 +33,7 @@ export type ResponseFunction = (frequencies: Float64Array, re: Float64Array, im:
 /** The transfer V(out)/E of a harness netlist at a knob setting, as a ResponseFunction. */
 export function harnessResponse(harness: Netlist | CompiledHarness, knobs: Knobs): ResponseFunction {
   const compiled = 'size' in harness ? harness : compileHarness(harness);
-  const k = { volume: knobs.volume, tone: knobs.tone };
+  const k: Knobs = { ...knobs };
   return (frequencies, re, im) => {
     solve(compiled, k, frequencies, { re, im });
   };

@@ -3,7 +3,7 @@
 // retention and an interaction index. Every figure at a named frequency (1 kHz, 200 Hz, 3 kHz) and
 // every refined peak or corner is computed with extra exact solves, not read off the curve.
 import type { Knobs, Netlist } from './netlist';
-import { compileHarness, prepareFrequencies, setKnobs, solve, solvePoint, solvePrepared, type CompiledHarness } from './solver';
+import { compileHarness, prepareFrequencies, setKnobs, solve, solveGroups, solvePoint, solvePrepared, type CompiledHarness } from './solver';
 
 /** n frequencies from fStart to fStop, equally spaced on a log axis (both ends included). */
 export function logFrequencies(fStart = 20, fStop = 20000, count = 151): Float64Array {
@@ -166,6 +166,94 @@ export function simulate(
   return { frequencies: Float64Array.from(frequencies), magnitudeDb, phaseDeg, metrics: curveMetrics(c, frequencies, magnitudeDb) };
 }
 
+/** One pickup's own transfer (its sources alone, the others silent). */
+export interface PickupCurve {
+  pickupId: string;
+  magnitudeDb: Float64Array;
+  phaseDeg: Float64Array;
+}
+
+export interface InstrumentResult {
+  frequencies: Float64Array;
+  magnitudeDb: Float64Array;
+  phaseDeg: Float64Array;
+  /** null when the output is cancelled */
+  metrics: ResponseMetrics | null;
+  /** 'cancelled': the sources oppose and cancel (no figure of the sum means anything) */
+  signal: 'present' | 'cancelled';
+  /** 'no signal (cancelled)' when cancelled */
+  note: string | null;
+  perPickup: PickupCurve[];
+}
+
+/**
+ * How far below the largest pickup contribution the sum must sit at every frequency to count as
+ * cancelled: 1e-9 in amplitude (180 dB), far below any real difference between pickups and far
+ * above the rounding left when identical sources oppose (about 1e-16).
+ */
+export const CANCELLED_RATIO = 1e-9;
+
+/** A level in dB that stays finite for an exact zero (−400 dB, below anything audible or measurable). */
+function dbOf(re: number, im: number): number {
+  const p = re * re + im * im;
+  return p > 0 ? DB_PER_LN * Math.log(p) : -400;
+}
+
+/**
+ * The response of a whole instrument at one knob setting: the sum of every pickup's transfer (unit
+ * sources, reversed ones negated), each pickup's own transfer, and the figures of the sum, or "no
+ * signal (cancelled)" when the sources cancel.
+ */
+export function simulateInstrument(
+  harness: Netlist | CompiledHarness,
+  knobs: Knobs,
+  frequencies: ArrayLike<number> = DEFAULT_FREQUENCIES,
+): InstrumentResult {
+  const c = asCompiled(harness);
+  const m = frequencies.length;
+  const { total, groups } = solveGroups(c, knobs, frequencies);
+  const magnitudeDb = new Float64Array(m);
+  const phaseDeg = new Float64Array(m);
+  let cancelled = true;
+  for (let k = 0; k < m; k++) {
+    const re = total.re[k]!;
+    const im = total.im[k]!;
+    magnitudeDb[k] = dbOf(re, im);
+    phaseDeg[k] = (Math.atan2(im, re) * 180) / Math.PI;
+    let largest = 0;
+    for (const g of groups) largest = Math.max(largest, Math.hypot(g.re[k]!, g.im[k]!));
+    if (Math.hypot(re, im) > CANCELLED_RATIO * largest) cancelled = false;
+  }
+  // Each pickup's own transfer: the sum of its sources (a dual-coil pickup has two).
+  const pickupIds = [...new Set(c.pickupOf)];
+  const perPickup = pickupIds.map((pickupId) => {
+    const db = new Float64Array(m);
+    const deg = new Float64Array(m);
+    for (let k = 0; k < m; k++) {
+      let re = 0;
+      let im = 0;
+      groups.forEach((g, i) => {
+        if (c.pickupOf[i] === pickupId) {
+          re += g.re[k]!;
+          im += g.im[k]!;
+        }
+      });
+      db[k] = dbOf(re, im);
+      deg[k] = (Math.atan2(im, re) * 180) / Math.PI;
+    }
+    return { pickupId, magnitudeDb: db, phaseDeg: deg };
+  });
+  return {
+    frequencies: Float64Array.from(frequencies),
+    magnitudeDb,
+    phaseDeg,
+    metrics: cancelled ? null : curveMetrics(c, frequencies, magnitudeDb),
+    signal: cancelled ? 'cancelled' : 'present',
+    note: cancelled ? 'no signal (cancelled)' : null,
+    perPickup,
+  };
+}
+
 export interface KnobGrid {
   frequencies: Float64Array;
   volume: readonly number[];
@@ -204,6 +292,7 @@ export function sweepKnobs(
   harness: Netlist | CompiledHarness,
   settings: { volume: readonly number[]; tone: readonly number[] },
   frequencies: ArrayLike<number> = DEFAULT_FREQUENCIES,
+  axes: { volumeKnob?: string; toneKnob?: string; knobs?: Knobs } = {},
 ): KnobGrid {
   const c = asCompiled(harness);
   const nv = settings.volume.length;
@@ -213,28 +302,30 @@ export function sweepKnobs(
   const level1kDb = new Float64Array(nv * nt);
   const volumeTaperDb = new Float64Array(nv * nt);
   const trebleRetentionDb = new Float64Array(nv * nt);
-  const knobs: Knobs = { volume: 10, tone: 10 };
+  const knobs: Record<string, number> = { ...(axes.knobs ?? {}) };
+  const vk = axes.volumeKnob ?? 'volume';
+  const tk = axes.toneKnob ?? 'tone';
 
   // References at full volume (per tone) and full tone (per volume), solved exactly rather than
   // taken from the grid, so the grid need not contain the setting 10.
   const fullVolume1k = new Float64Array(nt);
   const fullVolumeTreble = new Float64Array(nt);
   for (let ti = 0; ti < nt; ti++) {
-    knobs.volume = 10;
-    knobs.tone = settings.tone[ti]!;
+    knobs[vk] = 10;
+    knobs[tk] = settings.tone[ti]!;
     setKnobs(c, knobs);
     fullVolume1k[ti] = levelDb(c, LEVEL_FREQUENCY);
     fullVolumeTreble[ti] = levelDb(c, TREBLE_FREQUENCY) - levelDb(c, BASS_FREQUENCY);
   }
   const fullTone1k = new Float64Array(nv);
   for (let vi = 0; vi < nv; vi++) {
-    knobs.volume = settings.volume[vi]!;
-    knobs.tone = 10;
+    knobs[vk] = settings.volume[vi]!;
+    knobs[tk] = 10;
     setKnobs(c, knobs);
     fullTone1k[vi] = levelDb(c, LEVEL_FREQUENCY);
   }
-  knobs.volume = 10;
-  knobs.tone = 10;
+  knobs[vk] = 10;
+  knobs[tk] = 10;
   setKnobs(c, knobs);
   const full1k = levelDb(c, LEVEL_FREQUENCY);
 
@@ -251,8 +342,8 @@ export function sweepKnobs(
   let sumSq = 0;
   for (let ti = 0; ti < nt; ti++) {
     for (let vi = 0; vi < nv; vi++) {
-      knobs.volume = settings.volume[vi]!;
-      knobs.tone = settings.tone[ti]!;
+      knobs[vk] = settings.volume[vi]!;
+      knobs[tk] = settings.tone[ti]!;
       setKnobs(c, knobs);
       solvePrepared(c, re, im);
       const base = (ti * nv + vi) * nf;

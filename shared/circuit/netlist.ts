@@ -5,13 +5,22 @@ import { lawValue, type TaperLaw } from '@shared/taper/law';
 export const GROUND = '0';
 export const OUTPUT = 'out';
 
-/** Knob settings on the 0–10 dial; rotation x = knob / 10. */
-export interface Knobs {
+/**
+ * Knob settings on the 0–10 dial by knob id (`volume`, `tone`, `neck.volume`, `tone1` …); rotation
+ * x = knob / 10. A knob the record does not name is at 10.
+ */
+export type Knobs = Readonly<Record<string, number>>;
+
+export type KnobName = string;
+
+/** The two knobs of a one-pickup harness (the presets and the one-pickup layout). */
+export type VolumeToneKnobs = {
   volume: number;
   tone: number;
-}
+};
 
-export type KnobName = keyof Knobs;
+/** The dial value of a knob when a setting does not name it. */
+export const KNOB_DEFAULT = 10;
 
 /** A pot follows one of the harness knobs or sits at a fixed dial setting (0–10). */
 export type KnobRef = KnobName | { fixed: number };
@@ -87,8 +96,13 @@ export interface PickupPart {
   C: number;
   /** Ω; absent means no parallel loss */
   Rp?: number;
-  /** V; 1 when absent */
+  /** V; 1 when absent. A negative value is a reversed source (phase 180°). */
   emf?: number;
+  /**
+   * The pickup this source belongs to, for per-pickup transfers (superposition); the part id when
+   * absent. The coils of a dual-coil pickup are two sources with the same group.
+   */
+  group?: string;
 }
 
 export type Part = ResistorPart | CapacitorPart | InductorPart | PotPart | PickupPart;
@@ -100,7 +114,7 @@ export interface Netlist {
 
 /** Knob dial value (0–10) that a pot is set to. */
 export function knobSetting(ref: KnobRef, knobs: Knobs): number {
-  return typeof ref === 'string' ? knobs[ref] : ref.fixed;
+  return typeof ref === 'string' ? (knobs[ref] ?? KNOB_DEFAULT) : ref.fixed;
 }
 
 /** The two halves of a pot at a knob setting: wiper-to-a and wiper-to-b, clamped, in Ω. */
@@ -152,6 +166,7 @@ export function validateNetlist(netlist: Netlist): string[] {
         nonNegative(p.id, 'L', p.L);
         nonNegative(p.id, 'C', p.C);
         positive(p.id, 'Rp', p.Rp);
+        if (p.emf !== undefined && !(Number.isFinite(p.emf) && p.emf !== 0)) problems.push(`${p.id}: emf must be a finite non-zero number (got ${p.emf})`);
         if (p.hot === p.cold) problems.push(`${p.id}: hot and cold are the same node`);
         nodes.add(p.hot).add(p.cold);
         break;

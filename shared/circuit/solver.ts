@@ -30,7 +30,7 @@
 //  - dense Gaussian elimination with partial pivoting, for netlists without that property, for a
 //    frequency whose pivot would not have a positive real part (a check that should never fire),
 //    and for tests.
-import { GROUND, OUTPUT, potHalves, validateNetlist, type Knobs, type Netlist, type Part, type PotPart } from './netlist';
+import { GROUND, knobSetting, OUTPUT, potHalves, validateNetlist, type Knobs, type Netlist, type Part, type PotPart } from './netlist';
 
 interface CompiledPot {
   pot: PotPart;
@@ -45,6 +45,8 @@ interface CompiledSource {
   R: number;
   L: number;
   emf: number;
+  /** index of the source's group (pickup) in CompiledHarness.groups */
+  g: number;
 }
 
 /** Scratch of the fast path for up to `stride` frequencies. Entry e of slot s is at s·stride + e. */
@@ -60,7 +62,7 @@ interface BatchScratch {
   aim0: Float64Array;
   bre0: Float64Array;
   bim0: Float64Array;
-  /** working copies, eliminated in place */
+  /** working copies, eliminated in place; right-hand side of group g, node i at (g·n + i)·stride */
   are: Float64Array;
   aim: Float64Array;
   bre: Float64Array;
@@ -87,7 +89,16 @@ export interface CompiledHarness {
   readonly invL: Float64Array;
   readonly pots: readonly CompiledPot[];
   readonly sources: readonly CompiledSource[];
-  /** @internal dense scratch of the pivoting path */
+  /**
+   * The sources (pickups and coils) by part id, in netlist order. The system is solved for each
+   * source alone (one right-hand side each, superposition) and the transfer is their sum.
+   */
+  readonly groups: readonly string[];
+  /** The pickup each source belongs to (its `group`, else its own id), by source index. */
+  readonly pickupOf: readonly string[];
+  /** @internal resistors and capacitors by part id, for setPartValue: node indices and the stamped value */
+  readonly fixedParts: Map<string, { kind: 'resistor' | 'capacitor'; ia: number; ib: number; value: number }>;
+  /** @internal dense scratch of the pivoting path (right-hand side of group g, node i at g·n + i) */
   readonly are: Float64Array;
   readonly aim: Float64Array;
   readonly bre: Float64Array;
@@ -105,12 +116,20 @@ export interface CompiledHarness {
   /** @internal fast-path scratch for frequency lists, and for single frequencies */
   batch: BatchScratch | null;
   readonly point: BatchScratch;
-  /** @internal the knob setting the conductances were stamped for */
-  knobVolume: number;
-  knobTone: number;
-  /** Result of the last solvePoint: V(out), real and imaginary. */
+  /** @internal the dial setting of each pot the conductances were stamped for */
+  readonly potSetting: Float64Array;
+  /** Result of the last solvePoint: V(out), real and imaginary (the sum over the groups). */
   hRe: number;
   hIm: number;
+  /** Result of the last solvePoint per group: V(out) with only that group's sources. */
+  readonly hgRe: Float64Array;
+  readonly hgIm: Float64Array;
+}
+
+/** Per-group output arrays for solvePrepared: re[g], im[g], each as long as the frequency list. */
+export interface GroupCurves {
+  re: Float64Array[];
+  im: Float64Array[];
 }
 
 function stampReal(m: Float64Array, n: number, i: number, j: number, v: number): void {
@@ -134,7 +153,7 @@ function partEdges(p: Part): [string, string][] {
   }
 }
 
-function newScratch(stride: number, slots: number, n: number): BatchScratch {
+function newScratch(stride: number, slots: number, n: number, ng: number): BatchScratch {
   return {
     stride,
     m: 0,
@@ -143,12 +162,12 @@ function newScratch(stride: number, slots: number, n: number): BatchScratch {
     iw: new Float64Array(stride),
     are0: new Float64Array(slots * stride),
     aim0: new Float64Array(slots * stride),
-    bre0: new Float64Array(n * stride),
-    bim0: new Float64Array(n * stride),
+    bre0: new Float64Array(ng * n * stride),
+    bim0: new Float64Array(ng * n * stride),
     are: new Float64Array(slots * stride),
     aim: new Float64Array(slots * stride),
-    bre: new Float64Array(n * stride),
-    bim: new Float64Array(n * stride),
+    bre: new Float64Array(ng * n * stride),
+    bim: new Float64Array(ng * n * stride),
     pr: new Float64Array(stride),
     pi: new Float64Array(stride),
     mr: new Float64Array(stride),
@@ -223,13 +242,18 @@ export function compileHarness(netlist: Netlist): CompiledHarness {
   const invL = new Float64Array(n * n);
   const pots: CompiledPot[] = [];
   const sources: CompiledSource[] = [];
+  const groups: string[] = [];
+  const pickupOf: string[] = [];
+  const fixedParts: CompiledHarness['fixedParts'] = new Map();
   for (const p of netlist.parts) {
     switch (p.kind) {
       case 'resistor':
         stampReal(g0, n, idx(p.a), idx(p.b), 1 / p.R);
+        fixedParts.set(p.id, { kind: 'resistor', ia: idx(p.a), ib: idx(p.b), value: p.R });
         break;
       case 'capacitor':
         stampReal(cap, n, idx(p.a), idx(p.b), p.C);
+        fixedParts.set(p.id, { kind: 'capacitor', ia: idx(p.a), ib: idx(p.b), value: p.C });
         break;
       case 'inductor':
         stampReal(invL, n, idx(p.a), idx(p.b), 1 / p.L);
@@ -240,7 +264,11 @@ export function compileHarness(netlist: Netlist): CompiledHarness {
       case 'pickup':
         stampReal(cap, n, idx(p.hot), idx(p.cold), p.C);
         if (p.Rp !== undefined) stampReal(g0, n, idx(p.hot), idx(p.cold), 1 / p.Rp);
-        sources.push({ ih: idx(p.hot), ic: idx(p.cold), R: p.R, L: p.L, emf: p.emf ?? 1 });
+        {
+          const g = groups.push(p.id) - 1;
+          pickupOf.push(p.group ?? p.id);
+          sources.push({ ih: idx(p.hot), ic: idx(p.cold), R: p.R, L: p.L, emf: p.emf ?? 1, g });
+        }
         break;
     }
   }
@@ -310,10 +338,13 @@ export function compileHarness(netlist: Netlist): CompiledHarness {
     invL,
     pots,
     sources,
+    groups,
+    pickupOf,
+    fixedParts,
     are: new Float64Array(n * n),
     aim: new Float64Array(n * n),
-    bre: new Float64Array(n),
-    bim: new Float64Array(n),
+    bre: new Float64Array(groups.length * n),
+    bim: new Float64Array(groups.length * n),
     upper,
     slots,
     program: Int32Array.from(program),
@@ -322,17 +353,20 @@ export function compileHarness(netlist: Netlist): CompiledHarness {
     potG: new Float64Array(half),
     potDelta: new Float64Array(potSlotList.length),
     batch: null,
-    point: newScratch(1, slots, n),
-    knobVolume: Number.NaN,
-    knobTone: Number.NaN,
+    point: newScratch(1, slots, n, groups.length),
+    potSetting: new Float64Array(pots.length).fill(Number.NaN),
     hRe: 0,
     hIm: 0,
+    hgRe: new Float64Array(groups.length),
+    hgIm: new Float64Array(groups.length),
   };
 }
 
 /** Stamps the pot conductances for a knob setting (skipped when the setting has not changed). */
 export function setKnobs(c: CompiledHarness, knobs: Knobs): void {
-  if (c.knobVolume === knobs.volume && c.knobTone === knobs.tone) return;
+  let same = true;
+  for (let i = 0; i < c.pots.length && same; i++) same = c.potSetting[i] === knobSetting(c.pots[i]!.pot.knob, knobs);
+  if (same) return;
   const n = c.size;
   c.g.set(c.g0);
   let h = 0;
@@ -348,8 +382,7 @@ export function setKnobs(c: CompiledHarness, knobs: Knobs): void {
   c.potDelta.fill(0);
   const t = c.potTerms;
   for (let q = 0; q < t.length; q += 3) c.potDelta[t[q + 1]!]! += t[q + 2]! * c.potG[t[q]!]!;
-  c.knobVolume = knobs.volume;
-  c.knobTone = knobs.tone;
+  for (let i = 0; i < c.pots.length; i++) c.potSetting[i] = knobSetting(c.pots[i]!.pot.knob, knobs);
 }
 
 /** Builds the knob-independent part of the system for the frequencies in B.f[0..m). */
@@ -376,6 +409,7 @@ function prepareScratch(c: CompiledHarness, B: BatchScratch, m: number): void {
   bre0.fill(0);
   bim0.fill(0);
   for (const src of c.sources) {
+    const go = src.g * n * S;
     const hh = src.ih >= 0 ? c.upper[src.ih * n + src.ih]! * S : -1;
     const cc = src.ic >= 0 ? c.upper[src.ic * n + src.ic]! * S : -1;
     const hc = src.ih >= 0 && src.ic >= 0 ? c.upper[src.ih * n + src.ic]! * S : -1;
@@ -388,14 +422,14 @@ function prepareScratch(c: CompiledHarness, B: BatchScratch, m: number): void {
       if (hh >= 0) {
         are0[hh + k]! += yr;
         aim0[hh + k]! += yi;
-        bre0[src.ih * S + k]! += src.emf * yr;
-        bim0[src.ih * S + k]! += src.emf * yi;
+        bre0[go + src.ih * S + k]! += src.emf * yr;
+        bim0[go + src.ih * S + k]! += src.emf * yi;
       }
       if (cc >= 0) {
         are0[cc + k]! += yr;
         aim0[cc + k]! += yi;
-        bre0[src.ic * S + k]! -= src.emf * yr;
-        bim0[src.ic * S + k]! -= src.emf * yi;
+        bre0[go + src.ic * S + k]! -= src.emf * yr;
+        bim0[go + src.ic * S + k]! -= src.emf * yi;
       }
       if (hc >= 0) {
         are0[hc + k]! -= yr;
@@ -408,12 +442,22 @@ function prepareScratch(c: CompiledHarness, B: BatchScratch, m: number): void {
 
 /**
  * Fast path: replays the elimination program over the prepared frequencies for the knob setting
- * last stamped, writing V(out) into outRe/outIm from `offset`.
+ * last stamped, writing V(out) (the sum over the groups) into outRe/outIm from `offset`, and each
+ * group's own V(out) into `groupOut` when given.
  */
-function eliminateScratch(c: CompiledHarness, B: BatchScratch, outRe: Float64Array, outIm: Float64Array, offset: number): void {
+function eliminateScratch(
+  c: CompiledHarness,
+  B: BatchScratch,
+  outRe: Float64Array,
+  outIm: Float64Array,
+  offset: number,
+  groupOut?: GroupCurves,
+): void {
   const S = B.stride;
   const m = B.m;
   const n = c.size;
+  const gStep = n * S;
+  const gEnd = c.groups.length * gStep;
   const { are, aim, bre, bim, pr, pi, mr, mi, bad } = B;
   const are0 = B.are0;
   are.set(are0);
@@ -446,36 +490,29 @@ function eliminateScratch(c: CompiledHarness, B: BatchScratch, outRe: Float64Arr
           // Re(pivot) > 0 always holds on this path (see the header); the check is a safety net.
           if (!(ar > 0)) bad[k] = 1;
           const inv = 1 / (ar * ar + ai * ai);
-          const qr = ar * inv;
-          const qi = -ai * inv;
-          pr[k] = qr;
-          pi[k] = qi;
-          // multiplier A_ik / A_kk, with A_ik = A_ki (symmetric)
-          const fr = are[ki + k]!;
-          const fi = aim[ki + k]!;
-          const xr = fr * qr - fi * qi;
-          const xi = fr * qi + fi * qr;
-          mr[k] = xr;
-          mi[k] = xi;
-          const br = bre[kb + k]!;
-          const bi = bim[kb + k]!;
-          bre[ib + k]! -= xr * br - xi * bi;
-          bim[ib + k]! -= xr * bi + xi * br;
+          pr[k] = ar * inv;
+          pi[k] = -ai * inv;
         }
-      } else {
+      }
+      for (let k = 0; k < m; k++) {
+        // multiplier A_ik / A_kk, with A_ik = A_ki (symmetric)
+        const fr = are[ki + k]!;
+        const fi = aim[ki + k]!;
+        const qr = pr[k]!;
+        const qi = pi[k]!;
+        mr[k] = fr * qr - fi * qi;
+        mi[k] = fr * qi + fi * qr;
+      }
+      for (let go = 0; go < gEnd; go += gStep) {
+        const bk = go + kb;
+        const bi0 = go + ib;
         for (let k = 0; k < m; k++) {
-          const fr = are[ki + k]!;
-          const fi = aim[ki + k]!;
-          const qr = pr[k]!;
-          const qi = pi[k]!;
-          const xr = fr * qr - fi * qi;
-          const xi = fr * qi + fi * qr;
-          mr[k] = xr;
-          mi[k] = xi;
-          const br = bre[kb + k]!;
-          const bi = bim[kb + k]!;
-          bre[ib + k]! -= xr * br - xi * bi;
-          bim[ib + k]! -= xr * bi + xi * br;
+          const xr = mr[k]!;
+          const xi = mi[k]!;
+          const br = bre[bk + k]!;
+          const bi = bim[bk + k]!;
+          bre[bi0 + k]! -= xr * br - xi * bi;
+          bim[bi0 + k]! -= xr * bi + xi * br;
         }
       }
       for (let q = 0; q < cols; q++) {
@@ -494,19 +531,38 @@ function eliminateScratch(c: CompiledHarness, B: BatchScratch, outRe: Float64Arr
   }
   const last = c.upper[n * n - 1]! * S;
   const ob = (n - 1) * S;
+  const ng = c.groups.length;
   for (let k = 0; k < m; k++) {
     const r = are[last + k]!;
     const i = aim[last + k]!;
     if (bad[k] === 0 && r > 0) {
       const inv = 1 / (r * r + i * i);
-      const br = bre[ob + k]!;
-      const bi = bim[ob + k]!;
-      outRe[offset + k] = (br * r + bi * i) * inv;
-      outIm[offset + k] = (bi * r - br * i) * inv;
+      let sr = 0;
+      let si = 0;
+      for (let g = 0; g < ng; g++) {
+        const br = bre[g * gStep + ob + k]!;
+        const bi = bim[g * gStep + ob + k]!;
+        const vr = (br * r + bi * i) * inv;
+        const vi = (bi * r - br * i) * inv;
+        sr += vr;
+        si += vi;
+        if (groupOut) {
+          groupOut.re[g]![offset + k] = vr;
+          groupOut.im[g]![offset + k] = vi;
+        }
+      }
+      outRe[offset + k] = sr;
+      outIm[offset + k] = si;
     } else {
       solvePivoting(c, B.w[k]!);
       outRe[offset + k] = c.hRe;
       outIm[offset + k] = c.hIm;
+      if (groupOut) {
+        for (let g = 0; g < ng; g++) {
+          groupOut.re[g]![offset + k] = c.hgRe[g]!;
+          groupOut.im[g]![offset + k] = c.hgIm[g]!;
+        }
+      }
     }
   }
 }
@@ -521,9 +577,11 @@ function solvePivoting(c: CompiledHarness, w: number): void {
     are[i] = g[i]!;
     aim[i] = w * cap[i]! - iw * invL[i]!;
   }
+  const ng = c.groups.length;
   bre.fill(0);
   bim.fill(0);
   for (const src of c.sources) {
+    const go = src.g * n;
     const x = w * src.L;
     const d = src.R * src.R + x * x;
     const yr = src.R / d;
@@ -533,14 +591,14 @@ function solvePivoting(c: CompiledHarness, w: number): void {
     if (h >= 0) {
       are[h * n + h]! += yr;
       aim[h * n + h]! += yi;
-      bre[h]! += src.emf * yr;
-      bim[h]! += src.emf * yi;
+      bre[go + h]! += src.emf * yr;
+      bim[go + h]! += src.emf * yi;
     }
     if (q >= 0) {
       are[q * n + q]! += yr;
       aim[q * n + q]! += yi;
-      bre[q]! -= src.emf * yr;
-      bim[q]! -= src.emf * yi;
+      bre[go + q]! -= src.emf * yr;
+      bim[go + q]! -= src.emf * yi;
     }
     if (h >= 0 && q >= 0) {
       are[h * n + q]! -= yr;
@@ -572,20 +630,20 @@ function solvePivoting(c: CompiledHarness, w: number): void {
         aim[a] = aim[b]!;
         aim[b] = t;
       }
-      let t = bre[k]!;
-      bre[k] = bre[p]!;
-      bre[p] = t;
-      t = bim[k]!;
-      bim[k] = bim[p]!;
-      bim[p] = t;
+      for (let go = 0; go < ng * n; go += n) {
+        let t = bre[go + k]!;
+        bre[go + k] = bre[go + p]!;
+        bre[go + p] = t;
+        t = bim[go + k]!;
+        bim[go + k] = bim[go + p]!;
+        bim[go + p] = t;
+      }
     }
     const pr = are[kk]!;
     const pi = aim[kk]!;
     const pd = pr * pr + pi * pi;
     const ir = pr / pd;
     const ii = -pi / pd;
-    const brk = bre[k]!;
-    const bik = bim[k]!;
     for (let i = k + 1; i < n; i++) {
       const ik = i * n + k;
       const fr = are[ik]!;
@@ -599,8 +657,12 @@ function solvePivoting(c: CompiledHarness, w: number): void {
         are[i * n + j]! -= xr * ur - xi * ui;
         aim[i * n + j]! -= xr * ui + xi * ur;
       }
-      bre[i]! -= xr * brk - xi * bik;
-      bim[i]! -= xr * bik + xi * brk;
+      for (let go = 0; go < ng * n; go += n) {
+        const brk = bre[go + k]!;
+        const bik = bim[go + k]!;
+        bre[go + i]! -= xr * brk - xi * bik;
+        bim[go + i]! -= xr * bik + xi * brk;
+      }
     }
   }
   const last = nn - 1;
@@ -608,14 +670,34 @@ function solvePivoting(c: CompiledHarness, w: number): void {
   const pi = aim[last]!;
   const pd = pr * pr + pi * pi;
   if (!(pd > 0)) throw new Error('harness matrix is singular (a node with no connection at this frequency?)');
-  const br = bre[n - 1]!;
-  const bi = bim[n - 1]!;
-  c.hRe = (br * pr + bi * pi) / pd;
-  c.hIm = (bi * pr - br * pi) / pd;
+  let sr = 0;
+  let si = 0;
+  for (let g = 0; g < ng; g++) {
+    const br = bre[g * n + n - 1]!;
+    const bi = bim[g * n + n - 1]!;
+    const vr = (br * pr + bi * pi) / pd;
+    const vi = (bi * pr - br * pi) / pd;
+    c.hgRe[g] = vr;
+    c.hgIm[g] = vi;
+    sr += vr;
+    si += vi;
+  }
+  c.hRe = sr;
+  c.hIm = si;
 }
 
 const pointRe = new Float64Array(1);
 const pointIm = new Float64Array(1);
+const pointGroups = new WeakMap<CompiledHarness, GroupCurves>();
+
+function pointGroupsOf(c: CompiledHarness): GroupCurves {
+  let g = pointGroups.get(c);
+  if (!g) {
+    g = { re: c.groups.map(() => new Float64Array(1)), im: c.groups.map(() => new Float64Array(1)) };
+    pointGroups.set(c, g);
+  }
+  return g;
+}
 
 /**
  * Solves the network at one frequency (Hz) for the knob setting last given to setKnobs, leaving
@@ -629,7 +711,18 @@ export function solvePoint(c: CompiledHarness, frequency: number, method: 'auto'
   }
   c.point.f[0] = frequency;
   prepareScratch(c, c.point, 1);
-  eliminateScratch(c, c.point, pointRe, pointIm, 0);
+  if (c.groups.length === 1) {
+    eliminateScratch(c, c.point, pointRe, pointIm, 0);
+    c.hgRe[0] = pointRe[0]!;
+    c.hgIm[0] = pointIm[0]!;
+  } else {
+    const g = pointGroupsOf(c);
+    eliminateScratch(c, c.point, pointRe, pointIm, 0, g);
+    for (let i = 0; i < c.groups.length; i++) {
+      c.hgRe[i] = g.re[i]![0]!;
+      c.hgIm[i] = g.im[i]![0]!;
+    }
+  }
   c.hRe = pointRe[0]!;
   c.hIm = pointIm[0]!;
 }
@@ -640,7 +733,7 @@ export function solvePoint(c: CompiledHarness, frequency: number, method: 'auto'
  */
 export function prepareFrequencies(c: CompiledHarness, frequencies: ArrayLike<number>): void {
   const m = frequencies.length;
-  if (c.batch === null || c.batch.stride < m) c.batch = newScratch(Math.max(m, 1), c.slots, c.size);
+  if (c.batch === null || c.batch.stride < m) c.batch = newScratch(Math.max(m, 1), c.slots, c.size, c.groups.length);
   const B = c.batch;
   if (B.m === m) {
     // Same list as last time (the usual case while a knob is dragged): nothing to rebuild.
@@ -656,7 +749,7 @@ export function prepareFrequencies(c: CompiledHarness, frequencies: ArrayLike<nu
  * Solves every prepared frequency at the knob setting last given to setKnobs, writing V(out) into
  * outRe/outIm from `offset`. Allocates nothing.
  */
-export function solvePrepared(c: CompiledHarness, outRe: Float64Array, outIm: Float64Array, offset = 0): void {
+export function solvePrepared(c: CompiledHarness, outRe: Float64Array, outIm: Float64Array, offset = 0, groupOut?: GroupCurves): void {
   const B = c.batch;
   if (B === null) throw new Error('solvePrepared: call prepareFrequencies first');
   if (!c.staticOrder) {
@@ -664,10 +757,16 @@ export function solvePrepared(c: CompiledHarness, outRe: Float64Array, outIm: Fl
       solvePivoting(c, B.w[k]!);
       outRe[offset + k] = c.hRe;
       outIm[offset + k] = c.hIm;
+      if (groupOut) {
+        for (let g = 0; g < c.groups.length; g++) {
+          groupOut.re[g]![offset + k] = c.hgRe[g]!;
+          groupOut.im[g]![offset + k] = c.hgIm[g]!;
+        }
+      }
     }
     return;
   }
-  eliminateScratch(c, B, outRe, outIm, offset);
+  eliminateScratch(c, B, outRe, outIm, offset, groupOut);
 }
 
 export interface ComplexCurve {
@@ -692,4 +791,44 @@ export function solve(
   prepareFrequencies(compiled, frequencies);
   solvePrepared(compiled, res.re, res.im);
   return res;
+}
+
+/**
+ * The transfer and each source's own transfer (the other sources silent) at one knob setting:
+ * `total` is the sum of `groups[g]` (superposition; a reversed source enters with its negative EMF).
+ */
+export function solveGroups(
+  compiled: CompiledHarness,
+  knobs: Knobs,
+  frequencies: ArrayLike<number>,
+): { total: ComplexCurve; groups: ComplexCurve[] } {
+  const m = frequencies.length;
+  const total = { re: new Float64Array(m), im: new Float64Array(m) };
+  const out: GroupCurves = { re: compiled.groups.map(() => new Float64Array(m)), im: compiled.groups.map(() => new Float64Array(m)) };
+  setKnobs(compiled, knobs);
+  prepareFrequencies(compiled, frequencies);
+  solvePrepared(compiled, total.re, total.im, 0, out);
+  return { total, groups: out.re.map((re, g) => ({ re, im: out.im[g]! })) };
+}
+
+/**
+ * Changes the value of a resistor (Ω) or capacitor (F) of a compiled harness in place, without
+ * compiling again (the structure is unchanged; used by the treble-bleed finder). The next solve
+ * rebuilds the knob-independent part of the system.
+ */
+export function setPartValue(c: CompiledHarness, partId: string, value: number): void {
+  const part = c.fixedParts.get(partId);
+  if (!part) throw new Error(`setPartValue: no resistor or capacitor "${partId}"`);
+  if (!(Number.isFinite(value) && value > 0)) throw new Error(`setPartValue: ${partId} must be positive (got ${value})`);
+  if (part.value === value) return;
+  const n = c.size;
+  if (part.kind === 'resistor') {
+    stampReal(c.g0, n, part.ia, part.ib, 1 / value - 1 / part.value);
+    c.potSetting.fill(Number.NaN); // g = g0 + pots is stamped again on the next setKnobs
+  } else {
+    stampReal(c.cap, n, part.ia, part.ib, value - part.value);
+  }
+  part.value = value;
+  if (c.batch) c.batch.m = -1;
+  c.point.m = -1;
 }

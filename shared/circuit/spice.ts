@@ -2,7 +2,7 @@
 // `.end`), for a user's own simulator and for the engine's check against ngspice. Pots are written
 // as their two halves at the knob setting; the pickup as its EMF source, R and L in series, with C
 // (and Rp) across its terminals — the full lumped model, not the solver's Norton equivalent.
-import { GROUND, OUTPUT, potHalves, validateNetlist, type Knobs, type Netlist } from './netlist';
+import { GROUND, knobSetting, OUTPUT, potHalves, validateNetlist, type Knobs, type Netlist } from './netlist';
 
 export interface SpiceExportOptions {
   /** Hz, default 20 */
@@ -64,8 +64,12 @@ export function toSpiceNetlist(netlist: Netlist, knobs: Knobs, options: SpiceExp
   const node = nodeNamer();
   const el = elementNamer();
   const title = (netlist.title ?? 'harness').replace(/[\r\n]+/g, ' ');
+  // The knobs the pots follow, in order of first use: "(volume 5, tone 3)".
+  const knobIds: string[] = [];
+  for (const p of netlist.parts) if (p.kind === 'pot' && typeof p.knob === 'string' && !knobIds.includes(p.knob)) knobIds.push(p.knob);
+  const setting = knobIds.map((id) => `${id} ${knobSetting(id, knobs)}`).join(', ');
   const lines: string[] = [
-    `${title} (volume ${knobs.volume}, tone ${knobs.tone})`,
+    `${title}${setting ? ` (${setting})` : ''}`,
     '* Exported by the Lugbook harness engine: small-signal AC, transfer = V(out) per volt of pickup EMF.',
   ];
   for (const p of netlist.parts) {
@@ -81,7 +85,7 @@ export function toSpiceNetlist(netlist: Netlist, knobs: Knobs, options: SpiceExp
         break;
       case 'pot': {
         const { aw, wb } = potHalves(p, knobs);
-        lines.push(`* pot ${p.id}: ${spiceNumber(p.R)} ohm at knob ${typeof p.knob === 'string' ? `${p.knob} ${knobs[p.knob]}` : p.knob.fixed}`);
+        lines.push(`* pot ${p.id}: ${spiceNumber(p.R)} ohm at knob ${typeof p.knob === 'string' ? `${p.knob} ${knobSetting(p.knob, knobs)}` : p.knob.fixed}`);
         lines.push(`${el('R', `${p.id}_aw`)} ${node(p.a)} ${node(p.w)} ${spiceNumber(aw)}`);
         if (p.b !== undefined) lines.push(`${el('R', `${p.id}_wb`)} ${node(p.w)} ${node(p.b)} ${spiceNumber(wb)}`);
         break;
@@ -89,8 +93,10 @@ export function toSpiceNetlist(netlist: Netlist, knobs: Knobs, options: SpiceExp
       case 'pickup': {
         const emfNode = node(`${p.id}#emf`);
         const coilNode = node(`${p.id}#coil`);
-        lines.push(`* pickup ${p.id}: EMF in series with R and L from cold to hot, C (and Rp) across`);
-        lines.push(`${el('V', p.id)} ${emfNode} ${node(p.cold)} DC 0 AC ${spiceNumber(p.emf ?? 1)}`);
+        const emf = p.emf ?? 1;
+        lines.push(`* pickup ${p.id}${p.group !== undefined && p.group !== p.id ? ` (of ${p.group})` : ''}: EMF in series with R and L from cold to hot, C (and Rp) across${emf < 0 ? '; reversed' : ''}`);
+        // A reversed source is written as its magnitude at phase 180°.
+        lines.push(`${el('V', p.id)} ${emfNode} ${node(p.cold)} DC 0 AC ${spiceNumber(Math.abs(emf))}${emf < 0 ? ' 180' : ''}`);
         // A zero L or C (an ideal resistive source) is left out rather than written as 0.
         lines.push(`${el('R', `${p.id}_dc`)} ${emfNode} ${p.L > 0 ? coilNode : node(p.hot)} ${spiceNumber(p.R)}`);
         if (p.L > 0) lines.push(`${el('L', p.id)} ${coilNode} ${node(p.hot)} ${spiceNumber(p.L)}`);

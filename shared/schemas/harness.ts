@@ -1,5 +1,6 @@
 // Bodies of the harness routes: a preset with part values, or a whole netlist, and the knobs.
 import { z } from 'zod';
+import { LAYOUT_IDS } from '../circuit/layouts';
 import { TAPER_LAWS } from '@shared/taper/law';
 
 const positive = z.number().finite().positive('Must be more than zero.');
@@ -44,7 +45,7 @@ export const HarnessValuesSchema = z
 export type HarnessValuesInput = z.infer<typeof HarnessValuesSchema>;
 
 const node = z.string().min(1).max(40);
-const KnobRefSchema = z.union([z.enum(['volume', 'tone']), z.object({ fixed: z.number().min(0).max(10) })]);
+const KnobRefSchema = z.union([z.string().min(1).max(40), z.object({ fixed: z.number().min(0).max(10) })]);
 export const NetlistSchema = z.object({
   title: z.string().max(120).optional(),
   parts: z
@@ -54,7 +55,18 @@ export const NetlistSchema = z.object({
         z.object({ kind: z.literal('capacitor'), id: z.string().min(1).max(40), a: node, b: node, C: positive }),
         z.object({ kind: z.literal('inductor'), id: z.string().min(1).max(40), a: node, b: node, L: positive }),
         z.object({ kind: z.literal('pot'), id: z.string().min(1).max(40), a: node, b: node.optional(), w: node, R: positive, law: TaperLawSchema, knob: KnobRefSchema }),
-        z.object({ kind: z.literal('pickup'), id: z.string().min(1).max(40), hot: node, cold: node, R: positive, L: z.number().min(0), C: z.number().min(0), Rp: positive.optional(), emf: positive.optional() }),
+        z.object({
+          kind: z.literal('pickup'),
+          id: z.string().min(1).max(40),
+          hot: node,
+          cold: node,
+          R: positive,
+          L: z.number().min(0),
+          C: z.number().min(0),
+          Rp: positive.optional(),
+          emf: z.number().finite().refine((v) => v !== 0, 'A source of 0 V gives nothing.').optional(),
+          group: z.string().min(1).max(40).optional(),
+        }),
       ]),
     )
     .min(1)
@@ -63,34 +75,75 @@ export const NetlistSchema = z.object({
 
 const knob = z.number().finite().min(0, 'Knobs go from 0 to 10.').max(10, 'Knobs go from 0 to 10.');
 export const KnobsSchema = z.object({ volume: knob, tone: knob });
+/** Knob settings by knob id; a knob left out is at 10. */
+export const KnobRecordSchema = z.record(z.string().min(1).max(40), knob);
+
+export const LayoutIdSchema = z.enum(LAYOUT_IDS as [string, ...string[]]);
+/** A layout's values by key, checked against the layout's list in the handler (unknown key: 422). */
+export const LayoutValuesSchema = z.record(z.string().min(1).max(40), z.union([z.number(), TaperLawSchema]));
+export const LayoutOptionsSchema = z.record(z.string().min(1).max(40), z.string().min(1).max(40));
 
 const FrequenciesSchema = z.array(z.number().finite().positive().max(1e6)).min(2).max(2000);
 
+/**
+ * What a request simulates: a layout with its selector position, options and values (the whole
+ * instrument), a preset with values (the one-pickup networks, kept for older clients), or a netlist.
+ * Values are checked in the handler against the layout's or preset's list, so an unknown key is a 422.
+ */
 const HarnessSource = z.object({
+  layout: LayoutIdSchema.optional(),
+  selector: z.number().int().min(0).max(9).optional(),
+  options: LayoutOptionsSchema.optional(),
   preset: HarnessPresetIdSchema.optional(),
   netlist: NetlistSchema.optional(),
-  values: HarnessValuesSchema.optional(),
+  values: LayoutValuesSchema.optional(),
 });
 
-const oneSource = <T extends { preset?: unknown; netlist?: unknown }>(b: T) => (b.preset === undefined) !== (b.netlist === undefined);
-const oneSourceMessage = { message: 'Give either a preset or a netlist.', path: ['preset'] };
+const oneSource = <T extends { preset?: unknown; netlist?: unknown; layout?: unknown }>(b: T) =>
+  [b.preset, b.netlist, b.layout].filter((x) => x !== undefined).length === 1;
+const oneSourceMessage = { message: 'Give one of a layout, a preset or a netlist.', path: ['layout'] };
 
-export const SimulateRequestSchema = HarnessSource.extend({ knobs: KnobsSchema, frequencies: FrequenciesSchema.optional() }).refine(oneSource, oneSourceMessage);
+export const SimulateRequestSchema = HarnessSource.extend({ knobs: KnobRecordSchema.optional(), frequencies: FrequenciesSchema.optional() }).refine(oneSource, oneSourceMessage);
 export type SimulateRequest = z.infer<typeof SimulateRequestSchema>;
 
 export const SweepRequestSchema = HarnessSource.extend({
   volume: z.array(knob).min(1).max(41).optional(),
   tone: z.array(knob).min(1).max(41).optional(),
+  /** the knob ids of the two axes (default: the layout's first volume and first tone) */
+  volumeKnob: z.string().min(1).max(40).optional(),
+  toneKnob: z.string().min(1).max(40).optional(),
+  /** the other knobs */
+  knobs: KnobRecordSchema.optional(),
   frequencies: FrequenciesSchema.optional(),
 }).refine(oneSource, oneSourceMessage);
 export type SweepRequest = z.infer<typeof SweepRequestSchema>;
 
 export const NetlistRequestSchema = SimulateRequestSchema;
 
+export const BleedFinderRequestSchema = z.object({
+  layout: LayoutIdSchema,
+  selector: z.number().int().min(0).max(9).optional(),
+  options: LayoutOptionsSchema.optional(),
+  values: LayoutValuesSchema.optional(),
+  knobs: KnobRecordSchema.optional(),
+  series: z.enum(['E12', 'E24']).optional(),
+  weight: z.number().min(0, 'The weight lies between 0 and 1.').max(1, 'The weight lies between 0 and 1.').optional(),
+});
+export type BleedFinderRequest = z.infer<typeof BleedFinderRequestSchema>;
+
+/**
+ * A saved design: the whole instrument (layout, selector position, options, knobs, values; the
+ * load is the `load` option with its values). A design in the older shape (a preset instead of a
+ * layout) is still accepted and stored as the one-pickup layout with the preset's options.
+ */
 export const HarnessDesignInputSchema = z.object({
   name: z.string().trim().min(1, 'Name the design.').max(80),
-  preset: HarnessPresetIdSchema,
-  values: HarnessValuesSchema,
+  layout: LayoutIdSchema.optional(),
+  selector: z.number().int().min(0).max(9).optional(),
+  options: LayoutOptionsSchema.optional(),
+  knobs: KnobRecordSchema.optional().nullable(),
+  preset: HarnessPresetIdSchema.optional(),
+  values: LayoutValuesSchema,
   /** Measured parts whose values the design uses, by value key: { volumeR: partId, … }. */
   partRefs: z.record(z.string(), z.number().int().positive()).optional().nullable(),
   notes: z.string().trim().max(2000).optional().nullable(),

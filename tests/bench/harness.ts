@@ -6,7 +6,9 @@ import { Ngspice } from '../support/ngspice';
 import { timeMedian, timeMedianAsync, type BenchFigure } from './report';
 import { HARNESS_PRESETS } from '@shared/circuit/presets';
 import { compileHarness } from '@shared/circuit/solver';
-import { gridCurve, simulate, sweepKnobs } from '@shared/circuit/metrics';
+import { gridCurve, simulate, simulateInstrument, sweepKnobs } from '@shared/circuit/metrics';
+import { findBleed } from '@shared/circuit/bleed-finder';
+import { buildLayoutNetlist, LAYOUTS, layoutKnobs, resolveLayoutConfig, toneKnobs, volumeKnobs } from '@shared/circuit/layouts';
 import { toSpiceNetlist } from '@shared/circuit/spice';
 
 const KNOBS = [0, 1, 2, 3, 4, 5, 6, 7, 8, 9, 10];
@@ -71,6 +73,76 @@ export async function bench(): Promise<BenchFigure[]> {
       goal: '≤ 0.3 ms',
       met: curveMs <= 0.3,
     });
+  }
+  figures.push(...(await benchLayouts(ng)));
+  return figures;
+}
+
+/**
+ * The whole-instrument figures, per layout at its busiest position (the most pickups joined):
+ * one curve with metrics and per-pickup transfers, the 11-position volume family, every selector
+ * position at the current knobs, and the treble-bleed finder (E12 and E24), each beside ngspice
+ * running the same work in this run (one warm setting, scaled by the number of settings).
+ */
+export async function benchLayouts(ng: Ngspice): Promise<BenchFigure[]> {
+  const figures: BenchFigure[] = [];
+  for (const layout of LAYOUTS) {
+    const busiest = layout.selector.positions.length === 3 ? 1 : layout.selector.positions.length === 5 ? 3 : 0;
+    const { config } = resolveLayoutConfig(layout, { selector: busiest, options: { bleed: 'cap-parallel-r' } });
+    const netlist = buildLayoutNetlist(layout, config);
+    const compiled = compileHarness(netlist);
+    const knobs = layoutKnobs(layout, Object.fromEntries(layout.knobs.map((k) => [k.id, 6])));
+    const vk = volumeKnobs(layout)[0]!;
+    const tk = toneKnobs(layout)[0]!;
+    const deck = toSpiceNetlist(netlist, knobs);
+    const oneSpiceMs = await timeMedianAsync(() => ng.runAc(deck), 10, 2);
+
+    let step = 0;
+    const curveMs = timeMedian(() => simulateInstrument(compiled, { ...knobs, [vk]: (step++ % 101) / 10 }), 200, 50);
+    figures.push({
+      name: `harness curve 151 points + metrics + per pickup, ${layout.id} position ${busiest}`,
+      measured: fmt(curveMs),
+      reference: `ngspice warm, one setting ${fmt(oneSpiceMs)}`,
+      goal: '≤ 0.3 ms',
+      met: curveMs <= 0.3,
+    });
+
+    const familyMs = timeMedian(() => sweepKnobs(compiled, { volume: KNOBS, tone: [knobs[tk]!] }, undefined, { volumeKnob: vk, toneKnob: tk, knobs }), 50, 10);
+    figures.push({
+      name: `harness volume family (11 curves), ${layout.id}`,
+      measured: fmt(familyMs),
+      reference: `ngspice warm, 11 settings ≈ ${fmt(11 * oneSpiceMs)}`,
+      goal: '≤ 3 ms',
+      met: familyMs <= 3,
+    });
+
+    // every selector position at the current knobs: build, compile and solve each (the screen's overlay)
+    const positionsMs = timeMedian(() => {
+      for (const pos of layout.selector.positions) {
+        const c = resolveLayoutConfig(layout, { selector: pos.index, options: config.options }).config;
+        simulateInstrument(compileHarness(buildLayoutNetlist(layout, c)), knobs);
+      }
+    }, 50, 10);
+    figures.push({
+      name: `harness every selector position (${layout.selector.positions.length}), ${layout.id}`,
+      measured: fmt(positionsMs),
+      reference: `ngspice warm, ${layout.selector.positions.length} settings ≈ ${fmt(layout.selector.positions.length * oneSpiceMs)}`,
+      goal: '≤ 3 ms',
+      met: positionsMs <= 3,
+    });
+
+    for (const series of ['E12', 'E24'] as const) {
+      let evaluated = 0;
+      const finderMs = timeMedian(() => (evaluated = findBleed(layout, config, knobs, { series }).evaluated), 5, 1);
+      // ngspice would run every candidate at 9 volume settings (3 probe frequencies each, like the engine)
+      figures.push({
+        name: `treble-bleed finder ${series} (${evaluated} candidates × 9 volumes), ${layout.id}`,
+        measured: fmt(finderMs),
+        reference: `ngspice warm ≈ ${(evaluated * 9 * oneSpiceMs / 1000).toFixed(0)} s (one setting × candidates × volumes)`,
+        goal: series === 'E12' ? '≤ 300 ms' : '≤ 1.2 s',
+        met: finderMs <= (series === 'E12' ? 300 : 1200),
+      });
+    }
   }
   return figures;
 }

@@ -24,7 +24,8 @@ function netlistOf(body: { preset?: string; netlist?: Netlist; values?: HarnessV
     if (problems.length > 0) throw unprocessable(`The ${field} netlist cannot be solved: ${problems[0]}`, { [`${field}.netlist`]: problems.join('; ') });
     return body.netlist;
   }
-  const preset = getPreset(body.preset!)!;
+  const preset = body.preset ? getPreset(body.preset) : undefined;
+  if (!preset) throw unprocessable(`Give the ${field} as a preset or a netlist (whole-instrument layouts are not rendered yet).`, { [`${field}.preset`]: 'Required.' });
   return preset.build({ ...preset.defaults, ...(body.values ?? {}), ...override } as HarnessValues);
 }
 
@@ -52,7 +53,7 @@ export function renderRoutes(_ctx: AppContext) {
         throw new HttpError(413, 'too_long', `The recording is ${seconds.toFixed(1)} s long; at most ${RENDER_LIMITS.maxSeconds} s can be rendered.`, { file: `At most ${RENDER_LIMITS.maxSeconds} s.` });
       }
       if (header.frames === 0) throw new HttpError(422, 'invalid_file', 'The WAV file holds no samples.', { file: 'No samples.' });
-      const design = harnessResponse(netlistOf(body.design, 'design'), body.design.knobs);
+      const design = harnessResponse(netlistOf(body.design, 'design'), { volume: 10, tone: 10, ...(body.design.knobs ?? {}) });
       const chain = body.chain
         ? harnessResponse(netlistOf(body.chain, 'chain', body.chain.netlist ? {} : { ampR: body.chain.inputR, cableLength: body.chain.cableLength }), { volume: 10, tone: 10 })
         : undefined;

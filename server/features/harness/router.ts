@@ -5,24 +5,105 @@ import type { AppContext } from '@server/context';
 import { harnesses } from '@server/db/schema';
 import { forbidden, notFound, unprocessable } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
-import { DEFAULT_FREQUENCIES, simulate, sweepKnobs } from '@shared/circuit/metrics';
+import { findBleed } from '@shared/circuit/bleed-finder';
+import { buildLayoutNetlist, getLayout, LAYOUTS, layoutKnobs, PRESET_AS_LAYOUT, resolveLayoutConfig, toneKnobs, volumeKnobs, type LayoutDef } from '@shared/circuit/layouts';
+import { DEFAULT_FREQUENCIES, simulateInstrument, sweepKnobs } from '@shared/circuit/metrics';
 import { validateNetlist, type Netlist } from '@shared/circuit/netlist';
 import { DEFAULT_HARNESS_VALUES, getPreset, HARNESS_PRESETS, HARNESS_VALUE_FIELDS, PICKUP_PRESETS, type HarnessValues } from '@shared/circuit/presets';
 import { toSpiceNetlist } from '@shared/circuit/spice';
 import { IdParamsSchema } from '@shared/schemas/common';
-import { HarnessDesignInputSchema, NetlistRequestSchema, SimulateRequestSchema, SweepRequestSchema, type HarnessValuesInput } from '@shared/schemas/harness';
+import {
+  BleedFinderRequestSchema,
+  HarnessDesignInputSchema,
+  HarnessValuesSchema,
+  NetlistRequestSchema,
+  SimulateRequestSchema,
+  SweepRequestSchema,
+  type HarnessDesignInput,
+} from '@shared/schemas/harness';
 
 const DIAL = [0, 1, 2, 3, 4, 5, 6, 7, 8, 9, 10];
 
-/** The netlist a request names: a preset filled with its defaults and the given values, or a netlist as sent. */
-function netlistOf(body: { preset?: string; netlist?: Netlist; values?: HarnessValuesInput }): Netlist {
+interface SourceBody {
+  layout?: string;
+  selector?: number;
+  options?: Record<string, string>;
+  preset?: string;
+  netlist?: Netlist;
+  values?: Record<string, unknown>;
+  knobs?: Record<string, number>;
+}
+
+/** A 422 naming every field a layout request got wrong. */
+function layoutProblems(problems: { path: string; message: string }[]): never {
+  throw unprocessable(problems[0]!.message, Object.fromEntries(problems.map((p) => [p.path, p.message])));
+}
+
+/** Checks a layout request (selector, options, knobs, values) and fills in the defaults. */
+function layoutConfig(layout: LayoutDef, body: SourceBody) {
+  const { config, problems } = resolveLayoutConfig(layout, body);
+  if (problems.length > 0) layoutProblems(problems);
+  return config;
+}
+
+/**
+ * The netlist a request names, with its knob ids: a layout filled with its defaults and the given
+ * values, a preset (the older body), or a netlist as sent.
+ */
+function sourceOf(body: SourceBody): { netlist: Netlist; layout: LayoutDef | null; label: string } {
   if (body.netlist) {
     const problems = validateNetlist(body.netlist);
     if (problems.length > 0) throw unprocessable(`The netlist cannot be solved: ${problems[0]}`, { netlist: problems.join('; ') });
-    return body.netlist;
+    return { netlist: body.netlist, layout: null, label: 'netlist' };
   }
-  const preset = getPreset(body.preset!)!;
-  return preset.build({ ...preset.defaults, ...(body.values ?? {}) } as HarnessValues);
+  if (body.preset) {
+    const parsed = HarnessValuesSchema.strict().safeParse(body.values ?? {});
+    if (!parsed.success) {
+      const issue = parsed.error.issues[0]!;
+      const path = ['values', ...(issue.code === 'unrecognized_keys' ? [issue.keys[0]!] : issue.path.map(String))].join('.');
+      throw unprocessable(issue.code === 'unrecognized_keys' ? `This preset has no value "${issue.keys[0]}".` : issue.message, { [path]: issue.message });
+    }
+    const preset = getPreset(body.preset)!;
+    return { netlist: preset.build({ ...preset.defaults, ...parsed.data } as HarnessValues), layout: null, label: body.preset };
+  }
+  const layout = getLayout(body.layout!)!;
+  return { netlist: buildLayoutNetlist(layout, layoutConfig(layout, body)), layout, label: layout.id };
+}
+
+function checkKnobIds(ids: string[], layout: LayoutDef | null, field: string) {
+  if (!layout) return;
+  for (const id of ids) if (!layout.knobs.some((k) => k.id === id)) throw unprocessable(`This layout has no knob "${id}".`, { [field]: `Choose one of ${layout.knobs.map((k) => k.id).join(', ')}.` });
+}
+
+/** Every knob of the source at its setting (missing ones at 10). */
+function knobsOf(layout: LayoutDef | null, knobs: Record<string, number> = {}): Record<string, number> {
+  return layout ? layoutKnobs(layout, knobs) : { volume: 10, tone: 10, ...knobs };
+}
+
+/**
+ * The stored shape of a design: the whole instrument. A body in the older shape (a preset instead
+ * of a layout) becomes the one-pickup layout with the preset's options; values, options, selector
+ * and knobs are checked against the layout (422 naming the field).
+ */
+function designRow(body: HarnessDesignInput) {
+  if (body.layout !== undefined && body.preset !== undefined) throw unprocessable('Give a layout or a preset, not both.', { preset: 'Leave out the preset when giving a layout.' });
+  if (body.layout === undefined && body.preset === undefined) throw unprocessable('Give the design\'s layout.', { layout: 'Required.' });
+  const layoutId = body.layout ?? 'one-pickup';
+  const layout = getLayout(layoutId)!;
+  const options = body.preset !== undefined ? { ...PRESET_AS_LAYOUT[body.preset], ...(body.options ?? {}) } : (body.options ?? {});
+  const { problems } = resolveLayoutConfig(layout, { selector: body.selector, options, values: body.values, knobs: body.knobs ?? undefined });
+  if (problems.length > 0) layoutProblems(problems);
+  return {
+    name: body.name,
+    layout: layoutId,
+    selector: body.selector ?? 0,
+    options,
+    knobs: body.knobs ?? null,
+    preset: body.preset ?? null,
+    values: body.values,
+    partRefs: body.partRefs ?? null,
+    notes: body.notes ?? null,
+  };
 }
 
 export function harnessRoutes(ctx: AppContext) {
@@ -31,27 +112,62 @@ export function harnessRoutes(ctx: AppContext) {
 
   engine.get('/presets', {
     handle: () => ({
-      presets: HARNESS_PRESETS.map((p) => ({ id: p.id, name: p.name, description: p.description, defaults: p.defaults })),
+      presets: HARNESS_PRESETS.map((p) => ({ id: p.id, name: p.name, description: p.description, defaults: p.defaults, layout: 'one-pickup', options: PRESET_AS_LAYOUT[p.id] })),
       fields: HARNESS_VALUE_FIELDS,
       pickups: PICKUP_PRESETS,
       defaults: DEFAULT_HARNESS_VALUES,
     }),
   });
 
+  engine.get('/layouts', {
+    handle: () => ({
+      layouts: LAYOUTS.map((l) => ({
+        id: l.id,
+        name: l.name,
+        description: l.description,
+        pickups: l.pickups,
+        selector: l.selector,
+        knobs: l.knobs,
+        options: l.options,
+        values: l.values.map((v) => ({ key: v.key, name: v.name, quantity: v.quantity, unit: v.unit, default: v.default })),
+      })),
+    }),
+  });
+
   engine.post('/simulate', {
     schemas: { body: SimulateRequestSchema },
     handle: ({ body }) => {
-      const r = simulate(netlistOf(body), body.knobs, body.frequencies ?? DEFAULT_FREQUENCIES);
-      return { frequencies: Array.from(r.frequencies), magnitudeDb: Array.from(r.magnitudeDb), phaseDeg: Array.from(r.phaseDeg), metrics: r.metrics };
+      const { netlist, layout } = sourceOf(body);
+      const r = simulateInstrument(netlist, knobsOf(layout, body.knobs), body.frequencies ?? DEFAULT_FREQUENCIES);
+      return {
+        frequencies: Array.from(r.frequencies),
+        magnitudeDb: Array.from(r.magnitudeDb),
+        phaseDeg: Array.from(r.phaseDeg),
+        metrics: r.metrics,
+        signal: r.signal,
+        note: r.note,
+        perPickup: r.perPickup.map((p) => ({ pickupId: p.pickupId, magnitudeDb: Array.from(p.magnitudeDb), phaseDeg: Array.from(p.phaseDeg) })),
+      };
     },
   });
 
   engine.post('/sweep', {
     schemas: { body: SweepRequestSchema },
     handle: ({ body }) => {
-      const grid = sweepKnobs(netlistOf(body), { volume: body.volume ?? DIAL, tone: body.tone ?? DIAL }, body.frequencies ?? DEFAULT_FREQUENCIES);
+      const { netlist, layout } = sourceOf(body);
+      const volumeKnob = body.volumeKnob ?? (layout ? volumeKnobs(layout)[0]! : 'volume');
+      const toneKnob = body.toneKnob ?? (layout ? toneKnobs(layout)[0]! : 'tone');
+      checkKnobIds([volumeKnob], layout, 'volumeKnob');
+      checkKnobIds([toneKnob], layout, 'toneKnob');
+      const grid = sweepKnobs(netlist, { volume: body.volume ?? DIAL, tone: body.tone ?? DIAL }, body.frequencies ?? DEFAULT_FREQUENCIES, {
+        volumeKnob,
+        toneKnob,
+        knobs: knobsOf(layout, body.knobs),
+      });
       return {
         frequencies: Array.from(grid.frequencies),
+        volumeKnob,
+        toneKnob,
         volume: grid.volume,
         tone: grid.tone,
         magnitudeDb: Array.from(grid.magnitudeDb),
@@ -66,10 +182,22 @@ export function harnessRoutes(ctx: AppContext) {
   engine.post('/netlist', {
     schemas: { body: NetlistRequestSchema },
     handle: ({ body, res }) => {
-      const netlist = netlistOf(body);
-      const text = toSpiceNetlist({ ...netlist, title: netlist.title ?? `Lugbook harness ${body.preset ?? 'netlist'}` }, body.knobs);
-      res.attachment(`harness-${body.preset ?? 'netlist'}-v${body.knobs.volume}-t${body.knobs.tone}.cir`).type('text/plain').send(text);
+      const { netlist, layout, label } = sourceOf(body);
+      const knobs = knobsOf(layout, body.knobs);
+      const text = toSpiceNetlist({ ...netlist, title: netlist.title ? `Lugbook harness ${netlist.title}` : `Lugbook harness ${label}` }, knobs);
+      const suffix = Object.values(knobs).map((v) => String(v)).join('-');
+      res.attachment(`harness-${label}-${body.layout ? `p${body.selector ?? 0}-` : ''}${suffix}.cir`).type('text/plain').send(text);
       return undefined;
+    },
+  });
+
+  engine.post('/bleed-finder', {
+    schemas: { body: BleedFinderRequestSchema },
+    handle: ({ body }) => {
+      const layout = getLayout(body.layout)!;
+      const config = layoutConfig(layout, body);
+      const { candidates, evaluated } = findBleed(layout, config, layoutKnobs(layout, body.knobs), { series: body.series ?? 'E12', weight: body.weight ?? 0.7 });
+      return { candidates, evaluated, series: body.series ?? 'E12', weight: body.weight ?? 0.7 };
     },
   });
 
@@ -86,12 +214,14 @@ export function harnessRoutes(ctx: AppContext) {
   designs.post('/', {
     status: 201,
     schemas: { body: HarnessDesignInputSchema },
-    handle: ({ body, user }) =>
-      db.transaction((tx) => {
-        const row = tx.insert(harnesses).values({ ...body, ownerId: user.id }).returning().get();
-        audit(tx, { userId: user.id, action: 'harness.create', entity: 'harness', entityId: row.id, detail: { name: body.name, preset: body.preset } });
+    handle: ({ body, user }) => {
+      const design = designRow(body);
+      return db.transaction((tx) => {
+        const row = tx.insert(harnesses).values({ ...design, ownerId: user.id }).returning().get();
+        audit(tx, { userId: user.id, action: 'harness.create', entity: 'harness', entityId: row.id, detail: { name: body.name, layout: design.layout, preset: design.preset } });
         return row;
-      }),
+      });
+    },
   });
 
   designs.put('/:id', {
@@ -99,9 +229,10 @@ export function harnessRoutes(ctx: AppContext) {
     handle: ({ params, body, user }) => {
       const before = mustFind(params.id);
       if (!mayChangeOwned(before.ownerId, user)) throw forbidden('Only the design\'s owner (or qa/admin) may change it.');
+      const design = designRow(body);
       return db.transaction((tx) => {
-        const row = tx.update(harnesses).set({ ...body, updatedAt: Date.now() }).where(eq(harnesses.id, params.id)).returning().get();
-        audit(tx, { userId: user.id, action: 'harness.update', entity: 'harness', entityId: row.id, detail: { before: { name: before.name, preset: before.preset, values: before.values }, after: body } });
+        const row = tx.update(harnesses).set({ ...design, updatedAt: Date.now() }).where(eq(harnesses.id, params.id)).returning().get();
+        audit(tx, { userId: user.id, action: 'harness.update', entity: 'harness', entityId: row.id, detail: { before: { name: before.name, layout: before.layout, options: before.options, values: before.values }, after: design } });
         return row;
       });
     },

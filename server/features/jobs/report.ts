@@ -3,8 +3,9 @@
 import { desc, eq } from 'drizzle-orm';
 import type { DbLike } from '@server/db/client';
 import { harnesses, readings } from '@server/db/schema';
-import { simulate, sweepKnobs } from '@shared/circuit/metrics';
-import { getPreset, type HarnessValues } from '@shared/circuit/presets';
+import { buildLayoutNetlist, getLayout, layoutKnobs, resolveLayoutConfig, toneKnobs, volumeKnobs } from '@shared/circuit/layouts';
+import { simulateInstrument, sweepKnobs } from '@shared/circuit/metrics';
+import { getPreset } from '@shared/circuit/presets';
 import { nominalQuantity } from '@shared/analysis/reading-verdict';
 import { formatValue } from '@shared/units/format';
 import { QUANTITY_UNIT } from '@shared/units/quantities';
@@ -15,17 +16,30 @@ const fmtDb = (x: number) => `${x >= 0 ? '+' : ''}${x.toFixed(1)} dB`;
 export function harnessSummary(db: DbLike, harnessId: number | null): { text: string; csv: string } | null {
   if (!harnessId) return null;
   const design = db.select().from(harnesses).where(eq(harnesses.id, harnessId)).get();
-  const preset = design && getPreset(design.preset);
-  if (!design || !preset) return null;
-  const netlist = preset.build({ ...preset.defaults, ...(design.values as Partial<HarnessValues>) });
+  const layout = design && getLayout(design.layout);
+  if (!design || !layout) return null;
+  const { config, problems } = resolveLayoutConfig(layout, { selector: design.selector, options: design.options, values: design.values });
+  if (problems.length > 0) return null;
+  const netlist = buildLayoutNetlist(layout, config);
+  const knobs = layoutKnobs(layout, design.knobs ?? {});
+  const volumeKnob = volumeKnobs(layout)[0]!;
   const volume = [10, 8, 6, 4, 2];
-  const grid = sweepKnobs(netlist, { volume, tone: [10] });
-  const full = simulate(netlist, { volume: 10, tone: 10 });
+  const volumeName = layout.knobs.find((k) => k.id === volumeKnob)!.name.toLowerCase();
+  const grid = sweepKnobs(netlist, { volume, tone: [knobs[toneKnobs(layout)[0]!]!] }, undefined, { volumeKnob, toneKnob: toneKnobs(layout)[0]!, knobs });
+  const now = simulateInstrument(netlist, knobs);
+  const choice = (id: string) => layout.options.find((o) => o.id === id)!.choices.find((c) => c.id === config.options[id])!.name;
+  const preset = design.preset ? getPreset(design.preset) : undefined;
+  const loadValue = config.options.load === 'buffer' ? `${formatValue(config.values.bufferR as number, 'Ω')}` : config.options.load === 'low-impedance-pedal' ? `${formatValue(config.values.pedalR as number, 'Ω')}` : `${formatValue(config.values.ampR as number, 'Ω')}`;
   const lines = [
-    `Wiring: ${design.name} (${preset.name}).`,
-    `At full volume and tone the pickup's resonance sits at ${formatValue(full.metrics.peak.frequency, 'Hz')}, ${fmtDb(full.metrics.peakRiseDb)} above the bass.`,
-    'As the volume comes down (tone at 10):',
-    ...volume.map((v, i) => `  volume ${v}: level ${fmtDb(grid.volumeTaperDb[i]!)}, treble balance ${fmtDb(grid.trebleRetentionDb[i]!)} against full volume`),
+    `Wiring: ${design.name} (${layout.name}${preset ? `, from the preset ${preset.name}` : ''}), selector at ${layout.selector.positions[config.selector]!.name}.`,
+    `Options: ${layout.options.filter((o) => o.id !== 'load').map((o) => `${o.name.toLowerCase()}: ${choice(o.id).toLowerCase()}`).join('; ')}.`,
+    `Plays into: ${choice('load').toLowerCase()} (${loadValue}). Knobs: ${layout.knobs.map((k) => `${k.name.toLowerCase()} ${knobs[k.id]}`).join(', ')}.`,
+    now.metrics
+      ? `At these knobs the resonance sits at ${formatValue(now.metrics.peak.frequency, 'Hz')}, ${fmtDb(now.metrics.peakRiseDb)} above the bass.`
+      : `At these knobs: ${now.note}.`,
+    `As the ${volumeName} comes down:`,
+    ...volume.map((v, i) => `  ${volumeName} ${v}: level ${fmtDb(grid.volumeTaperDb[i]!)}, treble balance ${fmtDb(grid.trebleRetentionDb[i]!)} against full volume`),
+    'Predicted with every pickup as an equal signal source; a real string drives each pickup differently.',
   ];
   const csvRows = ['frequency_hz,' + volume.map((v) => `volume_${v}_db`).join(',')];
   grid.frequencies.forEach((f, k) => {

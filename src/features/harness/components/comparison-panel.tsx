@@ -3,7 +3,7 @@
 // figures and of the values that differ.
 import { useMemo } from 'react';
 import type uPlot from 'uplot';
-import type { Knobs } from '@shared/circuit/netlist';
+import type { VolumeToneKnobs as Knobs } from '@shared/circuit/netlist';
 import { HARNESS_VALUE_FIELDS, type HarnessPresetId, type HarnessValues } from '@shared/circuit/presets';
 import { Plot, SERIES_COLOURS, axis, frequencyX } from '@/components/charts/plot';
 import { Alert } from '@/components/ui/alert';

@@ -5,7 +5,7 @@ import { HarnessSafetyNote } from '@/components/safety/safety-notes';
 import { useCallback, useMemo, useReducer, useRef, useState } from 'react';
 import type uPlot from 'uplot';
 import { gridCurve } from '@shared/circuit/metrics';
-import type { Knobs } from '@shared/circuit/netlist';
+import type { VolumeToneKnobs as Knobs } from '@shared/circuit/netlist';
 import { HARNESS_PRESETS, type HarnessPresetId } from '@shared/circuit/presets';
 import { downloadPng } from '@/components/charts/plot';
 import { Alert } from '@/components/ui/alert';
@@ -18,6 +18,7 @@ import { useSpiceNetlist } from '../api/get-netlist';
 import { ComparisonPanel, type PinnedDesign } from './comparison-panel';
 import { activeErrors, designFromSaved, designReducer, initialDesign, presetOf, usedValues } from './design-state';
 import { DesignsPanel } from './designs-panel';
+import { InstrumentPanel } from './instrument-panel';
 import { formatKnob } from './harness-format';
 import { KnobSliders } from './knob-sliders';
 import { listenDesignOf, recordingChainOf } from './listen-design';
@@ -212,6 +213,10 @@ export function HarnessScreen() {
             <Alert>The wiring cannot be solved with these values: {b && 'error' in b ? b.error : ''}</Alert>
           )}
         </Panel>
+      </div>
+
+      <div className="mt-6">
+        <InstrumentPanel />
       </div>
 
       {ok && (

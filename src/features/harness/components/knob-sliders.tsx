@@ -1,7 +1,7 @@
 // The two knobs as sliders on the 0–10 dial. Native range inputs: arrow keys move 0.1, Page Up /
 // Page Down move 1, Home / End go to the stops; the value is announced as "6.5 of 10".
 import { useId } from 'react';
-import type { Knobs } from '@shared/circuit/netlist';
+import type { VolumeToneKnobs as Knobs } from '@shared/circuit/netlist';
 import { formatKnob } from './harness-format';
 
 const TICKS = [0, 1, 2, 3, 4, 5, 6, 7, 8, 9, 10];

@@ -1,7 +1,7 @@
 // How the design behaves as the volume knob turns, at the current tone: the volume taper (with
 // the pot's own law, unloaded, for reference), the treble retention, and the interaction index.
 import { useMemo } from 'react';
-import type { Knobs } from '@shared/circuit/netlist';
+import type { VolumeToneKnobs as Knobs } from '@shared/circuit/netlist';
 import { lawValue, type TaperLaw } from '@shared/taper/law';
 import { SERIES_COLOURS } from '@/components/charts/plot';
 import { Panel } from '@/components/ui/page-header';

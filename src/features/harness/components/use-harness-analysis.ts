@@ -4,7 +4,7 @@
 // redraws at once.
 import { useMemo } from 'react';
 import { simulate, sweepKnobs, type KnobGrid, type SimulationResult } from '@shared/circuit/metrics';
-import type { Knobs } from '@shared/circuit/netlist';
+import type { VolumeToneKnobs as Knobs } from '@shared/circuit/netlist';
 import { getPreset, type HarnessPresetId, type HarnessValues } from '@shared/circuit/presets';
 import { compileHarness, type CompiledHarness } from '@shared/circuit/solver';
 
