@@ -6,6 +6,7 @@ import type { AppContext } from '@server/context';
 import { analysisRoutes } from '@server/features/analysis/router';
 import { attachmentRoutes } from '@server/features/attachments/router';
 import { authRoutes } from '@server/features/auth/router';
+import { renderRoutes } from '@server/features/harness/render';
 import { harnessRoutes } from '@server/features/harness/router';
 import { compareRoutes } from '@server/features/compare/router';
 import { healthRoutes } from '@server/features/health/router';
@@ -36,6 +37,7 @@ function featureRouters(ctx: AppContext): ApiRouter[] {
     sweepRoutes(ctx),
     lotRoutes(ctx),
     ...harnessRoutes(ctx),
+    renderRoutes(ctx),
     jobRoutes(ctx),
     ...attachmentRoutes(ctx),
     ...compareRoutes(ctx),

@@ -67,6 +67,7 @@ export const ROUTE_PERMISSIONS: Record<string, RoutePermission> = {
   'POST /api/harness/simulate': 'read',
   'POST /api/harness/sweep': 'read',
   'POST /api/harness/netlist': 'read',
+  'POST /api/harness/render': 'read',
   'GET /api/harness/layouts': 'read',
   'POST /api/harness/bleed-finder': 'read',
   'GET /api/harnesses': 'read',

@@ -1,6 +1,7 @@
 // `npm run bench`: every speed figure of docs/computation.md §7 beside its reference, measured in this run.
 import { bench as fits } from './fits';
 import { bench as harness } from './harness';
+import { bench as listen } from './listen';
 import { bench as lotUpload } from './lot-upload';
 import type { BenchFigure } from './report';
 import { bench as valuesAndLots } from './values-and-lots';
@@ -9,6 +10,7 @@ const areas: [string, () => Promise<BenchFigure[]>][] = [
   ['Measurement engine', valuesAndLots],
   ['Fits', fits],
   ['Harness engine', harness],
+  ['Listen', listen],
   ['Lot upload', lotUpload],
 ];
 

@@ -21,6 +21,8 @@ import { DesignsPanel, type PresetDesign } from './designs-panel';
 import { InstrumentPanel } from './instrument-panel';
 import { formatKnob } from './harness-format';
 import { KnobSliders } from './knob-sliders';
+import { listenDesignOf, recordingChainOf } from './listen-design';
+import { ListenPanel } from './listen-panel';
 import { MetricsTable } from './metrics-table';
 import { ResponsePlot, type Curve } from './response-plot';
 import { SweepsPanel } from './sweeps-panel';
@@ -220,6 +222,18 @@ export function HarnessScreen() {
       {ok && (
         <div className="mt-6">
           <SweepsPanel analysis={ok} volumeLaw={design.values.volumeLaw} knobs={knobs} />
+        </div>
+      )}
+
+      {ok && (
+        <div className="mt-6">
+          <ListenPanel
+            designs={{
+              A: pinned ? listenDesignOf(pinned.label, pinned.preset, pinned.values, knobs) : null,
+              B: listenDesignOf(design.loaded?.name ?? preset.name, design.preset, design.values, knobs),
+            }}
+            chainFor={(inputR, cable) => recordingChainOf(design.preset, design.values, inputR, cable)}
+          />
         </div>
       )}
 

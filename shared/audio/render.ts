@@ -1,0 +1,17 @@
+// Rendering a recording (or any source signal) through a design: one impulse response for the
+// whole file, every channel convolved with it, the length kept (the tail cut).
+import { convolve, prepareFilter } from './convolve';
+import { impulseResponse, ratioResponse, type ResponseFunction } from './impulse';
+
+/** Largest boost of H(design)/H(recording chain), dB: beyond it the recording's own noise would be raised without bound. */
+export const MAX_CHAIN_BOOST_DB = 12;
+
+/**
+ * The channels through `design`; with `chain` (how the recording was made), through
+ * H(design)/H(chain) with the boost limited to +12 dB, so the pickup is not counted twice.
+ */
+export function renderChannels(channels: readonly Float32Array[], sampleRate: number, design: ResponseFunction, chain?: ResponseFunction): Float32Array[] {
+  const response = chain ? ratioResponse(design, chain, MAX_CHAIN_BOOST_DB) : design;
+  const filter = prepareFilter(impulseResponse(response, sampleRate));
+  return channels.map((c) => convolve(c, filter));
+}
