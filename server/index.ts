@@ -3,6 +3,7 @@ import { createApp } from '@server/app';
 import { createContext } from '@server/bootstrap';
 import { seedDemo } from '@server/db/seed';
 import { readEnv } from '@server/env';
+import { sweepUploads } from '@server/uploads/sweep';
 
 const env = readEnv();
 const ctx = createContext({
@@ -19,6 +20,9 @@ if (env.LUGBOOK_SEED_DEMO) {
   const seeded = await seedDemo(ctx, { password: env.LUGBOOK_DEMO_PASSWORD });
   if (seeded) console.log(`Seeded the demo workshop into ${env.dbFile}`);
 }
+
+const swept = sweepUploads(ctx.sqlite, env.uploadsDir);
+if (swept.incoming + swept.orphans > 0) console.log(`Removed ${swept.incoming} interrupted upload(s) and ${swept.orphans} unreferenced stored file(s).`);
 
 const server = createApp(ctx).listen(env.PORT, () => {
   console.log(`Lugbook is serving on http://localhost:${env.PORT} (data in ${env.LUGBOOK_DATA_DIR})`);

@@ -26,7 +26,7 @@ export const TaperRequestSchema = z.object({
     .min(3, 'A taper fit needs at least three readings.')
     .max(20_000),
   rotationUnit: z.enum(['deg', 'percent']),
-  fullRotationDeg: positive.max(3600).optional(),
+  fullRotationDeg: z.number().min(1, 'At least 1°.').max(3600).optional(),
   total: positive.optional(),
   nominal: positive.optional(),
   tolerancePct: positive.max(100).optional(),

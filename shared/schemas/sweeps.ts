@@ -29,5 +29,5 @@ export const SweepUploadFieldsSchema = z.object({
   kind: SweepKindSchema,
   mapping: MappingFieldSchema.optional(),
   /** Full mechanical rotation of the pot when the file gives degrees; default 300°. */
-  fullRotationDeg: z.coerce.number().positive().max(3600).optional(),
+  fullRotationDeg: z.coerce.number().min(1, 'At least 1°.').max(3600).optional(),
 });

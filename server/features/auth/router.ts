@@ -94,9 +94,19 @@ export function authRoutes(ctx: AppContext) {
       }
       const passwordHash = await hashPassword(body.password);
       const id = newId();
+      // The hash took a while: the invitation is checked again and spent in the same transaction as the
+      // insert, so two requests with one token give one account (the second finds it used: 410).
       db.transaction((tx) => {
+        const spent = tx
+          .update(invitations)
+          .set({ acceptedAt: Date.now() })
+          .where(and(eq(invitations.id, invite.id), isNull(invitations.acceptedAt), isNull(invitations.revokedAt)))
+          .run();
+        if (spent.changes !== 1) throw new HttpError(410, 'invitation_invalid', 'This invitation is unknown, used or expired. Ask an admin for a new one.');
+        if (tx.select({ id: users.id }).from(users).where(eq(users.email, invite.email)).get()) {
+          throw new HttpError(409, 'conflict', 'An account with this e-mail exists already; sign in instead.');
+        }
         tx.insert(users).values({ id, email: invite.email, name: body.name, role: invite.role, passwordHash }).run();
-        tx.update(invitations).set({ acceptedAt: Date.now() }).where(eq(invitations.id, invite.id)).run();
         audit(tx, { userId: id, action: 'auth.invitation-accepted', entity: 'user', entityId: id, detail: { role: invite.role } });
       });
       const session = await lucia.createSession(id, { createdAt: Date.now() });

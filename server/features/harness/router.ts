@@ -9,6 +9,7 @@ import { DEFAULT_FREQUENCIES, simulate, sweepKnobs } from '@shared/circuit/metri
 import { validateNetlist, type Netlist } from '@shared/circuit/netlist';
 import { DEFAULT_HARNESS_VALUES, getPreset, HARNESS_PRESETS, HARNESS_VALUE_FIELDS, PICKUP_PRESETS, type HarnessValues } from '@shared/circuit/presets';
 import { toSpiceNetlist } from '@shared/circuit/spice';
+import { solveOrRefuse } from './solvable';
 import { IdParamsSchema } from '@shared/schemas/common';
 import { HarnessDesignInputSchema, NetlistRequestSchema, SimulateRequestSchema, SweepRequestSchema, type HarnessValuesInput } from '@shared/schemas/harness';
 
@@ -41,7 +42,8 @@ export function harnessRoutes(ctx: AppContext) {
   engine.post('/simulate', {
     schemas: { body: SimulateRequestSchema },
     handle: ({ body }) => {
-      const r = simulate(netlistOf(body), body.knobs, body.frequencies ?? DEFAULT_FREQUENCIES);
+      const netlist = netlistOf(body);
+      const r = solveOrRefuse(() => simulate(netlist, body.knobs, body.frequencies ?? DEFAULT_FREQUENCIES), (x) => [x.magnitudeDb, x.phaseDeg]);
       return { frequencies: Array.from(r.frequencies), magnitudeDb: Array.from(r.magnitudeDb), phaseDeg: Array.from(r.phaseDeg), metrics: r.metrics };
     },
   });
@@ -49,7 +51,8 @@ export function harnessRoutes(ctx: AppContext) {
   engine.post('/sweep', {
     schemas: { body: SweepRequestSchema },
     handle: ({ body }) => {
-      const grid = sweepKnobs(netlistOf(body), { volume: body.volume ?? DIAL, tone: body.tone ?? DIAL }, body.frequencies ?? DEFAULT_FREQUENCIES);
+      const netlist = netlistOf(body);
+      const grid = solveOrRefuse(() => sweepKnobs(netlist, { volume: body.volume ?? DIAL, tone: body.tone ?? DIAL }, body.frequencies ?? DEFAULT_FREQUENCIES), (g) => [g.magnitudeDb, g.level1kDb]);
       return {
         frequencies: Array.from(grid.frequencies),
         volume: grid.volume,

@@ -4,6 +4,7 @@ import { desc, eq } from 'drizzle-orm';
 import type { DbLike } from '@server/db/client';
 import { harnesses, readings } from '@server/db/schema';
 import { simulate, sweepKnobs } from '@shared/circuit/metrics';
+import { solveChecked, UnsolvableHarness } from '@server/features/harness/solvable';
 import { getPreset, type HarnessValues } from '@shared/circuit/presets';
 import { nominalQuantity } from '@shared/analysis/reading-verdict';
 import { formatValue } from '@shared/units/format';
@@ -12,15 +13,23 @@ import type { JobDetail } from './repository';
 
 const fmtDb = (x: number) => `${x >= 0 ? '+' : ''}${x.toFixed(1)} dB`;
 
-export function harnessSummary(db: DbLike, harnessId: number | null): { text: string; csv: string } | null {
+export function harnessSummary(db: DbLike, harnessId: number | null): { text: string; csv: string | null } | null {
   if (!harnessId) return null;
   const design = db.select().from(harnesses).where(eq(harnesses.id, harnessId)).get();
   const preset = design && getPreset(design.preset);
   if (!design || !preset) return null;
   const netlist = preset.build({ ...preset.defaults, ...(design.values as Partial<HarnessValues>) });
   const volume = [10, 8, 6, 4, 2];
-  const grid = sweepKnobs(netlist, { volume, tone: [10] });
-  const full = simulate(netlist, { volume: 10, tone: 10 });
+  let grid: ReturnType<typeof sweepKnobs>;
+  let full: ReturnType<typeof simulate>;
+  try {
+    grid = solveChecked(() => sweepKnobs(netlist, { volume, tone: [10] }), (g) => [g.magnitudeDb, g.volumeTaperDb, g.trebleRetentionDb]);
+    full = solveChecked(() => simulate(netlist, { volume: 10, tone: 10 }), (r) => [r.magnitudeDb]);
+  } catch (err) {
+    // A design saved with values the engine cannot solve: the report says so instead of failing.
+    if (err instanceof UnsolvableHarness) return { text: `Wiring: ${design.name} (${preset.name}). Its predicted response could not be computed with the values saved in the design.`, csv: null };
+    throw err;
+  }
   const lines = [
     `Wiring: ${design.name} (${preset.name}).`,
     `At full volume and tone the pickup's resonance sits at ${formatValue(full.metrics.peak.frequency, 'Hz')}, ${fmtDb(full.metrics.peakRiseDb)} above the bass.`,
@@ -51,7 +60,7 @@ export function reportText(db: DbLike, job: JobDetail, shopMessage?: string): { 
     '',
     'Parts installed:',
     ...(partLines.length ? partLines : ['  (none recorded)']),
-    ...(harness ? ['', harness.text, '', 'The predicted curves are attached as CSV (level in dB against frequency).'] : []),
+    ...(harness ? ['', harness.text, ...(harness.csv ? ['', 'The predicted curves are attached as CSV (level in dB against frequency).'] : [])] : []),
     '',
     'Predictions come from a circuit model with the measured parts; your amplifier and cable change the exact figures.',
   ].join('\n');
