@@ -13,6 +13,8 @@ const ctx = createContext({
   publicUrl: env.PUBLIC_URL,
   smtpUrl: env.SMTP_URL,
   mailFrom: env.MAIL_FROM,
+  allowedHosts: env.LUGBOOK_ALLOWED_HOSTS,
+  ...(env.LUGBOOK_REQUEST_LOG ? { requestLog: process.stdout } : {}),
   clientDir: env.LUGBOOK_CLIENT_DIR ?? fileURLToPath(new URL('../dist/client', import.meta.url)),
 });
 

@@ -30,13 +30,17 @@ export function newAgent(app: TestApp['app']): TestAgent {
   return request.agent(app).set('Origin', ORIGIN).set('Host', HOST);
 }
 
-export async function createTestApp(opts: { signInLimits?: SignInLimits; studies?: boolean } = {}): Promise<TestApp> {
+export async function createTestApp(opts: { signInLimits?: SignInLimits; studies?: boolean; production?: boolean; requestLog?: NodeJS.WritableStream; clientDir?: string } = {}): Promise<TestApp> {
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'lugbook-test-'));
   const logs: string[] = [];
   const ctx = createContext({
     dbFile: path.join(dataDir, 'lugbook.db'),
     uploadsDir: path.join(dataDir, 'uploads'),
     signInLimits: opts.signInLimits ?? { perAddress: 1000, perAccount: 1000, windowMs: 60_000 },
+    allowedHosts: [HOST],
+    ...(opts.production ? { production: true } : {}),
+    ...(opts.requestLog ? { requestLog: opts.requestLog } : {}),
+    ...(opts.clientDir ? { clientDir: opts.clientDir } : {}),
     log: (m) => logs.push(m),
   });
   await seedDemo(ctx, { password: TEST_PASSWORD, studies: opts.studies ?? false });
