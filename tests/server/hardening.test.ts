@@ -182,3 +182,15 @@ describe('no leftover files', () => {
     for (const h of hashes) expect(fs.existsSync(path.join(dir, h.slice(0, 2), h))).toBe(true);
   });
 });
+
+describe('job reports', () => {
+  test('go only to the job\'s customer address or a member\'s address', async () => {
+    const tech = await t.as('tech');
+    const job = (await tech.post('/api/jobs').send({ customer: 'S. Example', customerEmail: 's@example.test', instrument: 'Guitar' }).expect(201)).body;
+    const stranger = await tech.post(`/api/jobs/${job.id}/report`).send({ to: 'someone@elsewhere.test' });
+    expect(stranger.status).toBe(422);
+    expect(stranger.body.error.fields).toHaveProperty('to');
+    expect((await tech.post(`/api/jobs/${job.id}/report`).send({})).status).toBe(200);
+    expect((await tech.post(`/api/jobs/${job.id}/report`).send({ to: 'QA@lugbook.test' })).status).toBe(200);
+  });
+});
