@@ -194,3 +194,19 @@ describe('job reports', () => {
     expect((await tech.post(`/api/jobs/${job.id}/report`).send({ to: 'QA@lugbook.test' })).status).toBe(200);
   });
 });
+
+describe('bounds on work size', () => {
+  test('a harness sweep beyond the bounds is 422 with the limit in words; the screen\'s own sweep passes', async () => {
+    const viewer = await t.as('viewer');
+    const grid = Array.from({ length: 41 }, (_, i) => i / 4);
+    const frequencies = Array.from({ length: 2000 }, (_, i) => 20 * 1.0035 ** i);
+    const big = await viewer.post('/api/harness/sweep').send({ preset: 'bleed-cap', volume: grid, tone: grid, frequencies });
+    expect(big.status).toBe(422);
+    expect(big.body.error.message).toMatch(/at most 48,400 points/);
+    const parts = Array.from({ length: 61 }, (_, i) => ({ kind: 'resistor', id: `R${i}`, a: i === 0 ? 'hot' : `n${i}`, b: `n${i + 1}`, R: 1000 }));
+    const many = await viewer.post('/api/harness/simulate').send({ netlist: { parts }, knobs: { volume: 10, tone: 10 } });
+    expect(many.status).toBe(422);
+    expect(many.body.error.message).toMatch(/at most 60 parts/);
+    expect((await viewer.post('/api/harness/sweep').send({ preset: 'bleed-cap' })).status).toBe(200);
+  });
+});

@@ -15,9 +15,29 @@ import { HarnessDesignInputSchema, NetlistRequestSchema, SimulateRequestSchema, 
 
 const DIAL = [0, 1, 2, 3, 4, 5, 6, 7, 8, 9, 10];
 
+/**
+ * Bounds on the work one request may ask for, set by what the screens need (a preset has under 12 parts;
+ * the Harness screen sweeps 11 × 11 knob settings at 151 frequencies): beyond them the answer is 422.
+ */
+export const HARNESS_LIMITS = { parts: 60, sweepPoints: 11 * 11 * 400 } as const;
+
+function assertWorkSize(netlist: Netlist, settings: number, frequencies: number) {
+  if (netlist.parts.length > HARNESS_LIMITS.parts) {
+    throw unprocessable(`A netlist may hold at most ${HARNESS_LIMITS.parts} parts; this one has ${netlist.parts.length}.`, { netlist: `At most ${HARNESS_LIMITS.parts} parts.` });
+  }
+  const points = settings * frequencies;
+  if (points > HARNESS_LIMITS.sweepPoints) {
+    throw unprocessable(
+      `One sweep may compute at most ${HARNESS_LIMITS.sweepPoints.toLocaleString('en')} points (knob settings × frequencies, e.g. 11 × 11 settings at 400 frequencies); this one asks for ${settings} × ${frequencies} = ${points.toLocaleString('en')}.`,
+      { frequencies: `At most ${HARNESS_LIMITS.sweepPoints.toLocaleString('en')} knob settings × frequencies.` },
+    );
+  }
+}
+
 /** The netlist a request names: a preset filled with its defaults and the given values, or a netlist as sent. */
 function netlistOf(body: { preset?: string; netlist?: Netlist; values?: HarnessValuesInput }): Netlist {
   if (body.netlist) {
+    assertWorkSize(body.netlist, 1, 1);
     const problems = validateNetlist(body.netlist);
     if (problems.length > 0) throw unprocessable(`The netlist cannot be solved: ${problems[0]}`, { netlist: problems.join('; ') });
     return body.netlist;
@@ -43,6 +63,7 @@ export function harnessRoutes(ctx: AppContext) {
     schemas: { body: SimulateRequestSchema },
     handle: ({ body }) => {
       const netlist = netlistOf(body);
+      assertWorkSize(netlist, 1, body.frequencies?.length ?? DEFAULT_FREQUENCIES.length);
       const r = solveOrRefuse(() => simulate(netlist, body.knobs, body.frequencies ?? DEFAULT_FREQUENCIES), (x) => [x.magnitudeDb, x.phaseDeg]);
       return { frequencies: Array.from(r.frequencies), magnitudeDb: Array.from(r.magnitudeDb), phaseDeg: Array.from(r.phaseDeg), metrics: r.metrics };
     },
@@ -52,6 +73,7 @@ export function harnessRoutes(ctx: AppContext) {
     schemas: { body: SweepRequestSchema },
     handle: ({ body }) => {
       const netlist = netlistOf(body);
+      assertWorkSize(netlist, (body.volume ?? DIAL).length * (body.tone ?? DIAL).length, body.frequencies?.length ?? DEFAULT_FREQUENCIES.length);
       const grid = solveOrRefuse(() => sweepKnobs(netlist, { volume: body.volume ?? DIAL, tone: body.tone ?? DIAL }, body.frequencies ?? DEFAULT_FREQUENCIES), (g) => [g.magnitudeDb, g.level1kDb]);
       return {
         frequencies: Array.from(grid.frequencies),
