@@ -1,7 +1,7 @@
 import { fileURLToPath } from 'node:url';
 import { createApp } from '@server/app';
 import { createContext } from '@server/bootstrap';
-import { seedDemo } from '@server/db/seed';
+import { seedDemo } from '@server/demo/seed';
 import { readEnv } from '@server/env';
 import { sweepUploads } from '@server/uploads/sweep';
 

@@ -1,16 +1,9 @@
 import { Router, type Request, type RequestHandler, type Response } from 'express';
-import type { z } from 'zod';
 import { authorize } from '@server/auth/middleware';
 import type { AuthUser } from '@server/auth/session';
-import { validate } from './validate';
+import { validate, type Out, type Schemas } from './validate';
 
 type Method = 'get' | 'post' | 'patch' | 'put' | 'delete';
-interface Schemas {
-  params?: z.ZodType;
-  query?: z.ZodType;
-  body?: z.ZodType;
-}
-type Out<S> = S extends z.ZodType ? z.output<S> : undefined;
 
 export interface Ctx<S extends Schemas> {
   req: Request;

@@ -2,18 +2,15 @@ import type { RequestHandler } from 'express';
 import type { z } from 'zod';
 import { HttpError } from './errors';
 
-interface Schemas {
+/** The zod schemas a route validates its params, query and body with. */
+export interface Schemas {
   params?: z.ZodType;
   query?: z.ZodType;
   body?: z.ZodType;
 }
 
-type Out<S> = S extends z.ZodType ? z.output<S> : undefined;
-export interface Valid<S extends Schemas> {
-  params: Out<S['params']>;
-  query: Out<S['query']>;
-  body: Out<S['body']>;
-}
+/** What a schema parses to; undefined where the route has no schema for that part. */
+export type Out<S> = S extends z.ZodType ? z.output<S> : undefined;
 
 declare global {
   // eslint-disable-next-line @typescript-eslint/no-namespace
@@ -54,9 +51,4 @@ export function validate<S extends Schemas>(schemas: S): RequestHandler {
     req.valid = valid;
     next();
   };
-}
-
-/** Typed access to what `validate(schemas)` parsed. */
-export function validOf<S extends Schemas>(req: { valid: unknown }, _schemas: S): Valid<S> {
-  return req.valid as Valid<S>;
 }

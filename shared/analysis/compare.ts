@@ -12,11 +12,10 @@
 //   pickup → volume pot (lug 3 to the pickup's hot, wiper to the output, lug 1 to ground) → cable
 //   capacitance and amplifier input resistance from the output to ground, relative to full rotation.
 import { summaryStatistics, type SummaryStatistics } from './lot-stats';
-import type { TaperLaw as FitLaw } from './taper';
 import { LEVEL_FREQUENCY } from '@shared/circuit/metrics';
 import { GROUND, OUTPUT, type Netlist } from '@shared/circuit/netlist';
 import { compileHarness, solve } from '@shared/circuit/solver';
-import type { TaperLaw as CircuitLaw } from '@shared/circuit/taper-law';
+import type { TaperLaw, TaperLawKind } from '@shared/taper/law';
 
 export type GroupBy = 'lot' | 'supplier' | 'none';
 
@@ -32,7 +31,7 @@ export interface ComparePot {
   /** The class's mid-rotation value as recorded on the part (fraction), if any. */
   taperM: number | null;
   fit: {
-    law: FitLaw;
+    law: TaperLawKind;
     m: number;
     r2: number;
     rmsPct: number;
@@ -208,25 +207,6 @@ export function compareTapers(pots: readonly ComparePot[], groupBy: GroupBy, gri
 // ---------------------------------------------------------------------------------------------
 // Loaded taper
 
-/**
- * The harness engine's law for a fitted law. Linear, audio and two-segment carry the same m. The
- * fit's reverse law has m = y(0.5) > 0.5 and is the exponential formula with that m; the engine's
- * reverse law is 1 − f(1 − x) with f the audio law of mid value m', so y(0.5) = 1 − m' and the
- * engine's m' is 1 − m (the identity is worked out in shared/analysis/taper.ts's header).
- */
-export function circuitLawOfFit(law: FitLaw, m: number): CircuitLaw {
-  switch (law) {
-    case 'linear':
-      return { kind: 'linear' };
-    case 'audio':
-      return { kind: 'audio', m };
-    case 'reverse':
-      return { kind: 'reverse', m: 1 - m };
-    case 'two-segment':
-      return { kind: 'two-segment', m };
-  }
-}
-
 export interface PickupModel {
   /** Ω */
   R: number;
@@ -246,7 +226,7 @@ export interface LoadModel {
 }
 
 /** Pickup → volume pot (the pot's fitted law and total) → cable C ∥ amplifier R. */
-export function volumeNetlist(pickup: PickupModel, pot: { R: number; law: CircuitLaw }, load: LoadModel): Netlist {
+export function volumeNetlist(pickup: PickupModel, pot: { R: number; law: TaperLaw }, load: LoadModel): Netlist {
   const parts: Netlist['parts'] = [
     { kind: 'pickup', id: 'pickup', hot: 'hot', cold: GROUND, R: pickup.R, L: pickup.L, C: pickup.C, ...(pickup.Rp ? { Rp: pickup.Rp } : {}) },
     { kind: 'pot', id: 'volume', a: GROUND, b: 'hot', w: OUTPUT, R: pot.R, law: pot.law, knob: 'volume' },

@@ -1,24 +1,15 @@
 // Potentiometer taper fit (COMPUTATION.md §3).
 //
 // Readings of the resistance from lug 1 to the wiper against rotation are normalised to
-// x = rotation fraction, y = R1W / R13 and compared with four laws, each with one parameter m = y(0.5)
-// (the "percent at mid-rotation"; linear has m = 0.5 fixed):
-//  - linear: y = x;
-//  - audio (exponential): y = (a^x − 1)/(a − 1), a = ((1 − m)/m)², m < 0.5
-//    (B. Holmes, "Modelling logarithmic potentiometer laws", 2017: y = a'·b^x − a', a' = 1/(b − 1),
-//    b = (1/y_m − 1)², which gives y(0.5) = y_m);
-//  - reverse audio: y = 1 − f(1 − x) with f the audio law of mid value 1 − m, so m > 0.5.
-//    Worked out here: 1 − f_{1−m}(1 − x) = (a^x − 1)/(a − 1) with the same a = ((1 − m)/m)², i.e. it is
-//    the same exponential formula with m above one half (Holmes' "anti-log" case, y_m ≈ 0.85);
-//  - two-segment: two straight tracks meeting at (0.5, m), as many carbon audio tracks are made
-//    (common practice, no published source).
+// x = rotation fraction, y = R1W / R13 and compared with the four laws of shared/taper/law.ts
+// (linear, audio, reverse audio, two-segment), each with one parameter m = y(0.5) (the "percent at
+// mid-rotation"; linear has m = 0.5 fixed).
 // Each law is fitted by least squares over m alone: a bounded one-dimensional minimisation (coarse
 // scan, then Brent's method: R. P. Brent, "Algorithms for Minimization without Derivatives", 1973,
 // ch. 5). The two-segment law is linear in m, so its fit is closed-form.
 import { formatPercent, formatValue } from '@shared/units/format';
 import { ANALYSIS_ENGINE_VERSION } from '@shared/analysis/engine-version';
-
-export type TaperLaw = 'linear' | 'audio' | 'reverse' | 'two-segment';
+import { lawCurve, taperLawValue, TAPER_LAWS, type ProfileLaw, type TaperLawKind } from '@shared/taper/law';
 
 export interface TaperPoint {
   rotation: number;
@@ -30,7 +21,7 @@ export interface TaperPoint {
 
 export interface TaperProfile {
   /** Expected law; 'audio-any' accepts audio or two-segment. */
-  law?: TaperLaw | 'audio-any';
+  law?: ProfileLaw;
   mMin?: number;
   mMax?: number;
   /** Largest acceptable end resistance, Ω. */
@@ -52,7 +43,7 @@ export interface TaperInput {
 }
 
 export interface TaperCandidate {
-  law: TaperLaw;
+  law: TaperLawKind;
   m: number;
   r2: number;
   rmsPct: number;
@@ -69,7 +60,7 @@ export interface TaperFlag {
 }
 
 export interface TaperFit {
-  law: TaperLaw;
+  law: TaperLawKind;
   /** y at x = 0.5, as a fraction. */
   m: number;
   /** R13 used for the normalisation, Ω. */
@@ -100,26 +91,6 @@ export interface TaperFit {
 const AUDIO_RANGE: [number, number] = [0.01, 0.5];
 const REVERSE_RANGE: [number, number] = [0.5, 0.99];
 const DEFAULT_FULL_ROTATION_DEG = 300;
-
-/** Exponential law with y(0.5) = m, a = ((1 − m)/m)² (Holmes 2017); expm1 keeps it exact near m = 0.5. */
-function exponentialLaw(m: number, x: number): number {
-  const la = 2 * Math.log((1 - m) / m);
-  if (Math.abs(la) < 1e-12) return x;
-  return Math.expm1(x * la) / Math.expm1(la);
-}
-
-/** Value of a law at rotation fraction x (0…1), as a fraction of R13. */
-export function taperLawValue(law: TaperLaw, m: number, x: number): number {
-  switch (law) {
-    case 'linear':
-      return x;
-    case 'audio':
-    case 'reverse':
-      return exponentialLaw(m, x);
-    case 'two-segment':
-      return x <= 0.5 ? 2 * m * x : m + 2 * (1 - m) * (x - 0.5);
-  }
-}
 
 export interface NormalisedTaper {
   /** Rotation fractions and resistance fractions, sorted by rotation. */
@@ -160,20 +131,10 @@ export function normaliseTaper(input: TaperInput): NormalisedTaper {
   return { x, y, order, total, totalSource };
 }
 
-function ssrOf(law: TaperLaw, m: number, x: number[], y: number[]): number {
+function ssrOf(law: TaperLawKind, m: number, x: number[], y: number[]): number {
+  const f = lawCurve(law, m);
   let s = 0;
-  if (law === 'linear') {
-    for (let i = 0; i < x.length; i++) s += ((y[i] as number) - (x[i] as number)) ** 2;
-    return s;
-  }
-  if (law === 'two-segment') {
-    for (let i = 0; i < x.length; i++) s += ((y[i] as number) - taperLawValue(law, m, x[i] as number)) ** 2;
-    return s;
-  }
-  const la = 2 * Math.log((1 - m) / m);
-  if (Math.abs(la) < 1e-12) return ssrOf('linear', m, x, y);
-  const den = Math.expm1(la);
-  for (let i = 0; i < x.length; i++) s += ((y[i] as number) - Math.expm1((x[i] as number) * la) / den) ** 2;
+  for (let i = 0; i < x.length; i++) s += ((y[i] as number) - f(x[i] as number)) ** 2;
   return s;
 }
 
@@ -246,7 +207,7 @@ function brentMinimise(f: (t: number) => number, lo: number, hi: number, tol: nu
 }
 
 /** Least-squares m of one law over its bounded range. */
-function fitLaw(law: TaperLaw, x: number[], y: number[]): { m: number; ssr: number } {
+function fitLaw(law: TaperLawKind, x: number[], y: number[]): { m: number; ssr: number } {
   if (law === 'linear') return { m: 0.5, ssr: ssrOf('linear', 0.5, x, y) };
   if (law === 'two-segment') {
     // y = m·g(x) + h(x): g = 2x, h = 0 for x ≤ 0.5; g = 2 − 2x, h = 2x − 1 above. Linear in m.
@@ -283,8 +244,6 @@ function fitLaw(law: TaperLaw, x: number[], y: number[]): { m: number; ssr: numb
   return r.value <= bestValue ? { m: r.t, ssr: r.value } : { m: grid[best] as number, ssr: bestValue };
 }
 
-const LAWS: TaperLaw[] = ['linear', 'audio', 'reverse', 'two-segment'];
-
 // Model choice: the one-parameter law with the smallest sum of squares, unless the linear law
 // (no free parameter) is not significantly worse: F = (SSR_lin − SSR_1)/(SSR_1/(n − 1)) below the
 // 99.9 % point of F(1, ∞) ≈ 10.83, or the fitted m is within 0.02 of one half. Both thresholds
@@ -303,7 +262,7 @@ export function fitTaper(input: TaperInput): TaperFit {
   let sst = 0;
   for (const v of y) sst += (v - mean) ** 2;
 
-  const fits = LAWS.map((law) => ({ law, ...fitLaw(law, x, y) }));
+  const fits = TAPER_LAWS.map((law) => ({ law, ...fitLaw(law, x, y) }));
   const r2Of = (ssr: number) => (sst > 0 ? 1 - ssr / sst : ssr === 0 ? 1 : 0);
   const rmsOf = (ssr: number) => Math.sqrt(ssr / n) * 100;
   const candidates: TaperCandidate[] = fits.map((f) => ({ law: f.law, m: f.m, r2: r2Of(f.ssr), rmsPct: rmsOf(f.ssr) }));

@@ -1,6 +1,6 @@
 // The netlist model of a harness: parts between named nodes. Ground is the node '0'; the engine's
 // transfer is the voltage at the node 'out' per volt of pickup EMF.
-import { lawValue, type TaperLaw } from './taper-law';
+import { lawValue, type TaperLaw } from '@shared/taper/law';
 
 export const GROUND = '0';
 export const OUTPUT = 'out';

@@ -5,7 +5,7 @@
 // wiper = jack), '0' (ground). The volume pot is a = '0' (the end R·y(x) away from the wiper, i.e.
 // lug 1), b = 'hot' (lug 3), w = 'out'.
 import { GROUND, OUTPUT, type Netlist, type Part } from './netlist';
-import type { TaperLaw } from './taper-law';
+import type { TaperLaw } from '@shared/taper/law';
 
 /** Part values of a harness, all in SI units (Ω, F, H, m, F/m) plus the two pots' laws. */
 export interface HarnessValues {

@@ -1,5 +1,6 @@
 // Bodies of the stateless analysis routes. Field names carry SI units: ohm, henry, farad, hertz.
 import { z } from 'zod';
+import { PROFILE_LAWS } from '@shared/taper/law';
 import { QUANTITIES } from '@shared/units/quantities';
 
 const finite = z.number().finite();
@@ -14,7 +15,7 @@ export const ValueRequestSchema = z.object({
 export const MarkingRequestSchema = z.object({ code: z.string().trim().min(1, 'Type a marking.').max(80) });
 
 export const TaperProfileSchema = z.object({
-  law: z.enum(['linear', 'audio', 'reverse', 'two-segment', 'audio-any']).optional(),
+  law: z.enum(PROFILE_LAWS).optional(),
   mMin: z.number().gt(0).lt(1).optional(),
   mMax: z.number().gt(0).lt(1).optional(),
   maxEndResistance: nonNegative.optional(),

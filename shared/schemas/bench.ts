@@ -1,5 +1,6 @@
 // Instruments, tolerance profiles and readings: the bench's records.
 import { z } from 'zod';
+import { PROFILE_LAWS } from '@shared/taper/law';
 import { PartKindSchema } from './common';
 
 export const READING_QUANTITIES = ['resistance', 'capacitance', 'inductance', 'dissipation', 'esr', 'q'] as const;
@@ -30,7 +31,7 @@ export type InstrumentInput = z.infer<typeof InstrumentInputSchema>;
 
 /** Kind-specific rules of a tolerance profile. Fractions for m; SI units elsewhere. */
 export const ProfileRulesSchema = z.object({
-  law: z.enum(['linear', 'audio', 'reverse', 'two-segment', 'audio-any']).optional(),
+  law: z.enum(PROFILE_LAWS).optional(),
   mMin: z.number().gt(0).lt(1).optional(),
   mMax: z.number().gt(0).lt(1).optional(),
   maxEndResistance: z.number().min(0).optional(),

@@ -1,14 +1,12 @@
 // Bodies of the harness routes: a preset with part values, or a whole netlist, and the knobs.
 import { z } from 'zod';
+import { TAPER_LAWS } from '@shared/taper/law';
 
 const positive = z.number().finite().positive('Must be more than zero.');
-const m = z.number().gt(0).lt(1);
-
+/** A pot's law with its mid-rotation value m = y(0.5) (shared/taper/law.ts); linear has none. */
 export const TaperLawSchema = z.discriminatedUnion('kind', [
   z.object({ kind: z.literal('linear') }),
-  z.object({ kind: z.literal('audio'), m }),
-  z.object({ kind: z.literal('reverse'), m }),
-  z.object({ kind: z.literal('two-segment'), m }),
+  z.object({ kind: z.enum(TAPER_LAWS).exclude(['linear']), m: z.number().gt(0).lt(1) }),
 ]);
 
 export const HARNESS_PRESET_IDS = [

@@ -1,8 +1,8 @@
 import { z } from 'zod';
+import { TAPER_LAWS } from '@shared/taper/law';
 import { PartKindSchema, PartStatusSchema, SiPositive, type PartKind } from './common';
 
-export const TAPER_CLASSES = ['linear', 'audio', 'reverse', 'two-segment'] as const;
-export const TaperClassSchema = z.enum(TAPER_CLASSES);
+export const TaperClassSchema = z.enum(TAPER_LAWS);
 
 /** The quantity a part's nominal value is of (pickups: their DC resistance). */
 export const NOMINAL_QUANTITY: Record<PartKind, 'resistance' | 'capacitance'> = {

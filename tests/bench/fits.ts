@@ -1,7 +1,8 @@
 // Speed of the taper and coil fits (COMPUTATION.md §7), each beside a reference measured in the same
 // run: a plain loop that evaluates the model once over the same points.
 import { fitCoil, coilImpedance, type CoilPoint } from '@shared/analysis/coil';
-import { fitTaper, taperLawValue, type TaperPoint } from '@shared/analysis/taper';
+import { fitTaper, type TaperPoint } from '@shared/analysis/taper';
+import { taperLawValue } from '@shared/taper/law';
 import { timeMedian, type BenchFigure } from './report';
 import { seededNormals } from '@shared/random/seeded';
 

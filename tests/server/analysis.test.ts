@@ -1,7 +1,8 @@
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { coilImpedance, fitCoil } from '@shared/analysis/coil';
 import { lotStatistics } from '@shared/analysis/lot-stats';
-import { fitTaper, taperLawValue } from '@shared/analysis/taper';
+import { fitTaper } from '@shared/analysis/taper';
+import { taperLawValue } from '@shared/taper/law';
 import { createTestApp, type TestApp } from '../support/app';
 
 let t: TestApp;

@@ -2,14 +2,14 @@ import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { parts } from '@server/db/schema';
 import { summaryStatistics } from '@shared/analysis/lot-stats';
-import { taperLawValue, type TaperLaw } from '@shared/analysis/taper';
+import { taperLawValue, type TaperLawKind } from '@shared/taper/law';
 import { createTestApp, type TestApp } from '../support/app';
 
 let t: TestApp;
 const ids: Record<string, number> = {};
 const lotIds: Record<string, number> = {};
 
-function potCsv(law: TaperLaw, m: number, total: number): string {
+function potCsv(law: TaperLawKind, m: number, total: number): string {
   const lines = ['Rotation (deg),R (kOhm)'];
   for (let deg = 0; deg <= 300; deg += 10) lines.push(`${deg},${((200 + (total - 200) * taperLawValue(law, m, deg / 300)) / 1e3).toFixed(4)}`);
   return lines.join('\n') + '\n';
@@ -20,8 +20,8 @@ interface PotSpec {
   lot: 'A' | 'B' | 'C';
   supplier: string;
   nominal: number;
-  taperClass: TaperLaw;
-  law: TaperLaw;
+  taperClass: TaperLawKind;
+  law: TaperLawKind;
   m: number;
   total: number;
   tags?: string;

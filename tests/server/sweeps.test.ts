@@ -2,7 +2,8 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { coilImpedance, fitCoil } from '@shared/analysis/coil';
-import { fitTaper, taperLawValue } from '@shared/analysis/taper';
+import { fitTaper } from '@shared/analysis/taper';
+import { taperLawValue } from '@shared/taper/law';
 import { createTestApp, type TestApp } from '../support/app';
 
 let t: TestApp;

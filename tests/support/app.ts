@@ -7,7 +7,7 @@ import type TestAgent from 'supertest/lib/agent';
 import { createApp } from '@server/app';
 import { createContext } from '@server/bootstrap';
 import type { AppContext } from '@server/context';
-import { DEMO_USERS, seedDemo } from '@server/db/seed';
+import { DEMO_USERS, seedDemo } from '@server/demo/seed';
 import type { SignInLimits } from '@server/features/auth/sign-in-limiter';
 import type { Role } from '@shared/schemas/common';
 

@@ -11,7 +11,8 @@ import { afterAll, describe, expect, test } from 'vitest';
 import { createContext } from '@server/bootstrap';
 import { applyMigrations, MIGRATIONS_DIR, openDatabase } from '@server/db/client';
 import * as schema from '@server/db/schema';
-import { seedDemo } from '@server/db/seed';
+import { seedDemo } from '@server/demo/seed';
+import { lawValue, type TaperLaw } from '@shared/taper/law';
 
 const dirs: string[] = [];
 const tempDir = () => {
@@ -88,6 +89,74 @@ describe('migrations keep every row', () => {
     const before = rowCounts(sqlite);
     migrate(drizzle(sqlite, { schema }), { migrationsFolder: foldersWithRebuild(sqlite) });
     expect(rowCounts(sqlite).readings).toBeLessThan(before.readings!);
+    sqlite.close();
+  });
+});
+
+/** The committed migrations up to and including `tag`, as a database that has not had the later ones saw them. */
+function foldersUpTo(tag: string): string {
+  const folder = tempDir();
+  fs.cpSync(MIGRATIONS_DIR, folder, { recursive: true });
+  const journalFile = path.join(folder, 'meta', '_journal.json');
+  const journal = JSON.parse(fs.readFileSync(journalFile, 'utf8')) as { entries: { tag: string }[] };
+  const last = journal.entries.findIndex((e) => e.tag === tag);
+  expect(last).toBeGreaterThanOrEqual(0);
+  journal.entries = journal.entries.slice(0, last + 1);
+  fs.writeFileSync(journalFile, JSON.stringify(journal));
+  return folder;
+}
+
+describe('0001: the reverse law’s m becomes its mid-rotation value y(0.5)', () => {
+  // Before 0001 a saved design's reverse law {kind: 'reverse', m} meant y = 1 − f(1 − x), f the
+  // audio law of mid value m (so y(0.5) = 1 − m). Written out here, independent of shared/taper/law.ts.
+  const audio = (m: number, x: number) => (((1 - m) / m) ** (2 * x) - 1) / (((1 - m) / m) ** 2 - 1);
+  const oldReverse = (m: number, x: number) => 1 - audio(m, 1 - x);
+
+  test('saved designs keep their curves and every other row is untouched', () => {
+    const sqlite = new Database(path.join(tempDir(), 'lugbook.db'));
+    migrate(drizzle(sqlite, { schema }), { migrationsFolder: foldersUpTo('0000_initial') });
+    sqlite.prepare("insert into users (id, email, name, role, password_hash) values ('u1', 'a@example.org', 'A', 'tech', 'x')").run();
+    const designs: [string, Record<string, unknown>][] = [
+      ['reverse volume', { volumeR: 500e3, volumeLaw: { kind: 'reverse', m: 0.15 }, toneLaw: { kind: 'audio', m: 0.2 } }],
+      ['reverse tone', { toneLaw: { kind: 'reverse', m: 0.3 }, volumeLaw: { kind: 'linear' } }],
+      ['both reverse', { volumeLaw: { kind: 'reverse', m: 0.1 }, toneLaw: { kind: 'reverse', m: 0.25 }, toneC: 22e-9 }],
+      ['no laws', { toneC: 47e-9 }],
+      ['two-segment', { volumeLaw: { kind: 'two-segment', m: 0.12 } }],
+    ];
+    const insert = sqlite.prepare("insert into harnesses (name, preset, \"values\", owner_id) values (?, 'independent-tone', ?, 'u1')");
+    for (const [name, values] of designs) insert.run(name, JSON.stringify(values));
+    sqlite.prepare("insert into parts (kind, label, taper_class, taper_m) values ('pot', 'POT-1', 'reverse', 0.85)").run();
+    const before = rowCounts(sqlite);
+
+    applyMigrations(sqlite, drizzle(sqlite, { schema }));
+
+    expect(rowCounts(sqlite)).toEqual(before);
+    const after = new Map(
+      (sqlite.prepare('select name, "values" as v from harnesses').all() as { name: string; v: string }[]).map((r) => [r.name, JSON.parse(r.v) as Record<string, TaperLaw | number>]),
+    );
+    for (const [name, old] of designs) {
+      const now = after.get(name)!;
+      for (const key of ['volumeLaw', 'toneLaw'] as const) {
+        const was = old[key] as TaperLaw | undefined;
+        if (was === undefined) {
+          expect(now[key]).toBeUndefined();
+          continue;
+        }
+        const law = now[key] as TaperLaw;
+        expect(law.kind).toBe(was.kind);
+        for (let k = 0; k <= 20; k++) {
+          const x = k / 20;
+          const oldY = was.kind === 'reverse' ? oldReverse(was.m, x) : lawValue(was, x);
+          expect(lawValue(law, x)).toBeCloseTo(oldY, 12);
+        }
+        if (was.kind === 'reverse') expect((law as { m: number }).m).toBeCloseTo(1 - was.m, 15);
+        else expect(law).toEqual(was);
+      }
+      // The other values are left as they were.
+      for (const [k, v] of Object.entries(old)) if (k !== 'volumeLaw' && k !== 'toneLaw') expect(now[k]).toEqual(v);
+    }
+    // A part's taper class m was always the mid-rotation figure: not touched.
+    expect(sqlite.prepare("select taper_m as m from parts where label = 'POT-1'").get()).toEqual({ m: 0.85 });
     sqlite.close();
   });
 });

@@ -2,7 +2,6 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { mean as ssMean, sampleStandardDeviation } from 'simple-statistics';
 import {
-  circuitLawOfFit,
   compareTapers,
   curveEnvelope,
   dialAtLevel,
@@ -17,12 +16,11 @@ import {
   type ComparePot,
 } from '@shared/analysis/compare';
 import { lotStatistics, summaryStatistics } from '@shared/analysis/lot-stats';
-import { taperLawValue, type TaperLaw } from '@shared/analysis/taper';
 import { simulate } from '@shared/circuit/metrics';
 import type { Netlist } from '@shared/circuit/netlist';
-import { lawValue } from '@shared/circuit/taper-law';
+import { lawValue, taperLawValue, type TaperLawKind } from '@shared/taper/law';
 
-function pot(partId: number, lot: number, law: TaperLaw, m: number, total: number, step = 10): ComparePot {
+function pot(partId: number, lot: number, law: TaperLawKind, m: number, total: number, step = 10): ComparePot {
   const points = [];
   for (let deg = 0; deg <= 300; deg += step) points.push({ x: deg / 300, r: total * taperLawValue(law, m, deg / 300) });
   return {
@@ -101,22 +99,6 @@ describe('curves on a common grid', () => {
     const env = curveEnvelope([[0, 0.5, 1], [null, 0.7, null]], 3);
     expect(env.n).toEqual([1, 2, 1]);
     expect(env.mean[1]).toBeCloseTo(0.6, 14);
-  });
-});
-
-describe('fitted law → harness engine law', () => {
-  it('gives the same y(x) for every law (two independent implementations of COMPUTATION.md §3)', () => {
-    const cases: [TaperLaw, number][] = [
-      ['linear', 0.5],
-      ['audio', 0.15],
-      ['reverse', 0.85],
-      ['reverse', 0.7],
-      ['two-segment', 0.12],
-    ];
-    for (const [law, m] of cases) {
-      const mapped = circuitLawOfFit(law, m);
-      for (const x of rotationGrid(51)) expect(lawValue(mapped, x)).toBeCloseTo(taperLawValue(law, m, x), 12);
-    }
   });
 });
 

@@ -1,6 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { fitTaper, normaliseTaper, taperLawValue, type TaperLaw, type TaperPoint } from '@shared/analysis/taper';
+import { fitTaper, normaliseTaper, type TaperPoint } from '@shared/analysis/taper';
+import { taperLawValue, type TaperLawKind } from '@shared/taper/law';
 import { seededNormals } from '@shared/random/seeded';
 
 // Check values of the exponential ("log") law y = (b^x − 1)/(b − 1), b = (1/y_m − 1)², copied from
@@ -13,7 +14,7 @@ const HOLMES_CHECKS: { m: number; at: [number, number][] }[] = [
   { m: 0.85, at: [[0.5, 0.85]] },
 ];
 
-function synthetic(law: TaperLaw, m: number, n: number, total: number, noise?: { seed: number; rel: number; abs: number }): TaperPoint[] {
+function synthetic(law: TaperLawKind, m: number, n: number, total: number, noise?: { seed: number; rel: number; abs: number }): TaperPoint[] {
   const g = noise ? seededNormals(noise.seed) : () => 0;
   return Array.from({ length: n }, (_, i) => {
     const x = i / (n - 1);
@@ -45,7 +46,7 @@ describe('taperLawValue', () => {
   });
 
   it('every law passes through (0, 0), (0.5, m) and (1, 1)', () => {
-    const cases: [TaperLaw, number][] = [['linear', 0.5], ['audio', 0.15], ['reverse', 0.8], ['two-segment', 0.2]];
+    const cases: [TaperLawKind, number][] = [['linear', 0.5], ['audio', 0.15], ['reverse', 0.8], ['two-segment', 0.2]];
     for (const [law, m] of cases) {
       expect(taperLawValue(law, m, 0)).toBeCloseTo(0, 12);
       expect(taperLawValue(law, m, 0.5)).toBeCloseTo(m, 12);
@@ -61,7 +62,7 @@ describe('fitTaper', () => {
     ['audio', 0.3],
     ['reverse', 0.85],
     ['two-segment', 0.15],
-  ] as [TaperLaw, number][])('recovers the %s law with m = %f from exact readings', (law, m) => {
+  ] as [TaperLawKind, number][])('recovers the %s law with m = %f from exact readings', (law, m) => {
     const fit = fitTaper({ points: synthetic(law, m, 31, 500_000), rotationUnit: 'deg', total: 500_000 });
     expect(fit.law).toBe(law);
     expect(fit.m).toBeCloseTo(m, 6);
@@ -72,11 +73,11 @@ describe('fitTaper', () => {
 
   it('property: each law and m is recovered from noisy readings (1 % of reading + 0.2 % of R13)', () => {
     const lawAndM = fc.oneof(
-      fc.constant<[TaperLaw, number]>(['linear', 0.5]),
-      fc.double({ min: 0.08, max: 0.35, noNaN: true }).map((m): [TaperLaw, number] => ['audio', m]),
-      fc.double({ min: 0.65, max: 0.92, noNaN: true }).map((m): [TaperLaw, number] => ['reverse', m]),
-      fc.double({ min: 0.08, max: 0.35, noNaN: true }).map((m): [TaperLaw, number] => ['two-segment', m]),
-      fc.double({ min: 0.65, max: 0.92, noNaN: true }).map((m): [TaperLaw, number] => ['two-segment', m]),
+      fc.constant<[TaperLawKind, number]>(['linear', 0.5]),
+      fc.double({ min: 0.08, max: 0.35, noNaN: true }).map((m): [TaperLawKind, number] => ['audio', m]),
+      fc.double({ min: 0.65, max: 0.92, noNaN: true }).map((m): [TaperLawKind, number] => ['reverse', m]),
+      fc.double({ min: 0.08, max: 0.35, noNaN: true }).map((m): [TaperLawKind, number] => ['two-segment', m]),
+      fc.double({ min: 0.65, max: 0.92, noNaN: true }).map((m): [TaperLawKind, number] => ['two-segment', m]),
     );
     fc.assert(
       fc.property(lawAndM, fc.integer({ min: 25, max: 300 }), fc.integer({ min: 1, max: 2 ** 31 - 1 }), ([law, m], n, seed) => {

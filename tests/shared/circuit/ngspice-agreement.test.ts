@@ -74,7 +74,7 @@ describe('harness engine against ngspice (COMPUTATION.md §6: within 0.001 dB, 2
         volumeR: 250e3,
         volumeLaw: { kind: 'linear' },
         toneR: 250e3,
-        toneLaw: { kind: 'reverse', m: 0.2 },
+        toneLaw: { kind: 'reverse', m: 0.8 },
         toneC: 47e-9,
         cableLength: 6,
       };

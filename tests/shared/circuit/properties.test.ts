@@ -6,7 +6,7 @@ import { HARNESS_PRESETS, type HarnessValues } from '@shared/circuit/presets';
 import { compileHarness, setKnobs, solve, solvePoint } from '@shared/circuit/solver';
 import { DEFAULT_FREQUENCIES } from '@shared/circuit/metrics';
 import type { Netlist, Part } from '@shared/circuit/netlist';
-import type { TaperLaw } from '@shared/circuit/taper-law';
+import type { TaperLaw } from '@shared/taper/law';
 
 /** Log-uniform positive value between lo and hi. */
 const logUniform = (lo: number, hi: number) =>
@@ -14,7 +14,7 @@ const logUniform = (lo: number, hi: number) =>
 const law: fc.Arbitrary<TaperLaw> = fc.oneof(
   fc.constant<TaperLaw>({ kind: 'linear' }),
   fc.double({ min: 0.05, max: 0.45, noNaN: true }).map((m): TaperLaw => ({ kind: 'audio', m })),
-  fc.double({ min: 0.05, max: 0.45, noNaN: true }).map((m): TaperLaw => ({ kind: 'reverse', m })),
+  fc.double({ min: 0.55, max: 0.95, noNaN: true }).map((m): TaperLaw => ({ kind: 'reverse', m })),
   fc.double({ min: 0.05, max: 0.45, noNaN: true }).map((m): TaperLaw => ({ kind: 'two-segment', m })),
 );
 const values: fc.Arbitrary<HarnessValues> = fc.record({
@@ -120,13 +120,14 @@ describe('harness properties', () => {
   });
 
   it('a reverse-law pot wired end for end at 10 − x is the audio-law pot at x', () => {
-    // y_reverse(1 − x) = 1 − y_audio(x) (COMPUTATION.md §3), so the two halves simply swap ends.
+    // With mid-rotation values 1 − m and m, y_reverse(1 − x) = 1 − y_audio(x) (shared/taper/law.ts),
+    // so the two halves simply swap ends.
     fc.assert(
       fc.property(preset, values, knob, knob, fc.double({ min: 0.05, max: 0.45, noNaN: true }), (p, v, volume, tone, m) => {
         const audio = p.build({ ...v, volumeLaw: { kind: 'audio', m } });
         const swapped: Netlist = {
           parts: audio.parts.map((part): Part =>
-            part.id === 'volume' && part.kind === 'pot' ? { ...part, a: part.b!, b: part.a, law: { kind: 'reverse', m }, knob: { fixed: 10 - volume } } : part,
+            part.id === 'volume' && part.kind === 'pot' ? { ...part, a: part.b!, b: part.a, law: { kind: 'reverse', m: 1 - m }, knob: { fixed: 10 - volume } } : part,
           ),
         };
         const a = solve(compileHarness(audio), { volume, tone }, FREQS);

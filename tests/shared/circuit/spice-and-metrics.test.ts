@@ -4,7 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { getPreset, HARNESS_PRESETS, HARNESS_VALUE_FIELDS } from '@shared/circuit/presets';
 import { spiceNumber, toSpiceNetlist } from '@shared/circuit/spice';
 import { DEFAULT_FREQUENCIES, gridCurve, logFrequencies, simulate, sweepKnobs } from '@shared/circuit/metrics';
-import { lawValue } from '@shared/circuit/taper-law';
+import { lawValue } from '@shared/taper/law';
 import { compileHarness } from '@shared/circuit/solver';
 import { MIN_POT_RESISTANCE } from '@shared/circuit/netlist';
 

@@ -4,7 +4,8 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { PART_KINDS, PartKindSchema, type PartKind } from '@shared/schemas/common';
-import { CreatePartInputSchema, NOMINAL_QUANTITY, TAPER_CLASSES, type Part } from '@shared/schemas/parts';
+import { CreatePartInputSchema, NOMINAL_QUANTITY, type Part } from '@shared/schemas/parts';
+import { TAPER_LAW_LABEL, TAPER_LAWS } from '@shared/taper/law';
 import { formatValue } from '@shared/units/format';
 import { tryParseValue } from '@shared/units/parse';
 import { Alert } from '@/components/ui/alert';
@@ -14,7 +15,6 @@ import { applyServerError } from '@/lib/form';
 import { useCreatePart } from '../api/create-part';
 
 const KIND_LABEL: Record<PartKind, string> = { pot: 'Pot', capacitor: 'Capacitor', resistor: 'Resistor', pickup: 'Pickup', other: 'Other' };
-const TAPER_LABEL: Record<(typeof TAPER_CLASSES)[number], string> = { linear: 'Linear', audio: 'Audio', reverse: 'Reverse audio', 'two-segment': 'Two-segment' };
 
 const Fields = z.object({ kind: PartKindSchema, label: z.string(), nominal: z.string(), tolerancePct: z.string(), taperClass: z.string() });
 type Values = z.input<typeof Fields>;
@@ -84,9 +84,9 @@ export function QuickPartForm({ label, onCreated, onCancel }: { label: string; o
         {kind === 'pot' && (
           <SelectField label="Taper class" error={errors.taperClass?.message} {...form.register('taperClass')}>
             <option value="">Not given</option>
-            {TAPER_CLASSES.map((t) => (
+            {TAPER_LAWS.map((t) => (
               <option key={t} value={t}>
-                {TAPER_LABEL[t]}
+                {TAPER_LAW_LABEL[t]}
               </option>
             ))}
           </SelectField>

@@ -1,9 +1,10 @@
 // Helpers of the Compare screen: group colours, number formats, the loaded tapers computed in the
 // browser with the shared harness engine, and the rows of the CSV exports.
-import { circuitLawOfFit, dialAtLevel, loadedTaper, volumeNetlist, type CompareGroup, type LoadedTaper, type PickupModel } from '@shared/analysis/compare';
+import { dialAtLevel, loadedTaper, volumeNetlist, type CompareGroup, type LoadedTaper, type PickupModel } from '@shared/analysis/compare';
 import { PICKUP_PRESETS } from '@shared/circuit/presets';
 import { CABLE_CAPACITANCE_PER_METRE, type CompareSettings } from '@shared/schemas/compare';
 import { formatValue } from '@shared/units/format';
+import { taperLaw } from '@shared/taper/law';
 import { SERIES_COLOURS } from '@/components/charts/plot';
 import type { CandidatePickup, TaperPot } from '../api/types';
 
@@ -19,8 +20,6 @@ export const pct = (fraction: number | null | undefined, digits = 1) => (fractio
 export const signedPct = (p: number | null | undefined, digits = 1) => (p === null || p === undefined || !Number.isFinite(p) ? '—' : `${p > 0 ? '+' : ''}${p.toFixed(digits)} %`);
 export const ohms = (v: number | null | undefined) => (v === null || v === undefined || !Number.isFinite(v) ? '—' : formatValue(v, 'Ω'));
 export const dial = (v: number | null | undefined) => (v === null || v === undefined ? '—' : v.toFixed(2));
-
-export const LAW_LABEL: Record<string, string> = { linear: 'Linear', audio: 'Audio', reverse: 'Reverse audio', 'two-segment': 'Two-segment' };
 
 /** The pickup model a setting names; null when a measured pickup is chosen but not (or no longer) listed. */
 export function pickupModel(choice: CompareSettings['pickup'], measured: readonly CandidatePickup[]): { model: PickupModel; name: string } | null {
@@ -45,7 +44,7 @@ export interface PotLoaded {
 export function loadedTapers(pots: readonly TaperPot[], pickup: PickupModel, settings: Pick<CompareSettings, 'cableLength' | 'ampR'>): PotLoaded[] {
   const load = { cableC: settings.cableLength * CABLE_CAPACITANCE_PER_METRE, ampR: settings.ampR };
   return pots.map((pot) => {
-    const taper = loadedTaper(volumeNetlist(pickup, { R: pot.fit.total, law: circuitLawOfFit(pot.fit.law, pot.fit.m) }, load));
+    const taper = loadedTaper(volumeNetlist(pickup, { R: pot.fit.total, law: taperLaw(pot.fit.law, pot.fit.m) }, load));
     return { pot, taper, marks: LEVEL_MARKS.map((db) => dialAtLevel(taper.dial, taper.relativeDb, db)) };
   });
 }

@@ -2,11 +2,10 @@
 import { useId, useMemo, useState } from 'react';
 import type { GroupBy } from '@shared/analysis/compare';
 import type { CompareSelection } from '@shared/schemas/compare';
-import { TAPER_CLASSES } from '@shared/schemas/parts';
+import { TAPER_LAW_LABEL, TAPER_LAWS } from '@shared/taper/law';
 import { formatValue } from '@shared/units/format';
 import { SelectField, TextField } from '@/components/ui/field';
 import type { CompareCandidates } from '../api/types';
-import { LAW_LABEL } from './compare-model';
 
 function toggle<T>(list: readonly T[] | undefined, value: T, on: boolean): T[] | undefined {
   const next = (list ?? []).filter((v) => v !== value);
@@ -96,7 +95,7 @@ export function SelectionPanel({ candidates, selection, onChange }: { candidates
         <div className="space-y-3">
           <CheckList
             legend="Taper class"
-            items={TAPER_CLASSES.map((c) => ({ key: c, label: LAW_LABEL[c], checked: selection.taperClasses?.includes(c) ?? false, onChange: (on) => set({ taperClasses: toggle(selection.taperClasses, c, on) }) }))}
+            items={TAPER_LAWS.map((c) => ({ key: c, label: TAPER_LAW_LABEL[c], checked: selection.taperClasses?.includes(c) ?? false, onChange: (on) => set({ taperClasses: toggle(selection.taperClasses, c, on) }) }))}
           />
           <SelectField label="Nominal" value={selection.nominal ?? ''} onChange={(e) => set({ nominal: e.target.value ? Number(e.target.value) : undefined })}>
             <option value="">Any nominal</option>
@@ -156,7 +155,7 @@ export function describeSelection(s: CompareSelection, c: CompareCandidates | un
   if (s.lotIds?.length) parts.push(`lots ${s.lotIds.map((id) => c?.lots.find((l) => l.id === id)?.code ?? `#${id}`).join(', ')}`);
   if (s.suppliers?.length) parts.push(`from ${s.suppliers.join(', ')}`);
   if (s.nominal !== undefined) parts.push(formatValue(s.nominal, 'Ω'));
-  if (s.taperClasses?.length) parts.push(s.taperClasses.map((t) => LAW_LABEL[t]).join(' or '));
+  if (s.taperClasses?.length) parts.push(s.taperClasses.map((t) => TAPER_LAW_LABEL[t]).join(' or '));
   if (s.createdFrom || s.createdTo) parts.push(`added ${s.createdFrom ?? '…'} to ${s.createdTo ?? '…'}`);
   if (s.tag) parts.push(`tagged “${s.tag}”`);
   const base = parts.length ? parts.join(', ') : s.partIds?.length ? '' : 'all pots with sweeps';

@@ -3,13 +3,12 @@
 import { useMemo, useRef, useState } from 'react';
 import type uPlot from 'uplot';
 import type { AlignedData, Options } from 'uplot';
-import { taperLawValue, type TaperLaw } from '@shared/analysis/taper';
+import { TAPER_LAW_LABEL, TAPER_LAWS, taperLawValue, TYPICAL_MID, type TaperLawKind } from '@shared/taper/law';
 import { axis, downloadPng, Plot } from '@/components/charts/plot';
 import { Button } from '@/components/ui/button';
 import type { CompareTapersResponse } from '../api/types';
-import { LAW_LABEL, withAlpha } from './compare-model';
+import { withAlpha } from './compare-model';
 
-const DEFAULT_CLASS_M: Record<string, number> = { linear: 0.5, audio: 0.15, reverse: 0.85, 'two-segment': 0.15 };
 
 interface Readout {
   series: string;
@@ -23,11 +22,11 @@ export function TaperOverlay({ data, colours, envelope }: { data: CompareTapersR
 
   // Nominal laws of the classes present (the part's recorded m, else the class's usual value).
   const references = useMemo(() => {
-    const seen = new Map<string, { law: TaperLaw; m: number }>();
+    const seen = new Map<string, { law: TaperLawKind; m: number }>();
     for (const p of data.pots) {
-      if (!p.taperClass || !(p.taperClass in DEFAULT_CLASS_M)) continue;
-      const law = p.taperClass as TaperLaw;
-      const m = law === 'linear' ? 0.5 : (p.taperM ?? DEFAULT_CLASS_M[law]!);
+      const law = TAPER_LAWS.find((l) => l === p.taperClass);
+      if (!law) continue;
+      const m = law === 'linear' ? 0.5 : (p.taperM ?? TYPICAL_MID[law]);
       seen.set(`${law}:${m}`, { law, m });
     }
     return [...seen.values()];
@@ -57,7 +56,7 @@ export function TaperOverlay({ data, colours, envelope }: { data: CompareTapersR
       columns.push(scale(g.envelope.mean));
     }
     for (const r of references) {
-      series.push({ label: `Nominal ${LAW_LABEL[r.law] ?? r.law}${r.law === 'linear' ? '' : ` (${Math.round(r.m * 100)} %)`}`, stroke: '#26221e', width: 1.5, dash: [8, 5], points: { show: false } });
+      series.push({ label: `Nominal ${TAPER_LAW_LABEL[r.law]}${r.law === 'linear' ? '' : ` (${Math.round(r.m * 100)} %)`}`, stroke: '#26221e', width: 1.5, dash: [8, 5], points: { show: false } });
       columns.push(data.grid.map((g) => taperLawValue(r.law, r.m, g) * 100));
     }
     const opts: Omit<Options, 'width' | 'height'> & { height?: number } = {
@@ -124,7 +123,7 @@ export function TaperOverlay({ data, colours, envelope }: { data: CompareTapersR
         {references.map((r) => (
           <li key={`${r.law}:${r.m}`} className="flex items-center gap-2">
             <span className="inline-block w-6 border-t-2 border-dashed border-ink" aria-hidden="true" />
-            Nominal {LAW_LABEL[r.law] ?? r.law}
+            Nominal {TAPER_LAW_LABEL[r.law]}
             {r.law === 'linear' ? '' : ` (${Math.round(r.m * 100)} %)`}
           </li>
         ))}

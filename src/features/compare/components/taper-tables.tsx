@@ -1,10 +1,11 @@
 // The figures beside the overlay: per group the mean and spread of m and of the total, per pot the
 // fitted law, m, R², largest deviation, total and its deviation, end resistances.
 import type { CompareGroup } from '@shared/analysis/compare';
+import { TAPER_LAW_LABEL } from '@shared/taper/law';
 import { Button } from '@/components/ui/button';
 import { downloadCsv } from '@/lib/download';
 import type { TaperPot } from '../api/types';
-import { groupRows, LAW_LABEL, ohms, pct, potRows, signedPct } from './compare-model';
+import { groupRows, ohms, pct, potRows, signedPct } from './compare-model';
 
 const TH = 'border-b border-paper-edge px-3 py-2 text-left text-xs font-semibold uppercase tracking-wide text-ink-soft';
 const THN = `${TH} text-right`;
@@ -103,7 +104,7 @@ export function PotTable({ pots, colours, groupLabel }: { pots: TaperPot[]; colo
                   <Swatch colour={colours.get(p.group)} />
                   {groupLabel(p)}
                 </td>
-                <td className={TD}>{LAW_LABEL[p.fit.law] ?? p.fit.law}</td>
+                <td className={TD}>{TAPER_LAW_LABEL[p.fit.law]}</td>
                 <td className={TDN}>{pct(p.fit.m)}</td>
                 <td className={TDN}>{p.fit.r2.toFixed(4)}</td>
                 <td className={TDN}>{pct(p.fit.maxPct / 100, 2)}</td>

@@ -5,6 +5,7 @@ import { queryOptions, useQueries, useQuery } from '@tanstack/react-query';
 import type { CoilFit } from '@shared/analysis/coil';
 import type { TaperFit } from '@shared/analysis/taper';
 import type { Part } from '@shared/schemas/parts';
+import { TAPER_LAWS } from '@shared/taper/law';
 import { api } from '@/lib/api-client';
 
 export const MEASURED_LIMIT = 100;
@@ -93,12 +94,10 @@ export function useMeasuredPickups(enabled: boolean): MeasuredList<MeasuredPicku
   return { items, ...rest };
 }
 
-const LAWS = ['linear', 'audio', 'reverse', 'two-segment'] as const;
-
 export function useMeasuredPots(enabled: boolean): MeasuredList<MeasuredPot> {
   const { withFits, ...rest } = useMeasured('pot', enabled);
   const items = withFits.flatMap(({ part, fit }) => {
-    const law = LAWS.find((l) => l === fit.result.law);
+    const law = TAPER_LAWS.find((l) => l === fit.result.law);
     const m = num(fit.result.m);
     const total = num(fit.result.total);
     if (!law || m === undefined || total === undefined) return [];

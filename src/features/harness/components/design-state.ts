@@ -2,20 +2,12 @@
 // text in each field as typed (with its error), and which values came from which measured part.
 // Plain functions and a reducer, so the screen's state changes are easy to follow and to test.
 import { DEFAULT_HARNESS_VALUES, HARNESS_PRESETS, HARNESS_VALUE_FIELDS, type HarnessPresetId, type HarnessValueField, type HarnessValues } from '@shared/circuit/presets';
-import type { TaperLaw } from '@shared/circuit/taper-law';
+import { lawMid, TAPER_LAW_LABEL, taperLaw, TYPICAL_MID, type TaperLaw, type TaperLawKind } from '@shared/taper/law';
 import { formatValue } from '@shared/units/format';
 import { tryParseValue } from '@shared/units/parse';
 
 export type LawKey = 'volumeLaw' | 'toneLaw';
 export type NumericKey = Exclude<keyof HarnessValues, LawKey>;
-export type LawKind = TaperLaw['kind'];
-
-export const LAW_LABEL: Record<LawKind, string> = {
-  linear: 'Linear',
-  audio: 'Audio',
-  reverse: 'Reverse audio',
-  'two-segment': 'Two-segment',
-};
 
 /** A measured part that supplied some of the values. */
 export interface PartRef {
@@ -41,28 +33,6 @@ export interface DesignState {
 export const fieldsFor = (preset: HarnessPresetId): HarnessValueField[] => HARNESS_VALUE_FIELDS.filter((f) => f.presets.includes(preset));
 export const fieldOf = (key: keyof HarnessValues): HarnessValueField => HARNESS_VALUE_FIELDS.find((f) => f.key === key)!;
 export const presetOf = (id: HarnessPresetId) => HARNESS_PRESETS.find((p) => p.id === id)!;
-
-/**
- * The figure people read off a pot: the share of the track between lug 1 and the wiper at
- * mid-rotation, y(0.5). The engine's reverse law is 1 − f_audio(1 − x), whose m is the audio
- * law's (y(0.5) = 1 − m), while a taper fit reports y(0.5) itself for every law; the editor shows
- * and takes y(0.5) so that a fitted pot and a typed one read the same.
- */
-export function midRotation(law: TaperLaw): number {
-  switch (law.kind) {
-    case 'linear':
-      return 0.5;
-    case 'reverse':
-      return 1 - law.m;
-    default:
-      return law.m;
-  }
-}
-
-export function lawFromMid(kind: LawKind, mid: number): TaperLaw {
-  if (kind === 'linear') return { kind };
-  return { kind, m: kind === 'reverse' ? 1 - mid : mid };
-}
 
 const pct = (x: number) => String(Number((x * 100).toPrecision(4)));
 
@@ -125,8 +95,8 @@ const NUMERIC_FIELDS = HARNESS_VALUE_FIELDS.filter((f) => f.quantity !== 'law');
 function textsOf(values: HarnessValues): Record<string, string> {
   const texts: Record<string, string> = {};
   for (const f of NUMERIC_FIELDS) texts[f.key] = formatField(f, values[f.key] as number | undefined);
-  texts['volumeLaw.m'] = pct(midRotation(values.volumeLaw));
-  texts['toneLaw.m'] = pct(midRotation(values.toneLaw));
+  texts['volumeLaw.m'] = pct(lawMid(values.volumeLaw));
+  texts['toneLaw.m'] = pct(lawMid(values.toneLaw));
   return texts;
 }
 
@@ -137,7 +107,7 @@ export function initialDesign(preset: HarnessPresetId = 'independent-tone', valu
 export type DesignAction =
   | { type: 'preset'; preset: HarnessPresetId }
   | { type: 'text'; key: NumericKey; text: string }
-  | { type: 'law-kind'; key: LawKey; kind: LawKind }
+  | { type: 'law-kind'; key: LawKey; kind: TaperLawKind }
   | { type: 'law-mid'; key: LawKey; text: string }
   /** Values taken together (a typical pickup, a measured part); `ref` marks where they came from. */
   | { type: 'apply'; values: Partial<HarnessValues>; ref?: PartRef; clearRp?: boolean }
@@ -173,13 +143,13 @@ export function designReducer(state: DesignState, action: DesignAction): DesignS
     case 'law-kind': {
       const midKey = `${action.key}.m`;
       const mid = parseMid(state.texts[midKey] ?? '');
-      // Switching to a curved law from linear starts at the usual 15 % (common practice).
-      const m = action.kind === 'linear' ? 0.5 : mid.ok && mid.value !== 0.5 ? mid.value : action.kind === 'reverse' ? 0.85 : 0.15;
-      const law = lawFromMid(action.kind, m);
+      // Switching to a curved law from linear starts at the law's usual mid-rotation figure.
+      const m = action.kind === 'linear' ? 0.5 : mid.ok && mid.value !== 0.5 ? mid.value : TYPICAL_MID[action.kind];
+      const law = taperLaw(action.kind, m);
       return {
         ...state,
         values: { ...state.values, [action.key]: law },
-        texts: { ...state.texts, [midKey]: pct(midRotation(law)) },
+        texts: { ...state.texts, [midKey]: pct(lawMid(law)) },
         errors: without(state.errors, [midKey]),
         refs: without(state.refs, [action.key]),
       };
@@ -190,7 +160,7 @@ export function designReducer(state: DesignState, action: DesignAction): DesignS
       const refs = without(state.refs, [action.key]);
       const mid = parseMid(action.text);
       if (!mid.ok) return { ...state, texts, refs, errors: { ...state.errors, [midKey]: mid.error } };
-      const law = lawFromMid(state.values[action.key].kind, mid.value);
+      const law = taperLaw(state.values[action.key].kind, mid.value);
       return { ...state, texts, refs, values: { ...state.values, [action.key]: law }, errors: without(state.errors, [midKey]) };
     }
     case 'apply': {
@@ -269,7 +239,7 @@ export function describeValue(key: keyof HarnessValues, values: HarnessValues): 
   const field = fieldOf(key);
   if (field.quantity === 'law') {
     const law = values[key] as TaperLaw;
-    return law.kind === 'linear' ? LAW_LABEL.linear : `${LAW_LABEL[law.kind]}, ${pct(midRotation(law))} % at mid-rotation`;
+    return law.kind === 'linear' ? TAPER_LAW_LABEL.linear : `${TAPER_LAW_LABEL[law.kind]}, ${pct(lawMid(law))} % at mid-rotation`;
   }
   const v = values[key] as number | undefined;
   if (v === undefined) return 'none';

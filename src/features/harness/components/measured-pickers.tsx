@@ -2,11 +2,11 @@
 // latest taper fit (total, law and mid-rotation). The lists are asked for only when a chooser is
 // opened, since each part's fits are a separate request.
 import { useId } from 'react';
+import { TAPER_LAW_LABEL } from '@shared/taper/law';
 import { formatValue } from '@shared/units/format';
 import { Alert } from '@/components/ui/alert';
 import { formatDate } from '@/lib/format';
 import { MEASURED_LIMIT, useMeasuredPickups, useMeasuredPots, type MeasuredList, type MeasuredPickup, type MeasuredPot } from '../api/get-measured-parts';
-import { LAW_LABEL } from './design-state';
 
 const SELECT =
   'block w-full rounded-md border border-paper-edge bg-paper-bright px-3 py-2 text-base sm:text-sm focus-visible:outline-2 focus-visible:outline-offset-1 focus-visible:outline-accent';
@@ -23,7 +23,7 @@ export const pickupSummary = (p: MeasuredPickup) =>
   `${p.part.label} · ${formatValue(p.coil.R, 'Ω')} · ${formatValue(p.coil.L, 'H')} · ${formatValue(p.coil.C, 'F')}${p.coil.Rp ? ` · Rp ${formatValue(p.coil.Rp, 'Ω')}` : ''}`;
 
 export const potSummary = (p: MeasuredPot) =>
-  `${p.part.label} · ${formatValue(p.taper.total, 'Ω')} · ${p.taper.law === 'linear' ? LAW_LABEL.linear.toLowerCase() : `${LAW_LABEL[p.taper.law].toLowerCase()}, ${Number((p.taper.m * 100).toPrecision(3))} % at mid`}`;
+  `${p.part.label} · ${formatValue(p.taper.total, 'Ω')} · ${p.taper.law === 'linear' ? TAPER_LAW_LABEL.linear.toLowerCase() : `${TAPER_LAW_LABEL[p.taper.law].toLowerCase()}, ${Number((p.taper.m * 100).toPrecision(3))} % at mid`}`;
 
 /** One chooser of measured parts: the newest fit of each, summarised in a line. */
 function MeasuredPicker<T extends { part: { id: number }; fit: { createdAt: number } }>({

@@ -2,7 +2,7 @@
 // the pot's own law, unloaded, for reference), the treble retention, and the interaction index.
 import { useMemo } from 'react';
 import type { Knobs } from '@shared/circuit/netlist';
-import { lawValue, type TaperLaw } from '@shared/circuit/taper-law';
+import { lawValue, type TaperLaw } from '@shared/taper/law';
 import { SERIES_COLOURS } from '@/components/charts/plot';
 import { Panel } from '@/components/ui/page-header';
 import { formatDb, formatIndex, formatKnob } from './harness-format';

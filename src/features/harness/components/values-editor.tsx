@@ -4,12 +4,13 @@
 import { memo, useState, type Dispatch, type ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import { PICKUP_PRESETS, type HarnessValueField, type HarnessValues } from '@shared/circuit/presets';
+import { TAPER_LAW_LABEL, TAPER_LAWS, taperLaw, type TaperLawKind } from '@shared/taper/law';
 import { SelectField, TextField } from '@/components/ui/field';
 import { Button } from '@/components/ui/button';
 import { paths } from '@/config/paths';
 import { formatDate } from '@/lib/format';
 import { usePartLabel } from '../api/get-measured-parts';
-import { LAW_LABEL, describeValue, fieldsFor, lawFromMid, parseField, type DesignAction, type DesignState, type LawKey, type LawKind, type NumericKey, type PartRef } from './design-state';
+import { describeValue, fieldsFor, parseField, type DesignAction, type DesignState, type LawKey, type NumericKey, type PartRef } from './design-state';
 import { MeasuredPickupPicker, MeasuredPotPicker } from './measured-pickers';
 
 const EXAMPLES: Record<string, string> = {
@@ -78,7 +79,7 @@ function LawField({ field, state, dispatch }: { field: HarnessValueField; state:
       <SelectField
         label={field.label}
         value={law.kind}
-        onChange={(e) => dispatch({ type: 'law-kind', key, kind: e.currentTarget.value as LawKind })}
+        onChange={(e) => dispatch({ type: 'law-kind', key, kind: e.currentTarget.value as TaperLawKind })}
         hint={
           ref ? (
             <span>
@@ -87,9 +88,9 @@ function LawField({ field, state, dispatch }: { field: HarnessValueField; state:
           ) : undefined
         }
       >
-        {(Object.keys(LAW_LABEL) as LawKind[]).map((k) => (
+        {TAPER_LAWS.map((k) => (
           <option key={k} value={k}>
-            {LAW_LABEL[k]}
+            {TAPER_LAW_LABEL[k]}
           </option>
         ))}
       </SelectField>
@@ -205,7 +206,7 @@ function PotGroup({ which, state, dispatch, fields }: { which: 'volume' | 'tone'
             setOpen(false);
             dispatch({
               type: 'apply',
-              values: { [rKey]: p.taper.total, [lawKey]: lawFromMid(p.taper.law, p.taper.m) },
+              values: { [rKey]: p.taper.total, [lawKey]: taperLaw(p.taper.law, p.taper.m) },
               ref: { partId: p.part.id, label: p.part.label, source: `taper fit of ${formatDate(p.fit.createdAt)}` },
             });
           }}

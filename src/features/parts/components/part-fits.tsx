@@ -3,6 +3,7 @@
 import type { ReactNode } from 'react';
 import type { CoilFit } from '@shared/analysis/coil';
 import type { TaperFit } from '@shared/analysis/taper';
+import { TAPER_LAW_LABEL } from '@shared/taper/law';
 import { formatValue } from '@shared/units/format';
 import { Alert, Loading } from '@/components/ui/alert';
 import { Badge } from '@/components/ui/badge';
@@ -12,7 +13,6 @@ import { formatDateTime } from '@/lib/format';
 import type { PartDetail } from '../api/get-part';
 import { useFits, useRefitSweep, useSweeps, type FitRow } from '../api/sweeps';
 
-const LAW_WORD = { linear: 'Linear', audio: 'Audio (exponential)', reverse: 'Reverse audio', 'two-segment': 'Two-segment' } as const;
 
 const pct = (x: number, digits = 1) => `${x.toFixed(digits)} %`;
 const withErr = (v: number, se: number | null | undefined, unit: string) => (
@@ -35,7 +35,7 @@ function TaperFacts({ r }: { r: TaperFit }) {
   const totalWord = { measured: 'measured end to end', 'last-reading': 'last sweep reading', 'last-reading-plus-end': 'last reading + wiper to lug 3' }[r.totalSource];
   return (
     <dl>
-      <Row term="Law">{<span className="font-sans">{LAW_WORD[r.law]}</span>}</Row>
+      <Row term="Law">{<span className="font-sans">{TAPER_LAW_LABEL[r.law]}</span>}</Row>
       <Row term="Mid-rotation m">{pct(r.m * 100)}</Row>
       <Row term="R²">{r.r2.toFixed(5)}</Row>
       <Row term="Deviation RMS / max">{`${pct(r.rmsPct, 2)} / ${pct(r.maxPct, 2)}`}</Row>
@@ -83,7 +83,7 @@ export function FitFlags({ fit }: { fit: FitRow }) {
 
 const summary = (f: FitRow) =>
   f.kind === 'taper'
-    ? `${LAW_WORD[f.result.law]}, m ${pct(f.result.m * 100)}, R² ${f.result.r2.toFixed(4)}`
+    ? `${TAPER_LAW_LABEL[f.result.law]}, m ${pct(f.result.m * 100)}, R² ${f.result.r2.toFixed(4)}`
     : `R ${formatValue(f.result.R, 'Ω')}, L ${formatValue(f.result.L, 'H')}, C ${formatValue(f.result.C, 'F')}, f0 ${formatValue(f.result.f0, 'Hz')}`;
 
 export function PartFits({ part }: { part: PartDetail }) {

@@ -3,7 +3,8 @@ import { useState } from 'react';
 import { useForm, type FieldErrors, type UseFormRegister } from 'react-hook-form';
 import { Link } from 'react-router-dom';
 import { PART_KINDS, type PartKind } from '@shared/schemas/common';
-import { NOMINAL_QUANTITY, TAPER_CLASSES, type Part } from '@shared/schemas/parts';
+import { NOMINAL_QUANTITY, type Part } from '@shared/schemas/parts';
+import { TAPER_LAW_LABEL, TAPER_LAWS } from '@shared/taper/law';
 import { formatValue } from '@shared/units/format';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
@@ -23,12 +24,6 @@ import {
 } from './part-form-schema';
 
 export const KIND_LABEL: Record<PartKind, string> = { pot: 'Pot', capacitor: 'Capacitor', resistor: 'Resistor', pickup: 'Pickup', other: 'Other' };
-export const TAPER_LABEL: Record<(typeof TAPER_CLASSES)[number], string> = {
-  linear: 'Linear',
-  audio: 'Audio',
-  reverse: 'Reverse audio',
-  'two-segment': 'Two-segment',
-};
 
 const NOMINAL_EXAMPLES: Record<(typeof NOMINAL_QUANTITY)[PartKind], string> = {
   resistance: 'Engineering notation: 500k, 4k7, 1meg, 250 kΩ',
@@ -92,9 +87,9 @@ function PartFields({ register, errors, kind, nominalText, kindLocked, wide }: F
       {kind === 'pot' && (
         <SelectField label="Taper class" error={errors.taperClass?.message} {...register('taperClass')}>
           <option value="">Not given</option>
-          {TAPER_CLASSES.map((t) => (
+          {TAPER_LAWS.map((t) => (
             <option key={t} value={t}>
-              {TAPER_LABEL[t]}
+              {TAPER_LAW_LABEL[t]}
             </option>
           ))}
         </SelectField>

@@ -1,5 +1,6 @@
 import { useState, type ReactNode } from 'react';
 import { Link } from 'react-router-dom';
+import { TAPER_LAW_LABEL } from '@shared/taper/law';
 import { Alert, Loading } from '@/components/ui/alert';
 import { StatusBadge } from '@/components/ui/badge';
 import { Button, buttonClass } from '@/components/ui/button';
@@ -8,7 +9,7 @@ import { paths } from '@/config/paths';
 import { useCan } from '@/lib/auth';
 import { formatDateTime, formatNominal, formatTolerance } from '@/lib/format';
 import { usePart, type PartDetail } from '../api/get-part';
-import { EditPartForm, KIND_LABEL, TAPER_LABEL } from './part-form';
+import { EditPartForm, KIND_LABEL } from './part-form';
 import { PartAttachments } from './part-attachments';
 import { PartFits } from './part-fits';
 import { PartJobs } from './part-jobs';
@@ -40,7 +41,7 @@ function PartFacts({ part }: { part: PartDetail }) {
         {formatTolerance(part.tolerancePct)}
       </Fact>
       <Fact term="Marking">{part.marking ? <span className="font-mono">{part.marking}</span> : none}</Fact>
-      {part.kind === 'pot' && <Fact term="Taper class">{part.taperClass ? TAPER_LABEL[part.taperClass] : none}</Fact>}
+      {part.kind === 'pot' && <Fact term="Taper class">{part.taperClass ? TAPER_LAW_LABEL[part.taperClass] : none}</Fact>}
       <Fact term="Supplier">{part.supplier ?? none}</Fact>
       <Fact term="Lot">
         {part.lotId ? (

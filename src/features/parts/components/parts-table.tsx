@@ -9,10 +9,11 @@ import {
 import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import type { Part } from '@shared/schemas/parts';
+import { TAPER_LAW_LABEL } from '@shared/taper/law';
 import { StatusBadge } from '@/components/ui/badge';
 import { paths } from '@/config/paths';
 import { formatNominal, formatTolerance } from '@/lib/format';
-import { KIND_LABEL, TAPER_LABEL } from './part-form';
+import { KIND_LABEL } from './part-form';
 
 const col = createColumnHelper<Part>();
 
@@ -37,7 +38,7 @@ const columns = [
     header: 'Taper',
     cell: (c) => {
       const t = c.getValue();
-      return t ? (TAPER_LABEL[t] ?? t) : <span className="text-ink-faint">—</span>;
+      return t ? (TAPER_LAW_LABEL[t] ?? t) : <span className="text-ink-faint">—</span>;
     },
   }),
   col.accessor('supplier', { header: 'Supplier', cell: (c) => c.getValue() ?? <span className="text-ink-faint">—</span> }),

@@ -6,7 +6,8 @@ import { useMemo, useRef } from 'react';
 import type uPlot from 'uplot';
 import type { AlignedData, Options } from 'uplot';
 import { coilImpedance, type CoilFit } from '@shared/analysis/coil';
-import { taperLawValue, type TaperFit, type TaperLaw, type TaperPoint } from '@shared/analysis/taper';
+import type { TaperFit, TaperPoint } from '@shared/analysis/taper';
+import { taperLawValue, type TaperLawKind } from '@shared/taper/law';
 import { Plot, SERIES_COLOURS, axis, downloadPng, frequencyX } from '@/components/charts/plot';
 import { Button } from '@/components/ui/button';
 
@@ -43,10 +44,10 @@ function PlotFigure({ title, name, options, data, label }: { title: string; name
 type PlotOptions = Omit<Options, 'width' | 'height'> & { height?: number };
 
 /** The law drawn for the profile's envelope: the profile's own, or the fitted law when it allows either audio law. */
-function envelopeLaw(profileLaw: string | undefined, fitted: TaperLaw): TaperLaw | null {
+function envelopeLaw(profileLaw: string | undefined, fitted: TaperLawKind): TaperLawKind | null {
   if (!profileLaw) return fitted;
   if (profileLaw === 'audio-any') return fitted === 'two-segment' ? 'two-segment' : 'audio';
-  return profileLaw as TaperLaw;
+  return profileLaw as TaperLawKind;
 }
 
 export function TaperPlots({ points, fit, envelope, fileName }: { points: TaperPoint[]; fit: TaperFit; envelope: { law?: string; mMin?: number; mMax?: number } | null; fileName: string }) {

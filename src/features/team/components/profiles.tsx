@@ -7,6 +7,7 @@ import { z } from 'zod';
 import { ProfileInputSchema, type ProfileInput, type ProfileRules } from '@shared/schemas/bench';
 import { PART_KINDS, PartKindSchema, type PartKind } from '@shared/schemas/common';
 import { NOMINAL_QUANTITY } from '@shared/schemas/parts';
+import { TAPER_LAW_LABEL, TAPER_LAWS } from '@shared/taper/law';
 import { formatValue } from '@shared/units/format';
 import { QUANTITY_UNIT } from '@shared/units/quantities';
 import { useProfiles, type Profile } from '@/components/readings/api';
@@ -20,14 +21,7 @@ import { useSaveProfile } from '../api/save-profile';
 import { asText, engineering, pctText, plainNumber, type Parsed } from './field-text';
 
 const KIND_LABEL: Record<PartKind, string> = { pot: 'Pot', capacitor: 'Capacitor', resistor: 'Resistor', pickup: 'Pickup', other: 'Other' };
-const LAWS = [
-  ['', 'Any law'],
-  ['linear', 'Linear'],
-  ['audio', 'Audio'],
-  ['reverse', 'Reverse audio'],
-  ['two-segment', 'Two-segment'],
-  ['audio-any', 'Audio or two-segment'],
-] as const;
+const LAWS = [['', 'Any law'], ...TAPER_LAWS.map((l) => [l, TAPER_LAW_LABEL[l]] as const), ['audio-any', 'Audio or two-segment']] as const;
 
 const Fields = z.object({
   name: z.string(),

@@ -10,8 +10,8 @@ import { fitAndStore } from '@server/features/sweeps/fit';
 import { insertSweep } from '@server/features/sweeps/store';
 import { setPartStatus } from '@server/features/parts/repository';
 import { coilImpedance } from '@shared/analysis/coil';
-import { taperLawValue, type TaperLaw } from '@shared/analysis/taper';
-import { harnesses, jobParts, jobs, lots, lotWatchers, parts, partStatusEvents } from './schema';
+import { taperLawValue, type TaperLawKind } from '@shared/taper/law';
+import { harnesses, jobParts, jobs, lots, lotWatchers, parts, partStatusEvents } from '@server/db/schema';
 
 interface Seeders {
   tx: Tx;
@@ -39,7 +39,7 @@ interface PotLotPlan {
   supplier: string;
   receivedOn: string;
   count: number;
-  law: TaperLaw;
+  law: TaperLawKind;
   m: number;
   mSpread: number;
   totalSpreadPct: number;

@@ -6,7 +6,7 @@ import { newId } from '@server/auth/tokens';
 import type { AppContext } from '@server/context';
 import { recordReading } from '@server/features/readings/service';
 import type { ReadingQuantity } from '@shared/schemas/bench';
-import { instruments, parts, partStatusEvents, toleranceProfiles, users } from './schema';
+import { instruments, parts, partStatusEvents, toleranceProfiles, users } from '@server/db/schema';
 import { seedStudies } from './seed-studies';
 import { seededRandom } from '@shared/random/seeded';
 

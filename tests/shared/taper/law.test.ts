@@ -1,7 +1,7 @@
-// The pot laws the harness engine uses, checked against the worked examples of
+// The pot laws of shared/taper/law.ts (taper fit, harness engine, comparison), checked against the worked examples of
 // ../shared/reference/worked-examples.txt (copied here with their source lines).
 import { describe, expect, it } from 'vitest';
-import { lawValue } from '@shared/circuit/taper-law';
+import { lawMid, lawValue, taperLaw, taperLawValue } from '@shared/taper/law';
 
 describe('lawValue', () => {
   // Source: B. Holmes, "Modelling logarithmic potentiometer laws", 2017 — y = a·b^x − a, a = 1/(b−1),
@@ -36,15 +36,40 @@ describe('lawValue', () => {
     expect(lawValue({ kind: 'audio', m: 0.85 }, 0.5)).toBeCloseTo(0.85, 12);
   });
 
-  it('linear, two-segment and reverse laws follow their definitions (COMPUTATION.md §3)', () => {
+  it('linear and two-segment laws follow their definitions (COMPUTATION.md §3)', () => {
     expect(lawValue({ kind: 'linear' }, 0.37)).toBe(0.37);
     const seg = { kind: 'two-segment', m: 0.2 } as const;
     expect(lawValue(seg, 0.25)).toBeCloseTo(0.1, 15);
     expect(lawValue(seg, 0.5)).toBeCloseTo(0.2, 15);
     expect(lawValue(seg, 0.75)).toBeCloseTo(0.6, 15);
-    // reverse: y = 1 − f_audio(1 − x), so with m = 0.1 at x = 0.75: 1 − 0.025 (pot-exp-10 above)
-    expect(lawValue({ kind: 'reverse', m: 0.1 }, 0.75)).toBeCloseTo(0.975, 6);
-    expect(lawValue({ kind: 'reverse', m: 0.1 }, 0.5)).toBeCloseTo(0.9, 12);
+  });
+
+  it('reverse audio is the audio law turned end for end, with m = y(0.5) like every law', () => {
+    // The mirror image y = 1 − f(1 − x) of the pot-exp-10 law above (ym = 0.10): at x = 0.75 it is
+    // 1 − 0.025, at x = 0.25 it is 1 − 0.325, and at mid-rotation 1 − 0.1 = 0.9, its m.
+    const rev = { kind: 'reverse', m: 0.9 } as const;
+    expect(lawValue(rev, 0.75)).toBeCloseTo(0.975, 6);
+    expect(lawValue(rev, 0.25)).toBeCloseTo(0.675, 6);
+    expect(lawValue(rev, 0.5)).toBeCloseTo(0.9, 12);
+    expect(lawMid(rev)).toBe(0.9);
+    // The identity worked out in shared/taper/law.ts, at every hundredth of the rotation and several m.
+    for (const m of [0.55, 0.7, 0.85, 0.95]) {
+      for (let k = 0; k <= 100; k++) {
+        const x = k / 100;
+        expect(lawValue({ kind: 'reverse', m }, x)).toBeCloseTo(1 - lawValue({ kind: 'audio', m: 1 - m }, 1 - x), 12);
+      }
+    }
+  });
+
+  it('taperLaw and lawMid carry the same m for every law (linear is 0.5)', () => {
+    expect(taperLaw('linear', 0.3)).toEqual({ kind: 'linear' });
+    expect(lawMid(taperLaw('linear', 0.3))).toBe(0.5);
+    for (const kind of ['audio', 'reverse', 'two-segment'] as const) {
+      const law = taperLaw(kind, 0.8);
+      expect(lawMid(law)).toBe(0.8);
+      expect(lawValue(law, 0.5)).toBeCloseTo(0.8, 12);
+      expect(taperLawValue(kind, 0.8, 0.3)).toBe(lawValue(law, 0.3));
+    }
   });
 
   it('m = 0.5 is the straight line (the limit of the exponential law) and x is clamped to 0–1', () => {
