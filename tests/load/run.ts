@@ -46,9 +46,14 @@ async function scenario(name: string, call: () => Promise<Response>) {
   const worker = async () => {
     while (performance.now() < until) {
       const t0 = performance.now();
-      const res = await call();
-      await res.arrayBuffer();
-      if (!res.ok) errors++;
+      try {
+        const res = await call();
+        await res.arrayBuffer();
+        if (!res.ok) errors++;
+      } catch {
+        // A reset or refused connection counts as an error, with its time.
+        errors++;
+      }
       times.push(performance.now() - t0);
     }
   };
