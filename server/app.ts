@@ -1,7 +1,9 @@
 import fs from 'node:fs';
 import path from 'node:path';
+import compression from 'compression';
 import express, { type Express } from 'express';
-import { authenticate, originCheck } from '@server/auth/middleware';
+import { authenticate, hostCheck, originCheck } from '@server/auth/middleware';
+import { requestLogger } from '@server/http/request-log';
 import type { AppContext } from '@server/context';
 import { analysisRoutes } from '@server/features/analysis/router';
 import { attachmentRoutes } from '@server/features/attachments/router';
@@ -48,7 +50,12 @@ export function createApp(ctx: AppContext): Express {
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
+  if (ctx.config.requestLog) app.use(requestLogger(ctx.config.requestLog));
+  app.use(hostCheck(ctx.config.allowedHosts));
+  // gzip, or brotli where the client accepts it; the lot items (several MB of JSON) shrink the most.
+  app.use(compression());
   app.use((_req, res, next) => {
+    if (ctx.config.production) res.setHeader('Strict-Transport-Security', 'max-age=31536000; includeSubDomains');
     res.setHeader('X-Content-Type-Options', 'nosniff');
     res.setHeader('Referrer-Policy', 'same-origin');
     res.setHeader('X-Frame-Options', 'DENY');
@@ -66,8 +73,13 @@ export function createApp(ctx: AppContext): Express {
 
   const clientDir = ctx.config.clientDir;
   if (clientDir && fs.existsSync(path.join(clientDir, 'index.html'))) {
-    app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
-    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(clientDir, 'index.html')));
+    // Vite names every built asset by its content hash: cached for a year; index.html is checked every time.
+    app.use(
+      '/assets',
+      express.static(path.join(clientDir, 'assets'), { index: false, fallthrough: false, immutable: true, maxAge: '365d' }),
+    );
+    app.use(express.static(clientDir, { index: false, maxAge: 0, setHeaders: (res) => res.setHeader('Cache-Control', 'no-cache') }));
+    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(clientDir, 'index.html'), { headers: { 'Cache-Control': 'no-cache' } }));
   }
 
   app.use(errorHandler(ctx.log));

@@ -5,6 +5,7 @@ import type { AppContext } from '@server/context';
 import { DEFAULT_SIGN_IN_LIMITS, type SignInLimits } from '@server/features/auth/sign-in-limiter';
 import { labelClashes } from '@server/features/parts/repository';
 import { createMailer } from '@server/mail/mailer';
+import { allowedHostNames } from '@server/http/hosts';
 
 export interface ContextOptions {
   dbFile: string;
@@ -15,6 +16,9 @@ export interface ContextOptions {
   mailFrom?: string;
   clientDir?: string;
   signInLimits?: SignInLimits;
+  /** Extra host names to answer to (LUGBOOK_ALLOWED_HOSTS), beside PUBLIC_URL's host. */
+  allowedHosts?: string[];
+  requestLog?: NodeJS.WritableStream;
   log?: AppContext['log'];
 }
 
@@ -39,7 +43,10 @@ export function createContext(opts: ContextOptions): AppContext {
       uploadsDir: opts.uploadsDir,
       clientDir: opts.clientDir,
       signInLimits: opts.signInLimits ?? DEFAULT_SIGN_IN_LIMITS,
+      allowedHosts: allowedHostNames(opts.publicUrl ?? 'http://localhost:3000', opts.allowedHosts ?? [], opts.production ?? false),
+      ...(opts.requestLog ? { requestLog: opts.requestLog } : {}),
     },
     log,
   };
 }
+

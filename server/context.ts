@@ -18,6 +18,10 @@ export interface AppContext {
     /** Built client to serve, if any. */
     clientDir?: string;
     signInLimits: SignInLimits;
+    /** Host names the app answers to (PUBLIC_URL's host, LUGBOOK_ALLOWED_HOSTS, and outside production localhost). */
+    allowedHosts: string[];
+    /** Where structured request logs go (one JSON line per request); none when absent. */
+    requestLog?: NodeJS.WritableStream;
   };
   log: (message: string, detail?: unknown) => void;
 }

@@ -20,6 +20,16 @@ const EnvSchema = z.object({
   LUGBOOK_CLIENT_DIR: z.string().min(1).optional(),
   /** The address links in e-mails point to. */
   PUBLIC_URL: z.string().url().default('http://localhost:3000'),
+  /** More host names to answer to, comma-separated (e.g. the shop computer's name or LAN address for phones). */
+  LUGBOOK_ALLOWED_HOSTS: z
+    .string()
+    .default('')
+    .transform((v) => v.split(',').map((h) => h.trim()).filter(Boolean)),
+  /** Structured request logs on standard output: on unless "false". */
+  LUGBOOK_REQUEST_LOG: z
+    .enum(['true', 'false'])
+    .default('true')
+    .transform((v) => v === 'true'),
 });
 
 const DEFAULT_PUBLIC_URL = 'http://localhost:3000';

@@ -4,6 +4,7 @@ import { createContext } from '@server/bootstrap';
 import { seedDemo } from '@server/demo/seed';
 import { refitOutdatedTaperFits } from '@server/features/sweeps/refit-on-start';
 import { readEnv, startupWarnings } from '@server/env';
+import { sweepUploads } from '@server/uploads/sweep';
 
 const env = readEnv();
 for (const warning of startupWarnings()) console.warn(`Warning: ${warning}`);
@@ -14,6 +15,8 @@ const ctx = createContext({
   publicUrl: env.PUBLIC_URL,
   smtpUrl: env.SMTP_URL,
   mailFrom: env.MAIL_FROM,
+  allowedHosts: env.LUGBOOK_ALLOWED_HOSTS,
+  ...(env.LUGBOOK_REQUEST_LOG ? { requestLog: process.stdout } : {}),
   clientDir: env.LUGBOOK_CLIENT_DIR ?? fileURLToPath(new URL('../dist/client', import.meta.url)),
 });
 
@@ -25,6 +28,8 @@ if (env.LUGBOOK_SEED_DEMO) {
 const refit = refitOutdatedTaperFits(ctx.db);
 if (refit.refitted > 0) console.log(`Refitted ${refit.refitted} stored taper fit(s) made by an older engine version.`);
 for (const f of refit.failed) console.log(`Sweep ${f.sweepId} kept its old fit: ${f.reason}`);
+const swept = sweepUploads(ctx.sqlite, env.uploadsDir);
+if (swept.incoming + swept.orphans > 0) console.log(`Removed ${swept.incoming} interrupted upload(s) and ${swept.orphans} unreferenced stored file(s).`);
 
 const server = createApp(ctx).listen(env.PORT, () => {
   console.log(`Lugbook is serving on http://localhost:${env.PORT} (data in ${env.LUGBOOK_DATA_DIR})`);

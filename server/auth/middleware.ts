@@ -1,5 +1,6 @@
 import type { RequestHandler } from 'express';
-import { verifyRequestOrigin, type Session } from 'lucia';
+import type { Session } from 'lucia';
+import { hostName } from '@server/http/hosts';
 import { HttpError } from '@server/http/errors';
 import { roleCan } from '@shared/auth/capabilities';
 import { ROUTE_PERMISSIONS } from './permissions';
@@ -17,16 +18,46 @@ declare global {
 
 const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
 
-/** State-changing requests must come from the app's own origin (lucia's CSRF guidance). */
+/**
+ * State-changing requests must come from the app's own origin (lucia's CSRF guidance), compared exactly:
+ * scheme, host and port of the Origin header against this request's own (no user info, no path).
+ */
 export const originCheck: RequestHandler = (req, _res, next) => {
   if (SAFE_METHODS.has(req.method)) return next();
   const origin = req.headers.origin;
   const host = req.headers.host;
-  if (!origin || !host || !verifyRequestOrigin(origin, [host])) {
+  if (!origin || !host || !sameOrigin(origin, `${req.protocol}://${host}`)) {
     return next(new HttpError(403, 'bad_origin', 'This request did not come from the Lugbook page itself.'));
   }
   next();
 };
+
+function sameOrigin(origin: string, own: string): boolean {
+  let a: URL;
+  let b: URL;
+  try {
+    a = new URL(origin);
+    b = new URL(own);
+  } catch {
+    return false;
+  }
+  // An Origin header is scheme://host[:port] only; anything more (user info, a path) is not one.
+  return origin === a.origin && a.origin === b.origin;
+}
+
+/**
+ * Requests for a host name the app does not serve are refused (a DNS rebinding page reaches a
+ * local install under its own name): PUBLIC_URL's host, LUGBOOK_ALLOWED_HOSTS, and outside production
+ * localhost and 127.0.0.1.
+ */
+export function hostCheck(allowed: string[]): RequestHandler {
+  const names = new Set(allowed);
+  return (req, res, next) => {
+    const host = req.headers.host;
+    if (host && names.has(hostName(host))) return next();
+    res.status(421).json({ error: { code: 'unknown_host', message: 'This server does not answer to that host name; add it to LUGBOOK_ALLOWED_HOSTS.' } });
+  };
+}
 
 /** Reads the session cookie and sets req.user / req.session; ends sessions past their absolute lifetime. */
 export function authenticate(lucia: AppLucia, now: () => number = Date.now): RequestHandler {

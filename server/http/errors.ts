@@ -1,3 +1,4 @@
+import fs from 'node:fs';
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import multer from 'multer';
 import type { ApiErrorBody } from '@shared/schemas/common';
@@ -35,7 +36,9 @@ const MULTER_STATUS: Record<string, [number, string]> = {
 
 /** The one error path: known errors keep their status; anything else is a 500 without details. */
 export function errorHandler(log: (message: string, err: unknown) => void): ErrorRequestHandler {
-  return (err, _req, res, _next) => {
+  return (err, req, res, _next) => {
+    // An upload kept on disk (lot files) is removed before the refusal goes out.
+    if (req.file?.path) fs.rmSync(req.file.path, { force: true });
     let status = 500;
     let body: ApiErrorBody = { error: { code: 'internal', message: 'Something went wrong on the server.' } };
     if (err instanceof HttpError) {
@@ -53,6 +56,17 @@ export function errorHandler(log: (message: string, err: unknown) => void): Erro
           message: err.type === 'entity.too.large' ? 'The request body is too large.' : 'The request body is not valid JSON.',
         },
       };
+    } else if (err instanceof URIError || (isClientError(err) && /decode param/i.test(err.message))) {
+      status = 400;
+      body = { error: { code: 'bad_path', message: 'The address holds bad percent-encoding.' } };
+    } else if (isSqliteConstraint(err, 'SQLITE_CONSTRAINT_FOREIGNKEY')) {
+      // A reference the handler did not check by name (those answer with their field): still the client's input.
+      status = 422;
+      body = { error: { code: 'invalid', message: 'The request refers to a record that does not exist.' } };
+    } else if (isClientError(err)) {
+      // Errors from Express and its parsers that carry a 4xx status (http-errors): the client's fault.
+      status = err.status;
+      body = { error: { code: 'bad_request', message: err.expose && err.message ? err.message : 'The request could not be read.' } };
     } else {
       log('Unhandled error', err);
     }
@@ -62,4 +76,14 @@ export function errorHandler(log: (message: string, err: unknown) => void): Erro
 
 function isBodyParserError(err: unknown): err is { status: number; type: string } {
   return typeof err === 'object' && err !== null && 'type' in err && 'status' in err && typeof (err as { status: unknown }).status === 'number';
+}
+
+function isClientError(err: unknown): err is { status: number; message: string; expose?: boolean } {
+  if (typeof err !== 'object' || err === null) return false;
+  const status = (err as { status?: unknown }).status;
+  return typeof status === 'number' && status >= 400 && status < 500;
+}
+
+function isSqliteConstraint(err: unknown, code: string): boolean {
+  return typeof err === 'object' && err !== null && (err as { code?: unknown }).code === code;
 }

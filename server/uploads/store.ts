@@ -6,6 +6,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import multer from 'multer';
 import { HttpError } from '@server/http/errors';
+import { guardedUpload } from './multipart';
 
 export type UploadKind = 'table' | 'document';
 
@@ -28,7 +29,7 @@ const ALLOWED: Record<UploadKind, string[]> = { table: ['csv', 'tsv'], document:
 
 /** multer for one file in field `file`, kept in memory until it has been checked and parsed. */
 export function singleFileUpload(maxBytes: number) {
-  return multer({ storage: multer.memoryStorage(), limits: { fileSize: maxBytes, files: 1, fields: 20, parts: 25 } }).single('file');
+  return guardedUpload(multer({ storage: multer.memoryStorage(), defParamCharset: 'utf8', limits: { fileSize: maxBytes, files: 1, fields: 20, parts: 25 } }).single('file'));
 }
 
 /** The file's type by extension and signature, or a 415 naming what is allowed. */
@@ -52,6 +53,23 @@ export interface StoredFile {
   /** True when this call wrote the file (so a failed transaction may remove it again). */
   created: boolean;
   path: string;
+}
+
+/** Where uploads wait (multer's temporary files) until they are parsed and moved into place. */
+export function incomingDir(uploadsDir: string): string {
+  return path.join(uploadsDir, 'incoming');
+}
+
+const MAX_NAME = 200;
+/**
+ * The user's file name as it is kept (at most 200 characters): shortened before its extension,
+ * never through it, so the checked extension is the one the stored name ends with.
+ */
+export function storedName(originalName: string): string {
+  const name = originalName.replace(/[\u0000-\u001f\u007f]/g, '');
+  if (name.length <= MAX_NAME) return name;
+  const ext = path.extname(name).slice(0, 16);
+  return name.slice(0, MAX_NAME - ext.length) + ext;
 }
 
 export function contentPath(uploadsDir: string, contentHash: string): string {

@@ -53,7 +53,7 @@ export default async function setup(project: TestProject) {
   let output = '';
   const child = spawn('npx', ['tsx', 'server/index.ts'], {
     cwd: root,
-    env: { ...process.env, PORT: String(port), LUGBOOK_DATA_DIR: dataDir, LUGBOOK_DEMO_PASSWORD: DEMO_PASSWORD, NODE_ENV: 'test' },
+    env: { ...process.env, PORT: String(port), LUGBOOK_DATA_DIR: dataDir, LUGBOOK_DEMO_PASSWORD: DEMO_PASSWORD, NODE_ENV: 'test', LUGBOOK_REQUEST_LOG: 'false' },
     stdio: ['ignore', 'pipe', 'pipe'],
     // Its own process group, so the teardown ends npx, tsx and the server together.
     detached: true,

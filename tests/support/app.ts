@@ -31,13 +31,17 @@ export function newAgent(app: TestApp['app']): TestAgent {
   return request.agent(app).set('Origin', ORIGIN).set('Host', HOST);
 }
 
-export async function createTestApp(opts: { signInLimits?: SignInLimits; studies?: boolean } = {}): Promise<TestApp> {
+export async function createTestApp(opts: { signInLimits?: SignInLimits; studies?: boolean; production?: boolean; requestLog?: NodeJS.WritableStream; clientDir?: string } = {}): Promise<TestApp> {
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'lugbook-test-'));
   const logs: string[] = [];
   const ctx = createContext({
     dbFile: path.join(dataDir, 'lugbook.db'),
     uploadsDir: path.join(dataDir, 'uploads'),
     signInLimits: opts.signInLimits ?? { perAddress: 1000, perAccount: 1000, windowMs: 60_000 },
+    allowedHosts: [HOST],
+    ...(opts.production ? { production: true } : {}),
+    ...(opts.requestLog ? { requestLog: opts.requestLog } : {}),
+    ...(opts.clientDir ? { clientDir: opts.clientDir } : {}),
     // A message with a detail is the error handler's "Unhandled error" (a 500): recorded so the
     // test after which it was logged fails (tests/setup/server-errors.ts).
     log: (m, detail) => {

@@ -6,11 +6,20 @@ import type { AppContext } from '@server/context';
 import { attachments, jobs, lots, parts } from '@server/db/schema';
 import { notFound } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
-import { checkFileType, contentPath, singleFileUpload, withStoredFile } from '@server/uploads/store';
+import { checkFileType, contentPath, singleFileUpload, withStoredFile, storedName } from '@server/uploads/store';
 import { IdParamsSchema } from '@shared/schemas/common';
 
 const MAX_DOCUMENT_BYTES = 10 * 1024 * 1024;
 const OWNERS = { parts: { type: 'part', table: parts }, lots: { type: 'lot', table: lots }, jobs: { type: 'job', table: jobs } } as const;
+/** What a stored file may be served as: the types the upload check detects; anything else is bytes. */
+const SERVED_TYPES: Record<string, string> = {
+  'image/png': 'image/png',
+  'image/jpeg': 'image/jpeg',
+  'application/pdf': 'application/pdf',
+  'text/csv': 'text/csv; charset=utf-8',
+  'text/tab-separated-values': 'text/tab-separated-values; charset=utf-8',
+};
+const INLINE_TYPES = new Set(['image/png', 'image/jpeg']);
 const UploadFields = z.object({ purpose: z.enum(['photo', 'certificate']).default('photo') });
 
 /** Photos of parts or meter displays and certificates, for parts, lots and jobs. */
@@ -42,7 +51,7 @@ export function attachmentRoutes(ctx: AppContext) {
           db.transaction((tx) => {
             const row = tx
               .insert(attachments)
-              .values({ ownerType: owner.type, ownerId: params.id, purpose: body.purpose, originalName: file.originalname.slice(0, 200), contentHash: content.contentHash, mime, size: content.size, createdBy: user.id })
+              .values({ ownerType: owner.type, ownerId: params.id, purpose: body.purpose, originalName: storedName(file.originalname), contentHash: content.contentHash, mime, size: content.size, createdBy: user.id })
               .returning()
               .get();
             audit(tx, { userId: user.id, action: 'attachment.upload', entity: owner.type, entityId: params.id, detail: { attachmentId: row.id, purpose: body.purpose, name: row.originalName } });
@@ -61,11 +70,13 @@ export function attachmentRoutes(ctx: AppContext) {
       const row = db.select().from(attachments).where(eq(attachments.id, params.id)).get();
       const file = row && contentPath(ctx.config.uploadsDir, row.contentHash);
       if (!row || !file || !fs.existsSync(file)) throw notFound('That file');
-      const inline = row.mime.startsWith('image/') || row.mime === 'application/pdf';
-      res.setHeader('Content-Type', row.mime);
-      res.setHeader('Content-Security-Policy', "default-src 'none'; img-src 'self'; style-src 'unsafe-inline'");
+      // Only the type detected at upload is sent (never one guessed from the name), and only PNG and
+      // JPEG images open in the page; everything else downloads. The name travels as RFC 6266/5987 UTF-8.
+      const type = SERVED_TYPES[row.mime] ?? 'application/octet-stream';
       res.attachment(row.originalName);
-      if (inline) res.setHeader('Content-Disposition', (res.getHeader('Content-Disposition') as string).replace(/^attachment/, 'inline'));
+      if (INLINE_TYPES.has(type)) res.setHeader('Content-Disposition', (res.getHeader('Content-Disposition') as string).replace(/^attachment/, 'inline'));
+      res.setHeader('Content-Type', type);
+      res.setHeader('Content-Security-Policy', "default-src 'none'; img-src 'self'; sandbox");
       await new Promise<void>((resolve, reject) => res.sendFile(file, (err) => (err ? reject(err) : resolve())));
       return undefined;
     },

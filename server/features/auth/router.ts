@@ -13,14 +13,23 @@ import {
   ResetPasswordInputSchema,
   SignInInputSchema,
 } from '@shared/schemas/auth';
-import { AccountLockout, signInAddressLimiter } from './sign-in-limiter';
+import { SignInBackoff, signInAddressLimiter, WindowCounter } from './sign-in-limiter';
 
 const RESET_LIFETIME_MS = 60 * 60 * 1000;
 
 export function authRoutes(ctx: AppContext) {
   const { db, lucia } = ctx;
   const api = new ApiRouter('/api/auth');
-  const lockout = new AccountLockout(ctx.config.signInLimits);
+  const backoff = new SignInBackoff(ctx.config.signInLimits);
+  // Reset requests: at most 3 per account and 10 per address in 15 minutes (each one sends an e-mail).
+  const resetsPerAccount = new WindowCounter(3, 15 * 60_000);
+  const resetsPerAddress = new WindowCounter(10, 15 * 60_000);
+  // Unknown accounts are checked against this hash, so a refusal takes as long as for a known one.
+  let dummyHash: Promise<string> | null = null;
+  const tooMany = (res: import('express').Response, waitMs: number, message: string) => {
+    res.setHeader('Retry-After', String(Math.max(1, Math.ceil(waitMs / 1000))));
+    return new HttpError(429, 'rate_limited', message);
+  };
 
   api.get('/me', { handle: ({ user }) => ({ user: user ?? null }) });
 
@@ -32,18 +41,21 @@ export function authRoutes(ctx: AppContext) {
         ctx.log(`sign-in refused for ${body.email}: ${reason}`);
         audit(db, { userId: null, action: 'auth.sign-in-refused', entity: 'user', entityId: body.email, detail: { reason, ip: req.ip } });
       };
-      if (lockout.isLocked(body.email)) {
-        refuse('account locked after repeated failures');
-        throw new HttpError(429, 'rate_limited', 'Too many failed sign-ins for this account. Wait a few minutes or reset the password.');
+      const address = req.ip ?? 'unknown';
+      const wait = backoff.waitMs(body.email, address);
+      if (wait > 0) {
+        refuse('repeated failures from this address: waiting');
+        throw tooMany(res, wait, 'Too many failed sign-ins for this account from here. Wait and try again, or reset the password.');
       }
       const user = db.select().from(users).where(eq(users.email, body.email)).get();
-      const ok = user ? await verifyPassword(user.passwordHash, body.password) : false;
+      dummyHash ??= hashPassword(`no account ${newId()}`);
+      const ok = await verifyPassword(user ? user.passwordHash : await dummyHash, body.password).then((r) => r && user !== undefined);
       if (!user || !ok || user.disabledAt !== null) {
-        lockout.recordFailure(body.email);
+        backoff.recordFailure(body.email, address);
         refuse(!user ? 'unknown e-mail' : !ok ? 'wrong password' : 'account disabled');
         throw new HttpError(401, 'bad_credentials', 'That e-mail and password do not match an active account.');
       }
-      lockout.clear(body.email);
+      backoff.clear(body.email, address);
       const session = await lucia.createSession(user.id, { createdAt: Date.now() });
       res.appendHeader('Set-Cookie', lucia.createSessionCookie(session.id).serialize());
       audit(db, { userId: user.id, action: 'auth.sign-in', entity: 'user', entityId: user.id, detail: { ip: req.ip } });
@@ -94,9 +106,19 @@ export function authRoutes(ctx: AppContext) {
       }
       const passwordHash = await hashPassword(body.password);
       const id = newId();
+      // The hash took a while: the invitation is checked again and spent in the same transaction as the
+      // insert, so two requests with one token give one account (the second finds it used: 410).
       db.transaction((tx) => {
+        const spent = tx
+          .update(invitations)
+          .set({ acceptedAt: Date.now() })
+          .where(and(eq(invitations.id, invite.id), isNull(invitations.acceptedAt), isNull(invitations.revokedAt)))
+          .run();
+        if (spent.changes !== 1) throw new HttpError(410, 'invitation_invalid', 'This invitation is unknown, used or expired. Ask an admin for a new one.');
+        if (tx.select({ id: users.id }).from(users).where(eq(users.email, invite.email)).get()) {
+          throw new HttpError(409, 'conflict', 'An account with this e-mail exists already; sign in instead.');
+        }
         tx.insert(users).values({ id, email: invite.email, name: body.name, role: invite.role, passwordHash }).run();
-        tx.update(invitations).set({ acceptedAt: Date.now() }).where(eq(invitations.id, invite.id)).run();
         audit(tx, { userId: id, action: 'auth.invitation-accepted', entity: 'user', entityId: id, detail: { role: invite.role } });
       });
       const session = await lucia.createSession(id, { createdAt: Date.now() });
@@ -107,7 +129,12 @@ export function authRoutes(ctx: AppContext) {
 
   api.post('/request-reset', {
     schemas: { body: RequestResetInputSchema },
-    handle: async ({ body }) => {
+    handle: async ({ body, req, res }) => {
+      const addressWait = resetsPerAddress.take(req.ip ?? 'unknown');
+      if (addressWait > 0) throw tooMany(res, addressWait, 'Too many reset requests from here. Wait and try again.');
+      // Counted by the address typed, whether or not it has an account, so the answer reveals nothing.
+      const accountWait = resetsPerAccount.take(body.email.toLowerCase());
+      if (accountWait > 0) throw tooMany(res, accountWait, 'Several reset links were sent to this address already; use the newest, or wait and try again.');
       const user = db.select().from(users).where(eq(users.email, body.email)).get();
       // The answer is the same whether or not the account exists, so it reveals no addresses.
       if (user && user.disabledAt === null) {
@@ -139,7 +166,8 @@ export function authRoutes(ctx: AppContext) {
       const passwordHash = await hashPassword(body.password);
       db.transaction((tx) => {
         tx.update(users).set({ passwordHash }).where(eq(users.id, reset.userId)).run();
-        tx.update(passwordResets).set({ usedAt: Date.now() }).where(eq(passwordResets.id, reset.id)).run();
+        // Using one link ends every other outstanding link of the account.
+        tx.update(passwordResets).set({ usedAt: Date.now() }).where(and(eq(passwordResets.userId, reset.userId), isNull(passwordResets.usedAt))).run();
         audit(tx, { userId: reset.userId, action: 'auth.password-reset', entity: 'user', entityId: reset.userId });
       });
       // A new password ends every session of the account.

@@ -23,22 +23,50 @@ export function signInAddressLimiter(limits: SignInLimits) {
   });
 }
 
-/** Per-account counter of failed sign-ins, so spreading guesses over addresses does not help. */
-export class AccountLockout {
+/**
+ * Failed sign-ins counted per account *and* client address: after `perAccount` failures in the window,
+ * that pair waits before its next attempt, and the wait doubles with each further failure (capped at the
+ * window). Failures from one address never lock the account for anyone else, and no request sleeps:
+ * a refusal is a 429 with Retry-After.
+ */
+export class SignInBackoff {
   private failures = new Map<string, number[]>();
   constructor(private limits: SignInLimits, private now: () => number = Date.now) {}
 
-  isLocked(email: string): boolean {
-    return this.recent(email).length >= this.limits.perAccount;
+  /** Milliseconds this account must wait from this address; 0 when it may try. */
+  waitMs(email: string, address: string): number {
+    const recent = this.recent(email, address);
+    const over = recent.length - this.limits.perAccount;
+    if (over < 0) return 0;
+    const wait = Math.min(this.limits.windowMs, 30_000 * 2 ** over);
+    return Math.max(0, recent.at(-1)! + wait - this.now());
   }
-  recordFailure(email: string): void {
-    this.failures.set(email, [...this.recent(email), this.now()]);
+  recordFailure(email: string, address: string): void {
+    this.failures.set(key(email, address), [...this.recent(email, address), this.now()]);
   }
-  clear(email: string): void {
-    this.failures.delete(email);
+  clear(email: string, address: string): void {
+    this.failures.delete(key(email, address));
   }
-  private recent(email: string): number[] {
+  private recent(email: string, address: string): number[] {
     const since = this.now() - this.limits.windowMs;
-    return (this.failures.get(email) ?? []).filter((t) => t > since);
+    return (this.failures.get(key(email, address)) ?? []).filter((t) => t > since);
+  }
+}
+
+const key = (email: string, address: string) => `${email.toLowerCase()}\u0000${address}`;
+
+/** A sliding-window count per key (reset requests per address and per account). */
+export class WindowCounter {
+  private hits = new Map<string, number[]>();
+  constructor(private limit: number, private windowMs: number, private now: () => number = Date.now) {}
+
+  /** Counts one request; returns the milliseconds to wait when the key is over its limit (the request is not counted then). */
+  take(k: string): number {
+    const since = this.now() - this.windowMs;
+    const recent = (this.hits.get(k) ?? []).filter((t) => t > since);
+    if (recent.length >= this.limit) return recent[0]! + this.windowMs - this.now();
+    recent.push(this.now());
+    this.hits.set(k, recent);
+    return 0;
   }
 }

@@ -26,6 +26,25 @@ import {
 
 const DIAL = [0, 1, 2, 3, 4, 5, 6, 7, 8, 9, 10];
 
+/**
+ * Bounds on the work one request may ask for, set by what the screens need (a preset has under 12 parts;
+ * the Harness screen sweeps 11 × 11 knob settings at 151 frequencies): beyond them the answer is 422.
+ */
+export const HARNESS_LIMITS = { parts: 60, sweepPoints: 11 * 11 * 400 } as const;
+
+function assertWorkSize(netlist: Netlist, settings: number, frequencies: number) {
+  if (netlist.parts.length > HARNESS_LIMITS.parts) {
+    throw unprocessable(`A netlist may hold at most ${HARNESS_LIMITS.parts} parts; this one has ${netlist.parts.length}.`, { netlist: `At most ${HARNESS_LIMITS.parts} parts.` });
+  }
+  const points = settings * frequencies;
+  if (points > HARNESS_LIMITS.sweepPoints) {
+    throw unprocessable(
+      `One sweep may compute at most ${HARNESS_LIMITS.sweepPoints.toLocaleString('en')} points (knob settings × frequencies, e.g. 11 × 11 settings at 400 frequencies); this one asks for ${settings} × ${frequencies} = ${points.toLocaleString('en')}.`,
+      { frequencies: `At most ${HARNESS_LIMITS.sweepPoints.toLocaleString('en')} knob settings × frequencies.` },
+    );
+  }
+}
+
 interface SourceBody {
   layout?: string;
   selector?: number;
@@ -54,6 +73,7 @@ function layoutConfig(layout: LayoutDef, body: SourceBody) {
  */
 function sourceOf(body: SourceBody): { netlist: Netlist; layout: LayoutDef | null; label: string } {
   if (body.netlist) {
+    assertWorkSize(body.netlist, 1, 1);
     const problems = validateNetlist(body.netlist);
     if (problems.length > 0) throw unprocessable(`The netlist cannot be solved: ${problems[0]}`, { netlist: problems.join('; ') });
     return { netlist: body.netlist, layout: null, label: 'netlist' };
@@ -150,6 +170,7 @@ export function harnessRoutes(ctx: AppContext) {
     schemas: { body: SimulateRequestSchema },
     handle: ({ body }) => {
       const { netlist, layout } = sourceOf(body);
+      assertWorkSize(netlist, 1, body.frequencies?.length ?? DEFAULT_FREQUENCIES.length);
       const r = solved(body.netlist ? 'netlist' : 'preset', () => simulateInstrument(netlist, knobsOf(layout, body.knobs), body.frequencies ?? DEFAULT_FREQUENCIES));
       return {
         frequencies: Array.from(r.frequencies),
@@ -171,6 +192,7 @@ export function harnessRoutes(ctx: AppContext) {
       const toneKnob = body.toneKnob ?? (layout ? toneKnobs(layout)[0]! : 'tone');
       checkKnobIds([volumeKnob], layout, 'volumeKnob');
       checkKnobIds([toneKnob], layout, 'toneKnob');
+      assertWorkSize(netlist, (body.volume ?? DIAL).length * (body.tone ?? DIAL).length, body.frequencies?.length ?? DEFAULT_FREQUENCIES.length);
       const grid = solved(body.netlist ? 'netlist' : 'preset', () => sweepKnobs(netlist, { volume: body.volume ?? DIAL, tone: body.tone ?? DIAL }, body.frequencies ?? DEFAULT_FREQUENCIES, {
         volumeKnob,
         toneKnob,

@@ -8,6 +8,7 @@ import { findPart } from '@server/features/parts/repository';
 import { buildLayoutNetlist, getLayout, layoutKnobs, resolveLayoutConfig, toneKnobs, volumeKnobs } from '@shared/circuit/layouts';
 import { simulateInstrument, sweepKnobs } from '@shared/circuit/metrics';
 import { getPreset } from '@shared/circuit/presets';
+import { solveChecked, UnsolvableHarness } from '@server/features/harness/solvable';
 import { nominalQuantity } from '@shared/analysis/reading-verdict';
 import { formatValue } from '@shared/units/format';
 import { QUANTITY_UNIT } from '@shared/units/quantities';
@@ -15,22 +16,33 @@ import type { JobDetail } from './repository';
 
 const fmtDb = (x: number) => `${x >= 0 ? '+' : ''}${x.toFixed(1)} dB`;
 
-export function harnessSummary(db: DbLike, harnessId: number | null): { text: string; csv: string } | null {
+export function harnessSummary(db: DbLike, harnessId: number | null): { text: string; csv: string | null } | null {
   if (!harnessId) return null;
   const design = db.select().from(harnesses).where(eq(harnesses.id, harnessId)).get();
   const layout = design && getLayout(design.layout);
   if (!design || !layout) return null;
   const { config, problems } = resolveLayoutConfig(layout, { selector: design.selector, options: design.options, values: design.values });
-  if (problems.length > 0) return null;
+  if (problems.length > 0) return { text: `Wiring: ${design.name} (${layout.name}). Its predicted response could not be computed: ${problems[0]!.message}`, csv: null };
   const netlist = buildLayoutNetlist(layout, config);
   const knobs = layoutKnobs(layout, design.knobs ?? {});
   const volumeKnob = volumeKnobs(layout)[0]!;
   const volume = [10, 8, 6, 4, 2];
   const volumeName = layout.knobs.find((k) => k.id === volumeKnob)!.name.toLowerCase();
-  const grid = sweepKnobs(netlist, { volume, tone: [knobs[toneKnobs(layout)[0]!]!] }, undefined, { volumeKnob, toneKnob: toneKnobs(layout)[0]!, knobs });
-  const now = simulateInstrument(netlist, knobs);
-  const choice = (id: string) => layout.options.find((o) => o.id === id)!.choices.find((c) => c.id === config.options[id])!.name;
   const preset = design.preset ? getPreset(design.preset) : undefined;
+  let grid: ReturnType<typeof sweepKnobs>;
+  let now: ReturnType<typeof simulateInstrument>;
+  try {
+    grid = solveChecked(
+      () => sweepKnobs(netlist, { volume, tone: [knobs[toneKnobs(layout)[0]!]!] }, undefined, { volumeKnob, toneKnob: toneKnobs(layout)[0]!, knobs }),
+      (g) => [g.level1kDb, g.volumeTaperDb, g.trebleRetentionDb],
+    );
+    now = solveChecked(() => simulateInstrument(netlist, knobs), (r) => [r.magnitudeDb]);
+  } catch (err) {
+    // A design saved with values the engine cannot solve: the report says so instead of failing.
+    if (err instanceof UnsolvableHarness) return { text: `Wiring: ${design.name} (${layout.name}). Its predicted response could not be computed with the values saved in the design.`, csv: null };
+    throw err;
+  }
+  const choice = (id: string) => layout.options.find((o) => o.id === id)!.choices.find((c) => c.id === config.options[id])!.name;
   const loadValue = config.options.load === 'buffer' ? `${formatValue(config.values.bufferR as number, 'Ω')}` : config.options.load === 'low-impedance-pedal' ? `${formatValue(config.values.pedalR as number, 'Ω')}` : `${formatValue(config.values.ampR as number, 'Ω')}`;
   const lines = [
     `Wiring: ${design.name} (${layout.name}${preset ? `, from the preset ${preset.name}` : ''}), selector at ${layout.selector.positions[config.selector]!.name}.`,
@@ -84,7 +96,7 @@ export function reportText(db: DbLike, job: JobDetail, shopMessage?: string): { 
     '',
     'Parts installed:',
     ...(partLines.length ? partLines : ['  (none recorded)']),
-    ...(harness ? ['', harness.text, '', 'The predicted curves are attached as CSV (level in dB against frequency).'] : []),
+    ...(harness ? ['', harness.text, ...(harness.csv ? ['', 'The predicted curves are attached as CSV (level in dB against frequency).'] : [])] : []),
     '',
     ...(harness ? ["Predictions come from a circuit model of the wiring design with the design's typical part values, not the measured parts above; your amplifier and cable change the exact figures."] : []),
   ].join('\n').trimEnd();

@@ -2,7 +2,7 @@ import { and, eq, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { audit } from '@server/audit';
 import type { AppContext } from '@server/context';
-import { harnesses, jobParts, jobs } from '@server/db/schema';
+import { harnesses, jobParts, jobs, users } from '@server/db/schema';
 import { findPart, setPartStatus } from '@server/features/parts/repository';
 import { installCheck } from '@server/features/parts/evidence';
 import { conflict, HttpError, notFound, unprocessable } from '@server/http/errors';
@@ -116,6 +116,11 @@ export function jobRoutes(ctx: AppContext) {
       const job = mustFind(params.id);
       const to = body.to ?? job.customerEmail;
       if (!to) throw unprocessable('The job has no customer e-mail; give one.', { to: 'Required: the job has no customer e-mail.' });
+      // Only to the job's customer or a member: the server is not a relay for arbitrary addresses.
+      const member = db.select({ id: users.id }).from(users).where(eq(users.email, to.toLowerCase())).get();
+      if (to.toLowerCase() !== job.customerEmail?.toLowerCase() && !member) {
+        throw unprocessable('A report goes to the job\'s customer address or to a member\'s address.', { to: 'Not the customer\'s address nor a member\'s.' });
+      }
       const report = reportText(db, job, body.message);
       await ctx.mailer.send({
         to,

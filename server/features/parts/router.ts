@@ -3,8 +3,8 @@ import QRCode from 'qrcode';
 import { z } from 'zod';
 import { audit } from '@server/audit';
 import type { AppContext } from '@server/context';
-import { lots, parts, partStatusEvents, users } from '@server/db/schema';
-import { notFound } from '@server/http/errors';
+import { lots, parts, partStatusEvents, toleranceProfiles, users } from '@server/db/schema';
+import { notFound, unprocessable } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
 import { IdParamsSchema } from '@shared/schemas/common';
 import { CreatePartInputSchema, PartListQuerySchema, UpdatePartInputSchema } from '@shared/schemas/parts';
@@ -14,6 +14,15 @@ import { assertLabelFree, findPart, findPartByLabel, listParts, setPartStatus } 
 export function partRoutes(ctx: AppContext) {
   const { db } = ctx;
   const api = new ApiRouter('/api/parts');
+  /** The records a part may refer to must exist; the answer names the field. */
+  const assertReferences = (body: { profileId?: number | null; lotId?: number | null }) => {
+    if (body.profileId != null && !db.select({ id: toleranceProfiles.id }).from(toleranceProfiles).where(eq(toleranceProfiles.id, body.profileId)).get()) {
+      throw unprocessable(`There is no tolerance profile ${body.profileId}.`, { profileId: 'No such tolerance profile.' });
+    }
+    if (body.lotId != null && !db.select({ id: lots.id }).from(lots).where(eq(lots.id, body.lotId)).get()) {
+      throw unprocessable(`There is no lot ${body.lotId}.`, { lotId: 'No such lot.' });
+    }
+  };
 
   api.get('/', {
     schemas: { query: PartListQuerySchema },
@@ -24,6 +33,7 @@ export function partRoutes(ctx: AppContext) {
     status: 201,
     schemas: { body: CreatePartInputSchema },
     handle: ({ body, user }) => {
+      assertReferences(body);
       assertLabelFree(db, body.label);
       return db.transaction((tx) => {
         const part = tx.insert(parts).values({ ...body, createdBy: user.id }).returning().get();
@@ -82,6 +92,7 @@ export function partRoutes(ctx: AppContext) {
     handle: ({ params, body, user }) => {
       const part = findPart(db, params.id);
       if (!part) throw notFound('That part');
+      assertReferences(body);
       if (body.label && body.label !== part.label) assertLabelFree(db, body.label, part.id);
       const { status, statusReason, ...fields } = body;
       return db.transaction((tx) => {

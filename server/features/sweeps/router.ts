@@ -7,7 +7,7 @@ import { findPart } from '@server/features/parts/repository';
 import { notFound, unprocessable } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
 import { fileRefused } from '@server/uploads/refusal';
-import { checkFileType, singleFileUpload, withStoredFile } from '@server/uploads/store';
+import { checkFileType, singleFileUpload, withStoredFile, storedName } from '@server/uploads/store';
 import { IdParamsSchema } from '@shared/schemas/common';
 import { RefitInputSchema, SweepUploadFieldsSchema } from '@shared/schemas/sweeps';
 import { parseSweepCsv } from '@shared/csv/sweeps';
@@ -53,7 +53,7 @@ export function sweepRoutes(ctx: AppContext) {
           db.transaction((tx) => {
             const attachment = tx
               .insert(attachments)
-              .values({ ownerType: 'part', ownerId: part.id, purpose: 'sweep', originalName: file.originalname.slice(0, 200), contentHash: content.contentHash, mime, size: content.size, createdBy: user.id })
+              .values({ ownerType: 'part', ownerId: part.id, purpose: 'sweep', originalName: storedName(file.originalname), contentHash: content.contentHash, mime, size: content.size, createdBy: user.id })
               .returning()
               .get();
             const sweep = insertSweep(tx, ctx.sqlite, { partId: part.id, kind: body.kind, attachmentId: attachment.id, columns: parsed.columns, createdBy: user.id }, stored);

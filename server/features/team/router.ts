@@ -34,6 +34,7 @@ export function teamRoutes(ctx: AppContext) {
     handle: async ({ params, body, user }) => {
       const member = db.select().from(users).where(eq(users.id, params.id)).get();
       if (!member) throw notFound('That member');
+      if (body.role === undefined && body.disabled === undefined) throw new HttpError(422, 'invalid', 'Give a new role or disabled: true/false.', { role: 'Give a role or disabled.' });
       if (member.id === user.id && (body.role !== undefined && body.role !== 'admin' || body.disabled)) {
         throw new HttpError(409, 'conflict', 'You cannot demote or disable yourself; ask another admin.');
       }

@@ -1,0 +1,63 @@
+// Recording a lot's disposition (with the watchers' e-mails) and reopening a disposed lot.
+import { eq } from 'drizzle-orm';
+import { audit } from '@server/audit';
+import type { AppContext } from '@server/context';
+import { lots } from '@server/db/schema';
+import { conflict } from '@server/http/errors';
+import type { ApiRouter } from '@server/http/router';
+import { IdParamsSchema } from '@shared/schemas/common';
+import { DispositionInputSchema, ReopenInputSchema } from '@shared/schemas/lots';
+import { formatValue } from '@shared/units/format';
+import { lotFinder, lotKind, lotSummary, UNIT } from './common';
+import { lotStats, lotValues, lotWatcherRows } from './repository';
+import { notifyReopen } from './watchers';
+
+export function lotDispositionRoutes(api: ApiRouter, ctx: AppContext) {
+  const { db, sqlite } = ctx;
+  const mustFind = lotFinder(ctx);
+
+  api.post('/:id/disposition', {
+    schemas: { params: IdParamsSchema, body: DispositionInputSchema },
+    handle: async ({ params, body, user }) => {
+      const lot = mustFind(params.id);
+      if (lot.status !== 'open') throw conflict(`The lot was ${lot.status} already; an admin must reopen it first.`);
+      const data = lotValues(sqlite, lot.id);
+      if (data.values.length === 0) throw conflict('The lot has no readings yet.');
+      const stats = lotStats(lot, data, { sets: false })!;
+      db.transaction((tx) => {
+        tx.update(lots).set({ status: body.status, dispositionReason: body.reason, disposedBy: user.id, disposedAt: Date.now() }).where(eq(lots.id, lot.id)).run();
+        audit(tx, { userId: user.id, action: 'lot.disposition', entity: 'lot', entityId: lot.id, detail: { status: body.status, reason: body.reason, n: stats.n, cpk: stats.cpk } });
+      });
+      const unit = UNIT[lotKind(lot)];
+      const watchers = lotWatcherRows(db, lot.id);
+      for (const w of watchers) {
+        await ctx.mailer.send({
+          to: w.email,
+          topic: 'lot-disposition',
+          subject: `Lot ${lot.code} ${body.status}`,
+          text:
+            `Lot ${lot.code} (${lot.kind}, ${formatValue(lot.nominal, unit)} ±${lot.tolerancePct} %${lot.supplier ? `, from ${lot.supplier}` : ''}) was ${body.status} by ${user.name}.\n\n` +
+            `Reason: ${body.reason}\n\n` +
+            `n = ${stats.n}, mean ${formatValue(stats.mean, unit)}, SD ${formatValue(stats.sd, unit)}, Cpk ${stats.cpk?.toFixed(2) ?? '—'}; ` +
+            `${stats.countBelow + stats.countAbove} outside the tolerance, ${stats.outliers.indices.length} outliers.\n\n` +
+            `${ctx.config.publicUrl}/lots/${lot.id}\n`,
+        });
+      }
+      return { lot: lotSummary(mustFind(lot.id)), notified: watchers.length };
+    },
+  });
+
+  api.post('/:id/reopen', {
+    schemas: { params: IdParamsSchema, body: ReopenInputSchema },
+    handle: async ({ params, body, user }) => {
+      const lot = mustFind(params.id);
+      if (lot.status === 'open') throw conflict('The lot is open already.');
+      db.transaction((tx) => {
+        tx.update(lots).set({ status: 'open', dispositionReason: null, disposedBy: null, disposedAt: null }).where(eq(lots.id, lot.id)).run();
+        audit(tx, { userId: user.id, action: 'lot.reopen', entity: 'lot', entityId: lot.id, detail: { was: lot.status, previousReason: lot.dispositionReason, reason: body.reason } });
+      });
+      const notified = await notifyReopen(ctx, lot, user, body.reason);
+      return { lot: lotSummary(mustFind(lot.id)), notified };
+    },
+  });
+}
