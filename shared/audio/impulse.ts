@@ -20,7 +20,7 @@
 // is odd in f and is 0 at 0 Hz for any real network. The Nyquist bin of a real signal's spectrum is
 // real too: its real part is taken.
 import type { Knobs, Netlist } from '@shared/circuit/netlist';
-import { compileHarness, solve, type CompiledHarness } from '@shared/circuit/solver';
+import { compileHarness, solve, solveGroups, type CompiledHarness } from '@shared/circuit/solver';
 import { nextPowerOfTwo, RealFft } from './fft';
 
 /**
@@ -226,4 +226,41 @@ export function filterResponse(ir: ImpulseResponse, pad = 8): FilterResponse {
     im[k] = r * s + i * c;
   }
   return { frequencies, re, im };
+}
+
+export interface InstrumentResponses {
+  /** Each pickup's own transfer (its sources only, the others silent; a reversed source negated). */
+  pickups: { pickupId: string; response: ResponseFunction }[];
+  /** The sum of every pickup's transfer: what one source signal (a recording) goes through. */
+  total: ResponseFunction;
+}
+
+/**
+ * The transfers of a whole instrument at a knob setting, by superposition: the engine's per-source
+ * solve (unit sources, reversed ones negated), grouped by pickup. A built-in phrase feeds each
+ * pickup the string at its own position through `pickups`; a recording goes through `total`.
+ */
+export function instrumentResponses(harness: Netlist | CompiledHarness, knobs: Knobs): InstrumentResponses {
+  const compiled = 'size' in harness ? harness : compileHarness(harness);
+  const k: Knobs = { ...knobs };
+  const pickupIds = [...new Set(compiled.pickupOf)];
+  const pickupResponse =
+    (pickupId: string): ResponseFunction =>
+    (frequencies, re, im) => {
+      const { groups } = solveGroups(compiled, k, frequencies);
+      const m = frequencies.length;
+      re.fill(0, 0, m);
+      im.fill(0, 0, m);
+      groups.forEach((g, i) => {
+        if (compiled.pickupOf[i] !== pickupId) return;
+        for (let j = 0; j < m; j++) {
+          re[j]! += g.re[j]!;
+          im[j]! += g.im[j]!;
+        }
+      });
+    };
+  return {
+    pickups: pickupIds.map((pickupId) => ({ pickupId, response: pickupResponse(pickupId) })),
+    total: harnessResponse(compiled, k),
+  };
 }

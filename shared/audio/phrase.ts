@@ -205,3 +205,8 @@ export function synthesizePhrase(options: PhraseOptions): Phrase {
     seed,
   };
 }
+
+/** Where a layout's pickup sits: neck, middle and bridge by name; any other (a single pickup) in the middle place. */
+export function pickupPositionOf(pickupId: string): number {
+  return pickupId === 'neck' || pickupId === 'middle' || pickupId === 'bridge' ? PICKUP_POSITIONS[pickupId] : PICKUP_POSITIONS.middle;
+}

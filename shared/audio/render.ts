@@ -15,3 +15,18 @@ export function renderChannels(channels: readonly Float32Array[], sampleRate: nu
   const filter = prepareFilter(impulseResponse(response, sampleRate));
   return channels.map((c) => convolve(c, filter));
 }
+
+/**
+ * The built-in phrase through a whole instrument: track k (the string heard at pickup k's place)
+ * through pickup k's own transfer, the results summed (mono), the length kept.
+ */
+export function renderPickupTracks(tracks: readonly Float32Array[], sampleRate: number, pickups: readonly ResponseFunction[]): Float32Array {
+  if (tracks.length !== pickups.length) throw new Error('renderPickupTracks: one track per pickup');
+  const length = tracks[0]?.length ?? 0;
+  const out = new Float32Array(length);
+  tracks.forEach((track, k) => {
+    const y = convolve(track, prepareFilter(impulseResponse(pickups[k]!, sampleRate)));
+    for (let i = 0; i < length; i++) out[i]! += y[i]!;
+  });
+  return out;
+}

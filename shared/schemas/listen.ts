@@ -34,9 +34,18 @@ export const RecordingChainSchema = z
   .refine((b) => (b.preset === undefined) !== (b.netlist === undefined), { message: 'Give either a preset or a netlist.', path: ['preset'] });
 export type RecordingChain = z.infer<typeof RecordingChainSchema>;
 
+/** The built-in phrase instead of a file: each pickup hears the string at its own place. */
+export const RenderPhraseSchema = z.object({
+  sampleRate: z.number().int().min(22050, 'At least 22050 Hz.').max(96000, 'At most 96000 Hz.').default(48000),
+  seed: z.number().int().min(0).max(2 ** 31).optional(),
+});
+export type RenderPhrase = z.infer<typeof RenderPhraseSchema>;
+
 export const RenderFieldsSchema = z.object({
   design: jsonField(SimulateRequestSchema),
   chain: jsonField(RecordingChainSchema).optional(),
+  /** Render the built-in phrase (no file); with a file, leave it out. */
+  phrase: jsonField(RenderPhraseSchema).optional(),
 });
 export type RenderFields = z.infer<typeof RenderFieldsSchema>;
 

@@ -71,7 +71,7 @@ function layoutConfig(layout: LayoutDef, body: SourceBody) {
  * The netlist a request names, with its knob ids: a layout filled with its defaults and the given
  * values, a preset (the older body), or a netlist as sent.
  */
-function sourceOf(body: SourceBody): { netlist: Netlist; layout: LayoutDef | null; label: string } {
+export function sourceOf(body: SourceBody): { netlist: Netlist; layout: LayoutDef | null; label: string } {
   if (body.netlist) {
     assertWorkSize(body.netlist, 1, 1);
     const problems = validateNetlist(body.netlist);
@@ -98,7 +98,7 @@ function checkKnobIds(ids: string[], layout: LayoutDef | null, field: string) {
 }
 
 /** Every knob of the source at its setting (missing ones at 10). */
-function knobsOf(layout: LayoutDef | null, knobs: Record<string, number> = {}): Record<string, number> {
+export function knobsOf(layout: LayoutDef | null, knobs: Record<string, number> = {}): Record<string, number> {
   return layout ? layoutKnobs(layout, knobs) : { volume: 10, tone: 10, ...knobs };
 }
 
