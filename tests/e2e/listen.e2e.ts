@@ -157,7 +157,7 @@ test('the Listen panel plays the phrase, follows a knob, switches A/B, and shows
   await page.waitForTimeout(300);
   expect(await panel.getByRole('button', { name: 'Stop' }).count()).toBe(1);
   // pin A, then hear A and B
-  await page.getByRole('button', { name: /Pin as A to compare/ }).click();
+  await page.getByRole('button', { name: /Pin as A to compare/ }).first().click(); // the editor's (the instrument panel has its own)
   await panel.getByRole('radio', { name: /^A:/ }).check();
   await page.waitForTimeout(200);
   expect(await panel.getByRole('radio', { name: /^A:/ }).isChecked()).toBe(true);
@@ -172,6 +172,44 @@ test('the Listen panel plays the phrase, follows a knob, switches A/B, and shows
   }
   await panel.getByRole('button', { name: 'Stop' }).click();
   expect(await meter.textContent()).toBe('stopped');
+  expect(problems).toEqual([]);
+  await page.close();
+}, 120_000);
+
+test('with the whole-instrument panel in use, Listen plays that layout at its selector position and knobs, and states the simplification', async () => {
+  const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+  const problems: string[] = [];
+  page.on('pageerror', (err) => problems.push(`page error: ${err.message}`));
+  page.on('console', (msg) => {
+    if (msg.type() === 'error') problems.push(`console: ${msg.text()}`);
+  });
+  await signIn(page, baseUrl, 'tech@lugbook.test', password);
+  await page.goto(`${baseUrl}/harness`);
+  const panel = page.locator('#harness-listen');
+  await panel.waitFor();
+  // before the instrument panel is touched, Listen plays the one-pickup design
+  expect(await panel.getByTestId('listen-instrument').count()).toBe(0);
+  const instrument = page.locator('#harness-instrument');
+  await instrument.getByRole('radio', { name: /^2:/ }).check({ force: true });
+  const note = panel.getByTestId('listen-instrument');
+  await expect.poll(async () => (await note.textContent()) ?? '').toMatch(/Two pickups.*bridge/i);
+  expect(await note.textContent()).toMatch(/unit source.*place along the string.*no mutual inductance/s);
+  await panel.getByRole('button', { name: 'Play' }).click();
+  const meter = panel.getByTestId('listen-meter-text');
+  await expect.poll(async () => (await meter.textContent()) ?? '', { timeout: 15_000 }).toMatch(/dBFS/);
+  // the selector moves while playing: the same phrase tracks, new filters, still playing
+  await instrument.getByRole('radio', { name: /^0:/ }).check({ force: true });
+  await expect.poll(async () => (await note.textContent()) ?? '').toMatch(/neck/i);
+  await page.waitForTimeout(300);
+  expect(await panel.getByRole('button', { name: 'Stop' }).count()).toBe(1);
+  await expect.poll(async () => (await meter.textContent()) ?? '', { timeout: 5_000 }).toMatch(/dBFS/);
+  const shots = process.env.LUGBOOK_SHOTS;
+  if (shots) {
+    fs.mkdirSync(shots, { recursive: true });
+    await panel.screenshot({ path: `${shots}/listen-instrument.png` });
+    await page.screenshot({ path: `${shots}/harness-instrument-listen.png`, fullPage: true });
+  }
+  await panel.getByRole('button', { name: 'Stop' }).click();
   expect(problems).toEqual([]);
   await page.close();
 }, 120_000);

@@ -21,7 +21,7 @@ import { DesignsPanel, type PresetDesign } from './designs-panel';
 import { InstrumentPanel } from './instrument-panel';
 import { formatKnob } from './harness-format';
 import { KnobSliders } from './knob-sliders';
-import { listenDesignOf, recordingChainOf } from './listen-design';
+import { instrumentChainOf, listenDesignOf, listenInstrumentOf, recordingChainOf, type ListenInstrument } from './listen-design';
 import { ListenPanel } from './listen-panel';
 import { MetricsTable } from './metrics-table';
 import { ResponsePlot, type Curve } from './response-plot';
@@ -61,6 +61,9 @@ export function HarnessScreen() {
   const [knobs, setKnobs] = useState<Knobs>({ volume: 10, tone: 10 });
   const [family, setFamily] = useState<FamilyMode>('volume');
   const [pinned, setPinned] = useState<PinnedDesign | null>(null);
+  // the whole instrument, once the instrument panel is in use: Listen plays it at its selector position and knobs
+  const [instrument, setInstrument] = useState<ListenInstrument | null>(null);
+  const instrumentDesign = useMemo(() => (instrument ? listenInstrumentOf(instrument) : null), [instrument]);
   const plotRef = useRef<uPlot | null>(null);
   const netlist = useSpiceNetlist();
 
@@ -216,7 +219,7 @@ export function HarnessScreen() {
       </div>
 
       <div className="mt-6">
-        <InstrumentPanel />
+        <InstrumentPanel onChange={setInstrument} />
       </div>
 
       {ok && (
@@ -230,9 +233,10 @@ export function HarnessScreen() {
           <ListenPanel
             designs={{
               A: pinned ? listenDesignOf(pinned.label, pinned.preset, pinned.values, knobs) : null,
-              B: listenDesignOf(design.loaded?.name ?? preset.name, design.preset, design.values, knobs),
+              B: instrumentDesign ?? listenDesignOf(design.loaded?.name ?? preset.name, design.preset, design.values, knobs),
             }}
-            chainFor={(inputR, cable) => recordingChainOf(design.preset, design.values, inputR, cable)}
+            chainFor={(inputR, cable) => (instrument && instrumentDesign ? instrumentChainOf(instrument, inputR, cable) : recordingChainOf(design.preset, design.values, inputR, cable))}
+            instrument={instrument && instrumentDesign ? instrumentDesign.label : undefined}
           />
         </div>
       )}

@@ -3,7 +3,7 @@
 // the treble-bleed finder with one-click apply, and an A/B pin that works across layouts. Curves are
 // computed in the browser with the shared engine; the finder runs on the server.
 import { useMutation } from '@tanstack/react-query';
-import { useMemo, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import type { BleedCandidate } from '@shared/circuit/bleed-finder';
 import { buildLayoutNetlist, getLayout, LAYOUTS, layoutKnobs, resolveLayoutConfig, type LayoutDef, type LayoutId } from '@shared/circuit/layouts';
 import { simulateInstrument, type InstrumentResult } from '@shared/circuit/metrics';
@@ -75,8 +75,17 @@ function ValueField({ def, value, onChange }: { def: LayoutDef['values'][number]
   );
 }
 
-export function InstrumentPanel() {
+/** `onChange`: told of the instrument once the user changes anything in the panel (it is then in use), and after every change. */
+export function InstrumentPanel({ onChange }: { onChange?: (inst: Instrument) => void } = {}) {
   const [inst, setInst] = useState<Instrument>({ layout: 'two-pickups-3way', selector: 1, options: {}, knobs: {}, values: {} });
+  const first = useRef(true);
+  useEffect(() => {
+    if (first.current) {
+      first.current = false;
+      return;
+    }
+    onChange?.(inst);
+  }, [inst, onChange]);
   const [pinned, setPinned] = useState<{ label: string; db: Float64Array } | null>(null);
   const [weight, setWeight] = useState(0.7);
   const layout = getLayout(inst.layout)!;

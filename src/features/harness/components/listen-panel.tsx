@@ -15,6 +15,8 @@ export interface ListenPanelProps {
   designs: Record<Slot, ListenDesign | null>;
   /** The recording chain of an own recording: the present wiring at full volume and tone into the recorder's input. */
   chainFor: (inputR: number, cableLength: number) => ResponseFunction;
+  /** Set when B is the whole instrument of the instrument panel (layout and selector position, in words). */
+  instrument?: string;
 }
 
 /** The channels of a decoded recording mixed to one track. */
@@ -27,7 +29,7 @@ function mono(buffer: AudioBuffer): Float32Array {
   return out;
 }
 
-export function ListenPanel({ designs, chainFor }: ListenPanelProps) {
+export function ListenPanel({ designs, chainFor, instrument }: ListenPanelProps) {
   const { state, play, stop, setActive, setLoop, setLevelDb } = useListenAudio(designs);
   const [sourceKind, setSourceKind] = useState<'phrase' | 'recording'>('phrase');
   const [file, setFile] = useState<File | null>(null);
@@ -42,8 +44,9 @@ export function ListenPanel({ designs, chainFor }: ListenPanelProps) {
   const start = () =>
     play(async (sampleRate, ctx): Promise<ListenSource> => {
       if (sourceKind === 'phrase') {
-        const positions = (designs.B ?? designs.A)!.pickups.map((p) => p.position);
-        return { kind: 'phrase', tracks: synthesizePhrase({ sampleRate, pickupPositions: positions }).tracks };
+        // one track per place along the string that either design has a pickup at
+        const positions = [...new Set([...(designs.A?.pickups ?? []), ...(designs.B?.pickups ?? [])].map((p) => p.position))];
+        return { kind: 'phrase', tracks: synthesizePhrase({ sampleRate, pickupPositions: positions }).tracks, positions };
       }
       const decoded = await ctx.decodeAudioData(await file!.arrayBuffer());
       return { kind: 'recording', track: mono(decoded), chain: chainFor(inputR, cable) };
@@ -58,6 +61,13 @@ export function ListenPanel({ designs, chainFor }: ListenPanelProps) {
         <strong>Start quiet.</strong> Set your speakers or headphones low before pressing Play and raise them slowly; loud sound, above all through
         headphones, harms hearing for good.
       </p>
+
+      {instrument && (
+        <p className="mt-3 text-sm" data-testid="listen-instrument">
+          Playing the whole instrument: <strong>{instrument}</strong>, at its knobs. Simplified: every pickup is a unit source and pickups differ
+          only by their place along the string (and their own values); coils do not couple (no mutual inductance).
+        </p>
+      )}
 
       <div className="mt-3 grid gap-4 md:grid-cols-2">
         <fieldset>
@@ -167,7 +177,8 @@ export function ListenPanel({ designs, chainFor }: ListenPanelProps) {
       )}
       <p className="mt-3 text-xs text-ink-soft">
         The phrase is plucked strings made by a plucked-string model (K. Karplus and A. Strong, 1983), heard by the pickup at its place along the string,
-        then filtered by the design at the current knobs; moving a knob changes the sound within 50 ms. One pickup, in the middle of the usual range.
+        then filtered by the design at the current knobs; moving a knob changes the sound within 50 ms.
+        {instrument ? ' Each pickup hears the string at its own place and goes through its own transfer.' : ' One pickup, in the middle of the usual range.'}
       </p>
     </Panel>
   );
