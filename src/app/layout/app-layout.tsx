@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useEffect, useState } from 'react';
 import { Navigate, NavLink, Outlet, useLocation, useNavigation } from 'react-router-dom';
 import { roleCan } from '@shared/auth/capabilities';
 import type { User } from '@shared/schemas/auth';
@@ -68,6 +68,15 @@ export function AppLayout() {
   const [menuOpenOn, setMenuOpenOn] = useState<string | null>(null);
   const menuOpen = menuOpenOn === location.pathname;
   const setMenuOpen = (open: boolean) => setMenuOpenOn(open ? location.pathname : null);
+  // Esc closes the open menu.
+  useEffect(() => {
+    if (!menuOpen) return;
+    const onKey = (e: KeyboardEvent) => {
+      if (e.key === 'Escape') setMenuOpenOn(null);
+    };
+    document.addEventListener('keydown', onKey);
+    return () => document.removeEventListener('keydown', onKey);
+  }, [menuOpen]);
 
   if (me.isPending) return <Loading what="Opening Lugbook" />;
   const user = me.data?.user ?? null;

@@ -188,7 +188,8 @@ export const ReadingForm = forwardRef<ReadingFormHandle, ReadingFormProps>(funct
         </SelectField>
       </div>
 
-      <div aria-live="polite">
+      {/* At the bench on a phone the verdict stays pinned to the bottom of the screen while the form is in view. */}
+      <div aria-live="polite" className={bench ? 'max-sm:sticky max-sm:bottom-2 max-sm:z-10 max-sm:rounded-md max-sm:bg-paper max-sm:shadow-md' : undefined}>
         {live ? (
           <VerdictPanel title="Verdict as typed" verdict={live.verdict} reason={live.reason} source={live.source} />
         ) : parsed?.ok ? (

@@ -15,7 +15,7 @@ export function RecentReadings() {
   if (rows.length === 0) return <p className="text-sm text-ink-soft">No readings yet. The first one you save appears here.</p>;
   return (
     <div className="overflow-x-auto">
-      <table className="w-full min-w-[760px] border-collapse text-sm">
+      <table className="table-list w-full min-w-[760px] border-collapse text-sm">
         <caption className="sr-only">The last {RECENT_LIMIT} readings taken at the bench, newest first</caption>
         <thead>
           <tr className="border-b border-paper-edge text-left text-xs uppercase tracking-wide text-ink-soft">
@@ -36,17 +36,17 @@ export function RecentReadings() {
                   {r.partLabel}
                 </Link>
               </td>
-              <td className="py-2 pr-3 text-ink-soft">{QUANTITY_SHORT[r.quantity]}</td>
-              <td className="num whitespace-nowrap py-2 pr-3 text-right">{formatReading(r.quantity, r.value)}</td>
-              <td className="py-2 pr-3">
+              <td data-label="Qty" className="py-2 pr-3 text-ink-soft">{QUANTITY_SHORT[r.quantity]}</td>
+              <td data-label="Value" className="num whitespace-nowrap py-2 pr-3 text-right">{formatReading(r.quantity, r.value)}</td>
+              <td data-label="Verdict" className="py-2 pr-3">
                 {r.verdict ? <VerdictBadge verdict={r.verdict} reason={r.verdictReason ?? undefined} /> : <span className="text-xs text-ink-soft">no limit</span>}
               </td>
-              <td className="py-2 pr-3">
+              <td data-label="Instrument" className="py-2 pr-3">
                 {r.instrumentName ?? <span className="text-ink-faint">—</span>}
                 {r.calibrationOverdue && <OverdueMark />}
               </td>
-              <td className="whitespace-nowrap py-2 pr-3">{r.takenBy ?? <span className="text-ink-faint">—</span>}</td>
-              <td className="py-2 whitespace-nowrap text-ink-soft">
+              <td data-label="Who" className="whitespace-nowrap py-2 pr-3">{r.takenBy ?? <span className="text-ink-faint">—</span>}</td>
+              <td data-label="When" className="py-2 whitespace-nowrap text-ink-soft">
                 <time dateTime={new Date(r.takenAt).toISOString()}>{formatDateTime(r.takenAt)}</time>
               </td>
             </tr>

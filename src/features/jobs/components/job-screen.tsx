@@ -21,10 +21,10 @@ const KIND_WORD: Record<string, string> = { pot: 'Pot', capacitor: 'Capacitor', 
 function JobControls({ job }: { job: JobDetail }) {
   const update = useUpdateJob();
   const harnesses = useHarnesses();
-  const sel = 'rounded-md border border-paper-edge bg-paper-bright px-2 py-1.5 text-sm';
+  const sel = 'max-w-full rounded-md border border-paper-edge bg-paper-bright px-2 py-1.5 text-sm';
   return (
     <div className="flex flex-wrap items-end gap-4">
-      <label className="text-sm">
+      <label className="min-w-0 max-w-full text-sm">
         <span className="mb-1 block font-medium">Status</span>
         <select className={sel} value={job.status} disabled={update.isPending} onChange={(e) => update.mutate({ id: job.id, input: { status: e.target.value as JobDetail['status'] } })}>
           {JOB_STATUSES.map((s) => (
@@ -34,7 +34,7 @@ function JobControls({ job }: { job: JobDetail }) {
           ))}
         </select>
       </label>
-      <label className="text-sm">
+      <label className="min-w-0 max-w-full text-sm">
         <span className="mb-1 block font-medium">Harness design</span>
         <select className={sel} value={job.harnessId ?? ''} disabled={update.isPending || harnesses.isPending} onChange={(e) => update.mutate({ id: job.id, input: { harnessId: e.target.value === '' ? null : Number(e.target.value) } })}>
           <option value="">None</option>
@@ -59,7 +59,7 @@ function InstalledParts({ job, canWrite }: { job: JobDetail; canWrite: boolean }
   return (
     <div className="overflow-x-auto">
       {remove.isError && <Alert>{remove.error.message}</Alert>}
-      <table className="w-full min-w-[640px] border-collapse text-sm">
+      <table className="table-list w-full min-w-[640px] border-collapse text-sm">
         <caption className="sr-only">Parts installed in {job.code}</caption>
         <thead className="bg-paper-deep text-left text-ink-soft">
           <tr>
@@ -79,19 +79,19 @@ function InstalledParts({ job, canWrite }: { job: JobDetail; canWrite: boolean }
         <tbody>
           {job.parts.map((p) => (
             <tr key={p.partId} className="border-b border-paper-edge/70 last:border-b-0">
-              <td className="px-3 py-2 font-medium">{p.position}</td>
-              <td className="px-3 py-2">
+              <td data-label="Position" className="px-3 py-2 font-medium">{p.position}</td>
+              <td data-label="Part" className="px-3 py-2">
                 <Link to={paths.app.part.getHref(p.partId)} className="num whitespace-nowrap text-accent underline-offset-2 hover:underline">
                   {p.label}
                 </Link>
               </td>
-              <td className="px-3 py-2">{KIND_WORD[p.kind] ?? p.kind}</td>
-              <td className="num px-3 py-2 text-right whitespace-nowrap">{formatNominal(p.kind, p.nominal)}</td>
-              <td className="px-3 py-2">
+              <td data-label="Kind" className="px-3 py-2">{KIND_WORD[p.kind] ?? p.kind}</td>
+              <td data-label="Nominal" className="num px-3 py-2 text-right whitespace-nowrap">{formatNominal(p.kind, p.nominal)}</td>
+              <td data-label="Status" className="px-3 py-2">
                 <StatusBadge status={p.status} />
                 {p.overrideReason && <p className="mt-1 text-xs text-marginal">Installed over its status: {p.overrideReason}</p>}
               </td>
-              <td className="px-3 py-2 whitespace-nowrap">{formatDateTime(p.installedAt)}</td>
+              <td data-label="Installed" className="px-3 py-2 whitespace-nowrap">{formatDateTime(p.installedAt)}</td>
               {canWrite && (
                 <td className="px-3 py-1 text-right">
                   <Button

@@ -44,7 +44,7 @@ export function JobsScreen() {
         </p>
       ) : (
         <div className="overflow-x-auto rounded-lg border border-paper-edge bg-paper-bright">
-          <table className="w-full min-w-[720px] border-collapse text-sm">
+          <table className="table-list w-full min-w-[720px] border-collapse text-sm">
             <caption className="sr-only">Jobs, newest first</caption>
             <thead className="bg-paper-deep text-left text-ink-soft">
               <tr>
@@ -64,13 +64,13 @@ export function JobsScreen() {
                       {j.code}
                     </Link>
                   </td>
-                  <td className="px-3 py-2">{j.customer}</td>
-                  <td className="px-3 py-2">{j.instrument}</td>
-                  <td className="px-3 py-2">
+                  <td data-label="Customer" className="px-3 py-2">{j.customer}</td>
+                  <td data-label="Instrument" className="px-3 py-2">{j.instrument}</td>
+                  <td data-label="Status" className="px-3 py-2">
                     <JobStatusBadge status={j.status} />
                   </td>
-                  <td className="num px-3 py-2 text-right">{j.partCount}</td>
-                  <td className="px-3 py-2 whitespace-nowrap">{formatDate(j.createdAt)}</td>
+                  <td data-label="Parts" className="num px-3 py-2 text-right">{j.partCount}</td>
+                  <td data-label="Opened" className="px-3 py-2 whitespace-nowrap">{formatDate(j.createdAt)}</td>
                 </tr>
               ))}
             </tbody>

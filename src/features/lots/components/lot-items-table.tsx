@@ -38,6 +38,8 @@ declare module '@tanstack/react-table' {
     numeric?: boolean;
     /** A fixed column width (CSS), for the fixed table layout. */
     width?: string;
+    /** Left out below the sm breakpoint, so the list fits a phone without scrolling sideways. */
+    wideOnly?: boolean;
   }
 }
 
@@ -113,7 +115,7 @@ export function LotItemsTable({ items, stats, nominal, unit, secondQuantity, fil
         cell: (c) => Number((items.values[c.row.original]! * scale.factor).toPrecision(digits + 1)).toString(),
         meta: { numeric: true, width: '7.5rem' },
       }),
-      col.accessor((i) => i, { id: 'deviation', header: 'Deviation', enableSorting: true, cell: (c) => fmtPct(items.deviationsPct[c.row.original], 2), meta: { numeric: true, width: '7rem' } }),
+      col.accessor((i) => i, { id: 'deviation', header: 'Deviation', enableSorting: true, cell: (c) => fmtPct(items.deviationsPct[c.row.original], 2), meta: { numeric: true, width: '7rem', wideOnly: true } }),
       ...(hasSecond && secondQuantity
         ? [
             col.accessor((i) => i, {
@@ -121,11 +123,11 @@ export function LotItemsTable({ items, stats, nominal, unit, secondQuantity, fil
               header: secondUnit ? `${SECOND_LABEL[secondQuantity]} (${secondUnit})` : SECOND_LABEL[secondQuantity],
               enableSorting: true,
               cell: (c) => fmtSecond(items.second[c.row.original], secondUnit).replace(/ ?Ω$/, ''),
-              meta: { numeric: true, width: '9.5rem' },
+              meta: { numeric: true, width: '9.5rem', wideOnly: true },
             }),
           ]
         : []),
-      col.accessor((i) => i, { id: 'bin', header: 'Bin', enableSorting: true, cell: (c) => stats.bins[items.bin[c.row.original]!]?.label ?? '—', meta: { numeric: true, width: '9rem' } }),
+      col.accessor((i) => i, { id: 'bin', header: 'Bin', enableSorting: true, cell: (c) => stats.bins[items.bin[c.row.original]!]?.label ?? '—', meta: { numeric: true, width: '9rem', wideOnly: true } }),
       col.accessor((i) => i, {
         id: 'set',
         header: 'Set',
@@ -134,12 +136,13 @@ export function LotItemsTable({ items, stats, nominal, unit, secondQuantity, fil
           const s = items.set[c.row.original]!;
           return s >= 0 ? `S${s + 1}` : <span className="text-ink-faint">—</span>;
         },
-        meta: { numeric: true, width: '5rem' },
+        meta: { numeric: true, width: '5rem', wideOnly: true },
       }),
       col.display({
         id: 'flags',
         header: 'Check',
         enableSorting: false,
+        meta: { wideOnly: true },
         cell: (c) => {
           const i = c.row.original;
           const v = items.values[i]!;
@@ -218,6 +221,7 @@ export function LotItemsTable({ items, stats, nominal, unit, secondQuantity, fil
           </>
         )}
       </div>
+      <p className="mb-2 text-xs text-ink-soft sm:hidden">On a narrow screen the list shows each item and its value; deviation, bin, set and check appear on a wider screen.</p>
       <div
         ref={scrollRef}
         // Containment keeps each scroll step's layout and paint inside the table's box, away from
@@ -229,7 +233,7 @@ export function LotItemsTable({ items, stats, nominal, unit, secondQuantity, fil
         tabIndex={0}
         aria-label="Items of the lot (scrolls)"
       >
-        <table className="w-full min-w-[880px] table-fixed border-collapse text-sm" aria-rowcount={rows.length + 1}>
+        <table className="w-full min-w-[880px] max-sm:min-w-0 table-fixed border-collapse text-sm" aria-rowcount={rows.length + 1}>
           <caption className="sr-only">Every item of the lot with its value, deviation, bin, set and check. Column headers sort.</caption>
           <thead className="sticky top-0 z-10 bg-paper-deep text-left">
             {table.getHeaderGroups().map((group) => (
@@ -244,7 +248,7 @@ export function LotItemsTable({ items, stats, nominal, unit, secondQuantity, fil
                       scope="col"
                       style={meta?.width ? { width: meta.width } : undefined}
                       aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
-                      className={`border-b border-paper-edge px-3 py-2 font-medium whitespace-nowrap text-ink-soft ${meta?.numeric ? 'text-right' : ''}`}
+                      className={`border-b border-paper-edge px-3 py-2 font-medium whitespace-nowrap text-ink-soft ${meta?.numeric ? 'text-right' : ''} ${meta?.wideOnly ? 'max-sm:hidden' : ''}`}
                     >
                       {sortable ? (
                         <button
@@ -276,7 +280,7 @@ export function LotItemsTable({ items, stats, nominal, unit, secondQuantity, fil
               return (
                 <tr key={row.id} aria-rowindex={vr.index + 2} style={{ height: ROW_HEIGHT }} className="border-b border-paper-edge/60 hover:bg-paper">
                   {row.getVisibleCells().map((cell) => (
-                    <td key={cell.id} className={`overflow-hidden px-3 py-1 align-middle whitespace-nowrap ${cell.column.columnDef.meta?.numeric ? 'num text-right' : ''}`}>
+                    <td key={cell.id} className={`overflow-hidden px-3 py-1 align-middle whitespace-nowrap ${cell.column.columnDef.meta?.numeric ? 'num text-right' : ''} ${cell.column.columnDef.meta?.wideOnly ? 'max-sm:hidden' : ''}`}>
                       {flexRender(cell.column.columnDef.cell, cell.getContext())}
                     </td>
                   ))}

@@ -54,7 +54,7 @@ export function LotsScreen() {
         </p>
       ) : (
         <div className="overflow-x-auto rounded-lg border border-paper-edge bg-paper-bright">
-          <table className="w-full min-w-[760px] border-collapse text-sm">
+          <table className="table-list w-full min-w-[760px] border-collapse text-sm">
             <caption className="sr-only">Lots, newest first</caption>
             <thead className="bg-paper-deep text-left text-ink-soft">
               <tr>
@@ -77,16 +77,16 @@ export function LotsScreen() {
                     </Link>
                     {lot.marking && <span className="num ml-2 text-xs text-ink-soft">{lot.marking}</span>}
                   </td>
-                  <td className="px-3 py-2">{LOT_KIND_LABEL[lot.kind]}</td>
-                  <td className="num px-3 py-2 text-right whitespace-nowrap">{formatValue(lot.nominal, lot.unit)}</td>
-                  <td className="num px-3 py-2 text-right whitespace-nowrap">{formatTolerance(lot.tolerancePct)}</td>
-                  <td className="px-3 py-2">{lot.supplier ?? <span className="text-ink-faint">—</span>}</td>
-                  <td className="px-3 py-2 whitespace-nowrap">{formatDay(lot.receivedOn)}</td>
-                  <td className="num px-3 py-2 text-right whitespace-nowrap">
+                  <td data-label="Kind" className="px-3 py-2">{LOT_KIND_LABEL[lot.kind]}</td>
+                  <td data-label="Nominal" className="num px-3 py-2 text-right whitespace-nowrap">{formatValue(lot.nominal, lot.unit)}</td>
+                  <td data-label="Tolerance" className="num px-3 py-2 text-right whitespace-nowrap">{formatTolerance(lot.tolerancePct)}</td>
+                  <td data-label="Supplier" className="px-3 py-2">{lot.supplier ?? <span className="text-ink-faint">—</span>}</td>
+                  <td data-label="Received" className="px-3 py-2 whitespace-nowrap">{formatDay(lot.receivedOn)}</td>
+                  <td data-label="Count" className="num px-3 py-2 text-right whitespace-nowrap">
                     {lot.count.toLocaleString()}
                     {lot.expectedCount != null && <span className="text-ink-soft"> / {lot.expectedCount.toLocaleString()}</span>}
                   </td>
-                  <td className="px-3 py-2">
+                  <td data-label="Status" className="px-3 py-2">
                     <LotStatusBadge status={lot.status} reason={lot.dispositionReason} />
                   </td>
                 </tr>

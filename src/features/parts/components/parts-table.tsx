@@ -77,7 +77,7 @@ export function PartsTable({ parts, caption }: { parts: Part[]; caption: string 
 
   return (
     <div className="overflow-x-auto rounded-lg border border-paper-edge bg-paper-bright">
-      <table className="w-full min-w-[720px] border-collapse text-sm">
+      <table className="table-list table-list-head w-full min-w-[720px] border-collapse text-sm">
         <caption className="sr-only">{caption}</caption>
         <thead className="bg-paper-deep text-left">
           {table.getHeaderGroups().map((group) => (
@@ -110,7 +110,7 @@ export function PartsTable({ parts, caption }: { parts: Part[]; caption: string 
           {table.getRowModel().rows.map((row) => (
             <tr key={row.id} className="border-b border-paper-edge/70 last:border-b-0 hover:bg-paper">
               {row.getVisibleCells().map((cell) => (
-                <td key={cell.id} className={`px-3 py-2 align-middle ${cell.column.columnDef.meta?.numeric ? 'num text-right whitespace-nowrap' : ''}`}>
+                <td key={cell.id} data-label={cell.column.id === 'label' || typeof cell.column.columnDef.header !== 'string' ? undefined : cell.column.columnDef.header} className={`px-3 py-2 align-middle ${cell.column.columnDef.meta?.numeric ? 'num text-right whitespace-nowrap' : ''}`}>
                   {flexRender(cell.column.columnDef.cell, cell.getContext())}
                 </td>
               ))}
