@@ -66,6 +66,7 @@ const MAX_NAME = 200;
  * never through it, so the checked extension is the one the stored name ends with.
  */
 export function storedName(originalName: string): string {
+  // eslint-disable-next-line no-control-regex -- control characters are what this strips, so the pattern names them on purpose
   const name = originalName.replace(/[\u0000-\u001f\u007f]/g, '');
   if (name.length <= MAX_NAME) return name;
   const ext = path.extname(name).slice(0, 16);
