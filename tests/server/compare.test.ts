@@ -1,3 +1,4 @@
+import { readConditions } from '@shared/csv/conditions';
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { parts } from '@server/db/schema';
@@ -188,7 +189,11 @@ describe('saved comparisons', () => {
     const csv = await viewer.get(`/api/comparisons/${id}/export.csv`);
     expect(csv.status).toBe(200);
     expect(csv.headers['content-type']).toMatch(/text\/csv/);
-    const lines = csv.text.trim().split(/\r?\n/);
+    // The conditions first (`# key: value`), then the table.
+    const conditions = Object.fromEntries(readConditions(csv.text).map((c) => [c.key, c.value]));
+    expect(conditions).toMatchObject({ 'grouped by': 'supplier', pots: '5' });
+    expect(conditions.comparison).toMatch(new RegExp(`\\(#${id}\\)$`));
+    const lines = csv.text.trim().split(/\r?\n/).filter((l) => !l.startsWith('# '));
     expect(lines[0]).toMatch(/^part,group,lot,supplier,nominal_ohm,law,m,r2/);
     expect(lines).toHaveLength(6);
     // OWASP CSV injection: a cell starting with = is escaped with a leading quote.

@@ -1,3 +1,5 @@
+import { readConditions } from '@shared/csv/conditions';
+import { readTable } from '@shared/csv/read-table';
 import { taperLawValue } from '@shared/taper/law';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { createTestApp, type TestApp } from '../support/app';
@@ -39,7 +41,14 @@ describe('jobs', () => {
     expect(preview.text).not.toMatch(/with the measured parts/);
     expect(preview.text).toMatch(/typical part values/);
     expect(preview.text).toMatch(/volume 4: level -?\d+\.\d dB/);
-    expect(preview.csv.split('\n')[0]).toBe('frequency_hz,volume_10_db,volume_8_db,volume_6_db,volume_4_db,volume_2_db');
+    // The curves' conditions as `# key: value` lines, then the table, read back by the upload's table reader.
+    const conditions = Object.fromEntries(readConditions(preview.csv).map((c) => [c.key, c.value]));
+    expect(conditions.computed).toMatch(/not measured/);
+    expect(conditions.knobs).toBeTruthy();
+    expect(conditions.load).toBeTruthy();
+    const table = readTable(preview.csv);
+    if (!table.ok) throw new Error(JSON.stringify(table.issues));
+    expect(table.header.join(',')).toBe('frequency_hz,volume_10_db,volume_8_db,volume_6_db,volume_4_db,volume_2_db');
     const sent = await tech.post(`/api/jobs/${job.id}/report`).send({ message: 'Thanks for waiting.' });
     expect(sent.status).toBe(200);
     const mail = t.ctx.sqlite.prepare("select * from outbox where topic = 'customer-report' order by id desc").get() as { to: string; raw: string };

@@ -1,6 +1,7 @@
 import fs from 'node:fs';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { lotStatistics } from '@shared/analysis/lot-stats';
+import { readConditions } from '@shared/csv/conditions';
 import { parseLotRows } from '@shared/csv/lots';
 import { createTestApp, type TestApp } from '../support/app';
 
@@ -97,10 +98,39 @@ describe('lots', () => {
     await (await t.as('tech')).post(`/api/lots/${lot.id}/readings`).attach('file', Buffer.from(csv), 'lot.csv').expect(201);
     const res = await (await t.as('viewer')).get(`/api/lots/${lot.id}/export.csv`);
     expect(res.status).toBe(200);
-    const lines = res.text.trim().split(/\r?\n/);
+    const lines = res.text.trim().split(/\r?\n/).filter((l) => !l.startsWith('# '));
     expect(lines[0]).toBe('item,value,deviation_pct,bin,set,verdict');
     expect(lines[1]).toMatch(/^"'=HYPERLINK/);
     expect(lines[3]).toMatch(/,fail$/);
+  });
+
+  test('the CSV export starts with its conditions, which the lot reader skips and readConditions reads back', async () => {
+    const lot = await newLot();
+    const csv = 'Item,C (nF),D\n1,47.1,0.001\n2,47.2,0.001\n3,52,0.001\n';
+    await (await t.as('tech')).post(`/api/lots/${lot.id}/readings`).attach('file', Buffer.from(csv), 'lot.csv').expect(201);
+    const res = await (await t.as('viewer')).get(`/api/lots/${lot.id}/export.csv?matchPct=0.5&setSize=3`);
+    expect(res.status).toBe(200);
+    const lines = res.text.split('\n');
+    // The file opens with `# key: value` lines, then the header.
+    const firstData = lines.findIndex((l) => !l.startsWith('# '));
+    expect(firstData).toBeGreaterThan(5);
+    expect(lines[firstData]).toBe('item,value,deviation_pct,bin,set,verdict');
+    const conditions = Object.fromEntries(readConditions(res.text).map((c) => [c.key, c.value]));
+    expect(conditions.lot).toBe(lot.code);
+    expect(conditions.quantity).toBe('capacitance');
+    expect(conditions.nominal).toBe('47 nF');
+    expect(conditions.tolerance).toBe(`±${lot.tolerancePct} %`);
+    expect(conditions.readings).toBe('3');
+    // The matching options of this request, not the defaults.
+    expect(conditions['matched sets']).toBe('within ±0.5 % of each other, 3 parts a set');
+    // The lot has no test frequency: said so, not left out.
+    expect(conditions['test frequency']).toBe('not set');
+    expect(Date.parse(conditions.exported!)).toBeGreaterThan(Date.now() - 60_000);
+    // Round trip: the export read by the same reader an upload uses gives the same values.
+    const back = parseLotRows(res.text, { quantity: 'capacitance', mapping: { item: { column: 'item' }, value: { column: 'value', unit: 'F' } } });
+    if (!back.ok) throw new Error(JSON.stringify(back.issues));
+    expect(back.rows.map((r) => r.item)).toEqual(['1', '2', '3']);
+    expect(back.rows.map((r) => r.value)).toEqual([47.1e-9, 47.2e-9, 52e-9].map((v) => expect.closeTo(v, 18)));
   });
 
   test('a matched set becomes parts that keep their readings and lot link', async () => {

@@ -1,6 +1,7 @@
 // Compare (docs/screens.md, Compare): taper overlays of selected pots with group statistics, and saved
 // comparisons (a named selection with its settings) that anyone can open and export and the
 // owner (or qa/admin) can change.
+import { withConditions } from '@shared/csv/conditions';
 import { desc, eq } from 'drizzle-orm';
 import Papa from 'papaparse';
 import { audit } from '@server/audit';
@@ -137,7 +138,17 @@ export function compareRoutes(ctx: AppContext) {
         end_resistance_end_ohm: p.fit.endResistance.end ?? '',
       }));
       const safeName = row.name.replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 60) || `comparison-${row.id}`;
-      res.type('text/csv').attachment(`${safeName}.csv`).send(Papa.unparse({ fields: EXPORT_FIELDS, data: rows }, { escapeFormulae: true }));
+      const conditions = withConditions(
+        [
+          { key: 'comparison', value: `${row.name} (#${row.id})` },
+          { key: 'selection', value: JSON.stringify(row.selection ?? {}) },
+          { key: 'grouped by', value: groupBy },
+          { key: 'pots', value: pots.length },
+          { key: 'exported', value: new Date().toISOString().replace(/\.\d{3}Z$/, 'Z') },
+        ],
+        `${Papa.unparse({ fields: EXPORT_FIELDS, data: rows }, { escapeFormulae: true, newline: '\n' })}\n`,
+      );
+      res.type('text/csv').attachment(`${safeName}.csv`).send(conditions);
       return undefined;
     },
   });

@@ -1,5 +1,6 @@
 // The customer report: what was installed (with the measured values and verdicts) and, when the
 // job has a harness design, what the wiring will do at a few knob settings.
+import { conditionsHeader } from '@shared/csv/conditions';
 import { eq } from 'drizzle-orm';
 import type { DbLike } from '@server/db/client';
 import { harnesses } from '@server/db/schema';
@@ -55,11 +56,20 @@ export function harnessSummary(db: DbLike, harnessId: number | null): { text: st
     ...volume.map((v, i) => `  ${volumeName} ${v}: level ${fmtDb(grid.volumeTaperDb[i]!)}, treble balance ${fmtDb(grid.trebleRetentionDb[i]!)} against full volume`),
     'Predicted with every pickup as an equal signal source; a real string drives each pickup differently.',
   ];
+  const header = conditionsHeader([
+    { key: 'design', value: `${design.name} (${layout.name})` },
+    { key: 'selector', value: layout.selector.positions[config.selector]!.name },
+    ...layout.options.filter((o) => o.id !== 'load').map((o) => ({ key: o.name.toLowerCase(), value: choice(o.id).toLowerCase() })),
+    { key: 'load', value: `${choice('load').toLowerCase()} (${loadValue})` },
+    { key: 'knobs', value: layout.knobs.map((k) => `${k.name.toLowerCase()} ${knobs[k.id]}`).join(', ') },
+    { key: 'curves', value: `${volumeName} at ${volume.join(', ')}, other knobs as above` },
+    { key: 'computed', value: 'circuit model with the values saved in the design (not measured)' },
+  ]);
   const csvRows = ['frequency_hz,' + volume.map((v) => `volume_${v}_db`).join(',')];
   grid.frequencies.forEach((f, k) => {
     csvRows.push([f.toPrecision(6), ...volume.map((_, vi) => grid.magnitudeDb[vi * grid.frequencies.length + k]!.toFixed(3))].join(','));
   });
-  return { text: lines.join('\n'), csv: csvRows.join('\n') + '\n' };
+  return { text: lines.join('\n'), csv: header + csvRows.join('\n') + '\n' };
 }
 
 /** One installed part's line: its status as the evidence has it, the evidence, any override. */

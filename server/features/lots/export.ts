@@ -1,7 +1,9 @@
-// The lot as a CSV file: every item with its deviation, bin, matched set and verdict (formula cells escaped).
+// The lot as a CSV file: the conditions as `# key: value` lines, then every item with its deviation,
+// bin, matched set and verdict (formula cells escaped).
 import Papa from 'papaparse';
 import type { AppContext } from '@server/context';
 import type { ApiRouter } from '@server/http/router';
+import { lotConditions, withConditions } from '@shared/csv/conditions';
 import { IdParamsSchema } from '@shared/schemas/common';
 import { LotStatsQuerySchema } from '@shared/schemas/lots';
 import { lotFinder } from './common';
@@ -27,7 +29,9 @@ export function lotExportRoutes(api: ApiRouter, ctx: AppContext) {
         const verdict = stats ? (v < stats.lower || v > stats.upper ? 'fail' : 'pass') : '';
         return { item: data.items[i], value: v, deviation_pct: stats ? Number(stats.deviationsPct[i]!.toFixed(4)) : '', bin: binOf[i], set: setOf[i], verdict };
       });
-      res.type('text/csv').attachment(`${lot.code}.csv`).send(Papa.unparse(rows, { escapeFormulae: true }));
+      const conditions = lotConditions(lot, { readings: n, matchPct: query.matchPct ?? 1, setSize: query.setSize ?? 2, madeAt: new Date() });
+      const body = Papa.unparse(rows, { escapeFormulae: true, newline: '\n' });
+      res.type('text/csv').attachment(`${lot.code}.csv`).send(withConditions(conditions, `${body}\n`));
       return undefined;
     },
   });

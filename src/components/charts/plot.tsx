@@ -3,6 +3,9 @@
 import { useEffect, useLayoutEffect, useRef } from 'react';
 import uPlot, { type AlignedData, type Options } from 'uplot';
 import 'uplot/dist/uPlot.min.css';
+import { conditionsLine, type Condition } from '@shared/csv/conditions';
+import { exportLayout, type LegendEntry } from '@/lib/chart-export';
+import { stampExport } from '@/lib/download';
 
 export interface PlotProps {
   /** uPlot options without width (taken from the container); height defaults to 320. */
@@ -78,16 +81,67 @@ export const frequencyX = {
   axis: axis('Frequency (Hz)', { values: hzTicks }),
 };
 
-/** Saves the chart as a PNG file, with a white background and the axes drawn. */
-export function downloadPng(u: uPlot, fileName: string): void {
+export interface PngExport {
+  /** What the chart shows, e.g. "Harness response". */
+  title: string;
+  /** The conditions it was made under; the time of the export is added. */
+  conditions: readonly Condition[];
+  /** The legend, when the chart's own series labels are not the right key (one entry per group). */
+  legend?: LegendEntry[];
+}
+
+/** The series a legend shows: every visible series after x with a label, in its stroke colour. */
+export function legendOf(u: uPlot): LegendEntry[] {
+  return u.series.slice(1).flatMap((s) => {
+    const label = typeof s.label === 'string' ? s.label : '';
+    if (!label || s.show === false) return [];
+    const stroke = typeof s.stroke === 'function' ? s.stroke(u, u.series.indexOf(s)) : s.stroke;
+    return [{ label, colour: typeof stroke === 'string' ? stroke : '#5a5248' }];
+  });
+}
+
+/**
+ * Saves the chart as a PNG file on a white background: the title and the conditions line above the
+ * plot (axes with their names and units, as drawn on screen), the legend below it.
+ */
+export function downloadPng(u: uPlot, fileName: string, info: PngExport): void {
   const src = u.ctx.canvas;
+  const scale = src.width / Math.max(u.width, 1);
+  const fontOf = { title: (px: number) => `600 ${px}px "IBM Plex Sans", sans-serif`, conditions: (px: number) => `${px}px "IBM Plex Sans", sans-serif`, legend: (px: number) => `${px}px "IBM Plex Sans", sans-serif` };
   const out = document.createElement('canvas');
-  out.width = src.width;
-  out.height = src.height;
   const ctx = out.getContext('2d')!;
+  const sizes = { title: Math.round(16 * scale), conditions: Math.round(12 * scale), legend: Math.round(12 * scale) };
+  const layout = exportLayout({
+    width: src.width,
+    plotHeight: src.height,
+    title: info.title,
+    conditions: conditionsLine(stampExport(info.conditions)),
+    legend: info.legend ?? legendOf(u),
+    scale,
+    measure: (t, role) => {
+      ctx.font = fontOf[role](sizes[role]);
+      return ctx.measureText(t).width;
+    },
+  });
+  out.width = layout.width;
+  out.height = layout.height;
   ctx.fillStyle = '#ffffff';
   ctx.fillRect(0, 0, out.width, out.height);
-  ctx.drawImage(src, 0, 0);
+  ctx.textBaseline = 'top';
+  ctx.fillStyle = '#2a2520';
+  ctx.font = fontOf.title(layout.fonts.title);
+  ctx.fillText(layout.title.text, layout.title.x, layout.title.y);
+  ctx.fillStyle = '#5a5248';
+  ctx.font = fontOf.conditions(layout.fonts.conditions);
+  for (const l of layout.conditions) ctx.fillText(l.text, l.x, l.y);
+  ctx.drawImage(src, 0, layout.plotY);
+  ctx.font = fontOf.legend(layout.fonts.legend);
+  for (const e of layout.legend) {
+    ctx.fillStyle = e.colour;
+    ctx.fillRect(e.x, e.y, layout.swatch, layout.swatch);
+    ctx.fillStyle = '#2a2520';
+    ctx.fillText(e.label, e.textX, e.y);
+  }
   const a = document.createElement('a');
   a.href = out.toDataURL('image/png');
   a.download = fileName.endsWith('.png') ? fileName : `${fileName}.png`;

@@ -3,12 +3,14 @@
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
 import type { GroupBy } from '@shared/analysis/compare';
-import { DEFAULT_COMPARE_SETTINGS, type CompareSelection, type CompareSettings } from '@shared/schemas/compare';
+import { CABLE_CAPACITANCE_PER_METRE, DEFAULT_COMPARE_SETTINGS, type CompareSelection, type CompareSettings } from '@shared/schemas/compare';
 import { Alert, Loading } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { PageHeader, Panel } from '@/components/ui/page-header';
 import { paths } from '@/config/paths';
 import { downloadCsv } from '@/lib/download';
+import type { Condition } from '@shared/csv/conditions';
+import { formatValue } from '@shared/units/format';
 import { useCompareCandidates } from '../api/get-candidates';
 import { useComparison } from '../api/get-comparisons';
 import { useCompareTapers } from '../api/get-tapers';
@@ -75,6 +77,24 @@ export function CompareScreen() {
   );
 
   const noSweepsAtAll = candidates.data && candidates.data.pots.length === 0;
+
+  // What every export of this study states: the pots compared and how they are grouped; the loaded
+  // curves add the pickup, cable and amplifier input they were computed with.
+  const studyConditions: Condition[] = data
+    ? [
+        { key: 'pots compared', value: `${data.pots.length} in ${data.groups.length} ${data.groups.length === 1 ? 'group' : 'groups'}` },
+        { key: 'selection', value: describeSelection(selection, candidates.data) },
+        { key: 'grouped by', value: settings.groupBy },
+        { key: 'left out (no current taper fit)', value: data.missing.length },
+      ]
+    : [];
+  const loadConditions: Condition[] = [
+    ...studyConditions,
+    { key: 'pickup', value: pickup ? pickup.name : null },
+    { key: 'cable', value: `${settings.cableLength} m at ${formatValue(CABLE_CAPACITANCE_PER_METRE, 'F')}/m` },
+    { key: 'amplifier input', value: formatValue(settings.ampR, 'Ω') },
+    { key: 'level', value: 'at 1 kHz relative to full volume, computed with each pot\'s fitted law and measured total' },
+  ];
 
   return (
     <div className="space-y-6">
@@ -168,16 +188,16 @@ export function CompareScreen() {
                     </label>
                   ))}
                 </fieldset>
-                <Button size="sm" onClick={() => downloadCsv(curveRows(data.grid, data.pots), 'taper-curves.csv')}>
+                <Button size="sm" onClick={() => downloadCsv(curveRows(data.grid, data.pots), 'taper-curves.csv', studyConditions)}>
                   Curves as CSV
                 </Button>
               </div>
             }
           >
-            <TaperOverlay data={data} colours={colours} envelope={settings.envelope} />
+            <TaperOverlay data={data} colours={colours} envelope={settings.envelope} conditions={studyConditions} />
             <div className="mt-6 space-y-6">
-              <GroupTable groups={data.groups} colours={colours} />
-              <PotTable pots={data.pots} colours={colours} groupLabel={groupLabel} />
+              <GroupTable groups={data.groups} colours={colours} conditions={studyConditions} />
+              <PotTable pots={data.pots} colours={colours} groupLabel={groupLabel} conditions={studyConditions} />
             </div>
           </Panel>
 
@@ -190,8 +210,8 @@ export function CompareScreen() {
             <div className="mt-5 space-y-6">
               {pickup ? (
                 <>
-                  <LoadedChart loaded={loaded} colours={colours} pickupName={pickup.name} />
-                  <LoadedTable loaded={loaded} colours={colours} groupLabel={groupLabel} />
+                  <LoadedChart loaded={loaded} colours={colours} pickupName={pickup.name} conditions={loadConditions} />
+                  <LoadedTable loaded={loaded} colours={colours} groupLabel={groupLabel} conditions={loadConditions} />
                 </>
               ) : (
                 <MissingPickup />
@@ -201,7 +221,7 @@ export function CompareScreen() {
 
           {pickup && (
             <Panel title="Matching: pots that track" id="compare-matching">
-              <Matching key={`match-${formKey}`} loaded={loaded} settings={settings} onChange={change} groupLabel={groupLabel} />
+              <Matching key={`match-${formKey}`} loaded={loaded} settings={settings} onChange={change} groupLabel={groupLabel} conditions={loadConditions} />
             </Panel>
           )}
         </>

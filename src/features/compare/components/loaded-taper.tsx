@@ -12,6 +12,7 @@ import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/field';
 import { downloadCsv } from '@/lib/download';
+import type { Condition } from '@shared/csv/conditions';
 import type { CandidatePickup, TaperPot } from '../api/types';
 import { dial, LEVEL_MARKS, withAlpha, type PotLoaded } from './compare-model';
 
@@ -96,7 +97,7 @@ export function LoadControls({ settings, pickups, onChange }: { settings: LoadSe
 
 const GUIDE = '#857b70';
 
-export function LoadedChart({ loaded, colours, pickupName }: { loaded: PotLoaded[]; colours: Map<string, string>; pickupName: string }) {
+export function LoadedChart({ loaded, colours, pickupName, conditions }: { loaded: PotLoaded[]; colours: Map<string, string>; pickupName: string; conditions: Condition[] }) {
   const plotRef = useRef<uPlot | null>(null);
   const [readout, setReadout] = useState<string | null>(null);
   const { options, data } = useMemo(() => {
@@ -152,12 +153,13 @@ export function LoadedChart({ loaded, colours, pickupName }: { loaded: PotLoaded
               downloadCsv(
                 [['volume_dial', ...loaded.map((l) => l.pot.label)], ...(loaded[0]?.taper.dial ?? []).map((d, i) => [d, ...loaded.map((l) => Number(l.taper.relativeDb[i]!.toFixed(4)))])],
                 'loaded-taper.csv',
+                conditions,
               )
             }
           >
             Curves as CSV
           </Button>
-          <Button size="sm" onClick={() => plotRef.current && downloadPng(plotRef.current, 'loaded-taper.png')}>
+          <Button size="sm" onClick={() => plotRef.current && downloadPng(plotRef.current, 'loaded-taper.png', { title: 'Loaded volume taper: level against the volume knob', conditions })}>
             Chart as PNG
           </Button>
         </div>
@@ -175,7 +177,7 @@ export function LoadedChart({ loaded, colours, pickupName }: { loaded: PotLoaded
 const TH = 'border-b border-paper-edge px-3 py-2 text-left text-xs font-semibold uppercase tracking-wide text-ink-soft';
 const TD = 'border-b border-paper-edge/60 px-3 py-1.5';
 
-export function LoadedTable({ loaded, colours, groupLabel }: { loaded: PotLoaded[]; colours: Map<string, string>; groupLabel: (p: TaperPot) => string }) {
+export function LoadedTable({ loaded, colours, groupLabel, conditions }: { loaded: PotLoaded[]; colours: Map<string, string>; groupLabel: (p: TaperPot) => string; conditions: Condition[] }) {
   return (
     <div>
       <div className="mb-2 flex flex-wrap items-center justify-between gap-2">
@@ -186,6 +188,7 @@ export function LoadedTable({ loaded, colours, groupLabel }: { loaded: PotLoaded
             downloadCsv(
               loaded.map((l) => ({ part: l.pot.label, group: groupLabel(l.pot), dial_at_minus6_db: l.marks[0] ?? '', dial_at_minus12_db: l.marks[1] ?? '', dial_at_minus20_db: l.marks[2] ?? '', level_at_5_db: Number(l.taper.relativeDb[50]!.toFixed(4)) })),
               'loaded-taper-marks.csv',
+              conditions,
             )
           }
         >

@@ -6,12 +6,25 @@ import { CompareSettingsSchema, type CompareSettings } from '@shared/schemas/com
 import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/field';
 import { downloadCsv } from '@/lib/download';
+import type { Condition } from '@shared/csv/conditions';
 import type { TaperPot } from '../api/types';
 import type { PotLoaded } from './compare-model';
 
 type MatchSettings = Pick<CompareSettings, 'toleranceDb' | 'setSize' | 'floorDb'>;
 
-export function Matching({ loaded, settings, onChange, groupLabel }: { loaded: PotLoaded[]; settings: MatchSettings; onChange: (s: Partial<CompareSettings>) => void; groupLabel: (p: TaperPot) => string }) {
+export function Matching({
+  loaded,
+  settings,
+  onChange,
+  groupLabel,
+  conditions,
+}: {
+  loaded: PotLoaded[];
+  settings: MatchSettings;
+  onChange: (s: Partial<CompareSettings>) => void;
+  groupLabel: (p: TaperPot) => string;
+  conditions: Condition[];
+}) {
   const [tolText, setTolText] = useState(String(settings.toleranceDb));
   const [tolError, setTolError] = useState<string>();
   const sets = useMemo(
@@ -60,6 +73,12 @@ export function Matching({ loaded, settings, onChange, groupLabel }: { loaded: P
             downloadCsv(
               sets.flatMap((s, k) => s.indices.map((i) => ({ set: `M${k + 1}`, part: loaded[i]!.pot.label, group: groupLabel(loaded[i]!.pot), set_spread_db: Number(s.spreadDb.toFixed(4)) }))),
               'matched-sets.csv',
+              [
+                ...conditions,
+                { key: 'match tolerance', value: `${settings.toleranceDb} dB` },
+                { key: 'set size', value: settings.setSize },
+                { key: 'level floor', value: `${settings.floorDb} dB` },
+              ],
             )
           }
         >

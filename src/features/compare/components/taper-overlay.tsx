@@ -8,6 +8,7 @@ import { axis, downloadPng, Plot } from '@/components/charts/plot';
 import { Button } from '@/components/ui/button';
 import type { CompareTapersResponse } from '../api/types';
 import { withAlpha } from './compare-model';
+import type { Condition } from '@shared/csv/conditions';
 
 
 interface Readout {
@@ -16,7 +17,7 @@ interface Readout {
   value: number;
 }
 
-export function TaperOverlay({ data, colours, envelope }: { data: CompareTapersResponse; colours: Map<string, string>; envelope: 'min-max' | 'two-sd' }) {
+export function TaperOverlay({ data, colours, envelope, conditions }: { data: CompareTapersResponse; colours: Map<string, string>; envelope: 'min-max' | 'two-sd'; conditions: Condition[] }) {
   const plotRef = useRef<uPlot | null>(null);
   const [readout, setReadout] = useState<Readout | null>(null);
 
@@ -104,7 +105,15 @@ export function TaperOverlay({ data, colours, envelope }: { data: CompareTapersR
             <span className="font-sans">Point at a curve to read its part, rotation and value.</span>
           )}
         </p>
-        <Button size="sm" onClick={() => plotRef.current && downloadPng(plotRef.current, 'taper-overlay.png')}>
+        <Button size="sm" onClick={() => plotRef.current && downloadPng(plotRef.current, 'taper-overlay.png', {
+              title: 'Taper curves: R(lug 1–wiper) / R13 against rotation',
+              conditions: [...conditions, { key: 'envelope', value: envelope === 'min-max' ? 'min–max of each group' : '±2σ of each group' }],
+              // The screen's key: one entry per group (the chart has a series per pot) and per nominal law.
+              legend: [
+                ...data.groups.map((g) => ({ label: `${g.label} (${g.partIds.length}), bold line: mean`, colour: colours.get(g.key) ?? '#5a5248' })),
+                ...references.map((r) => ({ label: `Nominal ${TAPER_LAW_LABEL[r.law]}${r.law === 'linear' ? '' : ` (${Math.round(r.m * 100)} %)`}, dashed`, colour: '#26221e' })),
+              ],
+            })}>
           Chart as PNG
         </Button>
       </div>

@@ -4,6 +4,7 @@ import type { CompareGroup } from '@shared/analysis/compare';
 import { TAPER_LAW_LABEL } from '@shared/taper/law';
 import { Button } from '@/components/ui/button';
 import { downloadCsv } from '@/lib/download';
+import type { Condition } from '@shared/csv/conditions';
 import type { TaperPot } from '../api/types';
 import { groupRows, ohms, pct, potRows, signedPct } from './compare-model';
 
@@ -16,12 +17,12 @@ function Swatch({ colour }: { colour?: string }) {
   return <span className="mr-2 inline-block size-2.5 rounded-full align-middle" style={{ background: colour }} aria-hidden="true" />;
 }
 
-export function GroupTable({ groups, colours }: { groups: CompareGroup[]; colours: Map<string, string> }) {
+export function GroupTable({ groups, colours, conditions }: { groups: CompareGroup[]; colours: Map<string, string>; conditions: Condition[] }) {
   return (
     <div>
       <div className="mb-2 flex flex-wrap items-center justify-between gap-2">
         <h3 className="text-sm font-semibold text-ink">Groups</h3>
-        <Button size="sm" onClick={() => downloadCsv(groupRows(groups), 'taper-groups.csv')}>
+        <Button size="sm" onClick={() => downloadCsv(groupRows(groups), 'taper-groups.csv', conditions)}>
           Groups as CSV
         </Button>
       </div>
@@ -68,12 +69,12 @@ export function GroupTable({ groups, colours }: { groups: CompareGroup[]; colour
   );
 }
 
-export function PotTable({ pots, colours, groupLabel }: { pots: TaperPot[]; colours: Map<string, string>; groupLabel: (p: TaperPot) => string }) {
+export function PotTable({ pots, colours, groupLabel, conditions }: { pots: TaperPot[]; colours: Map<string, string>; groupLabel: (p: TaperPot) => string; conditions: Condition[] }) {
   return (
     <div>
       <div className="mb-2 flex flex-wrap items-center justify-between gap-2">
         <h3 className="text-sm font-semibold text-ink">Pots ({pots.length})</h3>
-        <Button size="sm" onClick={() => downloadCsv(potRows(pots, groupLabel), 'taper-fits.csv')}>
+        <Button size="sm" onClick={() => downloadCsv(potRows(pots, groupLabel), 'taper-fits.csv', conditions)}>
           Fits as CSV
         </Button>
       </div>

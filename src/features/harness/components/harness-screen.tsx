@@ -20,6 +20,7 @@ import { activeErrors, designFromSaved, designReducer, initialDesign, presetOf, 
 import { DesignsPanel, type PresetDesign } from './designs-panel';
 import { InstrumentPanel } from './instrument-panel';
 import { formatKnob } from './harness-format';
+import { harnessConditions } from './harness-conditions';
 import { KnobSliders } from './knob-sliders';
 import { instrumentChainOf, listenDesignOf, listenInstrumentOf, recordingChainOf, type ListenInstrument } from './listen-design';
 import { ListenPanel } from './listen-panel';
@@ -115,8 +116,21 @@ export function HarnessScreen() {
     for (let k = 0; k < f.length; k++) {
       rows.push([f[k]!, b.current.magnitudeDb[k]!, ...familyCurves.map((c) => c.db[k]!), ...(pinnedCurve ? [pinnedCurve.db[k]!] : [])].map((x) => (typeof x === 'number' ? Number(x.toPrecision(8)) : x)));
     }
-    downloadCsv(rows, `harness-${design.preset}-${fileKnobs(knobs)}.csv`);
+    downloadCsv(rows, `harness-${design.preset}-${fileKnobs(knobs)}.csv`, exportConditions());
   };
+  // What the curves were computed for; the pinned design A is named when its curve is in the export.
+  const exportConditions = () =>
+    harnessConditions(design, knobs, [
+      { key: 'lighter curves', value: familyCurves.length > 0 ? (family === 'volume' ? `volume at ${FAMILY_POSITIONS.join(', ')}` : `tone at ${FAMILY_POSITIONS.join(', ')}`) : 'none' },
+      { key: 'pinned design A', value: pinnedCurve && pinned ? pinned.label : 'none' },
+      { key: 'computed', value: 'circuit model in Lugbook (not measured)' },
+    ]);
+  const downloadPlot = () =>
+    plotRef.current &&
+    downloadPng(plotRef.current, `harness-${design.preset}-${fileKnobs(knobs)}.png`, {
+      title: `Harness response: ${design.loaded?.name ?? preset.name}`,
+      conditions: exportConditions(),
+    });
   const downloadNetlist = () =>
     netlist.mutate(
       { preset: design.preset, values: usedValues(design.preset, design.values), knobs },
@@ -138,7 +152,7 @@ export function HarnessScreen() {
             <Button size="sm" onClick={downloadCurves} disabled={!ok}>
               Curves (CSV)
             </Button>
-            <Button size="sm" onClick={() => plotRef.current && downloadPng(plotRef.current, `harness-${design.preset}-${fileKnobs(knobs)}.png`)} disabled={!ok}>
+            <Button size="sm" onClick={downloadPlot} disabled={!ok}>
               Plot (PNG)
             </Button>
           </>

@@ -6,6 +6,7 @@ import { Button } from '@/components/ui/button';
 import { Plot, axis, downloadPng } from '@/components/charts/plot';
 import type { LotStats } from '../api/types';
 import { displayScale } from './lot-format';
+import type { Condition } from '@shared/csv/conditions';
 
 const QUANTITY_NAME: Record<string, string> = { capacitance: 'Capacitance', resistance: 'Resistance' };
 const BAR = '#2d5189';
@@ -18,9 +19,11 @@ interface Props {
   unit: string;
   quantity: string;
   code: string;
+  /** The lot's conditions (lotConditions), as the CSV export states them. */
+  conditions: Condition[];
 }
 
-export function LotHistogram({ stats, nominal, unit, quantity, code }: Props) {
+export function LotHistogram({ stats, nominal, unit, quantity, code, conditions }: Props) {
   const plotRef = useRef<uPlot | null>(null);
   const scale = displayScale(nominal, unit);
   const { edges, counts } = stats.histogram;
@@ -99,7 +102,15 @@ export function LotHistogram({ stats, nominal, unit, quantity, code }: Props) {
           <span className="inline-block w-4 border-t-2 border-dashed align-middle" style={{ borderColor: LIMIT }} /> tolerance limits · bin width{' '}
           <span className="num">{(stats.histogram.binWidth * scale.factor).toPrecision(3)} {scale.unit}</span> (Freedman–Diaconis)
         </p>
-        <Button size="sm" onClick={() => plotRef.current && downloadPng(plotRef.current, `${code}-histogram`)}>
+        <Button size="sm" onClick={() => plotRef.current && downloadPng(plotRef.current, `${code}-histogram`, {
+              title: `Lot ${code}: histogram of ${QUANTITY_NAME[quantity]?.toLowerCase() ?? 'values'}`,
+              conditions: [...conditions, { key: 'bins', value: `${counts.length}, width ${(stats.histogram.binWidth * scale.factor).toPrecision(3)} ${scale.unit} (Freedman–Diaconis)` }],
+              legend: [
+                { label: 'Parts per bin', colour: BAR },
+                { label: 'Nominal', colour: NOMINAL },
+                { label: 'Tolerance limits', colour: LIMIT },
+              ],
+            })}>
           Save PNG
         </Button>
       </div>

@@ -21,6 +21,7 @@ import { LOT_KIND_LABEL, SECOND_LABEL, SECOND_UNIT } from './lot-form-schema';
 import { fmtSecond } from './lot-format';
 import { LotBins, LotSets } from './lot-groups';
 import { LotHistogram } from './lot-histogram';
+import { lotConditions } from '@shared/csv/conditions';
 import { LotItemsTable, NO_FILTERS, type ItemFilters } from './lot-items-table';
 import { LotStatsPanel } from './lot-stats-panel';
 import { LotStatusBadge } from './lot-status-badge';
@@ -209,7 +210,14 @@ export function LotScreen({ id }: { id: number }) {
                 <LotStatsPanel lot={lot} stats={stats} />
               </Panel>
               <Panel title="Histogram" id="lot-histogram">
-                <LotHistogram stats={stats} nominal={lot.nominal} unit={lot.unit} quantity={lot.quantity} code={lot.code} />
+                <LotHistogram
+                  stats={stats}
+                  nominal={lot.nominal}
+                  unit={lot.unit}
+                  quantity={lot.quantity}
+                  code={lot.code}
+                  conditions={lotConditions(lot, { readings: stats.n, matchPct: match.matchPct ?? 1, setSize: match.setSize ?? 2})}
+                />
               </Panel>
             </div>
 

@@ -8,11 +8,20 @@ import { attachmentFileHref } from '../api/attachments';
 import { useSweeps, type Sweep } from '../api/sweeps';
 import { ImpedancePlots, TaperPlots } from './sweep-plots';
 import { SweepUploadForm } from './sweep-upload';
+import type { Condition } from '@shared/csv/conditions';
 
 function SweepBlock({ sweep, part }: { sweep: Sweep; part: PartDetail }) {
   const profiles = useProfiles();
   const profile = profiles.data ? chooseProfile(profiles.data.profiles, part) : null;
   const name = `${part.label}-sweep-${sweep.id}`;
+  // What the plots show: this part's sweep as uploaded, the fit drawn, and the envelope's profile.
+  const conditions: Condition[] = [
+    { key: 'part', value: `${part.label} (${part.kind})` },
+    { key: 'sweep', value: `#${sweep.id}, ${sweep.pointCount} points, uploaded ${formatDateTime(sweep.createdAt)}` },
+    { key: 'columns read', value: sweep.columns ? Object.entries(sweep.columns).map(([role, header]) => `${role} = ${header}`).join('; ') : null },
+    { key: 'fit', value: sweep.fit ? `#${sweep.fit.id}` : null },
+    ...(sweep.kind === 'taper' ? [{ key: 'profile envelope', value: profile ? profile.name : 'none' }] : []),
+  ];
   return (
     <article aria-labelledby={`sweep-${sweep.id}-heading`} className="space-y-3 border-t border-paper-edge pt-4 first:border-0 first:pt-0">
       <header className="flex flex-wrap items-baseline justify-between gap-2">
@@ -44,9 +53,9 @@ function SweepBlock({ sweep, part }: { sweep: Sweep; part: PartDetail }) {
       {!sweep.fit ? (
         <p className="text-sm text-ink-soft">No current fit for this sweep.</p>
       ) : sweep.kind === 'taper' && sweep.fit.kind === 'taper' ? (
-        <TaperPlots points={sweep.points} fit={sweep.fit.result} envelope={profile ? { law: profile.rules.law, mMin: profile.rules.mMin, mMax: profile.rules.mMax } : null} fileName={name} />
+        <TaperPlots points={sweep.points} fit={sweep.fit.result} envelope={profile ? { law: profile.rules.law, mMin: profile.rules.mMin, mMax: profile.rules.mMax } : null} fileName={name} conditions={conditions} />
       ) : sweep.kind === 'impedance' && sweep.fit.kind === 'coil' ? (
-        <ImpedancePlots points={sweep.points} fit={sweep.fit.result} fileName={name} />
+        <ImpedancePlots points={sweep.points} fit={sweep.fit.result} fileName={name} conditions={conditions} />
       ) : null}
     </article>
   );

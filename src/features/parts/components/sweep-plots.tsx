@@ -10,6 +10,7 @@ import type { TaperFit, TaperPoint } from '@shared/analysis/taper';
 import { taperLawValue, type TaperLawKind } from '@shared/taper/law';
 import { Plot, SERIES_COLOURS, axis, downloadPng, frequencyX } from '@/components/charts/plot';
 import { Button } from '@/components/ui/button';
+import type { Condition } from '@shared/csv/conditions';
 
 const pointsOnly = (stroke: string, label: string, size = 6): uPlot.Series => ({
   label,
@@ -26,13 +27,13 @@ const ohmTicks = (_u: uPlot, splits: (number | null)[]) =>
   splits.map((v) => (v == null ? '' : v >= 1e6 ? `${Number((v / 1e6).toPrecision(3))}M` : v >= 1e3 ? `${Number((v / 1e3).toPrecision(3))}k` : String(Number(v.toPrecision(3)))));
 const line = (stroke: string, label: string, dash?: number[]): uPlot.Series => ({ label, stroke, width: 2, points: { show: false }, ...(dash ? { dash } : {}) });
 
-function PlotFigure({ title, name, options, data, label }: { title: string; name: string; options: PlotOptions; data: AlignedData; label: string }) {
+function PlotFigure({ title, name, options, data, label, conditions }: { title: string; name: string; options: PlotOptions; data: AlignedData; label: string; conditions: Condition[] }) {
   const ref = useRef<uPlot | null>(null);
   return (
     <figure className="min-w-0">
       <figcaption className="mb-1 flex items-center justify-between gap-2 text-sm font-medium">
         {title}
-        <Button size="sm" variant="quiet" onClick={() => ref.current && downloadPng(ref.current, name)}>
+        <Button size="sm" variant="quiet" onClick={() => ref.current && downloadPng(ref.current, name, { title, conditions })}>
           PNG
         </Button>
       </figcaption>
@@ -50,7 +51,19 @@ function envelopeLaw(profileLaw: string | undefined, fitted: TaperLawKind): Tape
   return profileLaw as TaperLawKind;
 }
 
-export function TaperPlots({ points, fit, envelope, fileName }: { points: TaperPoint[]; fit: TaperFit; envelope: { law?: string; mMin?: number; mMax?: number } | null; fileName: string }) {
+export function TaperPlots({
+  points,
+  fit,
+  envelope,
+  fileName,
+  conditions,
+}: {
+  points: TaperPoint[];
+  fit: TaperFit;
+  envelope: { law?: string; mMin?: number; mMax?: number } | null;
+  fileName: string;
+  conditions: Condition[];
+}) {
   const { main, residuals, mainOptions, residualOptions } = useMemo(() => {
     const measured = [...points].sort((a, b) => a.rotation - b.rotation);
     const grid = Array.from({ length: 101 }, (_, i) => i);
@@ -89,8 +102,8 @@ export function TaperPlots({ points, fit, envelope, fileName }: { points: TaperP
 
   return (
     <div className="grid gap-4">
-      <PlotFigure title="Taper: R1W / R13 against rotation" name={`${fileName}-taper`} options={mainOptions} data={main} label="Measured taper points, the fitted law and the profile's envelope, as a fraction of the total resistance against rotation in percent" />
-      <PlotFigure title="Residuals" name={`${fileName}-taper-residuals`} options={residualOptions} data={residuals} label="Difference between measured and fitted taper, percent of total resistance, against rotation" />
+      <PlotFigure title="Taper: R1W / R13 against rotation" name={`${fileName}-taper`} options={mainOptions} data={main} conditions={conditions} label="Measured taper points, the fitted law and the profile's envelope, as a fraction of the total resistance against rotation in percent" />
+      <PlotFigure title="Residuals" name={`${fileName}-taper-residuals`} options={residualOptions} data={residuals} conditions={conditions} label="Difference between measured and fitted taper, percent of total resistance, against rotation" />
     </div>
   );
 }
@@ -98,7 +111,7 @@ export function TaperPlots({ points, fit, envelope, fileName }: { points: TaperP
 const magnitude = (p: { re: number; im: number }) => Math.hypot(p.re, p.im);
 const phaseDeg = (p: { re: number; im: number }) => (Math.atan2(p.im, p.re) * 180) / Math.PI;
 
-export function ImpedancePlots({ points, fit, fileName }: { points: { frequency: number; re: number; im: number }[]; fit: CoilFit; fileName: string }) {
+export function ImpedancePlots({ points, fit, fileName, conditions }: { points: { frequency: number; re: number; im: number }[]; fit: CoilFit; fileName: string; conditions: Condition[] }) {
   const plots = useMemo(() => {
     const measured = [...points].sort((a, b) => a.frequency - b.frequency);
     const f = measured.map((p) => p.frequency);
@@ -138,9 +151,9 @@ export function ImpedancePlots({ points, fit, fileName }: { points: { frequency:
 
   return (
     <div className="grid gap-4">
-      <PlotFigure title="Impedance magnitude" name={`${fileName}-impedance`} {...plots.mag} label="Measured impedance magnitude and the fitted coil model, ohms on a log scale, against log frequency" />
-      <PlotFigure title="Phase" name={`${fileName}-phase`} {...plots.phase} label="Measured phase and the fitted coil model, degrees, against log frequency" />
-      <PlotFigure title="Residuals" name={`${fileName}-impedance-residuals`} {...plots.residuals} label="Residuals of the coil fit: ln|Z| in nepers and phase in degrees against log frequency" />
+      <PlotFigure title="Impedance magnitude" name={`${fileName}-impedance`} {...plots.mag} conditions={conditions} label="Measured impedance magnitude and the fitted coil model, ohms on a log scale, against log frequency" />
+      <PlotFigure title="Phase" name={`${fileName}-phase`} {...plots.phase} conditions={conditions} label="Measured phase and the fitted coil model, degrees, against log frequency" />
+      <PlotFigure title="Residuals" name={`${fileName}-impedance-residuals`} {...plots.residuals} conditions={conditions} label="Residuals of the coil fit: ln|Z| in nepers and phase in degrees against log frequency" />
     </div>
   );
 }
