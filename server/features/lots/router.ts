@@ -98,7 +98,7 @@ export function lotRoutes(ctx: AppContext) {
     handle: ({ params, query, res }) => {
       const lot = mustFind(params.id);
       // The default matching is stored (stored-stats.ts); another matching is computed for this request.
-      const results = isDefaultMatching(query) ? storedLotStats(sqlite, lot) : freshResults(lot, query);
+      const results = isDefaultMatching(query) ? storedLotStats(sqlite, lot, 'detail') : freshResults(lot, query);
       const disposedByName = lot.disposedBy ? (db.select({ name: users.name }).from(users).where(eq(users.id, lot.disposedBy)).get()?.name ?? null) : null;
       const head = {
         ...lotSummary(lot),
@@ -117,7 +117,7 @@ export function lotRoutes(ctx: AppContext) {
     schemas: { params: IdParamsSchema, query: LotStatsQuerySchema },
     handle: ({ params, query, res }) => {
       const lot = mustFind(params.id);
-      const results = isDefaultMatching(query) ? storedLotStats(sqlite, lot) : freshResults(lot, query);
+      const results = isDefaultMatching(query) ? storedLotStats(sqlite, lot, 'columns') : freshResults(lot, query);
       // Which items became parts is read on every request: a promotion changes it, not the readings.
       const partIds = lotItemPartIds(db, sqlite, lot.id, results.count);
       // The stored columns object, with partIds put in front of its first key.

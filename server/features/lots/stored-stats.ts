@@ -96,9 +96,15 @@ export function refreshLotStats(sqlite: Database.Database, lot: LotRow): StoredL
   return stored;
 }
 
-/** The lot's stored results, computed first when missing or out of date (engine version or limits). */
-export function storedLotStats(sqlite: Database.Database, lot: LotRow): StoredLotResults {
-  const row = sqlite.prepare('select engine_version, nominal, tolerance_pct, second_limit, count, detail, columns from lot_stats where lot_id = ?').get(lot.id) as Row | undefined;
+/**
+ * The lot's stored results, computed first when missing or out of date (engine version or limits).
+ * `part` says which JSON text to read (the columns are ~9 MB for 100,000 items; the detail needs none of them);
+ * the other comes back empty unless the results were computed now.
+ */
+export function storedLotStats(sqlite: Database.Database, lot: LotRow, part: 'detail' | 'columns'): StoredLotResults {
+  const row = sqlite
+    .prepare(`select engine_version, nominal, tolerance_pct, second_limit, count, ${part === 'detail' ? "detail, '' as columns" : "'' as detail, columns"} from lot_stats where lot_id = ?`)
+    .get(lot.id) as Row | undefined;
   if (row && row.engine_version === ANALYSIS_ENGINE_VERSION && row.nominal === lot.nominal && row.tolerance_pct === lot.tolerancePct && row.second_limit === lot.secondLimit) {
     return { count: row.count, statsJson: row.detail, columnsJson: row.columns };
   }
