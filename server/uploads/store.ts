@@ -66,7 +66,10 @@ const MAX_NAME = 200;
  * never through it, so the checked extension is the one the stored name ends with.
  */
 export function storedName(originalName: string): string {
-  const name = originalName.replace(/[\u0000-\u001f\u007f]/g, '');
+  // Control characters (C0 and DEL) are dropped: a name is shown in headers and on screens.
+  const name = Array.from(originalName)
+    .filter((ch) => { const c = ch.codePointAt(0)!; return c > 0x1f && c !== 0x7f; })
+    .join('');
   if (name.length <= MAX_NAME) return name;
   const ext = path.extname(name).slice(0, 16);
   return name.slice(0, MAX_NAME - ext.length) + ext;

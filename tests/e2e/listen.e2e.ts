@@ -157,7 +157,7 @@ test('the Listen panel plays the phrase, follows a knob, switches A/B, and shows
   await page.waitForTimeout(300);
   expect(await panel.getByRole('button', { name: 'Stop' }).count()).toBe(1);
   // pin A, then hear A and B
-  await page.getByRole('button', { name: /Pin as A to compare/ }).click();
+  await page.locator('#harness-wiring').getByRole('button', { name: /Pin as A to compare/ }).click();
   await panel.getByRole('radio', { name: /^A:/ }).check();
   await page.waitForTimeout(200);
   expect(await panel.getByRole('radio', { name: /^A:/ }).isChecked()).toBe(true);
