@@ -134,6 +134,27 @@ export const lotReadings = sqliteTable(
   (t) => [index('lot_readings_lot_idx').on(t.lotId)],
 );
 
+/**
+ * A lot's statistics as of its current readings and limits (server/features/lots/stored-stats.ts),
+ * kept so reads do not recompute them: the detail answer (without the per-item columns) and the
+ * items route's columns, both as JSON text. Deleted in the transaction that changes the readings;
+ * a row of another engine version is recomputed on its next read.
+ */
+export const lotStats = sqliteTable('lot_stats', {
+  lotId: integer('lot_id')
+    .primaryKey()
+    .references(() => lots.id, { onDelete: 'cascade' }),
+  engineVersion: text('engine_version').notNull(),
+  /** The nominal and tolerance the figures were computed against (a change of limits recomputes). */
+  nominal: real('nominal').notNull(),
+  tolerancePct: real('tolerance_pct').notNull(),
+  secondLimit: real('second_limit'),
+  count: integer('count').notNull(),
+  detail: text('detail').notNull(),
+  columns: text('columns').notNull(),
+  computedAt: integer('computed_at').notNull(),
+});
+
 export const lotWatchers = sqliteTable(
   'lot_watchers',
   {

@@ -2,6 +2,7 @@
 import { bench as fits } from './fits';
 import { bench as harness } from './harness';
 import { bench as listen } from './listen';
+import { bench as lotReads } from './lot-reads';
 import { bench as lotUpload } from './lot-upload';
 import type { BenchFigure } from './report';
 import { bench as valuesAndLots } from './values-and-lots';
@@ -12,10 +13,13 @@ const areas: [string, () => Promise<BenchFigure[]>][] = [
   ['Harness engine', harness],
   ['Listen', listen],
   ['Lot upload', lotUpload],
+  ['Lot reads', lotReads],
 ];
 
 let missed = 0;
-for (const [title, run] of areas) {
+// `npm run bench -- "Lot reads"` runs the areas whose title contains the text given.
+const only = process.argv[2];
+for (const [title, run] of areas.filter(([title]) => !only || title.toLowerCase().includes(only.toLowerCase()))) {
   console.log(`\n## ${title}`);
   for (const f of await run()) {
     if (!f.met) missed++;

@@ -7,7 +7,7 @@ import { instruments, lots, lotWatchers, users } from '@server/db/schema';
 import { conflict, unprocessable } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
 import { lotHistory } from './history';
-import { itemPartIds } from './promoted';
+import { lotItemPartIds } from './promoted';
 import { assertWatcherChange, registerWatcherRoutes } from './watchers';
 import { decodeMarking } from '@shared/markings/decode';
 import { MarkingError } from '@shared/markings/tolerance-letters';
@@ -16,11 +16,11 @@ import { CreateLotInputSchema, LotStatsQuerySchema, PromoteInputSchema, Watchers
 import { lotFinder, lotSummary, QUANTITY } from './common';
 import { lotDispositionRoutes } from './disposition';
 import { lotExportRoutes } from './export';
-import { listLots, lotStats, lotValues, lotWatcherRows } from './repository';
+import { listLots, lotValues, lotWatcherRows, type LotRow } from './repository';
+import { isDefaultMatching, lotResults, storedLotStats, type StoredLotResults } from './stored-stats';
 import { promoteToParts } from './promote';
 import { lotUploadRoutes } from './upload';
 
-const MAX_LISTED_SETS = 200;
 
 export function lotRoutes(ctx: AppContext) {
   const { db, sqlite } = ctx;
@@ -32,6 +32,11 @@ export function lotRoutes(ctx: AppContext) {
     if (stranger) throw unprocessable('A watcher is not a member.', { [field]: `Unknown member ${stranger}.` });
   };
   const mustFind = lotFinder(ctx);
+  /** Results for a matching other than the stored one, computed for this request only. */
+  const freshResults = (lot: LotRow, matching: { matchPct?: number; setSize?: number }): StoredLotResults => {
+    const r = lotResults(lot, lotValues(sqlite, lot.id), matching);
+    return { count: r.count, statsJson: JSON.stringify(r.stats), columnsJson: JSON.stringify(r.columns) };
+  };
 
   registerWatcherRoutes(api, ctx);
   api.get('/', { handle: () => ({ lots: listLots(db).map((l) => ({ ...lotSummary(l), count: l.count })) }) });
@@ -90,51 +95,33 @@ export function lotRoutes(ctx: AppContext) {
 
   api.get('/:id', {
     schemas: { params: IdParamsSchema, query: LotStatsQuerySchema },
-    handle: ({ params, query }) => {
+    handle: ({ params, query, res }) => {
       const lot = mustFind(params.id);
-      const data = lotValues(sqlite, lot.id);
-      const stats = lotStats(lot, data, query);
+      // The default matching is stored (stored-stats.ts); another matching is computed for this request.
+      const results = isDefaultMatching(query) ? storedLotStats(sqlite, lot, 'detail') : freshResults(lot, query);
       const disposedByName = lot.disposedBy ? (db.select({ name: users.name }).from(users).where(eq(users.id, lot.disposedBy)).get()?.name ?? null) : null;
-      return {
+      const head = {
         ...lotSummary(lot),
         disposedByName,
-        count: data.values.length,
+        count: results.count,
         watchers: lotWatcherRows(db, lot.id),
         history: lotHistory(db, lot),
-        // The first sets only (a 100,000-item lot has ~50,000 pairs); the items route carries every item's set.
-        stats: stats && { ...stats, deviationsPct: undefined, matchedSets: stats.matchedSets.slice(0, MAX_LISTED_SETS), matchedSetCount: stats.matchedSets.length },
       };
+      // The stored `stats` text goes in as it is, after the fields read now.
+      res.type('json').send(`${JSON.stringify(head).slice(0, -1)},"stats":${results.statsJson}}`);
     },
   });
 
   // Every item with what the table needs, as columns (compact for 100,000 rows).
   api.get('/:id/items', {
     schemas: { params: IdParamsSchema, query: LotStatsQuerySchema },
-    handle: ({ params, query }) => {
+    handle: ({ params, query, res }) => {
       const lot = mustFind(params.id);
-      const data = lotValues(sqlite, lot.id);
-      const stats = lotStats(lot, data, { ...query, withBinIndices: true });
-      const n = data.values.length;
-      const bin = new Int32Array(n).fill(-1);
-      stats?.bins.forEach((b, bi) => b.indices?.forEach((i) => (bin[i] = bi)));
-      const set = new Int32Array(n).fill(-1);
-      stats?.matchedSets.forEach((s, si) => s.indices.forEach((i) => (set[i] = si)));
-      const outlier = new Uint8Array(n);
-      stats?.outliers.indices.forEach((i) => (outlier[i] = 1));
-      const secondFail = new Uint8Array(n);
-      stats?.secondFailures?.forEach((i) => (secondFail[i] = 1));
-      return {
-        ids: Array.from(data.ids),
-        items: data.items,
-        values: Array.from(data.values),
-        second: Array.from(data.second, (v) => (Number.isNaN(v) ? null : v)),
-        deviationsPct: stats ? Array.from(stats.deviationsPct) : [],
-        bin: Array.from(bin),
-        set: Array.from(set),
-        outlier: Array.from(outlier),
-        partIds: itemPartIds(db, lot.id, data.items),
-        secondFail: Array.from(secondFail),
-      };
+      const results = isDefaultMatching(query) ? storedLotStats(sqlite, lot, 'columns') : freshResults(lot, query);
+      // Which items became parts is read on every request: a promotion changes it, not the readings.
+      const partIds = lotItemPartIds(db, sqlite, lot.id, results.count);
+      // The stored columns object, with partIds put in front of its first key.
+      res.type('json').send(`{"partIds":${JSON.stringify(partIds)},${results.columnsJson.slice(1)}`);
     },
   });
 
