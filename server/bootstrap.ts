@@ -49,4 +49,3 @@ export function createContext(opts: ContextOptions): AppContext {
     log,
   };
 }
-

@@ -24,7 +24,12 @@ const EnvSchema = z.object({
   LUGBOOK_ALLOWED_HOSTS: z
     .string()
     .default('')
-    .transform((v) => v.split(',').map((h) => h.trim()).filter(Boolean)),
+    .transform((v) =>
+      v
+        .split(',')
+        .map((h) => h.trim())
+        .filter(Boolean),
+    ),
   /** Structured request logs on standard output: on unless "false". */
   LUGBOOK_REQUEST_LOG: z
     .enum(['true', 'false'])
@@ -40,7 +45,9 @@ export function startupWarnings(source: NodeJS.ProcessEnv = process.env): string
   if (!env.success) return [];
   const warnings: string[] = [];
   if (env.data.NODE_ENV === 'production' && (!source.PUBLIC_URL || env.data.PUBLIC_URL === DEFAULT_PUBLIC_URL)) {
-    warnings.push(`NODE_ENV=production with the default PUBLIC_URL (${DEFAULT_PUBLIC_URL}): links in e-mails will point to localhost. Set PUBLIC_URL to the address people open.`);
+    warnings.push(
+      `NODE_ENV=production with the default PUBLIC_URL (${DEFAULT_PUBLIC_URL}): links in e-mails will point to localhost. Set PUBLIC_URL to the address people open.`,
+    );
   }
   return warnings;
 }

@@ -29,7 +29,8 @@ const refit = refitOutdatedTaperFits(ctx.db);
 if (refit.refitted > 0) console.log(`Refitted ${refit.refitted} stored taper fit(s) made by an older engine version.`);
 for (const f of refit.failed) console.log(`Sweep ${f.sweepId} kept its old fit: ${f.reason}`);
 const swept = sweepUploads(ctx.sqlite, env.uploadsDir);
-if (swept.incoming + swept.orphans > 0) console.log(`Removed ${swept.incoming} interrupted upload(s) and ${swept.orphans} unreferenced stored file(s).`);
+if (swept.incoming + swept.orphans > 0)
+  console.log(`Removed ${swept.incoming} interrupted upload(s) and ${swept.orphans} unreferenced stored file(s).`);
 
 const server = createApp(ctx).listen(env.PORT, () => {
   console.log(`Lugbook is serving on http://localhost:${env.PORT} (data in ${env.LUGBOOK_DATA_DIR})`);

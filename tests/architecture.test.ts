@@ -8,10 +8,14 @@ test('imports flow one way: shared → server or src, never between server and s
 // The rules themselves, on made-up paths, so a rule that stopped reporting would show here.
 describe('the layer rules report what they forbid', () => {
   test('client: components and lib import neither features nor app; features do not import app or each other', () => {
-    expect(clientLayerViolations('src/components/ui/badge.tsx', 'src/features/parts/api/get-part', '@/features/parts/api/get-part')).toHaveLength(1);
+    expect(
+      clientLayerViolations('src/components/ui/badge.tsx', 'src/features/parts/api/get-part', '@/features/parts/api/get-part'),
+    ).toHaveLength(1);
     expect(clientLayerViolations('src/lib/format.ts', 'src/app/router', '@/app/router')).toHaveLength(1);
     expect(clientLayerViolations('src/features/jobs/components/x.tsx', 'src/app/provider', '@/app/provider')).toHaveLength(1);
-    expect(clientLayerViolations('src/features/jobs/components/x.tsx', 'src/features/parts/api/get-part', '@/features/parts/api/get-part')).toHaveLength(1);
+    expect(
+      clientLayerViolations('src/features/jobs/components/x.tsx', 'src/features/parts/api/get-part', '@/features/parts/api/get-part'),
+    ).toHaveLength(1);
     expect(clientLayerViolations('src/app/routes/jobs.tsx', 'src/features/jobs/components/x', '@/features/jobs/components/x')).toEqual([]);
     expect(clientLayerViolations('src/features/jobs/components/x.tsx', 'src/components/ui/badge', '@/components/ui/badge')).toEqual([]);
     expect(clientLayerViolations('src/features/jobs/components/x.tsx', 'src/features/jobs/api/get-job', '../api/get-job')).toEqual([]);
@@ -19,7 +23,9 @@ describe('the layer rules report what they forbid', () => {
 
   test("server: a feature uses another feature's repository or service, never its router", () => {
     expect(serverFeatureViolations('server/features/jobs/service.ts', 'server/features/parts/router', '../parts/router')).toHaveLength(1);
-    expect(serverFeatureViolations('server/features/jobs/service.ts', 'server/features/parts/repository', '../parts/repository')).toEqual([]);
+    expect(serverFeatureViolations('server/features/jobs/service.ts', 'server/features/parts/repository', '../parts/repository')).toEqual(
+      [],
+    );
     expect(serverFeatureViolations('server/features/jobs/service.ts', 'server/features/jobs/router', './router')).toEqual([]);
     expect(serverFeatureViolations('server/app.ts', 'server/features/parts/router', './features/parts/router')).toEqual([]);
   });

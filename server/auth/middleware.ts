@@ -55,7 +55,9 @@ export function hostCheck(allowed: string[]): RequestHandler {
   return (req, res, next) => {
     const host = req.headers.host;
     if (host && names.has(hostName(host))) return next();
-    res.status(421).json({ error: { code: 'unknown_host', message: 'This server does not answer to that host name; add it to LUGBOOK_ALLOWED_HOSTS.' } });
+    res.status(421).json({
+      error: { code: 'unknown_host', message: 'This server does not answer to that host name; add it to LUGBOOK_ALLOWED_HOSTS.' },
+    });
   };
 }
 

@@ -19,10 +19,33 @@ export async function verifyPassword(hashed: string, password: string): Promise<
 // A short list of the most common passwords (from memory of the published breach top lists);
 // NIST SP 800-63B §3.1.1.2 asks verifiers to refuse such values.
 const COMMON = new Set([
-  'password', 'password1', 'password123', '12345678', '123456789', '1234567890', 'qwertyuiop',
-  'qwerty123', 'iloveyou', 'sunshine', 'princess', 'football', 'baseball', 'welcome1', 'letmein1',
-  'admin123', 'abc12345', 'passw0rd', '11111111', '00000000', 'trustno1', 'zaq12wsx', 'qazwsx123',
-  'guitar123', 'changeme', 'lugbook1', 'lugbook123',
+  'password',
+  'password1',
+  'password123',
+  '12345678',
+  '123456789',
+  '1234567890',
+  'qwertyuiop',
+  'qwerty123',
+  'iloveyou',
+  'sunshine',
+  'princess',
+  'football',
+  'baseball',
+  'welcome1',
+  'letmein1',
+  'admin123',
+  'abc12345',
+  'passw0rd',
+  '11111111',
+  '00000000',
+  'trustno1',
+  'zaq12wsx',
+  'qazwsx123',
+  'guitar123',
+  'changeme',
+  'lugbook1',
+  'lugbook123',
 ]);
 
 /** A reason the password is refused, or null when it may be used. */

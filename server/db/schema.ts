@@ -106,9 +106,7 @@ export const lots = sqliteTable('lots', {
   /** The meter the lot was measured with and its test frequency (Hz): carried to promoted parts' readings. */
   instrumentId: integer('instrument_id').references(() => instruments.id, { onDelete: 'set null' }),
   testFrequency: real('test_frequency'),
-  status: text('status', { enum: LOT_STATUSES })
-    .notNull()
-    .default('open'),
+  status: text('status', { enum: LOT_STATUSES }).notNull().default('open'),
   dispositionReason: text('disposition_reason'),
   disposedBy: text('disposed_by').references(() => users.id, { onDelete: 'set null' }),
   disposedAt: integer('disposed_at'),
@@ -184,9 +182,7 @@ export const parts = sqliteTable(
     lotId: integer('lot_id').references(() => lots.id, { onDelete: 'set null' }),
     lotItem: text('lot_item'),
     profileId: integer('profile_id').references(() => toleranceProfiles.id, { onDelete: 'set null' }),
-    status: text('status', { enum: PART_STATUSES })
-      .notNull()
-      .default('incoming'),
+    status: text('status', { enum: PART_STATUSES }).notNull().default('incoming'),
     statusReason: text('status_reason'),
     tags: text('tags'),
     notes: text('notes'),
@@ -197,7 +193,11 @@ export const parts = sqliteTable(
   // Labels are unique in any case: the server checks lower(label) before every insert and rename
   // (a unique index on it would refuse to build where older labels differ only in case; those are
   // listed at start and on the Team screen instead of being renamed).
-  (t) => [uniqueIndex('parts_label_unique').on(t.label), index('parts_label_lower_idx').on(sql`lower(${t.label})`), index('parts_lot_idx').on(t.lotId)],
+  (t) => [
+    uniqueIndex('parts_label_unique').on(t.label),
+    index('parts_label_lower_idx').on(sql`lower(${t.label})`),
+    index('parts_lot_idx').on(t.lotId),
+  ],
 );
 
 export const partStatusEvents = sqliteTable('part_status_events', {
@@ -329,9 +329,7 @@ export const jobs = sqliteTable('jobs', {
   customer: text('customer').notNull(),
   customerEmail: text('customer_email'),
   instrument: text('instrument').notNull(),
-  status: text('status', { enum: JOB_STATUSES })
-    .notNull()
-    .default('open'),
+  status: text('status', { enum: JOB_STATUSES }).notNull().default('open'),
   harnessId: integer('harness_id').references(() => harnesses.id, { onDelete: 'set null' }),
   notes: text('notes'),
   createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),

@@ -27,8 +27,15 @@ function gauss(rand: () => number): number {
 }
 
 function newPart(s: Seeders, values: typeof parts.$inferInsert) {
-  const part = s.tx.insert(parts).values({ createdBy: s.users.tech, ...values }).returning().get();
-  s.tx.insert(partStatusEvents).values({ partId: part.id, toStatus: 'incoming', reason: values.lotId ? 'received with its lot' : 'created', userId: s.users.tech }).run();
+  const part = s.tx
+    .insert(parts)
+    .values({ createdBy: s.users.tech, ...values })
+    .returning()
+    .get();
+  s.tx
+    .insert(partStatusEvents)
+    .values({ partId: part.id, toStatus: 'incoming', reason: values.lotId ? 'received with its lot' : 'created', userId: s.users.tech })
+    .run();
   return part;
 }
 
@@ -51,7 +58,19 @@ function seedPotLot(s: Seeders, plan: PotLotPlan): void {
   const nominal = 500e3;
   const lot = s.tx
     .insert(lots)
-    .values({ code: plan.code, kind: 'pot', quantity: 'resistance', nominal, tolerancePct: 20, supplier: plan.supplier, receivedOn: plan.receivedOn, expectedCount: plan.count, secondQuantity: 'end-resistance', secondLimit: 500, createdBy: s.users.qa })
+    .values({
+      code: plan.code,
+      kind: 'pot',
+      quantity: 'resistance',
+      nominal,
+      tolerancePct: 20,
+      supplier: plan.supplier,
+      receivedOn: plan.receivedOn,
+      expectedCount: plan.count,
+      secondQuantity: 'end-resistance',
+      secondLimit: 500,
+      createdBy: s.users.qa,
+    })
     .returning()
     .get();
   s.tx.insert(lotWatchers).values({ lotId: lot.id, userId: s.users.qa }).run();
@@ -63,7 +82,17 @@ function seedPotLot(s: Seeders, plan: PotLotPlan): void {
     const m = Math.min(0.45, Math.max(0.04, plan.m + plan.mSpread * gauss(s.rand)));
     const item = String(i).padStart(3, '0');
     insertReading.run(lot.id, item, total, endR, i + 1);
-    const part = newPart(s, { kind: 'pot', label: `${plan.code}-${item}`, nominal, tolerancePct: 20, taperClass: plan.law === 'linear' ? 'linear' : 'audio', taperM: plan.law === 'linear' ? 0.5 : 0.15, supplier: plan.supplier, lotId: lot.id, lotItem: item });
+    const part = newPart(s, {
+      kind: 'pot',
+      label: `${plan.code}-${item}`,
+      nominal,
+      tolerancePct: 20,
+      taperClass: plan.law === 'linear' ? 'linear' : 'audio',
+      taperM: plan.law === 'linear' ? 0.5 : 0.15,
+      supplier: plan.supplier,
+      lotId: lot.id,
+      lotItem: item,
+    });
     recordReading(s.tx, part, { quantity: 'resistance', value: total }, s.users.tech);
     const points = [];
     for (let deg = 0; deg <= 300; deg += 10) {
@@ -76,19 +105,64 @@ function seedPotLot(s: Seeders, plan: PotLotPlan): void {
       const rw3 = endR3 + track * (1 - y) * (1 + 0.003 * gauss(s.rand));
       points.push({ x, y: r1w, z: rw3 });
     }
-    const sweep = insertSweep(s.tx, s.sqlite, { partId: part.id, kind: 'taper', attachmentId: null, columns: { rotation: 'Rotation (deg)', resistance: 'R1-W (kOhm)', resistanceW3: 'RW-3 (kOhm)' }, createdBy: s.users.tech }, points);
+    const sweep = insertSweep(
+      s.tx,
+      s.sqlite,
+      {
+        partId: part.id,
+        kind: 'taper',
+        attachmentId: null,
+        columns: { rotation: 'Rotation (deg)', resistance: 'R1-W (kOhm)', resistanceW3: 'RW-3 (kOhm)' },
+        createdBy: s.users.tech,
+      },
+      points,
+    );
     fitAndStore(s.tx, refresh(s, part.id), sweep, s.users.tech);
   }
 }
 
-function seedCapacitorLot(s: Seeders, opts: { code: string; supplier: string; marking: string; nominal: number; tolerancePct: number; count: number; receivedOn: string; sdPct: number; biasPct: number }): number {
+function seedCapacitorLot(
+  s: Seeders,
+  opts: {
+    code: string;
+    supplier: string;
+    marking: string;
+    nominal: number;
+    tolerancePct: number;
+    count: number;
+    receivedOn: string;
+    sdPct: number;
+    biasPct: number;
+  },
+): number {
   const lot = s.tx
     .insert(lots)
-    .values({ code: opts.code, kind: 'capacitor', quantity: 'capacitance', nominal: opts.nominal, tolerancePct: opts.tolerancePct, marking: opts.marking, supplier: opts.supplier, receivedOn: opts.receivedOn, expectedCount: opts.count, secondQuantity: 'dissipation', secondLimit: 0.01, createdBy: s.users.qa })
+    .values({
+      code: opts.code,
+      kind: 'capacitor',
+      quantity: 'capacitance',
+      nominal: opts.nominal,
+      tolerancePct: opts.tolerancePct,
+      marking: opts.marking,
+      supplier: opts.supplier,
+      receivedOn: opts.receivedOn,
+      expectedCount: opts.count,
+      secondQuantity: 'dissipation',
+      secondLimit: 0.01,
+      createdBy: s.users.qa,
+    })
     .returning()
     .get();
-  s.tx.insert(lotWatchers).values([{ lotId: lot.id, userId: s.users.qa }, { lotId: lot.id, userId: s.users.admin }]).run();
-  const insert = s.sqlite.prepare('insert into lot_readings (lot_id, item, value, second_value, frequency, source_row) values (?, ?, ?, ?, 1000, ?)');
+  s.tx
+    .insert(lotWatchers)
+    .values([
+      { lotId: lot.id, userId: s.users.qa },
+      { lotId: lot.id, userId: s.users.admin },
+    ])
+    .run();
+  const insert = s.sqlite.prepare(
+    'insert into lot_readings (lot_id, item, value, second_value, frequency, source_row) values (?, ?, ?, ?, 1000, ?)',
+  );
   for (let i = 1; i <= opts.count; i++) {
     // A few parts from a second population (a reel change) make the outliers QA looks for.
     const shifted = i % 997 === 13;
@@ -103,7 +177,12 @@ function seedPickupSweeps(s: Seeders): void {
   const pickups = s.tx.select().from(parts).where(eq(parts.kind, 'pickup')).all().slice(0, 6);
   pickups.forEach((p, k) => {
     const humbucker = (p.nominal ?? 0) > 7e3;
-    const truth = { R: (p.nominal ?? 6e3) * (1 + 0.03 * gauss(s.rand)), L: (humbucker ? 4.3 : 2.45) * (1 + 0.04 * gauss(s.rand)), C: (humbucker ? 125e-12 : 105e-12) * (1 + 0.05 * gauss(s.rand)), Rp: humbucker ? 450e3 : 300e3 };
+    const truth = {
+      R: (p.nominal ?? 6e3) * (1 + 0.03 * gauss(s.rand)),
+      L: (humbucker ? 4.3 : 2.45) * (1 + 0.04 * gauss(s.rand)),
+      C: (humbucker ? 125e-12 : 105e-12) * (1 + 0.05 * gauss(s.rand)),
+      Rp: humbucker ? 450e3 : 300e3,
+    };
     // One pickup with shorted turns: inductance and Q far below its siblings.
     if (k === 4) {
       truth.L *= 0.55;
@@ -116,7 +195,18 @@ function seedPickupSweeps(s: Seeders): void {
       const noise = 1 + 0.004 * gauss(s.rand);
       points.push({ x: f, y: z.re * noise, z: z.im * noise });
     }
-    const sweep = insertSweep(s.tx, s.sqlite, { partId: p.id, kind: 'impedance', attachmentId: null, columns: { frequency: 'Freq (Hz)', re: 'Re Z (ohm)', im: 'Im Z (ohm)' }, createdBy: s.users.tech }, points);
+    const sweep = insertSweep(
+      s.tx,
+      s.sqlite,
+      {
+        partId: p.id,
+        kind: 'impedance',
+        attachmentId: null,
+        columns: { frequency: 'Freq (Hz)', re: 'Re Z (ohm)', im: 'Im Z (ohm)' },
+        createdBy: s.users.tech,
+      },
+      points,
+    );
     fitAndStore(s.tx, refresh(s, p.id), sweep, s.users.tech);
   });
 }
@@ -125,19 +215,67 @@ function seedDesignsAndJobs(s: Seeders): void {
   const [keepTreble, darkNeck] = s.tx
     .insert(harnesses)
     .values([
-      { name: 'Keeps its treble at low volume', preset: 'bleed-cap-parallel-r', layout: 'one-pickup', options: { bleed: 'cap-parallel-r' }, values: { bleedC: 1.2e-9, bleedR: 150e3, cableLength: 4.5 }, notes: 'For players who ride the volume knob.', ownerId: s.users.tech },
-      { name: 'Warm neck position, tone from the volume wiper', preset: 'interactive-tone', layout: 'one-pickup', options: { toneWiring: 'interactive' }, values: { toneC: 15e-9, volumeR: 250e3, toneR: 250e3 }, ownerId: s.users.tech },
-      { name: 'Tone knob with a usable bottom', preset: 'tone-floor-resistor', layout: 'one-pickup', options: { toneNetwork: 'floor-resistor' }, values: { floorR: 8.2e3 }, ownerId: s.users.qa },
-      { name: 'Two pickups, bridge reversed in the middle position', layout: 'two-pickups-3way', selector: 1, options: { phase: 'reversed', bleed: 'cap' }, knobs: { 'neck.volume': 7 }, values: { 'neck.bleedC': 680e-12, 'bridge.bleedC': 680e-12 }, ownerId: s.users.tech },
+      {
+        name: 'Keeps its treble at low volume',
+        preset: 'bleed-cap-parallel-r',
+        layout: 'one-pickup',
+        options: { bleed: 'cap-parallel-r' },
+        values: { bleedC: 1.2e-9, bleedR: 150e3, cableLength: 4.5 },
+        notes: 'For players who ride the volume knob.',
+        ownerId: s.users.tech,
+      },
+      {
+        name: 'Warm neck position, tone from the volume wiper',
+        preset: 'interactive-tone',
+        layout: 'one-pickup',
+        options: { toneWiring: 'interactive' },
+        values: { toneC: 15e-9, volumeR: 250e3, toneR: 250e3 },
+        ownerId: s.users.tech,
+      },
+      {
+        name: 'Tone knob with a usable bottom',
+        preset: 'tone-floor-resistor',
+        layout: 'one-pickup',
+        options: { toneNetwork: 'floor-resistor' },
+        values: { floorR: 8.2e3 },
+        ownerId: s.users.qa,
+      },
+      {
+        name: 'Two pickups, bridge reversed in the middle position',
+        layout: 'two-pickups-3way',
+        selector: 1,
+        options: { phase: 'reversed', bleed: 'cap' },
+        knobs: { 'neck.volume': 7 },
+        values: { 'neck.bleedC': 680e-12, 'bridge.bleedC': 680e-12 },
+        ownerId: s.users.tech,
+      },
     ])
     .returning()
     .all();
   const job = s.tx
     .insert(jobs)
-    .values({ code: 'JOB-0001', customer: 'Customer A (invented)', customerEmail: 'customer.a@lugbook.test', instrument: 'Solid-body six-string, two single-coil-like pickups', harnessId: keepTreble!.id, notes: 'Volume drops too much treble; fit a bleed network.', createdBy: s.users.tech })
+    .values({
+      code: 'JOB-0001',
+      customer: 'Customer A (invented)',
+      customerEmail: 'customer.a@lugbook.test',
+      instrument: 'Solid-body six-string, two single-coil-like pickups',
+      harnessId: keepTreble!.id,
+      notes: 'Volume drops too much treble; fit a bleed network.',
+      createdBy: s.users.tech,
+    })
     .returning()
     .get();
-  s.tx.insert(jobs).values({ code: 'JOB-0002', customer: 'Customer B (invented)', instrument: 'Semi-hollow, two dual-coil pickups', harnessId: darkNeck!.id, status: 'done', createdBy: s.users.tech }).run();
+  s.tx
+    .insert(jobs)
+    .values({
+      code: 'JOB-0002',
+      customer: 'Customer B (invented)',
+      instrument: 'Semi-hollow, two dual-coil pickups',
+      harnessId: darkNeck!.id,
+      status: 'done',
+      createdBy: s.users.tech,
+    })
+    .run();
   const install = (label: string, position: string) => {
     const part = s.tx.select().from(parts).where(eq(parts.label, label)).get();
     if (!part || part.status !== 'passed') return;
@@ -150,11 +288,59 @@ function seedDesignsAndJobs(s: Seeders): void {
 }
 
 export function seedStudies(s: Seeders): void {
-  seedPotLot(s, { code: 'P-2609-A', supplier: s.suppliers[0], receivedOn: '2026-09-14', count: 10, law: 'audio', m: 0.19, mSpread: 0.015, totalSpreadPct: 8, scratchy: [4] });
-  seedPotLot(s, { code: 'P-2611-A', supplier: s.suppliers[0], receivedOn: '2026-11-03', count: 12, law: 'audio', m: 0.15, mSpread: 0.01, totalSpreadPct: 6 });
-  seedPotLot(s, { code: 'P-2611-B', supplier: s.suppliers[1], receivedOn: '2026-11-10', count: 12, law: 'two-segment', m: 0.11, mSpread: 0.02, totalSpreadPct: 12 });
-  seedCapacitorLot(s, { code: 'C-2611-473J', supplier: s.suppliers[0], marking: '473J', nominal: 47e-9, tolerancePct: 5, count: 500, receivedOn: '2026-11-18', sdPct: 1.1, biasPct: -0.3 });
-  seedCapacitorLot(s, { code: 'C-2611-223K-BULK', supplier: s.suppliers[1], marking: '223K', nominal: 22e-9, tolerancePct: 10, count: 100_000, receivedOn: '2026-11-24', sdPct: 3.2, biasPct: 1.5 });
+  seedPotLot(s, {
+    code: 'P-2609-A',
+    supplier: s.suppliers[0],
+    receivedOn: '2026-09-14',
+    count: 10,
+    law: 'audio',
+    m: 0.19,
+    mSpread: 0.015,
+    totalSpreadPct: 8,
+    scratchy: [4],
+  });
+  seedPotLot(s, {
+    code: 'P-2611-A',
+    supplier: s.suppliers[0],
+    receivedOn: '2026-11-03',
+    count: 12,
+    law: 'audio',
+    m: 0.15,
+    mSpread: 0.01,
+    totalSpreadPct: 6,
+  });
+  seedPotLot(s, {
+    code: 'P-2611-B',
+    supplier: s.suppliers[1],
+    receivedOn: '2026-11-10',
+    count: 12,
+    law: 'two-segment',
+    m: 0.11,
+    mSpread: 0.02,
+    totalSpreadPct: 12,
+  });
+  seedCapacitorLot(s, {
+    code: 'C-2611-473J',
+    supplier: s.suppliers[0],
+    marking: '473J',
+    nominal: 47e-9,
+    tolerancePct: 5,
+    count: 500,
+    receivedOn: '2026-11-18',
+    sdPct: 1.1,
+    biasPct: -0.3,
+  });
+  seedCapacitorLot(s, {
+    code: 'C-2611-223K-BULK',
+    supplier: s.suppliers[1],
+    marking: '223K',
+    nominal: 22e-9,
+    tolerancePct: 10,
+    count: 100_000,
+    receivedOn: '2026-11-24',
+    sdPct: 3.2,
+    biasPct: 1.5,
+  });
   seedPickupSweeps(s);
   seedDesignsAndJobs(s);
 }

@@ -18,8 +18,7 @@ export class HttpError extends Error {
 
 export const notFound = (what: string) => new HttpError(404, 'not_found', `${what} was not found.`);
 export const conflict = (message: string) => new HttpError(409, 'conflict', message);
-export const unprocessable = (message: string, fields?: Record<string, string>) =>
-  new HttpError(422, 'invalid', message, fields);
+export const unprocessable = (message: string, fields?: Record<string, string>) => new HttpError(422, 'invalid', message, fields);
 export const forbidden = (message = 'Your role may not do this.') => new HttpError(403, 'forbidden', message);
 
 export const apiNotFound: RequestHandler = (req, _res, next) => {
@@ -75,7 +74,9 @@ export function errorHandler(log: (message: string, err: unknown) => void): Erro
 }
 
 function isBodyParserError(err: unknown): err is { status: number; type: string } {
-  return typeof err === 'object' && err !== null && 'type' in err && 'status' in err && typeof (err as { status: unknown }).status === 'number';
+  return (
+    typeof err === 'object' && err !== null && 'type' in err && 'status' in err && typeof (err as { status: unknown }).status === 'number'
+  );
 }
 
 function isClientError(err: unknown): err is { status: number; message: string; expose?: boolean } {

@@ -11,7 +11,9 @@ export function requestLogger(destination: NodeJS.WritableStream): RequestHandle
     quietReqLogger: true,
     customAttributeKeys: { responseTime: 'durationMs' },
     serializers: {
-      req: (req: { method: string; raw?: { originalUrl?: string; baseUrl?: string; route?: { path?: string } } }) => ({ method: req.method }),
+      req: (req: { method: string; raw?: { originalUrl?: string; baseUrl?: string; route?: { path?: string } } }) => ({
+        method: req.method,
+      }),
       res: (res: { statusCode: number }) => ({ status: res.statusCode }),
       err: (err: Error) => ({ type: err.name }),
     },

@@ -12,9 +12,11 @@ export function guardedUpload(upload: RequestHandler): RequestHandler {
     const type = req.headers['content-type'] ?? '';
     if (/^multipart\//i.test(type)) {
       const encoding = (req.headers['content-encoding'] ?? 'identity').trim().toLowerCase();
-      if (encoding !== 'identity') return next(badMultipart(`Uploads are sent uncompressed; this one was sent with Content-Encoding "${encoding}".`));
+      if (encoding !== 'identity')
+        return next(badMultipart(`Uploads are sent uncompressed; this one was sent with Content-Encoding "${encoding}".`));
       if (!/^multipart\/form-data/i.test(type)) return next(badMultipart('Uploads are sent as multipart/form-data.'));
-      if (!/;\s*boundary=("[^"]+"|[^;\s]+)/i.test(type)) return next(badMultipart('The multipart body has no boundary in its Content-Type.'));
+      if (!/;\s*boundary=("[^"]+"|[^;\s]+)/i.test(type))
+        return next(badMultipart('The multipart body has no boundary in its Content-Type.'));
     }
     upload(req, res, (err?: unknown) => {
       if (err === undefined || err === null || err instanceof multer.MulterError || err instanceof HttpError) return next(err);

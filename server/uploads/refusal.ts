@@ -11,8 +11,14 @@ export function fileRefused(result: { issues: CsvIssue[]; needsMapping?: NeedsMa
   const message = result.needsMapping
     ? 'The columns of this file were not recognised; choose which column holds what.'
     : `The file was refused, nothing was stored: ${first?.message ?? 'it could not be read.'}${result.issues.length > 1 ? ` (${result.issues.length} problems listed)` : ''}`;
-  return new HttpError(422, result.needsMapping ? 'needs_mapping' : 'invalid_file', message, { file: message }, {
-    issues: result.issues,
-    ...(result.needsMapping ? { details: { needsMapping: result.needsMapping } } : {}),
-  });
+  return new HttpError(
+    422,
+    result.needsMapping ? 'needs_mapping' : 'invalid_file',
+    message,
+    { file: message },
+    {
+      issues: result.issues,
+      ...(result.needsMapping ? { details: { needsMapping: result.needsMapping } } : {}),
+    },
+  );
 }

@@ -21,7 +21,11 @@ const TYPES: Record<string, FileType> = {
   csv: { extensions: ['.csv', '.txt'], mime: 'text/csv', matches: isText },
   tsv: { extensions: ['.tsv', '.tab'], mime: 'text/tab-separated-values', matches: isText },
   jpeg: { extensions: ['.jpg', '.jpeg'], mime: 'image/jpeg', matches: (h) => h[0] === 0xff && h[1] === 0xd8 && h[2] === 0xff },
-  png: { extensions: ['.png'], mime: 'image/png', matches: (h) => h.subarray(0, 8).equals(Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a])) },
+  png: {
+    extensions: ['.png'],
+    mime: 'image/png',
+    matches: (h) => h.subarray(0, 8).equals(Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a])),
+  },
   pdf: { extensions: ['.pdf'], mime: 'application/pdf', matches: (h) => h.subarray(0, 5).toString('latin1') === '%PDF-' },
 };
 
@@ -29,7 +33,13 @@ const ALLOWED: Record<UploadKind, string[]> = { table: ['csv', 'tsv'], document:
 
 /** multer for one file in field `file`, kept in memory until it has been checked and parsed. */
 export function singleFileUpload(maxBytes: number) {
-  return guardedUpload(multer({ storage: multer.memoryStorage(), defParamCharset: 'utf8', limits: { fileSize: maxBytes, files: 1, fields: 20, parts: 25 } }).single('file'));
+  return guardedUpload(
+    multer({
+      storage: multer.memoryStorage(),
+      defParamCharset: 'utf8',
+      limits: { fileSize: maxBytes, files: 1, fields: 20, parts: 25 },
+    }).single('file'),
+  );
 }
 
 /** The file's type by extension and signature, or a 415 naming what is allowed. */
@@ -39,10 +49,15 @@ export function checkFileType(file: Express.Multer.File | undefined, kind: Uploa
   const allowed = ALLOWED[kind];
   const type = allowed.find((t) => TYPES[t]!.extensions.includes(ext));
   const names = allowed.flatMap((t) => TYPES[t]!.extensions).join(', ');
-  if (!type) throw new HttpError(415, 'unsupported_type', `Files of type "${ext || 'none'}" are not accepted here; use ${names}.`, { file: `Use ${names}.` });
+  if (!type)
+    throw new HttpError(415, 'unsupported_type', `Files of type "${ext || 'none'}" are not accepted here; use ${names}.`, {
+      file: `Use ${names}.`,
+    });
   if (file.size === 0) throw new HttpError(422, 'invalid', 'The file is empty.', { file: 'The file is empty.' });
   if (!TYPES[type]!.matches(file.buffer.subarray(0, 4096))) {
-    throw new HttpError(415, 'unsupported_type', `The file is named ${ext} but its content is not a ${type.toUpperCase()} file.`, { file: 'Content does not match the file type.' });
+    throw new HttpError(415, 'unsupported_type', `The file is named ${ext} but its content is not a ${type.toUpperCase()} file.`, {
+      file: 'Content does not match the file type.',
+    });
   }
   return { type, mime: TYPES[type]!.mime };
 }
@@ -68,7 +83,10 @@ const MAX_NAME = 200;
 export function storedName(originalName: string): string {
   // Control characters (C0 and DEL) are dropped: a name is shown in headers and on screens.
   const name = Array.from(originalName)
-    .filter((ch) => { const c = ch.codePointAt(0)!; return c > 0x1f && c !== 0x7f; })
+    .filter((ch) => {
+      const c = ch.codePointAt(0)!;
+      return c > 0x1f && c !== 0x7f;
+    })
     .join('');
   if (name.length <= MAX_NAME) return name;
   const ext = path.extname(name).slice(0, 16);

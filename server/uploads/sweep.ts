@@ -23,7 +23,9 @@ export function sweepUploads(sqlite: Database.Database, uploadsDir: string): Swe
     }
   }
   if (!fs.existsSync(uploadsDir)) return result;
-  const referenced = new Set((sqlite.prepare('select distinct content_hash as h from attachments').all() as { h: string }[]).map((r) => r.h));
+  const referenced = new Set(
+    (sqlite.prepare('select distinct content_hash as h from attachments').all() as { h: string }[]).map((r) => r.h),
+  );
   for (const dir of fs.readdirSync(uploadsDir, { withFileTypes: true })) {
     if (!dir.isDirectory() || !/^[0-9a-f]{2}$/.test(dir.name)) continue;
     const folder = path.join(uploadsDir, dir.name);

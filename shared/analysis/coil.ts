@@ -463,9 +463,16 @@ export function fitCoil(input: CoilFitInput): CoilFit {
   const first = samples[0] as Sample;
   // A broken winding leaves only the capacitance (and leakage): capacitive at the lowest frequency.
   if (first.phase < -Math.PI / 4) {
-    flags.push({ code: 'open-coil', message: `The impedance is capacitive at ${first.frequency.toPrecision(3)} Hz (phase ${((first.phase * 180) / Math.PI).toFixed(1)}°): the coil looks open.` });
+    flags.push({
+      code: 'open-coil',
+      message: `The impedance is capacitive at ${first.frequency.toPrecision(3)} Hz (phase ${((first.phase * 180) / Math.PI).toFixed(1)}°): the coil looks open.`,
+    });
   }
-  if (!fit.converged) flags.push({ code: 'not-converged', message: `The fit did not converge after ${fit.iterations} iterations; treat the values as rough.` });
+  if (!fit.converged)
+    flags.push({
+      code: 'not-converged',
+      message: `The fit did not converge after ${fit.iterations} iterations; treat the values as rough.`,
+    });
   const last = samples[samples.length - 1] as Sample;
   if (f0 < first.frequency || f0 > last.frequency || start.peakIndex === samples.length - 1) {
     flags.push({
@@ -474,7 +481,10 @@ export function fitCoil(input: CoilFitInput): CoilFit {
     });
   }
   if (rmsLogMag > POOR_LOG_MAG || rmsPhaseDeg > POOR_PHASE_DEG) {
-    flags.push({ code: 'poor-fit', message: `The model fits poorly (RMS ${(rmsLogMag * 100).toPrecision(2)} % in magnitude, ${rmsPhaseDeg.toPrecision(2)}° in phase).` });
+    flags.push({
+      code: 'poor-fit',
+      message: `The model fits poorly (RMS ${(rmsLogMag * 100).toPrecision(2)} % in magnitude, ${rmsPhaseDeg.toPrecision(2)}° in phase).`,
+    });
   }
 
   return {
@@ -519,14 +529,20 @@ export function coilFlags(fit: Pick<CoilFit, 'R' | 'L' | 'Q' | 'flags'>, spec: C
   if (spec.dcr) {
     const dev = ((fit.R - spec.dcr.nominal) / spec.dcr.nominal) * 100;
     if (Math.abs(dev) > spec.dcr.tolerancePct) {
-      flags.push({ code: 'dcr-out-of-tolerance', message: `DCR ${formatValue(fit.R, 'Ω', { digits: 4 })} is ${formatPercent(dev)} from nominal ${formatValue(spec.dcr.nominal, 'Ω', { digits: 4 })} (±${spec.dcr.tolerancePct} %).` });
+      flags.push({
+        code: 'dcr-out-of-tolerance',
+        message: `DCR ${formatValue(fit.R, 'Ω', { digits: 4 })} is ${formatPercent(dev)} from nominal ${formatValue(spec.dcr.nominal, 'Ω', { digits: 4 })} (±${spec.dcr.tolerancePct} %).`,
+      });
     }
   }
   let shorted = false;
   if (spec.inductance) {
     const dev = ((fit.L - spec.inductance.nominal) / spec.inductance.nominal) * 100;
     if (Math.abs(dev) > spec.inductance.tolerancePct) {
-      flags.push({ code: 'inductance-out-of-tolerance', message: `L ${formatValue(fit.L, 'H', { digits: 4 })} is ${formatPercent(dev)} from nominal ${formatValue(spec.inductance.nominal, 'H', { digits: 4 })} (±${spec.inductance.tolerancePct} %).` });
+      flags.push({
+        code: 'inductance-out-of-tolerance',
+        message: `L ${formatValue(fit.L, 'H', { digits: 4 })} is ${formatPercent(dev)} from nominal ${formatValue(spec.inductance.nominal, 'H', { digits: 4 })} (±${spec.inductance.tolerancePct} %).`,
+      });
     }
     if (-dev > Math.max(3 * spec.inductance.tolerancePct, SHORT_L_MIN_DROP_PCT)) shorted = true;
   }

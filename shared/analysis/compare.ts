@@ -64,7 +64,7 @@ export function rotationGrid(n = 101): number[] {
 export function interpolateOnGrid(curve: { x: readonly number[]; y: readonly number[] }, grid: readonly number[]): (number | null)[] {
   const xs: number[] = [];
   const ys: number[] = [];
-  for (let i = 0; i < curve.x.length; ) {
+  for (let i = 0; i < curve.x.length;) {
     const x = curve.x[i]!;
     let sum = 0;
     let k = 0;
@@ -168,8 +168,12 @@ export interface CompareResult {
 
 /** The group a pot belongs to, with a label for people. */
 export function groupOf(pot: ComparePot, groupBy: GroupBy): { key: string; label: string } {
-  if (groupBy === 'lot') return pot.lotId !== null ? { key: `lot:${pot.lotId}`, label: pot.lotCode ?? `Lot ${pot.lotId}` } : { key: 'lot:none', label: 'No lot' };
-  if (groupBy === 'supplier') return pot.supplier ? { key: `supplier:${pot.supplier}`, label: pot.supplier } : { key: 'supplier:none', label: 'No supplier' };
+  if (groupBy === 'lot')
+    return pot.lotId !== null
+      ? { key: `lot:${pot.lotId}`, label: pot.lotCode ?? `Lot ${pot.lotId}` }
+      : { key: 'lot:none', label: 'No lot' };
+  if (groupBy === 'supplier')
+    return pot.supplier ? { key: `supplier:${pot.supplier}`, label: pot.supplier } : { key: 'supplier:none', label: 'No supplier' };
   return { key: 'all', label: 'All pots' };
 }
 
@@ -228,7 +232,16 @@ export interface LoadModel {
 /** Pickup → volume pot (the pot's fitted law and total) → cable C ∥ amplifier R. */
 export function volumeNetlist(pickup: PickupModel, pot: { R: number; law: TaperLaw }, load: LoadModel): Netlist {
   const parts: Netlist['parts'] = [
-    { kind: 'pickup', id: 'pickup', hot: 'hot', cold: GROUND, R: pickup.R, L: pickup.L, C: pickup.C, ...(pickup.Rp ? { Rp: pickup.Rp } : {}) },
+    {
+      kind: 'pickup',
+      id: 'pickup',
+      hot: 'hot',
+      cold: GROUND,
+      R: pickup.R,
+      L: pickup.L,
+      C: pickup.C,
+      ...(pickup.Rp ? { Rp: pickup.Rp } : {}),
+    },
     { kind: 'pot', id: 'volume', a: GROUND, b: 'hot', w: OUTPUT, R: pot.R, law: pot.law, knob: 'volume' },
     { kind: 'resistor', id: 'amp', a: OUTPUT, b: GROUND, R: load.ampR },
   ];
@@ -312,7 +325,10 @@ export interface LoadedMatch {
  * first. It does not promise the largest possible number of sets (that is a maximum matching / set
  * packing problem); it promises that each set taken was the tightest available at its turn.
  */
-export function matchLoadedTapers(curves: readonly (readonly number[])[], options: { toleranceDb: number; setSize: number; floorDb?: number }): LoadedMatch[] {
+export function matchLoadedTapers(
+  curves: readonly (readonly number[])[],
+  options: { toleranceDb: number; setSize: number; floorDb?: number },
+): LoadedMatch[] {
   const { toleranceDb, setSize } = options;
   const floorDb = options.floorDb ?? -40;
   if (!(toleranceDb > 0)) throw new RangeError('The tolerance must be more than 0 dB.');

@@ -42,7 +42,9 @@ export function judgeReading(
   opts: { profile?: ProfileSpec | null; accuracy?: Accuracy | null; displayCounts?: number | null } = {},
 ): ReadingJudgement | null {
   const unit = QUANTITY_UNIT[reading.quantity];
-  const uncertainty = opts.accuracy ? instrumentUncertainty(reading.value, accuracyAt(reading.value, opts.accuracy, opts.displayCounts)) : null;
+  const uncertainty = opts.accuracy
+    ? instrumentUncertainty(reading.value, accuracyAt(reading.value, opts.accuracy, opts.displayCounts))
+    : null;
   const rules = opts.profile?.rules ?? {};
 
   if (reading.quantity === nominalQuantity(part.kind) && part.nominal != null) {
@@ -50,15 +52,29 @@ export function judgeReading(
     if (tolerancePct == null) return null;
     const { lower, upper } = limitsFromTolerance(part.nominal, tolerancePct);
     const source = part.tolerancePct != null ? `part tolerance ±${tolerancePct} %` : `profile "${opts.profile!.name}"`;
-    return { ...judge({ value: reading.value, nominal: part.nominal, lower, upper, uncertainty, unit, quantity: reading.quantity }), source };
+    return {
+      ...judge({ value: reading.value, nominal: part.nominal, lower, upper, uncertainty, unit, quantity: reading.quantity }),
+      source,
+    };
   }
   if (reading.quantity === 'dissipation' && rules.dissipationMax != null) {
-    return { ...judge({ value: reading.value, lower: 0, upper: rules.dissipationMax, uncertainty, unit, quantity: reading.quantity }), source: `profile "${opts.profile!.name}"` };
+    return {
+      ...judge({ value: reading.value, lower: 0, upper: rules.dissipationMax, uncertainty, unit, quantity: reading.quantity }),
+      source: `profile "${opts.profile!.name}"`,
+    };
   }
   if (reading.quantity === 'esr' && rules.esrMax != null) {
-    return { ...judge({ value: reading.value, lower: 0, upper: rules.esrMax, uncertainty, unit, quantity: reading.quantity }), source: `profile "${opts.profile!.name}"` };
+    return {
+      ...judge({ value: reading.value, lower: 0, upper: rules.esrMax, uncertainty, unit, quantity: reading.quantity }),
+      source: `profile "${opts.profile!.name}"`,
+    };
   }
-  if (reading.quantity === 'inductance' && part.kind === 'pickup' && rules.inductanceNominal != null && rules.inductanceTolerancePct != null) {
+  if (
+    reading.quantity === 'inductance' &&
+    part.kind === 'pickup' &&
+    rules.inductanceNominal != null &&
+    rules.inductanceTolerancePct != null
+  ) {
     const { lower, upper } = limitsFromTolerance(rules.inductanceNominal, rules.inductanceTolerancePct);
     return {
       ...judge({ value: reading.value, nominal: rules.inductanceNominal, lower, upper, uncertainty, unit, quantity: reading.quantity }),

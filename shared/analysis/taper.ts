@@ -64,12 +64,7 @@ export interface TaperCandidate {
 }
 
 export interface TaperFlag {
-  code:
-    | 'total-out-of-tolerance'
-    | 'law-outside-profile'
-    | 'm-outside-profile'
-    | 'end-resistance-high'
-    | 'non-monotonic';
+  code: 'total-out-of-tolerance' | 'law-outside-profile' | 'm-outside-profile' | 'end-resistance-high' | 'non-monotonic';
   message: string;
 }
 
@@ -357,8 +352,15 @@ export function fitTaper(input: TaperInput): TaperFit {
   }
   if (profile?.maxEndResistance !== undefined) {
     const limit = profile.maxEndResistance;
-    const high = [first.resistance > limit ? `start ${formatValue(first.resistance, 'Ω')}` : null, end !== null && end > limit ? `end ${formatValue(end, 'Ω')}` : null].filter(Boolean);
-    if (high.length > 0) flags.push({ code: 'end-resistance-high', message: `End resistance too high (${high.join(', ')}; limit ${formatValue(limit, 'Ω')}).` });
+    const high = [
+      first.resistance > limit ? `start ${formatValue(first.resistance, 'Ω')}` : null,
+      end !== null && end > limit ? `end ${formatValue(end, 'Ω')}` : null,
+    ].filter(Boolean);
+    if (high.length > 0)
+      flags.push({
+        code: 'end-resistance-high',
+        message: `End resistance too high (${high.join(', ')}; limit ${formatValue(limit, 'Ω')}).`,
+      });
   }
   if (monotonicBreaks.length > 0) {
     flags.push({

@@ -182,7 +182,12 @@ export function judge(input: JudgeInput): Verdict {
     const below = value < lower;
     const by = formatValue(below ? lower - value : value - upper, unit);
     const limName = below ? `the lower limit ${formatValue(lower, unit)}` : `the upper limit ${formatValue(upper, unit)}`;
-    return { ...base, verdict: 'fail', rule: 'simple', reason: `${head}, outside ${lim}: ${below ? 'below' : 'above'} ${limName} by ${by}${note}` };
+    return {
+      ...base,
+      verdict: 'fail',
+      rule: 'simple',
+      reason: `${head}, outside ${lim}: ${below ? 'below' : 'above'} ${limName} by ${by}${note}`,
+    };
   }
 
   const u = formatValue(U, unit);

@@ -127,7 +127,12 @@ export const CROSSFADE_SECONDS = 0.025;
  * previous one; both outputs come from the same input, so the sum of the two gains stays 1.
  * Every track must be as long as the first; the output is as long too.
  */
-export function renderSegments(tracks: readonly ArrayLike<number>[], segments: readonly FilterSegment[], sampleRate: number, fadeSamples = Math.round(CROSSFADE_SECONDS * sampleRate)): Float32Array {
+export function renderSegments(
+  tracks: readonly ArrayLike<number>[],
+  segments: readonly FilterSegment[],
+  sampleRate: number,
+  fadeSamples = Math.round(CROSSFADE_SECONDS * sampleRate),
+): Float32Array {
   const length = tracks[0]?.length ?? 0;
   const out = new Float32Array(length);
   const sorted = [...segments].sort((a, b) => a.at - b.at);

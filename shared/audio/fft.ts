@@ -77,7 +77,14 @@ export class RealFft {
    * Two inverses in one complex transform: x from (aRe, aIm) into outA and y from (bRe, bIm) into
    * outB, both Hermitian half spectra. Uses IDFT(X + jY) = x + jy for real x and y.
    */
-  inverse2(aRe: ArrayLike<number>, aIm: ArrayLike<number>, bRe: ArrayLike<number>, bIm: ArrayLike<number>, outA: Float64Array, outB: Float64Array): void {
+  inverse2(
+    aRe: ArrayLike<number>,
+    aIm: ArrayLike<number>,
+    bRe: ArrayLike<number>,
+    bIm: ArrayLike<number>,
+    outA: Float64Array,
+    outB: Float64Array,
+  ): void {
     const n = this.size;
     const c = this.complex;
     const h = n / 2;

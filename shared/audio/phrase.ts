@@ -96,7 +96,15 @@ function midiToHz(midi: number): number {
  * One plucked note, `length` samples, observed at the bridge end of the string (before any
  * pickup comb), written into `s` from index 0.
  */
-function pluck(s: Float64Array, length: number, f0: number, velocity: number, sampleRate: number, pluckPosition: number, random: () => number): void {
+function pluck(
+  s: Float64Array,
+  length: number,
+  f0: number,
+  velocity: number,
+  sampleRate: number,
+  pluckPosition: number,
+  random: () => number,
+): void {
   const period = sampleRate / f0;
   // loop delay: N samples of line + 1/2 of the two-point average + the all-pass fraction (Jaffe and Smith)
   let n = Math.floor(period - 0.5);

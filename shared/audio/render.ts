@@ -10,7 +10,12 @@ export const MAX_CHAIN_BOOST_DB = 12;
  * The channels through `design`; with `chain` (how the recording was made), through
  * H(design)/H(chain) with the boost limited to +12 dB, so the pickup is not counted twice.
  */
-export function renderChannels(channels: readonly Float32Array[], sampleRate: number, design: ResponseFunction, chain?: ResponseFunction): Float32Array[] {
+export function renderChannels(
+  channels: readonly Float32Array[],
+  sampleRate: number,
+  design: ResponseFunction,
+  chain?: ResponseFunction,
+): Float32Array[] {
   const response = chain ? ratioResponse(design, chain, MAX_CHAIN_BOOST_DB) : design;
   const filter = prepareFilter(impulseResponse(response, sampleRate));
   return channels.map((c) => convolve(c, filter));
@@ -20,7 +25,11 @@ export function renderChannels(channels: readonly Float32Array[], sampleRate: nu
  * The built-in phrase through a whole instrument: track k (the string heard at pickup k's place)
  * through pickup k's own transfer, the results summed (mono), the length kept.
  */
-export function renderPickupTracks(tracks: readonly Float32Array[], sampleRate: number, pickups: readonly ResponseFunction[]): Float32Array {
+export function renderPickupTracks(
+  tracks: readonly Float32Array[],
+  sampleRate: number,
+  pickups: readonly ResponseFunction[],
+): Float32Array {
   if (tracks.length !== pickups.length) throw new Error('renderPickupTracks: one track per pickup');
   const length = tracks[0]?.length ?? 0;
   const out = new Float32Array(length);

@@ -41,7 +41,15 @@ interface FmtChunk {
 }
 
 /** Reads the header only: sample rate, channel count, frame count (for a size check before decoding). */
-export function readWavHeader(bytes: Uint8Array): { sampleRate: number; channels: number; frames: number; format: WavSampleFormat; extensible: boolean; dataOffset: number; dataBytes: number } {
+export function readWavHeader(bytes: Uint8Array): {
+  sampleRate: number;
+  channels: number;
+  frames: number;
+  format: WavSampleFormat;
+  extensible: boolean;
+  dataOffset: number;
+  dataBytes: number;
+} {
   if (bytes.length < 12 || ascii(bytes, 0) !== 'RIFF' || ascii(bytes, 8) !== 'WAVE') {
     throw new WavError('The file is not a WAV file (it does not start with RIFF…WAVE).');
   }
@@ -65,7 +73,8 @@ export function readWavHeader(bytes: Uint8Array): { sampleRate: number; channels
   else if (code === PCM && fmt.bitsPerSample === 24) format = 'pcm24';
   else if (code === FLOAT && fmt.bitsPerSample === 32) format = 'float32';
   else {
-    const what = code === PCM ? `${fmt.bitsPerSample}-bit PCM` : code === FLOAT ? `${fmt.bitsPerSample}-bit floating point` : `format code ${code}`;
+    const what =
+      code === PCM ? `${fmt.bitsPerSample}-bit PCM` : code === FLOAT ? `${fmt.bitsPerSample}-bit floating point` : `format code ${code}`;
     throw new WavError(`The WAV file holds ${what}; use 16- or 24-bit PCM or 32-bit floating point.`);
   }
   if (fmt.numChannels < 1 || fmt.numChannels > WAV_LIMITS.maxChannels) {

@@ -114,7 +114,11 @@ export function bleedFigures(
   const values = { ...config.values };
   for (const key of keys.c) if (bleed.bleedC !== undefined) values[key] = bleed.bleedC;
   for (const key of keys.r) if (bleed.bleedR !== undefined) values[key] = bleed.bleedR;
-  return figures(levelsOf(layout, { ...config, values, options: { ...config.options, bleed: bleed.topology } }, knobs, volumes), ref, weight);
+  return figures(
+    levelsOf(layout, { ...config, values, options: { ...config.options, bleed: bleed.topology } }, knobs, volumes),
+    ref,
+    weight,
+  );
 }
 
 /**

@@ -160,7 +160,14 @@ interface CoilDefaults {
 function pickupValues(prefix: string, prefixName: string, d: CoilDefaults): LayoutValueDef[] {
   return [
     r(key(prefix, 'pickupR'), label(prefixName, 'DC resistance'), d.R),
-    { key: key(prefix, 'pickupL'), name: label(prefixName, 'inductance'), quantity: 'inductance', unit: 'H', default: d.L, range: 'positive' },
+    {
+      key: key(prefix, 'pickupL'),
+      name: label(prefixName, 'inductance'),
+      quantity: 'inductance',
+      unit: 'H',
+      default: d.L,
+      range: 'positive',
+    },
     c(key(prefix, 'pickupC'), label(prefixName, 'self-capacitance'), d.C),
     r(key(prefix, 'pickupRp'), label(prefixName, 'loss resistance (parallel)'), null),
   ];
@@ -195,13 +202,27 @@ function toneValues(prefix: string, prefixName: string): LayoutValueDef[] {
  * are a few kΩ to tens of kΩ; the user should enter the pedal's own figure).
  */
 export const LOAD_VALUES: readonly LayoutValueDef[] = [
-  { key: 'cableCapPerMetre', name: 'Cable capacitance per metre', quantity: 'capacitance-per-length', unit: 'F/m', default: D.cableCapPerMetre, range: 'non-negative' },
-  { key: 'cableLength', name: 'Cable length (to the amplifier or pedal)', quantity: 'length', unit: 'm', default: D.cableLength, range: 'non-negative' },
+  {
+    key: 'cableCapPerMetre',
+    name: 'Cable capacitance per metre',
+    quantity: 'capacitance-per-length',
+    unit: 'F/m',
+    default: D.cableCapPerMetre,
+    range: 'non-negative',
+  },
+  {
+    key: 'cableLength',
+    name: 'Cable length (to the amplifier or pedal)',
+    quantity: 'length',
+    unit: 'm',
+    default: D.cableLength,
+    range: 'non-negative',
+  },
   r('ampR', 'Amplifier input resistance', D.ampR),
   c('ampC', 'Amplifier input capacitance', 0, 'non-negative'),
   r('bufferR', 'Buffered pedal input resistance', 1e6),
   { key: 'cableBeforeBuffer', name: 'Cable before the buffer', quantity: 'length', unit: 'm', default: 3, range: 'non-negative' },
-  r('pedalR', 'Low-impedance pedal input resistance (from memory; enter your pedal\'s)', 10e3),
+  r('pedalR', "Low-impedance pedal input resistance (from memory; enter your pedal's)", 10e3),
 ];
 
 // Pickup defaults of our own choosing (common practice, from memory): neck pickups are wound a
@@ -239,7 +260,8 @@ export const LAYOUTS: readonly LayoutDef[] = [
   {
     id: 'two-pickups-3way',
     name: 'Two pickups, three-way selector',
-    description: 'Neck and bridge pickups, each through its own volume and tone; the selector joins the volume outputs (neck, both, bridge).',
+    description:
+      'Neck and bridge pickups, each through its own volume and tone; the selector joins the volume outputs (neck, both, bridge).',
     pickups: [
       { id: 'neck', name: 'Neck', coils: [] },
       { id: 'bridge', name: 'Bridge', coils: [] },
@@ -257,7 +279,14 @@ export const LAYOUTS: readonly LayoutDef[] = [
       { id: 'neck.tone', name: 'Neck tone' },
       { id: 'bridge.tone', name: 'Bridge tone' },
     ],
-    options: [OPTION_DEFS.bleed, OPTION_DEFS.toneWiring, OPTION_DEFS.toneNetwork, OPTION_DEFS.volumeWiring, OPTION_DEFS.phase, OPTION_DEFS.load],
+    options: [
+      OPTION_DEFS.bleed,
+      OPTION_DEFS.toneWiring,
+      OPTION_DEFS.toneNetwork,
+      OPTION_DEFS.volumeWiring,
+      OPTION_DEFS.phase,
+      OPTION_DEFS.load,
+    ],
     values: [
       ...pickupValues('neck', 'Neck pickup', NECK_2),
       ...pickupValues('bridge', 'Bridge pickup', BRIDGE_2),
@@ -271,7 +300,8 @@ export const LAYOUTS: readonly LayoutDef[] = [
   {
     id: 'three-pickups-5way',
     name: 'Three pickups, five-way selector',
-    description: 'Neck, middle and bridge pickups joined by the selector ahead of one master volume; the first tone serves the neck pickup, the second the middle one (and the bridge when chosen).',
+    description:
+      'Neck, middle and bridge pickups joined by the selector ahead of one master volume; the first tone serves the neck pickup, the second the middle one (and the bridge when chosen).',
     pickups: [
       { id: 'neck', name: 'Neck', coils: [] },
       { id: 'middle', name: 'Middle', coils: [] },
@@ -291,7 +321,14 @@ export const LAYOUTS: readonly LayoutDef[] = [
       { id: 'tone1', name: 'Tone 1 (neck)' },
       { id: 'tone2', name: 'Tone 2 (middle)' },
     ],
-    options: [OPTION_DEFS.bleed, OPTION_DEFS.toneWiring, OPTION_DEFS.toneNetwork, OPTION_DEFS.phase, OPTION_DEFS.tone2Serves, OPTION_DEFS.load],
+    options: [
+      OPTION_DEFS.bleed,
+      OPTION_DEFS.toneWiring,
+      OPTION_DEFS.toneNetwork,
+      OPTION_DEFS.phase,
+      OPTION_DEFS.tone2Serves,
+      OPTION_DEFS.load,
+    ],
     values: [
       ...pickupValues('neck', 'Neck pickup', NECK_3),
       ...pickupValues('middle', 'Middle pickup', MIDDLE_3),
@@ -305,7 +342,8 @@ export const LAYOUTS: readonly LayoutDef[] = [
   {
     id: 'dual-coil',
     name: 'Dual-coil pickup',
-    description: 'One pickup of two coils, switched in series, in parallel, to one coil, or in series with one coil reversed; one volume and one tone.',
+    description:
+      'One pickup of two coils, switched in series, in parallel, to one coil, or in series with one coil reversed; one volume and one tone.',
     pickups: [
       {
         id: 'pickup',
@@ -322,7 +360,13 @@ export const LAYOUTS: readonly LayoutDef[] = [
       { id: 'tone', name: 'Tone' },
     ],
     options: [OPTION_DEFS.bleed, OPTION_DEFS.toneWiring, OPTION_DEFS.toneNetwork, OPTION_DEFS.coils, OPTION_DEFS.load],
-    values: [...pickupValues('north', 'North coil', COIL), ...pickupValues('south', 'South coil', COIL), ...volumeValues('', ''), ...toneValues('', ''), ...LOAD_VALUES],
+    values: [
+      ...pickupValues('north', 'North coil', COIL),
+      ...pickupValues('south', 'South coil', COIL),
+      ...volumeValues('', ''),
+      ...toneValues('', ''),
+      ...LOAD_VALUES,
+    ],
   },
 ];
 
@@ -343,7 +387,7 @@ function lawProblem(v: unknown): string | null {
   const l = v as { kind: unknown; m?: unknown };
   if (l.kind === 'linear') return null;
   if (l.kind !== 'audio' && l.kind !== 'reverse' && l.kind !== 'two-segment') return 'Unknown taper law.';
-  if (typeof l.m !== 'number' || !(l.m > 0 && l.m < 1)) return 'The law\'s mid-rotation value m must lie between 0 and 1.';
+  if (typeof l.m !== 'number' || !(l.m > 0 && l.m < 1)) return "The law's mid-rotation value m must lie between 0 and 1.";
   return null;
 }
 
@@ -365,7 +409,8 @@ export function resolveLayoutConfig(
   for (const [id, choice] of Object.entries(input.options ?? {})) {
     const def = layout.options.find((o) => o.id === id);
     if (!def) problems.push({ path: `options.${id}`, message: `This layout has no option "${id}".` });
-    else if (!def.choices.some((ch) => ch.id === choice)) problems.push({ path: `options.${id}`, message: `Choose one of ${def.choices.map((ch) => ch.id).join(', ')}.` });
+    else if (!def.choices.some((ch) => ch.id === choice))
+      problems.push({ path: `options.${id}`, message: `Choose one of ${def.choices.map((ch) => ch.id).join(', ')}.` });
     else options[id] = choice;
   }
   for (const id of Object.keys(input.knobs ?? {})) {
@@ -546,7 +591,10 @@ export function buildLayoutNetlist(layout: LayoutDef, config: LayoutConfig): Net
       } else {
         const coils = o.coils ?? 'series';
         if (coils === 'parallel') {
-          parts.push(pickupPart(v, 'north', 'north', 'hot', GROUND, 1, 'pickup'), pickupPart(v, 'south', 'south', 'hot', GROUND, 1, 'pickup'));
+          parts.push(
+            pickupPart(v, 'north', 'north', 'hot', GROUND, 1, 'pickup'),
+            pickupPart(v, 'south', 'south', 'hot', GROUND, 1, 'pickup'),
+          );
         } else if (coils === 'single') {
           parts.push(pickupPart(v, 'north', 'north', 'hot', GROUND, 1, 'pickup'));
         } else {

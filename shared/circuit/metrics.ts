@@ -3,7 +3,16 @@
 // retention and an interaction index. Every figure at a named frequency (1 kHz, 200 Hz, 3 kHz) and
 // every refined peak or corner is computed with extra exact solves, not read off the curve.
 import type { Knobs, Netlist } from './netlist';
-import { compileHarness, prepareFrequencies, setKnobs, solve, solveGroups, solvePoint, solvePrepared, type CompiledHarness } from './solver';
+import {
+  compileHarness,
+  prepareFrequencies,
+  setKnobs,
+  solve,
+  solveGroups,
+  solvePoint,
+  solvePrepared,
+  type CompiledHarness,
+} from './solver';
 
 /** n frequencies from fStart to fStop, equally spaced on a log axis (both ends included). */
 export function logFrequencies(fStart = 20, fStop = 20000, count = 151): Float64Array {

@@ -166,7 +166,8 @@ export function validateNetlist(netlist: Netlist): string[] {
         nonNegative(p.id, 'L', p.L);
         nonNegative(p.id, 'C', p.C);
         positive(p.id, 'Rp', p.Rp);
-        if (p.emf !== undefined && !(Number.isFinite(p.emf) && p.emf !== 0)) problems.push(`${p.id}: emf must be a finite non-zero number (got ${p.emf})`);
+        if (p.emf !== undefined && !(Number.isFinite(p.emf) && p.emf !== 0))
+          problems.push(`${p.id}: emf must be a finite non-zero number (got ${p.emf})`);
         if (p.hot === p.cold) problems.push(`${p.id}: hot and cold are the same node`);
         nodes.add(p.hot).add(p.cold);
         break;

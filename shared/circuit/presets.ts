@@ -125,12 +125,7 @@ function plainTone(v: HarnessValues, from: string): Part[] {
   ];
 }
 
-function preset(
-  id: HarnessPresetId,
-  name: string,
-  description: string,
-  build: (v: HarnessValues) => Part[],
-): HarnessPreset {
+function preset(id: HarnessPresetId, name: string, description: string, build: (v: HarnessValues) => Part[]): HarnessPreset {
   return {
     id,
     name,
@@ -156,13 +151,13 @@ export const HARNESS_PRESETS: readonly HarnessPreset[] = [
   preset(
     'bleed-cap',
     'Treble bleed: capacitor',
-    'Independent tone plus a capacitor from the volume pot\'s input end to its wiper, letting high frequencies bypass the pot as the volume is turned down.',
+    "Independent tone plus a capacitor from the volume pot's input end to its wiper, letting high frequencies bypass the pot as the volume is turned down.",
     (v) => [...plainTone(v, 'hot'), { kind: 'capacitor', id: 'bleed-cap', a: 'hot', b: OUTPUT, C: v.bleedC }],
   ),
   preset(
     'bleed-cap-parallel-r',
     'Treble bleed: capacitor with parallel resistor',
-    'Independent tone plus a treble-bleed capacitor with a resistor in parallel, both from the volume pot\'s input end to its wiper.',
+    "Independent tone plus a treble-bleed capacitor with a resistor in parallel, both from the volume pot's input end to its wiper.",
     (v) => [
       ...plainTone(v, 'hot'),
       { kind: 'capacitor', id: 'bleed-cap', a: 'hot', b: OUTPUT, C: v.bleedC },
@@ -172,7 +167,7 @@ export const HARNESS_PRESETS: readonly HarnessPreset[] = [
   preset(
     'bleed-cap-series-r',
     'Treble bleed: capacitor and resistor in series',
-    'Independent tone plus a treble-bleed capacitor in series with a resistor, from the volume pot\'s input end to its wiper.',
+    "Independent tone plus a treble-bleed capacitor in series with a resistor, from the volume pot's input end to its wiper.",
     (v) => [
       ...plainTone(v, 'hot'),
       { kind: 'capacitor', id: 'bleed-cap', a: 'hot', b: 'bleed', C: v.bleedC },
@@ -192,7 +187,7 @@ export const HARNESS_PRESETS: readonly HarnessPreset[] = [
   preset(
     'dual-cap-tone',
     'Dual-capacitor tone network',
-    'The pickup hot enters the tone pot\'s track at the end whose resistance to the wiper grows as the knob turns up (full at 10). The rest of the track, from the wiper to the far end, shrinks to zero at 10 and has a second capacitor across it; from the far end a floor resistor and the tone capacitor go to ground. At 10 this is the plain tone branch (with the floor resistor); turning down brings the second capacitor in series with the tone capacitor, a smaller total capacitance and so a higher corner.',
+    "The pickup hot enters the tone pot's track at the end whose resistance to the wiper grows as the knob turns up (full at 10). The rest of the track, from the wiper to the far end, shrinks to zero at 10 and has a second capacitor across it; from the far end a floor resistor and the tone capacitor go to ground. At 10 this is the plain tone branch (with the floor resistor); turning down brings the second capacitor in series with the tone capacitor, a smaller total capacitance and so a higher corner.",
     (v) => [
       { kind: 'pot', id: 'tone', a: 'hot', w: 'tone', b: 'tone-far', R: v.toneR, law: v.toneLaw, knob: 'tone' },
       { kind: 'capacitor', id: 'second-cap', a: 'tone', b: 'tone-far', C: v.secondC },
@@ -233,11 +228,32 @@ export const HARNESS_VALUE_FIELDS: readonly HarnessValueField[] = [
   { key: 'toneR', label: 'Tone pot', quantity: 'resistance', unit: 'Ω', optional: false, presets: ALL },
   { key: 'toneLaw', label: 'Tone pot law', quantity: 'law', unit: '', optional: false, presets: ALL },
   { key: 'toneC', label: 'Tone capacitor', quantity: 'capacitance', unit: 'F', optional: false, presets: ALL },
-  { key: 'bleedC', label: 'Treble-bleed capacitor', quantity: 'capacitance', unit: 'F', optional: false, presets: ['bleed-cap', ...BLEED_R] },
+  {
+    key: 'bleedC',
+    label: 'Treble-bleed capacitor',
+    quantity: 'capacitance',
+    unit: 'F',
+    optional: false,
+    presets: ['bleed-cap', ...BLEED_R],
+  },
   { key: 'bleedR', label: 'Treble-bleed resistor', quantity: 'resistance', unit: 'Ω', optional: false, presets: BLEED_R },
-  { key: 'floorR', label: 'Tone floor resistor', quantity: 'resistance', unit: 'Ω', optional: false, presets: ['tone-floor-resistor', 'dual-cap-tone'] },
+  {
+    key: 'floorR',
+    label: 'Tone floor resistor',
+    quantity: 'resistance',
+    unit: 'Ω',
+    optional: false,
+    presets: ['tone-floor-resistor', 'dual-cap-tone'],
+  },
   { key: 'secondC', label: 'Second tone capacitor', quantity: 'capacitance', unit: 'F', optional: false, presets: ['dual-cap-tone'] },
-  { key: 'cableCapPerMetre', label: 'Cable capacitance per metre', quantity: 'capacitance-per-length', unit: 'F/m', optional: false, presets: ALL },
+  {
+    key: 'cableCapPerMetre',
+    label: 'Cable capacitance per metre',
+    quantity: 'capacitance-per-length',
+    unit: 'F/m',
+    optional: false,
+    presets: ALL,
+  },
   { key: 'cableLength', label: 'Cable length', quantity: 'length', unit: 'm', optional: false, presets: ALL },
   { key: 'ampR', label: 'Amplifier input resistance', quantity: 'resistance', unit: 'Ω', optional: false, presets: ALL },
 ];

@@ -82,7 +82,9 @@ interface BatchScratch {
  */
 export class HarnessUnsolvableError extends Error {
   constructor() {
-    super('The circuit cannot be solved: some node has no connection to ground at one of the frequencies (check that every part is wired at both ends).');
+    super(
+      'The circuit cannot be solved: some node has no connection to ground at one of the frequencies (check that every part is wired at both ends).',
+    );
     this.name = 'HarnessUnsolvableError';
   }
 }
@@ -159,7 +161,12 @@ function partEdges(p: Part): [string, string][] {
     case 'pickup':
       return [[p.hot, p.cold]];
     case 'pot':
-      return p.b === undefined ? [[p.a, p.w]] : [[p.a, p.w], [p.w, p.b]];
+      return p.b === undefined
+        ? [[p.a, p.w]]
+        : [
+            [p.a, p.w],
+            [p.w, p.b],
+          ];
     default:
       return [[p.a, p.b]];
   }
@@ -790,12 +797,7 @@ export interface ComplexCurve {
  * The transfer V(out)/E at each frequency (Hz) for one knob setting. Pass `out` to reuse arrays
  * (each at least frequencies.length long) and avoid allocation.
  */
-export function solve(
-  compiled: CompiledHarness,
-  knobs: Knobs,
-  frequencies: ArrayLike<number>,
-  out?: ComplexCurve,
-): ComplexCurve {
+export function solve(compiled: CompiledHarness, knobs: Knobs, frequencies: ArrayLike<number>, out?: ComplexCurve): ComplexCurve {
   const m = frequencies.length;
   const res = out ?? { re: new Float64Array(m), im: new Float64Array(m) };
   if (res.re.length < m || res.im.length < m) throw new Error('solve: output arrays are shorter than the frequency list');

@@ -85,7 +85,9 @@ export function toSpiceNetlist(netlist: Netlist, knobs: Knobs, options: SpiceExp
         break;
       case 'pot': {
         const { aw, wb } = potHalves(p, knobs);
-        lines.push(`* pot ${p.id}: ${spiceNumber(p.R)} ohm at knob ${typeof p.knob === 'string' ? `${p.knob} ${knobSetting(p.knob, knobs)}` : p.knob.fixed}`);
+        lines.push(
+          `* pot ${p.id}: ${spiceNumber(p.R)} ohm at knob ${typeof p.knob === 'string' ? `${p.knob} ${knobSetting(p.knob, knobs)}` : p.knob.fixed}`,
+        );
         lines.push(`${el('R', `${p.id}_aw`)} ${node(p.a)} ${node(p.w)} ${spiceNumber(aw)}`);
         if (p.b !== undefined) lines.push(`${el('R', `${p.id}_wb`)} ${node(p.w)} ${node(p.b)} ${spiceNumber(wb)}`);
         break;
@@ -94,7 +96,9 @@ export function toSpiceNetlist(netlist: Netlist, knobs: Knobs, options: SpiceExp
         const emfNode = node(`${p.id}#emf`);
         const coilNode = node(`${p.id}#coil`);
         const emf = p.emf ?? 1;
-        lines.push(`* pickup ${p.id}${p.group !== undefined && p.group !== p.id ? ` (of ${p.group})` : ''}: EMF in series with R and L from cold to hot, C (and Rp) across${emf < 0 ? '; reversed' : ''}`);
+        lines.push(
+          `* pickup ${p.id}${p.group !== undefined && p.group !== p.id ? ` (of ${p.group})` : ''}: EMF in series with R and L from cold to hot, C (and Rp) across${emf < 0 ? '; reversed' : ''}`,
+        );
         // A reversed source is written as its magnitude at phase 180°.
         lines.push(`${el('V', p.id)} ${emfNode} ${node(p.cold)} DC 0 AC ${spiceNumber(Math.abs(emf))}${emf < 0 ? ' 180' : ''}`);
         // A zero L or C (an ideal resistive source) is left out rather than written as 0.

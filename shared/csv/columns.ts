@@ -158,14 +158,61 @@ export function splitHeader(header: string): HeaderParts {
 // practice): R1-2 / 1-W is lug 1 to wiper, R2-3 / W-3 wiper to lug 3, R1-3 end to end (the
 // sweep's own R13, which the taper fit prefers to any bench reading).
 const NAMES: Record<ColumnRole, ReadonlySet<string>> = {
-  rotation: new Set(['rot', 'rotation', 'rotationangle', 'angle', 'shaftangle', 'position', 'pos', 'travel', 'wiperposition', 'shaft', 'knob', 'turn']),
+  rotation: new Set([
+    'rot',
+    'rotation',
+    'rotationangle',
+    'angle',
+    'shaftangle',
+    'position',
+    'pos',
+    'travel',
+    'wiperposition',
+    'shaft',
+    'knob',
+    'turn',
+  ]),
   resistanceW3: new Set([
-    'rw3', 'rwiper3', 'rwiperto3', 'rwipertolug3', 'rwiperlug3', 'r23', 'r32', 'r3w', 'r2', 'resistancew3', 'resistancewiper3', 'rwl3',
-    'w3', '3w', '23', 'r2 3', 'r w 3',
+    'rw3',
+    'rwiper3',
+    'rwiperto3',
+    'rwipertolug3',
+    'rwiperlug3',
+    'r23',
+    'r32',
+    'r3w',
+    'r2',
+    'resistancew3',
+    'resistancewiper3',
+    'rwl3',
+    'w3',
+    '3w',
+    '23',
+    'r2 3',
+    'r w 3',
   ]),
   resistance: new Set([
-    'r', 'r1w', 'r1', 'r12', 'r21', 'rw1', 'rw', 'r1wiper', 'rwiper', 'r1towiper', 'rlug1wiper', 'rlug1w', 'resistance',
-    'res', 'resistance1w', 'rmeas', '1w', 'w1', '12', 'r1 2', 'r1 w',
+    'r',
+    'r1w',
+    'r1',
+    'r12',
+    'r21',
+    'rw1',
+    'rw',
+    'r1wiper',
+    'rwiper',
+    'r1towiper',
+    'rlug1wiper',
+    'rlug1w',
+    'resistance',
+    'res',
+    'resistance1w',
+    'rmeas',
+    '1w',
+    'w1',
+    '12',
+    'r1 2',
+    'r1 w',
   ]),
   total: new Set(['r13', 'r31', '13', 'r1 3', 'rtotal', 'total', 'rtot', 'endtoend', 'rendtoend', 'r1to3', 'rlug1lug3']),
   frequency: new Set(['f', 'freq', 'frequency', 'fr', 'frq']),
@@ -173,8 +220,42 @@ const NAMES: Record<ColumnRole, ReadonlySet<string>> = {
   phase: new Set(['phase', 'angle', 'θ', 'theta', 'phi', 'φ', 'ϕ', 'arg', 'argz', 'zphase', 'phasez', 'phaseangle', 'zθ', 'θz', 'zangle']),
   re: new Set(['re', 'rez', 'zre', 'real', 'realz', 'zreal', 'realpart', 'r', 'rs', 'resistance', 'res']),
   im: new Set(['im', 'imz', 'zim', 'imag', 'imagz', 'zimag', 'imaginary', 'imaginarypart', 'x', 'xs', 'reactance']),
-  item: new Set(['item', '#', 'no', 'nr', 'number', 'num', 'serial', 'serialno', 'serialnumber', 'sn', 'part', 'partno', 'id', 'index', 'idx', 'sample', 'label', 'itemno']),
-  value: new Set(['value', 'val', 'c', 'cs', 'cp', 'capacitance', 'r', 'rs', 'rp', 'resistance', 'reading', 'measured', 'meas', 'measurement']),
+  item: new Set([
+    'item',
+    '#',
+    'no',
+    'nr',
+    'number',
+    'num',
+    'serial',
+    'serialno',
+    'serialnumber',
+    'sn',
+    'part',
+    'partno',
+    'id',
+    'index',
+    'idx',
+    'sample',
+    'label',
+    'itemno',
+  ]),
+  value: new Set([
+    'value',
+    'val',
+    'c',
+    'cs',
+    'cp',
+    'capacitance',
+    'r',
+    'rs',
+    'rp',
+    'resistance',
+    'reading',
+    'measured',
+    'meas',
+    'measurement',
+  ]),
   second: new Set(['d', 'df', 'tanδ', 'tand', 'tandelta', 'tan', 'dissipation', 'dissipationfactor', 'esr', 'lossfactor']),
   testFrequency: new Set(['f', 'freq', 'frequency', 'testfreq', 'testfrequency', 'fr', 'frq']),
 };
@@ -311,7 +392,7 @@ export function roleWord(role: ColumnRole): string {
 }
 
 const DIMENSION_WORD: Record<UnitDimension, string> = {
-  'Ω': 'ohms',
+  Ω: 'ohms',
   F: 'farads',
   H: 'henries',
   Hz: 'hertz',
@@ -348,8 +429,7 @@ export function resolveColumns(header: string[], kind: TableKind, explicit?: Exp
       issues.push(csvIssue(null, null, `The mapping names the role "${role}", which a ${kind} file does not have.`));
       continue;
     }
-    const index =
-      typeof choice.column === 'number' ? choice.column : lowered.indexOf(String(choice.column).trim().toLowerCase());
+    const index = typeof choice.column === 'number' ? choice.column : lowered.indexOf(String(choice.column).trim().toLowerCase());
     if (!Number.isInteger(index) || index < 0 || index >= header.length) {
       issues.push(
         csvIssue(
@@ -374,9 +454,7 @@ export function resolveColumns(header: string[], kind: TableKind, explicit?: Exp
       unit = u;
     }
     if (!ROLE_DIMENSIONS[role].includes(unit.dimension)) {
-      issues.push(
-        csvIssue(null, h, `the unit "${unitText}" (${DIMENSION_WORD[unit.dimension]}) does not fit the ${roleWord(role)}.`),
-      );
+      issues.push(csvIssue(null, h, `the unit "${unitText}" (${DIMENSION_WORD[unit.dimension]}) does not fit the ${roleWord(role)}.`));
       continue;
     }
     for (const r of Object.keys(mapping) as ColumnRole[]) if (mapping[r]?.index === index) delete mapping[r];

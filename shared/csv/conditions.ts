@@ -71,7 +71,16 @@ const LOT_UNIT: Record<string, string> = { capacitance: 'F', resistance: 'Ω', i
 
 function engineering(value: number, unit: string): string {
   if (!Number.isFinite(value)) return String(value);
-  const prefixes: [number, string][] = [[1e9, 'G'], [1e6, 'M'], [1e3, 'k'], [1, ''], [1e-3, 'm'], [1e-6, 'µ'], [1e-9, 'n'], [1e-12, 'p']];
+  const prefixes: [number, string][] = [
+    [1e9, 'G'],
+    [1e6, 'M'],
+    [1e3, 'k'],
+    [1, ''],
+    [1e-3, 'm'],
+    [1e-6, 'µ'],
+    [1e-9, 'n'],
+    [1e-12, 'p'],
+  ];
   const abs = Math.abs(value);
   const [f, p] = prefixes.find(([f]) => abs >= f * 0.9995) ?? prefixes[prefixes.length - 1]!;
   return `${Number((value / f).toPrecision(4))} ${p}${unit}`;

@@ -165,7 +165,8 @@ export function createLotRowReader(header: string[], opts: LotReaderOptions): Lo
     if (freq) {
       const r = num(freq, cells, line, true);
       if (r !== null && typeof r === 'object') return r;
-      if (r !== null && r <= 0) return csvIssue(line, freq.header, `${cells[freq.index]!.trim()} is not a test frequency: it must be greater than zero.`);
+      if (r !== null && r <= 0)
+        return csvIssue(line, freq.header, `${cells[freq.index]!.trim()} is not a test frequency: it must be greater than zero.`);
       f = r;
     }
     return { item, value: v, second: s, frequency: f };
@@ -180,8 +181,7 @@ export function createLotRowReader(header: string[], opts: LotReaderOptions): Lo
 }
 
 export type SniffResult =
-  | { ok: true; header: string[]; headerLine: number; delimiter: string; decimalComma: boolean }
-  | { ok: false; issues: CsvIssue[] };
+  { ok: true; header: string[]; headerLine: number; delimiter: string; decimalComma: boolean } | { ok: false; issues: CsvIssue[] };
 
 /** How much of a streamed file to sniff: enough for any preamble and a few hundred rows. */
 export const SNIFF_BYTES = 16 * 1024;
@@ -278,7 +278,10 @@ export function parseLotRows(text: string, opts: ParseLotOptions): LotParseResul
     const c0 = cells[0]!.charCodeAt(0);
     if ((c0 === 35 || c0 === 47) && isCommentRow(cells)) continue; // '#' or '/'
     if (rows.length >= maxRows) {
-      return { ok: false, issues: [csvIssue(line, null, `the lot has more than ${maxRows.toLocaleString('en')} rows, the most one upload may hold.`)] };
+      return {
+        ok: false,
+        issues: [csvIssue(line, null, `the lot has more than ${maxRows.toLocaleString('en')} rows, the most one upload may hold.`)],
+      };
     }
     const r = reader.read(cells, line);
     if (isCsvIssue(r)) return { ok: false, issues: [r] };
@@ -289,7 +292,13 @@ export function parseLotRows(text: string, opts: ParseLotOptions): LotParseResul
   if (rows.length < minRows) {
     return {
       ok: false,
-      issues: [csvIssue(null, null, `The file has a header (line ${sniff.headerLine}) but ${rows.length === 0 ? 'no data rows' : `only ${rows.length} data row${rows.length === 1 ? '' : 's'}`}; at least ${minRows} ${minRows === 1 ? 'is' : 'are'} needed.`)],
+      issues: [
+        csvIssue(
+          null,
+          null,
+          `The file has a header (line ${sniff.headerLine}) but ${rows.length === 0 ? 'no data rows' : `only ${rows.length} data row${rows.length === 1 ? '' : 's'}`}; at least ${minRows} ${minRows === 1 ? 'is' : 'are'} needed.`,
+        ),
+      ],
     };
   }
   return { ok: true, rows, columns: reader.columns, secondQuantity: reader.secondQuantity, headerLine: sniff.headerLine };

@@ -223,9 +223,7 @@ function noHeaderIssue(rows: TableRow[], minRows: number): CsvIssue {
  * from the header's (those rows are left out of `rows`; the list is not capped). The sweep reader uses this to report ragged
  * rows together with the value problems of the other rows; readTable refuses the file outright.
  */
-export type ScanResult =
-  | (Extract<TableResult, { ok: true }> & { raggedIssues: CsvIssue[] })
-  | { ok: false; issues: CsvIssue[] };
+export type ScanResult = (Extract<TableResult, { ok: true }> & { raggedIssues: CsvIssue[] }) | { ok: false; issues: CsvIssue[] };
 
 /** A unit cell without its brackets: `(kΩ)` → `kΩ`. */
 function unitText(cell: string): string {
@@ -311,7 +309,11 @@ export function scanTable(text: string, opts: ReadTableOptions = {}): ScanResult
         }
       }
       ragged.push(
-        csvIssue(r.line, null, `the row has ${r.cells.length} cell${r.cells.length === 1 ? '' : 's'}, but the header (line ${headerRow.line}) has ${width}.${hint}`),
+        csvIssue(
+          r.line,
+          null,
+          `the row has ${r.cells.length} cell${r.cells.length === 1 ? '' : 's'}, but the header (line ${headerRow.line}) has ${width}.${hint}`,
+        ),
       );
     } else {
       good.push(r);
@@ -321,7 +323,11 @@ export function scanTable(text: string, opts: ReadTableOptions = {}): ScanResult
   if (data.length < minRows) {
     const only = data.length === 0 ? 'no data rows' : `only ${data.length} data row${data.length === 1 ? '' : 's'}`;
     issues.push(
-      csvIssue(null, null, `The file has a header (line ${headerRow.line}) but ${only}; at least ${minRows} ${minRows === 1 ? 'is' : 'are'} needed.`),
+      csvIssue(
+        null,
+        null,
+        `The file has a header (line ${headerRow.line}) but ${only}; at least ${minRows} ${minRows === 1 ? 'is' : 'are'} needed.`,
+      ),
     );
   }
   if (issues.length > 0) return { ok: false, issues: capIssues([...issues, ...ragged]) };

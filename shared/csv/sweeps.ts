@@ -121,7 +121,11 @@ function sortAndFindRepeats<T>(
     const cur = sorted[i]!;
     if (cur.x === prev.x) {
       issues.push(
-        csvIssue(cur.line, column, `the ${what} ${formatNumber(cur.x)}${unit} appears twice (also on line ${prev.line}); each point must be measured once.`),
+        csvIssue(
+          cur.line,
+          column,
+          `the ${what} ${formatNumber(cur.x)}${unit} appears twice (also on line ${prev.line}); each point must be measured once.`,
+        ),
       );
     }
   }
@@ -140,7 +144,11 @@ export function parseSweepCsv(text: string, kind: SweepKind, opts: SweepOptions 
     return {
       ok: false,
       issues: [
-        csvIssue(null, null, `The file has ${table.rows.length.toLocaleString('en')} data rows; a sweep may have at most ${maxRows.toLocaleString('en')}.`),
+        csvIssue(
+          null,
+          null,
+          `The file has ${table.rows.length.toLocaleString('en')} data rows; a sweep may have at most ${maxRows.toLocaleString('en')}.`,
+        ),
       ],
     };
   }
@@ -191,7 +199,8 @@ function readTaper(rows: TableRow[], mapping: ColumnMapping, decimalComma: boole
     const r3 = w3 ? w3.read(row, true) : null;
     if (w3 && r3 !== null && r3 < 0) w3.problem(row, `${formatNumber(r3 / w3.info.scale)} is negative; a resistance cannot be.`);
     const rt = r13 ? r13.read(row, true) : null;
-    if (r13 && rt !== null && !(rt > 0)) r13.problem(row, `${formatNumber(rt / r13.info.scale)} is not an end-to-end resistance: it must be greater than zero.`);
+    if (r13 && rt !== null && !(rt > 0))
+      r13.problem(row, `${formatNumber(rt / r13.info.scale)} is not an end-to-end resistance: it must be greater than zero.`);
     if (x === null || r === null || r < 0 || (r3 !== null && r3 < 0) || (rt !== null && !(rt > 0))) continue;
     const point: TaperPoint = { rotation: x, resistance: r };
     if (r3 !== null) point.resistanceW3 = r3;
@@ -222,7 +231,16 @@ function readTaper(rows: TableRow[], mapping: ColumnMapping, decimalComma: boole
   }
   const points = sortAndFindRepeats(inRange, mapping.rotation!.header, 'rotation', sign, issues);
   if (issues.length > 0) return { ok: false, issues: capIssues(issues) };
-  return { ok: true, kind: 'taper', points, rotationUnit: unit, columns: columnsUsed(mapping, ROLES_OF.taper), ignored: [], rowCount: rows.length, notes };
+  return {
+    ok: true,
+    kind: 'taper',
+    points,
+    rotationUnit: unit,
+    columns: columnsUsed(mapping, ROLES_OF.taper),
+    ignored: [],
+    rowCount: rows.length,
+    notes,
+  };
 }
 
 function readImpedance(rows: TableRow[], mapping: ColumnMapping, decimalComma: boolean, ragged: CsvIssue[]): ImpedanceSweepResult {

@@ -21,7 +21,7 @@ export interface CapacitorCode {
   letter: string | null;
 }
 
-const RKM_CAP_EXP: Readonly<Record<string, number>> = { p: -12, n: -9, u: -6, 'µ': -6, 'μ': -6, m: -3 };
+const RKM_CAP_EXP: Readonly<Record<string, number>> = { p: -12, n: -9, u: -6, µ: -6, μ: -6, m: -3 };
 
 export function decodeCapacitorCode(code: string, opts?: { thirdDigit89?: 'refuse' | 'fraction' }): CapacitorCode {
   const s = String(code ?? '').replace(/\s+/g, '');

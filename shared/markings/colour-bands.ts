@@ -12,19 +12,7 @@
 import { MarkingError } from './tolerance-letters';
 
 export type BandColour =
-  | 'black'
-  | 'brown'
-  | 'red'
-  | 'orange'
-  | 'yellow'
-  | 'green'
-  | 'blue'
-  | 'violet'
-  | 'grey'
-  | 'white'
-  | 'gold'
-  | 'silver'
-  | 'pink';
+  'black' | 'brown' | 'red' | 'orange' | 'yellow' | 'green' | 'blue' | 'violet' | 'grey' | 'white' | 'gold' | 'silver' | 'pink';
 
 /** Significant digit of each colour (gold, silver and pink carry none). */
 export const COLOUR_DIGIT: Readonly<Partial<Record<BandColour, number>>> = {
@@ -99,12 +87,21 @@ export interface ColourBandValue {
 
 /** Split "yellow violet orange gold" (spaces, commas, hyphens or slashes) and check the names. */
 export function parseColourNames(input: string | readonly string[]): BandColour[] {
-  const words = typeof input === 'string' ? input.trim().split(/[\s,;/-]+/).filter((w) => w !== '') : [...input];
+  const words =
+    typeof input === 'string'
+      ? input
+          .trim()
+          .split(/[\s,;/-]+/)
+          .filter((w) => w !== '')
+      : [...input];
   return words.map((w) => {
     const k = w.trim().toLowerCase();
     const colour = (ALIASES[k] ?? k) as BandColour;
     if (!(colour in COLOUR_MULTIPLIER_EXP)) {
-      throw new MarkingError(String(input), `"${w}" is not a resistor band colour (black, brown, red, orange, yellow, green, blue, violet, grey, white, gold, silver, pink).`);
+      throw new MarkingError(
+        String(input),
+        `"${w}" is not a resistor band colour (black, brown, red, orange, yellow, green, blue, violet, grey, white, gold, silver, pink).`,
+      );
     }
     return colour;
   });
@@ -118,12 +115,18 @@ export function decodeColourBands(input: string | readonly string[]): ColourBand
     return { nominal: 0, unit: 'Ω', tolerancePct: null, tcrPpmPerK: null, bands: 1 };
   }
   if (n < 3 || n > 6) {
-    throw new MarkingError(code, `${n} band${n === 1 ? '' : 's'} in "${code}": a resistor has 3, 4, 5 or 6 colour bands (or one black band for a zero-ohm link).`);
+    throw new MarkingError(
+      code,
+      `${n} band${n === 1 ? '' : 's'} in "${code}": a resistor has 3, 4, 5 or 6 colour bands (or one black band for a zero-ohm link).`,
+    );
   }
   const digitCount = n >= 5 ? 3 : 2;
   const first = bands[0]!;
   if (first === 'gold' || first === 'silver') {
-    throw new MarkingError(code, `"${code}" starts with ${first}, which is never a first band; the bands are probably read from the wrong end.`);
+    throw new MarkingError(
+      code,
+      `"${code}" starts with ${first}, which is never a first band; the bands are probably read from the wrong end.`,
+    );
   }
   let digits = '';
   for (let i = 0; i < digitCount; i++) {
@@ -150,7 +153,10 @@ export function decodeColourBands(input: string | readonly string[]): ColourBand
     }
     const t = COLOUR_TOLERANCE_PCT[tc];
     if (t === undefined) {
-      throw new MarkingError(code, `The tolerance band of "${code}" is ${tc}, which is not a tolerance colour (brown, red, green, blue, violet, gold, silver).`);
+      throw new MarkingError(
+        code,
+        `The tolerance band of "${code}" is ${tc}, which is not a tolerance colour (brown, red, green, blue, violet, gold, silver).`,
+      );
     }
     tolerancePct = t;
   }

@@ -62,7 +62,9 @@ export function decodeMarking(code: string): DecodedMarking {
   const amb = /^(\d{1,3})([KM])$/.exec(valueCode.replace(/\s+/g, ''));
   if (amb && first.kind === 'capacitor') {
     const nominal = Number(`${amb[1]}e${amb[2] === 'K' ? 3 : 6}`);
-    readings.push(reading('resistor', nominal, 'Ω', null, `resistor ${amb[1]} ${amb[2] === 'K' ? 'kΩ' : 'MΩ'} (RKM multiplier, no tolerance marked)`));
+    readings.push(
+      reading('resistor', nominal, 'Ω', null, `resistor ${amb[1]} ${amb[2] === 'K' ? 'kΩ' : 'MΩ'} (RKM multiplier, no tolerance marked)`),
+    );
   }
   const { words: _w, ...chosen } = first;
   return { ...chosen, ratedVoltage: volts, readings };
@@ -73,19 +75,39 @@ function decodeValueCode(s: string, code: string): Reading {
 
   if (/^[A-Za-z]{3,}([\s,;/-]+[A-Za-z]{3,})*$/.test(s)) {
     const r = decodeColourBands(s);
-    return reading('resistor', r.nominal, r.unit, r.tolerancePct === null ? null : { kind: 'percent', pct: r.tolerancePct }, 'resistor colour bands');
+    return reading(
+      'resistor',
+      r.nominal,
+      r.unit,
+      r.tolerancePct === null ? null : { kind: 'percent', pct: r.tolerancePct },
+      'resistor colour bands',
+    );
   }
   const compact = s.replace(/\s+/g, '');
   if (/^\d+m\d*[A-Z]?$|^m\d+[A-Z]?$/.test(compact)) {
-    throw new MarkingError(code, `"${compact}": a lower-case m could be milli (capacitor, milliohm) or mega; write the value with its unit instead.`);
+    throw new MarkingError(
+      code,
+      `"${compact}": a lower-case m could be milli (capacitor, milliohm) or mega; write the value with its unit instead.`,
+    );
   }
-  if (/^\d{2,3}k$/.test(compact) || /^\d*[RKkMGT]\d+[A-Z]?$/.test(compact) || /^\d+R[A-Z]?$/.test(compact) || /^\d[kKMGT][A-Z]?$/.test(compact)) {
+  if (
+    /^\d{2,3}k$/.test(compact) ||
+    /^\d*[RKkMGT]\d+[A-Z]?$/.test(compact) ||
+    /^\d+R[A-Z]?$/.test(compact) ||
+    /^\d[kKMGT][A-Z]?$/.test(compact)
+  ) {
     const r = decodeResistorCode(compact);
     return reading('resistor', r.nominal, r.unit, r.tolerance, 'resistor RKM code');
   }
   if (/^\d{2,3}[A-Za-z]?$/.test(compact) || /^\d*[pnuµμ]\d*[A-Z]?$/.test(compact)) {
     const c = decodeCapacitorCode(compact);
-    return reading('capacitor', c.nominal, c.unit, c.tolerance, c.letter ? `capacitor code in pF with tolerance letter ${c.letter}` : 'capacitor code in pF');
+    return reading(
+      'capacitor',
+      c.nominal,
+      c.unit,
+      c.tolerance,
+      c.letter ? `capacitor code in pF with tolerance letter ${c.letter}` : 'capacitor code in pF',
+    );
   }
   throw new MarkingError(
     code,

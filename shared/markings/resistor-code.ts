@@ -19,7 +19,10 @@ const RKM_RES_EXP: Readonly<Record<string, number>> = { R: 0, K: 3, k: 3, M: 6, 
 export function decodeResistorCode(code: string): ResistorCode {
   const s = String(code ?? '').replace(/\s+/g, '');
   if (/^\d*m\d*[A-Z]?$/.test(s) && /\d/.test(s)) {
-    throw new MarkingError(code, `"${s}": a lower-case m is milliohm in the RKM code but is often meant as mega; write ${s.replace('m', 'M')} for megohms.`);
+    throw new MarkingError(
+      code,
+      `"${s}": a lower-case m is milliohm in the RKM code but is often meant as mega; write ${s.replace('m', 'M')} for megohms.`,
+    );
   }
   const m = /^(\d*)([RKkMGT])(\d*)([A-Z])?$/.exec(s);
   if (!m || (m[1] === '' && m[3] === '')) {

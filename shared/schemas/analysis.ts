@@ -40,7 +40,10 @@ const MagPhasePoint = z.object({ frequency: rangeNumber('frequency'), magnitude:
 const ReImPoint = z.object({ frequency: rangeNumber('frequency'), re: finite, im: finite });
 
 export const CoilRequestSchema = z.object({
-  points: z.union([z.array(MagPhasePoint), z.array(ReImPoint)]).refine((p) => p.length >= 5, 'A coil fit needs at least five points.').refine((p) => p.length <= 20_000, 'At most 20,000 points.'),
+  points: z
+    .union([z.array(MagPhasePoint), z.array(ReImPoint)])
+    .refine((p) => p.length >= 5, 'A coil fit needs at least five points.')
+    .refine((p) => p.length <= 20_000, 'At most 20,000 points.'),
   withRp: z.union([z.boolean(), z.literal('auto')]).optional(),
 });
 export type CoilRequest = z.infer<typeof CoilRequestSchema>;

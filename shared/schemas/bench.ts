@@ -14,7 +14,13 @@ export const AccuracySchema = z.object({
   resolution: z.number().finite().min(0),
   /** Accuracy on particular ranges (counts × 10^k, SI units), when it differs from the line above. */
   ranges: z
-    .array(z.object({ range: z.number().finite().positive(), pctOfReading: z.number().finite().min(0).max(100), counts: z.number().finite().min(0).max(10_000) }))
+    .array(
+      z.object({
+        range: z.number().finite().positive(),
+        pctOfReading: z.number().finite().min(0).max(100),
+        counts: z.number().finite().min(0).max(10_000),
+      }),
+    )
     .max(12)
     .optional(),
 });

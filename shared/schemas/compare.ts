@@ -25,7 +25,10 @@ export const CompareSelectionSchema = z
     tag: z.string().trim().min(1).max(60).optional(),
     partIds: ids(2000).optional(),
   })
-  .refine((s) => !s.createdFrom || !s.createdTo || s.createdFrom <= s.createdTo, { message: 'The end date is before the start date.', path: ['createdTo'] });
+  .refine((s) => !s.createdFrom || !s.createdTo || s.createdFrom <= s.createdTo, {
+    message: 'The end date is before the start date.',
+    path: ['createdTo'],
+  });
 export type CompareSelection = z.infer<typeof CompareSelectionSchema>;
 
 export const GROUP_BY = ['lot', 'supplier', 'none'] as const;

@@ -58,7 +58,16 @@ export const NetlistSchema = z.object({
         z.object({ kind: z.literal('resistor'), id: z.string().min(1).max(40), a: node, b: node, R: ohms }),
         z.object({ kind: z.literal('capacitor'), id: z.string().min(1).max(40), a: node, b: node, C: farads }),
         z.object({ kind: z.literal('inductor'), id: z.string().min(1).max(40), a: node, b: node, L: henries }),
-        z.object({ kind: z.literal('pot'), id: z.string().min(1).max(40), a: node, b: node.optional(), w: node, R: ohms, law: TaperLawSchema, knob: KnobRefSchema }),
+        z.object({
+          kind: z.literal('pot'),
+          id: z.string().min(1).max(40),
+          a: node,
+          b: node.optional(),
+          w: node,
+          R: ohms,
+          law: TaperLawSchema,
+          knob: KnobRefSchema,
+        }),
         z.object({
           kind: z.literal('pickup'),
           id: z.string().min(1).max(40),
@@ -68,7 +77,13 @@ export const NetlistSchema = z.object({
           L: rangeNumberOrZero('inductance'),
           C: rangeNumberOrZero('capacitance'),
           Rp: ohms.optional(),
-          emf: z.number().finite().min(-1e3).max(1e3).refine((v) => v !== 0, 'A source of 0 V gives nothing.').optional(),
+          emf: z
+            .number()
+            .finite()
+            .min(-1e3)
+            .max(1e3)
+            .refine((v) => v !== 0, 'A source of 0 V gives nothing.')
+            .optional(),
           group: z.string().min(1).max(40).optional(),
         }),
       ]),
@@ -110,7 +125,10 @@ const oneSource = <T extends { preset?: unknown; netlist?: unknown; layout?: unk
   [b.preset, b.netlist, b.layout].filter((x) => x !== undefined).length === 1;
 const oneSourceMessage = { message: 'Give one of a layout, a preset or a netlist.', path: ['layout'] };
 
-export const SimulateRequestSchema = HarnessSource.extend({ knobs: KnobRecordSchema.optional(), frequencies: FrequenciesSchema.optional() }).refine(oneSource, oneSourceMessage);
+export const SimulateRequestSchema = HarnessSource.extend({
+  knobs: KnobRecordSchema.optional(),
+  frequencies: FrequenciesSchema.optional(),
+}).refine(oneSource, oneSourceMessage);
 export type SimulateRequest = z.infer<typeof SimulateRequestSchema>;
 
 export const SweepRequestSchema = HarnessSource.extend({

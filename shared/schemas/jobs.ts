@@ -4,7 +4,14 @@ export const JOB_STATUSES = ['open', 'done', 'delivered'] as const;
 
 export const CreateJobInputSchema = z.object({
   customer: z.string().trim().min(1, 'Name the customer.').max(120),
-  customerEmail: z.string().trim().toLowerCase().email('Enter an e-mail address.').optional().nullable().or(z.literal('').transform(() => null)),
+  customerEmail: z
+    .string()
+    .trim()
+    .toLowerCase()
+    .email('Enter an e-mail address.')
+    .optional()
+    .nullable()
+    .or(z.literal('').transform(() => null)),
   instrument: z.string().trim().min(1, 'Describe the instrument.').max(200),
   harnessId: z.number().int().positive().optional().nullable(),
   notes: z.string().trim().max(4000).optional().nullable(),
@@ -19,7 +26,12 @@ export const InstallPartInputSchema = z.object({
   /** Where it went, in the shop's words: "volume, neck", "tone cap". */
   position: z.string().trim().min(1, 'Say where the part went.').max(80),
   /** Required to install a flagged or never-judged (incoming) part: why it goes in anyway. */
-  overrideReason: z.string().trim().min(3, 'Give a reason of at least 3 characters.').max(300, 'Keep the reason under 300 characters.').optional(),
+  overrideReason: z
+    .string()
+    .trim()
+    .min(3, 'Give a reason of at least 3 characters.')
+    .max(300, 'Keep the reason under 300 characters.')
+    .optional(),
 });
 export type InstallPartInput = z.infer<typeof InstallPartInputSchema>;
 

@@ -31,13 +31,21 @@ export const RecordingChainSchema = z
     /** Cable from the instrument to the recorder, m. */
     cableLength: z.number().finite().min(0).max(100).default(RECORDING_CHAIN_DEFAULTS.cableLength),
   })
-  .refine((b) => (b.preset === undefined) !== (b.netlist === undefined), { message: 'Give either a preset or a netlist.', path: ['preset'] });
+  .refine((b) => (b.preset === undefined) !== (b.netlist === undefined), {
+    message: 'Give either a preset or a netlist.',
+    path: ['preset'],
+  });
 export type RecordingChain = z.infer<typeof RecordingChainSchema>;
 
 /** The built-in phrase instead of a file: each pickup hears the string at its own place. */
 export const RenderPhraseSchema = z.object({
   sampleRate: z.number().int().min(22050, 'At least 22050 Hz.').max(96000, 'At most 96000 Hz.').default(48000),
-  seed: z.number().int().min(0).max(2 ** 31).optional(),
+  seed: z
+    .number()
+    .int()
+    .min(0)
+    .max(2 ** 31)
+    .optional(),
 });
 export type RenderPhrase = z.infer<typeof RenderPhraseSchema>;
 

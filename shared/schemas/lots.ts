@@ -7,14 +7,24 @@ export const SECOND_QUANTITIES = ['dissipation', 'esr', 'end-resistance'] as con
 
 export const CreateLotInputSchema = z
   .object({
-    code: z.string().trim().min(1).max(40).regex(/^[A-Za-z0-9][A-Za-z0-9._\-/]*$/, 'Use letters, digits and . _ - / only.').optional(),
+    code: z
+      .string()
+      .trim()
+      .min(1)
+      .max(40)
+      .regex(/^[A-Za-z0-9][A-Za-z0-9._\-/]*$/, 'Use letters, digits and . _ - / only.')
+      .optional(),
     kind: z.enum(LOT_KINDS),
     /** SI units (F for capacitors, Ω for pots and resistors); or give a marking instead. */
     nominal: z.number().finite().positive().optional(),
     marking: z.string().trim().min(1).max(40).optional(),
     tolerancePct: z.number().finite().positive().max(100).optional(),
     supplier: z.string().trim().max(80).optional().nullable(),
-    receivedOn: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-11-30.').optional().nullable(),
+    receivedOn: z
+      .string()
+      .regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-11-30.')
+      .optional()
+      .nullable(),
     expectedCount: z.number().int().positive().max(1_000_000).optional().nullable(),
     secondQuantity: z.enum(SECOND_QUANTITIES).optional().nullable(),
     secondLimit: z.number().finite().positive().optional().nullable(),
@@ -24,8 +34,14 @@ export const CreateLotInputSchema = z
     watcherIds: z.array(z.string().min(1).max(64)).max(50).default([]),
     notes: z.string().trim().max(2000).optional().nullable(),
   })
-  .refine((l) => l.nominal != null || l.marking != null, { message: 'Give the nominal value or a marking code such as 473J.', path: ['nominal'] })
-  .refine((l) => (l.secondQuantity == null) === (l.secondLimit == null), { message: 'A second quantity needs its limit, and a limit its quantity.', path: ['secondLimit'] });
+  .refine((l) => l.nominal != null || l.marking != null, {
+    message: 'Give the nominal value or a marking code such as 473J.',
+    path: ['nominal'],
+  })
+  .refine((l) => (l.secondQuantity == null) === (l.secondLimit == null), {
+    message: 'A second quantity needs its limit, and a limit its quantity.',
+    path: ['secondLimit'],
+  });
 export type CreateLotInput = z.infer<typeof CreateLotInputSchema>;
 
 export const LotStatsQuerySchema = z.object({
@@ -49,5 +65,8 @@ export const PromoteInputSchema = z
     matchPct: z.number().positive().max(50).optional(),
     setSize: z.number().int().min(2).max(12).optional(),
   })
-  .refine((p) => [p.readingIds, p.bin, p.set].filter((x) => x !== undefined).length === 1, { message: 'Choose readings, one bin or one set.', path: ['readingIds'] });
+  .refine((p) => [p.readingIds, p.bin, p.set].filter((x) => x !== undefined).length === 1, {
+    message: 'Choose readings, one bin or one set.',
+    path: ['readingIds'],
+  });
 export type PromoteInput = z.infer<typeof PromoteInputSchema>;

@@ -61,7 +61,10 @@ export function rangeNumber(name: RangeName) {
 export function rangeNumberOrZero(name: RangeName) {
   const r = VALUE_RANGES[name];
   const msg = `Must be 0 or ${r.what} ${rangeWords(name)}.`;
-  return z.number({ error: msg }).finite(msg).refine((v) => v === 0 || (v >= r.min && v <= r.max), msg);
+  return z
+    .number({ error: msg })
+    .finite(msg)
+    .refine((v) => v === 0 || (v >= r.min && v <= r.max), msg);
 }
 
 /** The SI quantity a value range belongs to, for quantities the range table covers. */

@@ -23,7 +23,10 @@ export type Fit = {
 } & ({ kind: 'taper'; result: TaperFit } | { kind: 'coil'; result: CoilFit });
 
 /** A column chosen by the user when the file's headers were not recognised: index or header text, and its unit. */
-export const ColumnChoiceSchema = z.object({ column: z.union([z.number().int().min(0), z.string().min(1)]), unit: z.string().max(12).optional() });
+export const ColumnChoiceSchema = z.object({
+  column: z.union([z.number().int().min(0), z.string().min(1)]),
+  unit: z.string().max(12).optional(),
+});
 export const ExplicitMappingSchema = z.record(z.string(), ColumnChoiceSchema);
 
 /** Multipart fields arrive as text: the mapping is JSON. */

@@ -27,10 +27,7 @@ export type ProfileLaw = (typeof PROFILE_LAWS)[number];
 
 /** A law with its parameter, as the harness engine and saved designs hold it. */
 export type TaperLaw =
-  | { kind: 'linear' }
-  | { kind: 'audio'; m: number }
-  | { kind: 'reverse'; m: number }
-  | { kind: 'two-segment'; m: number };
+  { kind: 'linear' } | { kind: 'audio'; m: number } | { kind: 'reverse'; m: number } | { kind: 'two-segment'; m: number };
 
 export const TAPER_LAW_LABEL: Record<TaperLawKind, string> = {
   linear: 'Linear',

@@ -23,13 +23,7 @@
 import { formatValue } from './format';
 import { NON_NEGATIVE_QUANTITIES, QUANTITY_LABEL, QUANTITY_UNIT, type Quantity } from './quantities';
 
-export type ValueParseReason =
-  | 'empty'
-  | 'syntax'
-  | 'ambiguous'
-  | 'unit-mismatch'
-  | 'negative'
-  | 'not-finite';
+export type ValueParseReason = 'empty' | 'syntax' | 'ambiguous' | 'unit-mismatch' | 'negative' | 'not-finite';
 
 export class ValueParseError extends Error {
   readonly reason: ValueParseReason;
@@ -50,8 +44,8 @@ const PREFIX_EXP: Readonly<Record<string, number>> = {
   p: -12,
   n: -9,
   u: -6,
-  'µ': -6,
-  'μ': -6,
+  µ: -6,
+  μ: -6,
   m: -3,
   k: 3,
   K: 3,
@@ -67,7 +61,7 @@ const PREFIXES = Object.keys(PREFIX_EXP).sort((a, b) => b.length - a.length);
 
 /** Unit spellings accepted on their own (e.g. `470R`, `2.5 H`) → canonical symbol. */
 const UNIT_ALIASES: Readonly<Record<string, string>> = {
-  'Ω': 'Ω',
+  Ω: 'Ω',
   ohm: 'Ω',
   ohms: 'Ω',
   Ohm: 'Ω',
@@ -92,7 +86,7 @@ delete (UNIT_AFTER_PREFIX as Record<string, string>)['R'];
 delete (UNIT_AFTER_PREFIX as Record<string, string>)['%'];
 
 const UNIT_QUANTITY_WORD: Readonly<Record<string, string>> = {
-  'Ω': 'a resistance',
+  Ω: 'a resistance',
   F: 'a capacitance',
   H: 'an inductance',
   Hz: 'a frequency',
@@ -119,8 +113,8 @@ const RKM_EXP: Readonly<Record<string, number>> = {
   p: -12,
   n: -9,
   u: -6,
-  'µ': -6,
-  'μ': -6,
+  µ: -6,
+  μ: -6,
   m: -3,
 };
 
@@ -272,7 +266,7 @@ export function parseValue(text: string, quantity?: Quantity): { value: number; 
     );
   }
 
-  const totalExp = exp + (prefix === null ? 0 : (rkm ? RKM_EXP[prefix] : PREFIX_EXP[prefix]) ?? 0);
+  const totalExp = exp + (prefix === null ? 0 : ((rkm ? RKM_EXP[prefix] : PREFIX_EXP[prefix]) ?? 0));
   // Converting the decimal text with the combined exponent rounds once, so `22n` is exactly the
   // double nearest 22e-9 rather than 22 × 1e-9 rounded twice.
   let value = Number(`${sign}${digits}e${totalExp}`);
@@ -306,7 +300,9 @@ export function parseValue(text: string, quantity?: Quantity): { value: number; 
 export function tryParseValue(text: string, quantity?: Quantity): TryParseResult {
   try {
     const r = parseValue(text, quantity);
-    return r.readAs !== undefined ? { ok: true, value: r.value, unit: r.unit, readAs: r.readAs } : { ok: true, value: r.value, unit: r.unit };
+    return r.readAs !== undefined
+      ? { ok: true, value: r.value, unit: r.unit, readAs: r.readAs }
+      : { ok: true, value: r.value, unit: r.unit };
   } catch (err) {
     if (err instanceof ValueParseError) return { ok: false, error: err.message };
     throw err;

@@ -4,16 +4,7 @@
 // factor Q and plain ratios are dimensionless, so their unit is the empty string.
 
 export type Quantity =
-  | 'resistance'
-  | 'capacitance'
-  | 'inductance'
-  | 'frequency'
-  | 'dissipation'
-  | 'esr'
-  | 'q'
-  | 'ratio'
-  | 'angle'
-  | 'voltage';
+  'resistance' | 'capacitance' | 'inductance' | 'frequency' | 'dissipation' | 'esr' | 'q' | 'ratio' | 'angle' | 'voltage';
 
 export const QUANTITIES: readonly Quantity[] = [
   'resistance',

@@ -4,7 +4,14 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { useQueryClient } from '@tanstack/react-query';
 import { useMemo } from 'react';
-import { RouterProvider, createBrowserRouter, redirect, type LoaderFunction, type LoaderFunctionArgs, type RouteObject } from 'react-router-dom';
+import {
+  RouterProvider,
+  createBrowserRouter,
+  redirect,
+  type LoaderFunction,
+  type LoaderFunctionArgs,
+  type RouteObject,
+} from 'react-router-dom';
 import { HOME_BY_ROLE } from '@shared/auth/capabilities';
 import { paths } from '@/config/paths';
 import { AppLayout } from './layout/app-layout';

@@ -107,7 +107,11 @@ export async function benchLayouts(ng: Ngspice): Promise<BenchFigure[]> {
       met: curveMs <= 0.3,
     });
 
-    const familyMs = timeMedian(() => sweepKnobs(compiled, { volume: KNOBS, tone: [knobs[tk]!] }, undefined, { volumeKnob: vk, toneKnob: tk, knobs }), 50, 10);
+    const familyMs = timeMedian(
+      () => sweepKnobs(compiled, { volume: KNOBS, tone: [knobs[tk]!] }, undefined, { volumeKnob: vk, toneKnob: tk, knobs }),
+      50,
+      10,
+    );
     figures.push({
       name: `harness volume family (11 curves), ${layout.id}`,
       measured: fmt(familyMs),
@@ -117,12 +121,16 @@ export async function benchLayouts(ng: Ngspice): Promise<BenchFigure[]> {
     });
 
     // every selector position at the current knobs: build, compile and solve each (the screen's overlay)
-    const positionsMs = timeMedian(() => {
-      for (const pos of layout.selector.positions) {
-        const c = resolveLayoutConfig(layout, { selector: pos.index, options: config.options }).config;
-        simulateInstrument(compileHarness(buildLayoutNetlist(layout, c)), knobs);
-      }
-    }, 50, 10);
+    const positionsMs = timeMedian(
+      () => {
+        for (const pos of layout.selector.positions) {
+          const c = resolveLayoutConfig(layout, { selector: pos.index, options: config.options }).config;
+          simulateInstrument(compileHarness(buildLayoutNetlist(layout, c)), knobs);
+        }
+      },
+      50,
+      10,
+    );
     figures.push({
       name: `harness every selector position (${layout.selector.positions.length}), ${layout.id}`,
       measured: fmt(positionsMs),
@@ -138,7 +146,7 @@ export async function benchLayouts(ng: Ngspice): Promise<BenchFigure[]> {
       figures.push({
         name: `treble-bleed finder ${series} (${evaluated} candidates × 9 volumes), ${layout.id}`,
         measured: fmt(finderMs),
-        reference: `ngspice warm ≈ ${(evaluated * 9 * oneSpiceMs / 1000).toFixed(0)} s (one setting × candidates × volumes)`,
+        reference: `ngspice warm ≈ ${((evaluated * 9 * oneSpiceMs) / 1000).toFixed(0)} s (one setting × candidates × volumes)`,
         goal: series === 'E12' ? '≤ 300 ms' : '≤ 1.2 s',
         met: finderMs <= (series === 'E12' ? 300 : 1200),
       });

@@ -38,10 +38,14 @@ export async function bench(): Promise<BenchFigure[]> {
   const im = new Float64Array(filter.fftSize / 2 + 1);
   const a = new Float64Array(filter.fftSize);
   const b = new Float64Array(filter.fftSize);
-  const fftMs = timeMedian(() => {
-    for (let k = 0; k < blocks; k++) fft.forward(audio.subarray(k * filter.block, (k + 1) * filter.block), re, im);
-    for (let k = 0; k < blocks; k += 2) fft.inverse2(re, im, re, im, a, b);
-  }, 7, 2);
+  const fftMs = timeMedian(
+    () => {
+      for (let k = 0; k < blocks; k++) fft.forward(audio.subarray(k * filter.block, (k + 1) * filter.block), re, im);
+      for (let k = 0; k < blocks; k += 2) fft.inverse2(re, im, re, im, a, b);
+    },
+    7,
+    2,
+  );
   const phraseMs = timeMedian(() => synthesizePhrase({ sampleRate: fs }), 5, 1);
 
   return [

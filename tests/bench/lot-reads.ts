@@ -35,7 +35,11 @@ export async function bench(): Promise<BenchFigure[]> {
   const t = await createTestApp();
   try {
     const qa = await t.as('qa');
-    const lot = (await qa.post('/api/lots').send({ kind: 'capacitor', nominal: 22e-9, tolerancePct: 10, secondQuantity: 'dissipation', secondLimit: 0.01, code: 'BENCH-READ' })).body;
+    const lot = (
+      await qa
+        .post('/api/lots')
+        .send({ kind: 'capacitor', nominal: 22e-9, tolerancePct: 10, secondQuantity: 'dissipation', secondLimit: 0.01, code: 'BENCH-READ' })
+    ).body;
     const up = await qa.post(`/api/lots/${lot.id}/readings`).attach('file', Buffer.from(lotCsv()), 'lot.csv');
     if (up.status !== 201) throw new Error(`bench upload failed: ${up.status}`);
     const viewer = await t.as('viewer');
@@ -46,7 +50,9 @@ export async function bench(): Promise<BenchFigure[]> {
     };
     const sqlite = t.ctx.sqlite;
     const lotRow = { ...lot, nominal: 22e-9, tolerancePct: 10, secondLimit: 0.01 };
-    const select = await timed(9, () => sqlite.prepare('select id, item, value, second_value from lot_readings where lot_id = ? order by id').raw(true).all(lot.id));
+    const select = await timed(9, () =>
+      sqlite.prepare('select id, item, value, second_value from lot_readings where lot_id = ? order by id').raw(true).all(lot.id),
+    );
     const recompute = await timed(5, () => lotResults(lotRow, lotValues(sqlite, lot.id), { matchPct: 1, setSize: 2 }));
     const detail = await timed(15, () => get(`/api/lots/${lot.id}`, 'identity'));
     const items = await timed(9, () => get(`/api/lots/${lot.id}/items`, 'identity'));

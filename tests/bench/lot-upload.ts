@@ -27,9 +27,13 @@ function bareInsertMs(values: number[]): number {
   const db = new Database(path.join(dir, 'bare.db'));
   db.pragma('journal_mode = WAL');
   db.pragma('synchronous = FULL');
-  db.exec('create table lot_readings (id integer primary key autoincrement, lot_id integer not null, item text not null, value real not null, second_value real, frequency real, source_row integer)');
+  db.exec(
+    'create table lot_readings (id integer primary key autoincrement, lot_id integer not null, item text not null, value real not null, second_value real, frequency real, source_row integer)',
+  );
   db.exec('create index lot_readings_lot_idx on lot_readings (lot_id)');
-  const insert = db.prepare('insert into lot_readings (lot_id, item, value, second_value, frequency, source_row) values (?, ?, ?, ?, ?, ?)');
+  const insert = db.prepare(
+    'insert into lot_readings (lot_id, item, value, second_value, frequency, source_row) values (?, ?, ?, ?, ?, ?)',
+  );
   const t0 = performance.now();
   db.transaction(() => {
     for (let i = 0; i < values.length; i++) insert.run(1, String(i + 1), values[i]!, 0.0008, null, i + 2);
@@ -51,7 +55,8 @@ export async function bench(): Promise<BenchFigure[]> {
       const t0 = performance.now();
       const res = await qa.post(`/api/lots/${lot.id}/readings`).attach('file', Buffer.from(text), 'lot.csv');
       const total = performance.now() - t0;
-      if (res.status !== 201 || res.body.rows !== ROWS || res.body.stats.n !== ROWS) throw new Error(`bench upload failed: ${res.status} ${JSON.stringify(res.body).slice(0, 300)}`);
+      if (res.status !== 201 || res.body.rows !== ROWS || res.body.stats.n !== ROWS)
+        throw new Error(`bench upload failed: ${res.status} ${JSON.stringify(res.body).slice(0, 300)}`);
       const store = res.body.timings.storeMs as number;
       figures.push({ total, store, bare: bareInsertMs(values), parse: res.body.timings.parseMs, stats: res.body.timings.statsMs });
     }
@@ -67,9 +72,9 @@ export async function bench(): Promise<BenchFigure[]> {
         met: mid.total <= 1000,
       },
       {
-        name: 'lot storage rate in the route\'s transaction against a bare prepared insert',
-        measured: `${((ROWS / mid.store) * 1000 / 1e6).toFixed(2)} M rows/s`,
-        reference: `bare ${((ROWS / mid.bare) * 1000 / 1e6).toFixed(2)} M rows/s (ratio ${ratio.toFixed(2)})`,
+        name: "lot storage rate in the route's transaction against a bare prepared insert",
+        measured: `${(((ROWS / mid.store) * 1000) / 1e6).toFixed(2)} M rows/s`,
+        reference: `bare ${(((ROWS / mid.bare) * 1000) / 1e6).toFixed(2)} M rows/s (ratio ${ratio.toFixed(2)})`,
         goal: 'ratio ≥ 0.5',
         met: ratio >= 0.5,
       },

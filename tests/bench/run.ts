@@ -23,7 +23,9 @@ for (const [title, run] of areas.filter(([title]) => !only || title.toLowerCase(
   console.log(`\n## ${title}`);
   for (const f of await run()) {
     if (!f.met) missed++;
-    console.log(`${f.met ? 'met    ' : 'NOT MET'}  ${f.name}\n         measured ${f.measured}; goal ${f.goal}\n         reference: ${f.reference}`);
+    console.log(
+      `${f.met ? 'met    ' : 'NOT MET'}  ${f.name}\n         measured ${f.measured}; goal ${f.goal}\n         reference: ${f.reference}`,
+    );
   }
 }
 console.log(`\n${missed === 0 ? 'All goals met.' : `${missed} goal(s) not met on this run (figures depend on the machine's load).`}`);

@@ -10,7 +10,7 @@ function readings(n: number): Float64Array {
   const r = seededRandom(2024);
   const x = new Float64Array(n);
   // A 500 kΩ lot with a roughly normal spread (sum of three uniforms), as a meter would read it.
-  for (let i = 0; i < n; i++) x[i] = Math.round(500e3 * (1 + 0.05 * (r() + r() + r() - 1.5)) / 10) * 10;
+  for (let i = 0; i < n; i++) x[i] = Math.round((500e3 * (1 + 0.05 * (r() + r() + r() - 1.5))) / 10) * 10;
   return x;
 }
 
@@ -22,24 +22,28 @@ export async function bench(): Promise<BenchFigure[]> {
   const sortRef = timeMedian(() => x.slice().sort(), 21, 5);
 
   const tStats = timeMedian(() => lotStatistics({ values: x, nominal: 500e3, tolerancePct: 10 }), 21, 5);
-  const tMatch = timeMedian(
-    () => lotStatistics({ values: x, nominal: 500e3, tolerancePct: 10, matchPct: 0.1, setSize: 2 }),
-    11,
-    3,
-  );
+  const tMatch = timeMedian(() => lotStatistics({ values: x, nominal: 500e3, tolerancePct: 10, matchPct: 0.1, setSize: 2 }), 11, 3);
 
   const r = seededRandom(7);
   const forms = ['22n', '0,022 µF', '4k7', '470K', '6.2 kΩ', '1meg', '2.2e-8', '100pF', 'R47', '2.5 H'];
   const texts = Array.from({ length: 100_000 }, (_, i) => forms[i % forms.length]!);
   const plain = Array.from({ length: 100_000 }, () => String(r() * 1e6));
-  const tParse = timeMedian(() => {
-    for (const t of texts) parseValue(t);
-  }, 7, 2);
-  const tNumber = timeMedian(() => {
-    let s = 0;
-    for (const t of plain) s += Number(t);
-    return s;
-  }, 21, 5);
+  const tParse = timeMedian(
+    () => {
+      for (const t of texts) parseValue(t);
+    },
+    7,
+    2,
+  );
+  const tNumber = timeMedian(
+    () => {
+      let s = 0;
+      for (const t of plain) s += Number(t);
+      return s;
+    },
+    21,
+    5,
+  );
 
   return [
     {

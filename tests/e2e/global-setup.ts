@@ -47,13 +47,24 @@ async function waitFor(url: string, child: ChildProcess, log: () => string): Pro
 export default async function setup(project: TestProject) {
   const root = path.resolve(import.meta.dirname, '../..');
   // The production build (vitest sets NODE_ENV=test, which would give React's development build).
-  execFileSync('npx', ['vite', 'build', '--logLevel', 'warn'], { cwd: root, stdio: 'inherit', env: { ...process.env, NODE_ENV: 'production' } });
+  execFileSync('npx', ['vite', 'build', '--logLevel', 'warn'], {
+    cwd: root,
+    stdio: 'inherit',
+    env: { ...process.env, NODE_ENV: 'production' },
+  });
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'lugbook-e2e-'));
   const port = await freePort();
   let output = '';
   const child = spawn('npx', ['tsx', 'server/index.ts'], {
     cwd: root,
-    env: { ...process.env, PORT: String(port), LUGBOOK_DATA_DIR: dataDir, LUGBOOK_DEMO_PASSWORD: DEMO_PASSWORD, NODE_ENV: 'test', LUGBOOK_REQUEST_LOG: 'false' },
+    env: {
+      ...process.env,
+      PORT: String(port),
+      LUGBOOK_DATA_DIR: dataDir,
+      LUGBOOK_DEMO_PASSWORD: DEMO_PASSWORD,
+      NODE_ENV: 'test',
+      LUGBOOK_REQUEST_LOG: 'false',
+    },
     stdio: ['ignore', 'pipe', 'pipe'],
     // Its own process group, so the teardown ends npx, tsx and the server together.
     detached: true,

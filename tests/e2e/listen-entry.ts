@@ -4,4 +4,10 @@ import { synthesizePhrase } from '@shared/audio/phrase';
 import { getPreset } from '@shared/circuit/presets';
 import { seededNormals } from '@shared/random/seeded';
 
-(globalThis as unknown as { lugbookAudio: unknown }).lugbookAudio = { harnessResponse, impulseResponse, synthesizePhrase, getPreset, seededNormals };
+(globalThis as unknown as { lugbookAudio: unknown }).lugbookAudio = {
+  harnessResponse,
+  impulseResponse,
+  synthesizePhrase,
+  getPreset,
+  seededNormals,
+};

@@ -18,7 +18,13 @@ import { signIn } from './browser';
 
 /** What the page holds after the bundle and the helper script (types only: the functions run in Chromium). */
 interface PageGlobals {
-  lugbookAudio: { harnessResponse: typeof harnessResponse; impulseResponse: typeof impulseResponse; synthesizePhrase: typeof synthesizePhrase; getPreset: typeof getPreset; seededNormals: (seed: number) => () => number };
+  lugbookAudio: {
+    harnessResponse: typeof harnessResponse;
+    impulseResponse: typeof impulseResponse;
+    synthesizePhrase: typeof synthesizePhrase;
+    getPreset: typeof getPreset;
+    seededNormals: (seed: number) => () => number;
+  };
   f32ToBase64: (x: Float32Array) => string;
 }
 
@@ -29,12 +35,27 @@ let browser: Browser;
 let bundle: string;
 
 beforeAll(async () => {
-  const out = await build({ entryPoints: [path.join(root, 'tests/e2e/listen-entry.ts')], bundle: true, format: 'iife', write: false, platform: 'browser', tsconfig: path.join(root, 'tsconfig.json'), logLevel: 'silent' });
+  const out = await build({
+    entryPoints: [path.join(root, 'tests/e2e/listen-entry.ts')],
+    bundle: true,
+    format: 'iife',
+    write: false,
+    platform: 'browser',
+    tsconfig: path.join(root, 'tsconfig.json'),
+    logLevel: 'silent',
+  });
   bundle = out.outputFiles[0]!.text;
   browser = await chromium.launch({
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
     headless: true,
-    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--no-first-run', '--autoplay-policy=no-user-gesture-required'],
+    args: [
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--no-first-run',
+      '--autoplay-policy=no-user-gesture-required',
+    ],
   });
 });
 afterAll(async () => {
@@ -124,7 +145,11 @@ test('white noise through the shared impulse response in an OfflineAudioContext:
     const ks: number[] = [];
     for (let k = 1; k < pin.length; k++) if ((k * fs) / seg >= 50 && (k * fs) / seg <= 10000) ks.push(k);
     const p = getPreset(c.preset)!;
-    const sim = simulate(p.build(p.defaults), c.knobs, Float64Array.from(ks, (k) => (k * fs) / seg));
+    const sim = simulate(
+      p.build(p.defaults),
+      c.knobs,
+      Float64Array.from(ks, (k) => (k * fs) / seg),
+    );
     let worst = 0;
     ks.forEach((k, j) => (worst = Math.max(worst, Math.abs(10 * Math.log10(pout[k]! / pin[k]!) - sim.magnitudeDb[j]!))));
     console.log(`OfflineAudioContext ${c.preset} ${c.knobs.volume}/${c.knobs.tone}: Welch ratio within ${worst.toFixed(3)} dB of simulate`);
@@ -157,7 +182,10 @@ test('the Listen panel plays the phrase, follows a knob, switches A/B, and shows
   await page.waitForTimeout(300);
   expect(await panel.getByRole('button', { name: 'Stop' }).count()).toBe(1);
   // pin A, then hear A and B
-  await page.locator('#harness-wiring').getByRole('button', { name: /Pin as A to compare/ }).click();
+  await page
+    .locator('#harness-wiring')
+    .getByRole('button', { name: /Pin as A to compare/ })
+    .click();
   await panel.getByRole('radio', { name: /^A:/ }).check();
   await page.waitForTimeout(200);
   expect(await panel.getByRole('radio', { name: /^A:/ }).isChecked()).toBe(true);

@@ -46,7 +46,11 @@ test('a viewer sees no way to create a part, and the server refuses one sent by 
   await page.getByRole('table').waitFor();
   expect(await page.getByRole('button', { name: 'New part' }).count()).toBe(0);
   const status = await page.evaluate(async () => {
-    const res = await fetch('/api/parts', { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify({ kind: 'pot', label: 'BY-HAND', nominal: 1000 }) });
+    const res = await fetch('/api/parts', {
+      method: 'POST',
+      headers: { 'Content-Type': 'application/json' },
+      body: JSON.stringify({ kind: 'pot', label: 'BY-HAND', nominal: 1000 }),
+    });
     return res.status;
   });
   expect(status).toBe(403);

@@ -47,13 +47,17 @@ function sidewaysScrollers(page: Page): Promise<string[]> {
       const past = [...document.querySelectorAll<HTMLElement>('body *')]
         .filter((el) => el.getBoundingClientRect().right > window.innerWidth + 0.5)
         .slice(0, 5)
-        .map((el) => `${el.tagName.toLowerCase()}.${String(el.className).slice(0, 60)} right=${Math.round(el.getBoundingClientRect().right)}`);
+        .map(
+          (el) => `${el.tagName.toLowerCase()}.${String(el.className).slice(0, 60)} right=${Math.round(el.getBoundingClientRect().right)}`,
+        );
       found.push(`document ${doc.scrollWidth} px wide in a ${window.innerWidth} px viewport; past the edge: ${past.join(' | ')}`);
     }
     for (const el of document.querySelectorAll<HTMLElement>('body *')) {
       const ox = getComputedStyle(el).overflowX;
       if ((ox === 'auto' || ox === 'scroll') && el.scrollWidth > el.clientWidth) {
-        found.push(`${el.tagName.toLowerCase()}.${String(el.className).slice(0, 60)} scrollWidth=${el.scrollWidth} clientWidth=${el.clientWidth}`);
+        found.push(
+          `${el.tagName.toLowerCase()}.${String(el.className).slice(0, 60)} scrollWidth=${el.scrollWidth} clientWidth=${el.clientWidth}`,
+        );
       }
     }
     return found;
@@ -121,7 +125,10 @@ test('nothing scrolls sideways at 390 px on Parts, Jobs, a job page, Lots and a 
   await shot(lots, 'lots-390');
   expect(await sidewaysScrollers(lots)).toEqual([]);
   await lot.click();
-  await lots.getByRole('checkbox', { name: /^Select item / }).first().waitFor({ timeout: 20_000 });
+  await lots
+    .getByRole('checkbox', { name: /^Select item / })
+    .first()
+    .waitFor({ timeout: 20_000 });
   await shot(lots, 'lot-390');
   expect(await sidewaysScrollers(lots)).toEqual([]);
   qa.expectNoProblems();

@@ -56,7 +56,10 @@ test('the bench shows what is safe while measuring, and the discharge caution ap
 test("a job's Install form and the Harness screen carry their safety notes", async () => {
   const { page, problems } = await techPage();
   await page.goto(`${baseUrl}/jobs`);
-  await page.getByRole('link', { name: /JOB-0001/ }).first().click();
+  await page
+    .getByRole('link', { name: /JOB-0001/ })
+    .first()
+    .click();
   const install = page.getByRole('form', { name: 'Install a part' });
   await install.waitFor();
   expect(await install.getByText(SAFETY_WORDS.install).count()).toBe(1);

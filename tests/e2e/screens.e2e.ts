@@ -27,7 +27,10 @@ test('QA opens the 100,000-item demo lot and reads its statistics and histogram'
   const { page } = watched;
   await signIn(page, baseUrl, 'qa@lugbook.test', password);
   expect(new URL(page.url()).pathname).toBe('/lots');
-  await page.getByRole('link', { name: /C-2611-223K-BULK/ }).first().click();
+  await page
+    .getByRole('link', { name: /C-2611-223K-BULK/ })
+    .first()
+    .click();
   const dd = (term: string | RegExp) => page.locator('dt', { hasText: term }).first().locator('xpath=following-sibling::dd[1]');
   const n = dd('Readings (n)');
   await n.waitFor({ timeout: 30_000 });
@@ -124,7 +127,10 @@ test('a tech uploads the sample pot sweep on a part page and reads the fitted la
   const samples = new URL('../../samples/', import.meta.url).pathname;
   await page.getByLabel('Sweep file (CSV)').setInputFiles(`${samples}broken-sweep.csv`);
   await page.getByRole('button', { name: 'Upload and fit' }).click();
-  await page.getByText(/was refused/).first().waitFor();
+  await page
+    .getByText(/was refused/)
+    .first()
+    .waitFor();
   expect(await page.getByText(/Line \d+, column/).count()).toBeGreaterThanOrEqual(3);
   await page.getByLabel('Sweep file (CSV)').setInputFiles(`${samples}pot-500k-audio-sweep.csv`);
   await page.getByRole('button', { name: 'Upload and fit' }).click();

@@ -42,7 +42,10 @@ test('Install takes a label scanned with no delay, shows a flagged part’s stat
   const { page, problems } = await watchedPage();
   await signIn(page, baseUrl, 'tech@lugbook.test', password);
   await page.goto(`${baseUrl}/jobs`);
-  await page.getByRole('link', { name: /JOB-0001/ }).first().click();
+  await page
+    .getByRole('link', { name: /JOB-0001/ })
+    .first()
+    .click();
   await page.getByRole('textbox', { name: 'Position' }).fill('bleed resistor');
   const field = page.getByLabel('Part label');
   await field.click();
@@ -65,7 +68,10 @@ test('Install takes a label scanned with no delay, shows a flagged part’s stat
 test('lot promotion selects an item scanned with no delay between keys', async () => {
   const { page, problems } = await watchedPage();
   await signIn(page, baseUrl, 'qa@lugbook.test', password);
-  await page.getByRole('link', { name: /P-2611-A/ }).first().click();
+  await page
+    .getByRole('link', { name: /P-2611-A/ })
+    .first()
+    .click();
   const field = page.getByLabel('Item label');
   await field.waitFor({ timeout: 20_000 });
   const box = page.getByRole('checkbox', { name: /^Select item / }).first();
@@ -76,7 +82,9 @@ test('lot promotion selects an item scanned with no delay between keys', async (
   await field.click();
   await field.pressSequentially(first!.toLowerCase(), { delay: 0 });
   await field.press('Enter');
-  await page.getByText(new RegExp(`${first!.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')} selected \\(1 in the selection\\)`, 'i')).waitFor({ timeout: 5_000 });
+  await page
+    .getByText(new RegExp(`${first!.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')} selected \\(1 in the selection\\)`, 'i'))
+    .waitFor({ timeout: 5_000 });
   expect(await page.getByRole('button', { name: /Promote 1 selected to parts/ }).count()).toBe(1);
   expect(await box.isChecked()).toBe(true);
   expect(problems).toEqual([]);

@@ -15,7 +15,15 @@ const PASSWORD = 'load-test-passphrase';
 
 const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'lugbook-load-'));
 const child = spawn('npx', ['tsx', 'server/index.ts'], {
-  env: { ...process.env, PORT: String(PORT), LUGBOOK_DATA_DIR: dataDir, LUGBOOK_DEMO_PASSWORD: PASSWORD, LUGBOOK_REQUEST_LOG: 'false', PUBLIC_URL: BASE, NODE_ENV: 'development' },
+  env: {
+    ...process.env,
+    PORT: String(PORT),
+    LUGBOOK_DATA_DIR: dataDir,
+    LUGBOOK_DEMO_PASSWORD: PASSWORD,
+    LUGBOOK_REQUEST_LOG: 'false',
+    PUBLIC_URL: BASE,
+    NODE_ENV: 'development',
+  },
   stdio: ['ignore', 'pipe', 'inherit'],
 });
 const stop = () => {
@@ -36,7 +44,8 @@ async function waitForServer() {
   throw new Error('the server did not start');
 }
 
-const pct = (sorted: number[], p: number) => (sorted.length ? sorted[Math.min(sorted.length - 1, Math.floor((p / 100) * sorted.length))]! : NaN);
+const pct = (sorted: number[], p: number) =>
+  sorted.length ? sorted[Math.min(sorted.length - 1, Math.floor((p / 100) * sorted.length))]! : NaN;
 
 async function scenario(name: string, call: () => Promise<Response>) {
   const times: number[] = [];
@@ -69,27 +78,47 @@ async function scenario(name: string, call: () => Promise<Response>) {
   times.sort((a, b) => a - b);
   health.sort((a, b) => a - b);
   const f = (x: number) => x.toFixed(1).padStart(8);
-  console.log(`${name.padEnd(28)} ${(times.length / (DURATION_MS / 1000)).toFixed(1).padStart(8)} req/s  p50 ${f(pct(times, 50))} ms  p99 ${f(pct(times, 99))} ms  errors ${errors}   /api/health p50 ${f(pct(health, 50))} ms  p99 ${f(pct(health, 99))} ms`);
+  console.log(
+    `${name.padEnd(28)} ${(times.length / (DURATION_MS / 1000)).toFixed(1).padStart(8)} req/s  p50 ${f(pct(times, 50))} ms  p99 ${f(pct(times, 99))} ms  errors ${errors}   /api/health p50 ${f(pct(health, 50))} ms  p99 ${f(pct(health, 99))} ms`,
+  );
 }
 
 async function main() {
   await waitForServer();
-  const signIn = await fetch(`${BASE}/api/auth/sign-in`, { method: 'POST', headers: { 'Content-Type': 'application/json', Origin: BASE }, body: JSON.stringify({ email: 'qa@lugbook.test', password: PASSWORD }) });
+  const signIn = await fetch(`${BASE}/api/auth/sign-in`, {
+    method: 'POST',
+    headers: { 'Content-Type': 'application/json', Origin: BASE },
+    body: JSON.stringify({ email: 'qa@lugbook.test', password: PASSWORD }),
+  });
   if (!signIn.ok) throw new Error(`sign-in failed: ${signIn.status}`);
   const cookie = (signIn.headers.get('set-cookie') ?? '').split(';')[0]!;
   const headers = { Cookie: cookie, Origin: BASE, 'Accept-Encoding': 'gzip' };
   const lots = (await (await fetch(`${BASE}/api/lots`, { headers })).json()) as { lots: { id: number; count: number }[] };
   const big = lots.lots.reduce((a, b) => (b.count > a.count ? b : a));
-  console.log(`Lugbook load: ${CONCURRENCY} concurrent clients, ${DURATION_MS / 1000} s per scenario, loopback; big lot ${big.id} with ${big.count} items; ${os.cpus().length} CPUs`);
+  console.log(
+    `Lugbook load: ${CONCURRENCY} concurrent clients, ${DURATION_MS / 1000} s per scenario, loopback; big lot ${big.id} with ${big.count} items; ${os.cpus().length} CPUs`,
+  );
   await scenario('GET /api/parts', () => fetch(`${BASE}/api/parts`, { headers }));
   await scenario(`GET /api/lots/:id (${big.count})`, () => fetch(`${BASE}/api/lots/${big.id}`, { headers }));
   await scenario('GET /api/lots/:id/items', () => fetch(`${BASE}/api/lots/${big.id}/items`, { headers }));
   await scenario('POST /api/harness/sweep', () =>
-    fetch(`${BASE}/api/harness/sweep`, { method: 'POST', headers: { ...headers, 'Content-Type': 'application/json' }, body: JSON.stringify({ preset: 'bleed-cap' }) }),
+    fetch(`${BASE}/api/harness/sweep`, {
+      method: 'POST',
+      headers: { ...headers, 'Content-Type': 'application/json' },
+      body: JSON.stringify({ preset: 'bleed-cap' }),
+    }),
   );
-  const csv = ['Item,C (nF)', ...Array.from({ length: 2000 }, (_, i) => `${i + 1},${(47 * (1 + 0.02 * Math.sin(i))).toFixed(4)}`)].join('\n');
+  const csv = ['Item,C (nF)', ...Array.from({ length: 2000 }, (_, i) => `${i + 1},${(47 * (1 + 0.02 * Math.sin(i))).toFixed(4)}`)].join(
+    '\n',
+  );
   await scenario('POST lot upload (2,000 rows)', async () => {
-    const lot = (await (await fetch(`${BASE}/api/lots`, { method: 'POST', headers: { ...headers, 'Content-Type': 'application/json' }, body: JSON.stringify({ kind: 'capacitor', marking: '473J' }) })).json()) as { id: number };
+    const lot = (await (
+      await fetch(`${BASE}/api/lots`, {
+        method: 'POST',
+        headers: { ...headers, 'Content-Type': 'application/json' },
+        body: JSON.stringify({ kind: 'capacitor', marking: '473J' }),
+      })
+    ).json()) as { id: number };
     const form = new FormData();
     form.append('file', new Blob([csv], { type: 'text/csv' }), 'lot.csv');
     return fetch(`${BASE}/api/lots/${lot.id}/readings`, { method: 'POST', headers, body: form });

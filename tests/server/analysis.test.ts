@@ -14,7 +14,10 @@ afterAll(() => t.close());
 describe('stateless analysis routes (any signed-in role)', () => {
   test('value: engineering notation and RKM codes; ambiguous input is a 422 naming the field', async () => {
     const viewer = await t.as('viewer');
-    expect((await viewer.post('/api/analysis/value').send({ text: '4k7', quantity: 'resistance' })).body).toEqual({ value: 4700, unit: 'Ω' });
+    expect((await viewer.post('/api/analysis/value').send({ text: '4k7', quantity: 'resistance' })).body).toEqual({
+      value: 4700,
+      unit: 'Ω',
+    });
     expect((await viewer.post('/api/analysis/value').send({ text: '0,022 µF' })).body.value).toBeCloseTo(22e-9, 20);
     const ambiguous = await viewer.post('/api/analysis/value').send({ text: '1m', quantity: 'resistance' });
     expect(ambiguous.status).toBe(422);
@@ -31,7 +34,10 @@ describe('stateless analysis routes (any signed-in role)', () => {
   });
 
   test('taper: the route answers exactly what the engine computes for the same points', async () => {
-    const points = Array.from({ length: 31 }, (_, i) => ({ rotation: i * 10, resistance: 480e3 * taperLawValue('audio', 0.15, i / 30) + 250 }));
+    const points = Array.from({ length: 31 }, (_, i) => ({
+      rotation: i * 10,
+      resistance: 480e3 * taperLawValue('audio', 0.15, i / 30) + 250,
+    }));
     const body = { points, rotationUnit: 'deg' as const, nominal: 500e3, tolerancePct: 20 };
     const res = await (await t.as('tech')).post('/api/analysis/taper').send(body);
     expect(res.status).toBe(200);
@@ -41,7 +47,11 @@ describe('stateless analysis routes (any signed-in role)', () => {
   });
 
   test('taper: a bad point is a 422 naming its row and field', async () => {
-    const points = [{ rotation: 0, resistance: 100 }, { rotation: 150, resistance: 70e3 }, { rotation: 300, resistance: -1 }];
+    const points = [
+      { rotation: 0, resistance: 100 },
+      { rotation: 150, resistance: 70e3 },
+      { rotation: 300, resistance: -1 },
+    ];
     const res = await (await t.as('tech')).post('/api/analysis/taper').send({ points, rotationUnit: 'deg' });
     expect(res.status).toBe(422);
     expect(Object.keys(res.body.error.fields)).toContain('points.2.resistance');
@@ -90,13 +100,17 @@ describe('stateless analysis routes (any signed-in role)', () => {
     expect(res.body.L).toBe(fitCoil({ points, withRp: 'auto' }).L);
   });
 
-  test('lot: statistics equal the engine\'s; a second quantity of the wrong length is refused', async () => {
+  test("lot: statistics equal the engine's; a second quantity of the wrong length is refused", async () => {
     const values = Array.from({ length: 500 }, (_, i) => 47e-9 * (1 + 0.03 * Math.sin(i * 1.7)));
     const res = await (await t.as('qa')).post('/api/analysis/lot').send({ values, nominal: 47e-9, tolerancePct: 5 });
     expect(res.status).toBe(200);
     const engine = lotStatistics({ values, nominal: 47e-9, tolerancePct: 5 });
     expect(res.body).toMatchObject({ n: 500, mean: engine.mean, sd: engine.sd, median: engine.median, cp: engine.cp, cpk: engine.cpk });
-    const bad = await (await t.as('qa')).post('/api/analysis/lot').send({ values, nominal: 47e-9, tolerancePct: 5, second: { values: [0.001], max: 0.01 } });
+    const bad = await (
+      await t.as('qa')
+    )
+      .post('/api/analysis/lot')
+      .send({ values, nominal: 47e-9, tolerancePct: 5, second: { values: [0.001], max: 0.01 } });
     expect(bad.status).toBe(422);
     expect(bad.body.error.fields).toHaveProperty(['second.values']);
   });

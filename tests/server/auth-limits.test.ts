@@ -27,7 +27,11 @@ describe('password resets', () => {
 
   test('30 reset requests at once send at most 3 e-mails; the rest are 429 with Retry-After', async () => {
     const before = mailsTo('tech@lugbook.test').length;
-    const answers = await Promise.all(Array.from({ length: 30 }, () => t.anon().post('/api/auth/request-reset').set('X-Forwarded-For', '10.0.0.9').send({ email: 'tech@lugbook.test' })));
+    const answers = await Promise.all(
+      Array.from({ length: 30 }, () =>
+        t.anon().post('/api/auth/request-reset').set('X-Forwarded-For', '10.0.0.9').send({ email: 'tech@lugbook.test' }),
+      ),
+    );
     expect(mailsTo('tech@lugbook.test').length - before).toBe(3);
     const refused = answers.filter((a) => a.status === 429);
     // 3 for the account; the address allows 10, so the other 27 are refused by one limit or the other.
@@ -37,7 +41,16 @@ describe('password resets', () => {
 
   test('an address is limited across accounts (10 requests in the window)', async () => {
     const statuses: number[] = [];
-    for (let i = 0; i < 12; i++) statuses.push((await t.anon().post('/api/auth/request-reset').set('X-Forwarded-For', '10.0.0.10').send({ email: `nobody${i}@lugbook.test` })).status);
+    for (let i = 0; i < 12; i++)
+      statuses.push(
+        (
+          await t
+            .anon()
+            .post('/api/auth/request-reset')
+            .set('X-Forwarded-For', '10.0.0.10')
+            .send({ email: `nobody${i}@lugbook.test` })
+        ).status,
+      );
     expect(statuses.filter((s) => s === 200)).toHaveLength(10);
     expect(statuses.slice(10)).toEqual([429, 429]);
   });
@@ -46,7 +59,14 @@ describe('password resets', () => {
 describe('sign-in refusals', () => {
   test('failures from one address do not lock the account for another address; the refusal is 429 with Retry-After', async () => {
     const from = (ip: string) => t.anon().set('X-Forwarded-For', ip);
-    for (let i = 0; i < 3; i++) expect((await from('10.0.1.1').post('/api/auth/sign-in').send({ email: 'viewer@lugbook.test', password: `wrong-${i}` })).status).toBe(401);
+    for (let i = 0; i < 3; i++)
+      expect(
+        (
+          await from('10.0.1.1')
+            .post('/api/auth/sign-in')
+            .send({ email: 'viewer@lugbook.test', password: `wrong-${i}` })
+        ).status,
+      ).toBe(401);
     const waiting = await from('10.0.1.1').post('/api/auth/sign-in').send({ email: 'viewer@lugbook.test', password: TEST_PASSWORD });
     expect(waiting.status).toBe(429);
     expect(Number(waiting.headers['retry-after'])).toBeGreaterThan(0);
@@ -70,8 +90,16 @@ describe('sign-in refusals', () => {
   });
 
   test('an unknown account is refused like a known one (same status and message)', async () => {
-    const unknown = await t.anon().set('X-Forwarded-For', '10.0.2.1').post('/api/auth/sign-in').send({ email: 'ghost@lugbook.test', password: 'whatever-pass' });
-    const known = await t.anon().set('X-Forwarded-For', '10.0.2.1').post('/api/auth/sign-in').send({ email: 'admin@lugbook.test', password: 'whatever-pass' });
+    const unknown = await t
+      .anon()
+      .set('X-Forwarded-For', '10.0.2.1')
+      .post('/api/auth/sign-in')
+      .send({ email: 'ghost@lugbook.test', password: 'whatever-pass' });
+    const known = await t
+      .anon()
+      .set('X-Forwarded-For', '10.0.2.1')
+      .post('/api/auth/sign-in')
+      .send({ email: 'admin@lugbook.test', password: 'whatever-pass' });
     expect(unknown.status).toBe(401);
     expect(unknown.body).toEqual(known.body);
   });

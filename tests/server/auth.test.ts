@@ -15,7 +15,10 @@ async function newMember(email: string, role: 'tech' | 'viewer' = 'tech') {
   const admin = await t.as('admin');
   await admin.post('/api/team/invitations').send({ email, role }).expect(201);
   const agent = t.anon();
-  await agent.post('/api/auth/accept-invite').send({ token: lastMailedToken(email), name: 'Bench Member', password: 'a-long-bench-passphrase' }).expect(200);
+  await agent
+    .post('/api/auth/accept-invite')
+    .send({ token: lastMailedToken(email), name: 'Bench Member', password: 'a-long-bench-passphrase' })
+    .expect(200);
   return agent;
 }
 
@@ -51,15 +54,24 @@ describe('sign-in and sessions', () => {
   });
 
   test('repeated failures lock the account (429) even with the right password, and are logged', async () => {
-    for (let i = 0; i < 3; i++) await t.anon().post('/api/auth/sign-in').send({ email: 'viewer@lugbook.test', password: 'wrong-guess-' + i });
+    for (let i = 0; i < 3; i++)
+      await t
+        .anon()
+        .post('/api/auth/sign-in')
+        .send({ email: 'viewer@lugbook.test', password: 'wrong-guess-' + i });
     const locked = await t.anon().post('/api/auth/sign-in').send({ email: 'viewer@lugbook.test', password: TEST_PASSWORD });
     expect(locked.status).toBe(429);
-    const refusals = t.ctx.sqlite.prepare("select count(*) as n from audit_log where action = 'auth.sign-in-refused' and entity_id = 'viewer@lugbook.test'").get() as { n: number };
+    const refusals = t.ctx.sqlite
+      .prepare("select count(*) as n from audit_log where action = 'auth.sign-in-refused' and entity_id = 'viewer@lugbook.test'")
+      .get() as { n: number };
     expect(refusals.n).toBe(4);
   });
 
   test('a state-changing request from another origin is refused (403)', async () => {
-    const res = await newAgent(t.app).set('Origin', 'http://evil.example').post('/api/auth/sign-in').send({ email: 'tech@lugbook.test', password: TEST_PASSWORD });
+    const res = await newAgent(t.app)
+      .set('Origin', 'http://evil.example')
+      .post('/api/auth/sign-in')
+      .send({ email: 'tech@lugbook.test', password: TEST_PASSWORD });
     expect(res.status).toBe(403);
     expect(res.body.error.code).toBe('bad_origin');
   });
@@ -67,13 +79,29 @@ describe('sign-in and sessions', () => {
   test('a session past its absolute lifetime is ended although it was used recently', async () => {
     // Only this agent's session is aged, so other tests' admin sessions live on (any order).
     const admin = t.ctx.db.select().from(users).where(eq(users.email, 'admin@lugbook.test')).get()!;
-    const before = new Set(t.ctx.db.select().from(sessions).where(eq(sessions.userId, admin.id)).all().map((x) => x.id));
+    const before = new Set(
+      t.ctx.db
+        .select()
+        .from(sessions)
+        .where(eq(sessions.userId, admin.id))
+        .all()
+        .map((x) => x.id),
+    );
     const agent = t.anon();
     await agent.post('/api/auth/sign-in').send({ email: 'admin@lugbook.test', password: TEST_PASSWORD }).expect(200);
     expect((await agent.get('/api/auth/me')).body.user).not.toBeNull();
-    const mine = t.ctx.db.select().from(sessions).where(eq(sessions.userId, admin.id)).all().filter((x) => !before.has(x.id));
+    const mine = t.ctx.db
+      .select()
+      .from(sessions)
+      .where(eq(sessions.userId, admin.id))
+      .all()
+      .filter((x) => !before.has(x.id));
     expect(mine).toHaveLength(1);
-    t.ctx.db.update(sessions).set({ createdAt: Date.now() - SESSION_ABSOLUTE_MS - 1000 }).where(eq(sessions.id, mine[0]!.id)).run();
+    t.ctx.db
+      .update(sessions)
+      .set({ createdAt: Date.now() - SESSION_ABSOLUTE_MS - 1000 })
+      .where(eq(sessions.id, mine[0]!.id))
+      .run();
     expect((await agent.get('/api/auth/me')).body.user).toBeNull();
     expect((await agent.get('/api/team/members')).status).toBe(401);
   });
@@ -102,7 +130,9 @@ describe('invitations and password reset', () => {
     const token = lastMailedToken('late@lugbook.test');
     t.ctx.sqlite.prepare("update invitations set expires_at = ? where email = 'late@lugbook.test'").run(Date.now() - 1);
     expect((await t.anon().get(`/api/auth/invitations/${token}`)).status).toBe(404);
-    expect((await t.anon().post('/api/auth/accept-invite').send({ token, name: 'Late', password: 'a-long-bench-passphrase' })).status).toBe(410);
+    expect((await t.anon().post('/api/auth/accept-invite').send({ token, name: 'Late', password: 'a-long-bench-passphrase' })).status).toBe(
+      410,
+    );
   });
 
   test('password reset by e-mail sets a new password and ends the old sessions', async () => {
@@ -127,7 +157,9 @@ describe('invitations and password reset', () => {
     const member = t.ctx.db.select().from(users).where(eq(users.email, 'leaving.tech@lugbook.test')).get()!;
     await admin.patch(`/api/team/members/${member.id}`).send({ disabled: true }).expect(200);
     expect((await victim.get('/api/auth/me')).body.user).toBeNull();
-    expect((await t.anon().post('/api/auth/sign-in').send({ email: 'leaving.tech@lugbook.test', password: 'a-long-bench-passphrase' })).status).toBe(401);
+    expect(
+      (await t.anon().post('/api/auth/sign-in').send({ email: 'leaving.tech@lugbook.test', password: 'a-long-bench-passphrase' })).status,
+    ).toBe(401);
   });
 });
 

@@ -12,7 +12,8 @@ const lotIds: Record<string, number> = {};
 
 function potCsv(law: TaperLawKind, m: number, total: number): string {
   const lines = ['Rotation (deg),R (kOhm)'];
-  for (let deg = 0; deg <= 300; deg += 10) lines.push(`${deg},${((200 + (total - 200) * taperLawValue(law, m, deg / 300)) / 1e3).toFixed(4)}`);
+  for (let deg = 0; deg <= 300; deg += 10)
+    lines.push(`${deg},${((200 + (total - 200) * taperLawValue(law, m, deg / 300)) / 1e3).toFixed(4)}`);
   return lines.join('\n') + '\n';
 }
 
@@ -29,9 +30,29 @@ interface PotSpec {
 }
 
 const SPECS: PotSpec[] = [
-  { label: 'CMP-A1', lot: 'A', supplier: 'Alder Works', nominal: 500e3, taperClass: 'audio', law: 'audio', m: 0.12, total: 470e3, tags: 'study, bright' },
+  {
+    label: 'CMP-A1',
+    lot: 'A',
+    supplier: 'Alder Works',
+    nominal: 500e3,
+    taperClass: 'audio',
+    law: 'audio',
+    m: 0.12,
+    total: 470e3,
+    tags: 'study, bright',
+  },
   { label: 'CMP-A2', lot: 'A', supplier: 'Alder Works', nominal: 500e3, taperClass: 'audio', law: 'audio', m: 0.15, total: 505e3 },
-  { label: 'CMP-A3', lot: 'A', supplier: 'Alder Works', nominal: 500e3, taperClass: 'audio', law: 'audio', m: 0.18, total: 540e3, tags: 'study' },
+  {
+    label: 'CMP-A3',
+    lot: 'A',
+    supplier: 'Alder Works',
+    nominal: 500e3,
+    taperClass: 'audio',
+    law: 'audio',
+    m: 0.18,
+    total: 540e3,
+    tags: 'study',
+  },
   { label: 'CMP-B1', lot: 'B', supplier: 'Alder Works', nominal: 250e3, taperClass: 'audio', law: 'audio', m: 0.1, total: 240e3 },
   { label: 'CMP-B2', lot: 'B', supplier: 'Alder Works', nominal: 250e3, taperClass: 'audio', law: 'audio', m: 0.11, total: 262e3 },
   { label: 'CMP-C1', lot: 'C', supplier: '=SUM(1,2)', nominal: 500e3, taperClass: 'linear', law: 'linear', m: 0.5, total: 495e3 },
@@ -43,29 +64,71 @@ beforeAll(async () => {
   const tech = await t.as('tech');
   for (const code of ['A', 'B', 'C'] as const) {
     const spec = SPECS.find((s) => s.lot === code)!;
-    const res = await tech.post('/api/lots').send({ code: `CMP-LOT-${code}`, kind: 'pot', nominal: spec.nominal, tolerancePct: 20, supplier: spec.supplier });
+    const res = await tech
+      .post('/api/lots')
+      .send({ code: `CMP-LOT-${code}`, kind: 'pot', nominal: spec.nominal, tolerancePct: 20, supplier: spec.supplier });
     expect(res.status).toBe(201);
     lotIds[code] = res.body.id;
   }
   for (const s of SPECS) {
-    const res = await tech.post('/api/parts').send({ kind: 'pot', label: s.label, nominal: s.nominal, tolerancePct: 20, taperClass: s.taperClass, supplier: s.supplier, tags: s.tags });
+    const res = await tech.post('/api/parts').send({
+      kind: 'pot',
+      label: s.label,
+      nominal: s.nominal,
+      tolerancePct: 20,
+      taperClass: s.taperClass,
+      supplier: s.supplier,
+      tags: s.tags,
+    });
     expect(res.status).toBe(201);
     ids[s.label] = res.body.id;
     // The parts API has no lot field (parts join a lot by promotion from its readings); link directly.
     t.ctx.db.update(parts).set({ lotId: lotIds[s.lot] }).where(eq(parts.id, res.body.id)).run();
-    const up = await tech.post(`/api/parts/${res.body.id}/sweeps`).field('kind', 'taper').attach('file', Buffer.from(potCsv(s.law, s.m, s.total)), `${s.label}.csv`);
+    const up = await tech
+      .post(`/api/parts/${res.body.id}/sweeps`)
+      .field('kind', 'taper')
+      .attach('file', Buffer.from(potCsv(s.law, s.m, s.total)), `${s.label}.csv`);
     expect(up.status).toBe(201);
   }
   // A pot without a sweep: never part of a comparison.
-  ids['CMP-NOSWEEP'] = (await tech.post('/api/parts').send({ kind: 'pot', label: 'CMP-NOSWEEP', nominal: 500e3, tolerancePct: 20, taperClass: 'audio' }).expect(201)).body.id;
+  ids['CMP-NOSWEEP'] = (
+    await tech
+      .post('/api/parts')
+      .send({ kind: 'pot', label: 'CMP-NOSWEEP', nominal: 500e3, tolerancePct: 20, taperClass: 'audio' })
+      .expect(201)
+  ).body.id;
   // Creation dates for the date filter.
-  t.ctx.db.update(parts).set({ createdAt: Date.parse('2001-03-10T12:00:00Z') }).where(eq(parts.id, ids['CMP-A1']!)).run();
-  t.ctx.db.update(parts).set({ createdAt: Date.parse('2001-03-12T23:30:00Z') }).where(eq(parts.id, ids['CMP-A2']!)).run();
+  t.ctx.db
+    .update(parts)
+    .set({ createdAt: Date.parse('2001-03-10T12:00:00Z') })
+    .where(eq(parts.id, ids['CMP-A1']!))
+    .run();
+  t.ctx.db
+    .update(parts)
+    .set({ createdAt: Date.parse('2001-03-12T23:30:00Z') })
+    .where(eq(parts.id, ids['CMP-A2']!))
+    .run();
 });
 afterAll(() => t.close());
 
-type Pot = { partId: number; label: string; nominal: number | null; taperClass: string | null; group: string; fit: { m: number; total: number; r2: number; law: string }; curve: { x: number[]; y: number[] }; gridCurve: (number | null)[] };
-type Group = { key: string; label: string; partIds: number[]; m: Record<string, number | null>; total: Record<string, number | null>; envelope: { mean: (number | null)[] } };
+type Pot = {
+  partId: number;
+  label: string;
+  nominal: number | null;
+  taperClass: string | null;
+  group: string;
+  fit: { m: number; total: number; r2: number; law: string };
+  curve: { x: number[]; y: number[] };
+  gridCurve: (number | null)[];
+};
+type Group = {
+  key: string;
+  label: string;
+  partIds: number[];
+  m: Record<string, number | null>;
+  total: Record<string, number | null>;
+  envelope: { mean: (number | null)[] };
+};
 
 async function tapers(selection: object, groupBy = 'lot') {
   const res = await (await t.as('viewer')).post('/api/compare/tapers').send({ selection, groupBy });
@@ -77,7 +140,13 @@ const labels = (body: { pots: Pot[] }) => body.pots.map((p) => p.label).sort();
 const mine = (body: { pots: Pot[] }) => labels(body).filter((l) => l.startsWith('CMP-'));
 /** Pots with a current taper fit, counted straight from the tables. */
 const fittedPotCount = () =>
-  (t.ctx.sqlite.prepare("select count(distinct f.part_id) as n from fits f join parts p on p.id = f.part_id where f.kind = 'taper' and f.superseded_at is null and p.kind = 'pot'").get() as { n: number }).n;
+  (
+    t.ctx.sqlite
+      .prepare(
+        "select count(distinct f.part_id) as n from fits f join parts p on p.id = f.part_id where f.kind = 'taper' and f.superseded_at is null and p.kind = 'pot'",
+      )
+      .get() as { n: number }
+  ).n;
 
 describe('taper comparison', () => {
   test('with no filter: every pot with a current taper fit, grouped by lot, each curve normalised by the fit total', async () => {
@@ -174,7 +243,9 @@ describe('saved comparisons', () => {
   test('a tech saves a study; a viewer can open and export it but not change or delete it', async () => {
     const tech = await t.as('tech');
     const viewer = await t.as('viewer');
-    const created = await tech.post('/api/comparisons').send({ name: 'Lots A and C', selection: { lotIds: [lotIds.A, lotIds.C] }, settings: { groupBy: 'supplier', toleranceDb: 0.5 } });
+    const created = await tech
+      .post('/api/comparisons')
+      .send({ name: 'Lots A and C', selection: { lotIds: [lotIds.A, lotIds.C] }, settings: { groupBy: 'supplier', toleranceDb: 0.5 } });
     expect(created.status).toBe(201);
     const id = created.body.id;
     expect(created.body.ownerName).toBeTruthy();
@@ -184,7 +255,13 @@ describe('saved comparisons', () => {
     const opened = await viewer.get(`/api/comparisons/${id}`);
     expect(opened.status).toBe(200);
     expect(opened.body.settings).toEqual({ groupBy: 'supplier', toleranceDb: 0.5 });
-    expect(labels(await tapers(opened.body.selection, opened.body.settings.groupBy))).toEqual(['CMP-A1', 'CMP-A2', 'CMP-A3', 'CMP-C1', 'CMP-C2']);
+    expect(labels(await tapers(opened.body.selection, opened.body.settings.groupBy))).toEqual([
+      'CMP-A1',
+      'CMP-A2',
+      'CMP-A3',
+      'CMP-C1',
+      'CMP-C2',
+    ]);
 
     const csv = await viewer.get(`/api/comparisons/${id}/export.csv`);
     expect(csv.status).toBe(200);
@@ -193,7 +270,10 @@ describe('saved comparisons', () => {
     const conditions = Object.fromEntries(readConditions(csv.text).map((c) => [c.key, c.value]));
     expect(conditions).toMatchObject({ 'grouped by': 'supplier', pots: '5' });
     expect(conditions.comparison).toMatch(new RegExp(`\\(#${id}\\)$`));
-    const lines = csv.text.trim().split(/\r?\n/).filter((l) => !l.startsWith('# '));
+    const lines = csv.text
+      .trim()
+      .split(/\r?\n/)
+      .filter((l) => !l.startsWith('# '));
     expect(lines[0]).toMatch(/^part,group,lot,supplier,nominal_ohm,law,m,r2/);
     expect(lines).toHaveLength(6);
     // OWASP CSV injection: a cell starting with = is escaped with a leading quote.
@@ -213,7 +293,9 @@ describe('saved comparisons', () => {
     const renamed = await tech.patch(`/api/comparisons/${id}`).send({ name: 'All pots', settings: { groupBy: 'none' } });
     expect(renamed.status).toBe(200);
     expect(renamed.body).toMatchObject({ name: 'All pots', selection: {}, settings: { groupBy: 'none' } });
-    expect((await qa.patch(`/api/comparisons/${id}`).send({ selection: { taperClasses: ['linear'] } })).body.selection).toEqual({ taperClasses: ['linear'] });
+    expect((await qa.patch(`/api/comparisons/${id}`).send({ selection: { taperClasses: ['linear'] } })).body.selection).toEqual({
+      taperClasses: ['linear'],
+    });
     expect((await tech.delete(`/api/comparisons/${id}`)).status).toBe(200);
     expect((await tech.get(`/api/comparisons/${id}`)).status).toBe(404);
   });
@@ -223,7 +305,9 @@ describe('saved comparisons', () => {
     const labelsHere = body.pots.map((p: { label: string }) => p.label);
     expect(labelsHere).toContain('CMP-A1');
     expect(labelsHere).not.toContain('CMP-NOSWEEP');
-    expect(body.lots.filter((l: { code: string }) => l.code.startsWith('CMP-LOT')).map((l: { count: number }) => l.count)).toEqual([3, 2, 2]);
+    expect(body.lots.filter((l: { code: string }) => l.code.startsWith('CMP-LOT')).map((l: { count: number }) => l.count)).toEqual([
+      3, 2, 2,
+    ]);
     expect(body.nominals).toEqual(expect.arrayContaining([250e3, 500e3]));
     expect(body.tags).toEqual(expect.arrayContaining(['study', 'bright']));
   });

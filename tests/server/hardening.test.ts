@@ -16,17 +16,32 @@ beforeAll(async () => {
   t = await createTestApp();
   const tech = await t.as('tech');
   lotId = (await tech.post('/api/lots').send({ kind: 'capacitor', marking: '473J' }).expect(201)).body.id;
-  partId = (await tech.post('/api/parts').send({ kind: 'pot', label: 'POT-HARD-1', nominal: 500e3, tolerancePct: 20, taperClass: 'audio' }).expect(201)).body.id;
+  partId = (
+    await tech
+      .post('/api/parts')
+      .send({ kind: 'pot', label: 'POT-HARD-1', nominal: 500e3, tolerancePct: 20, taperClass: 'audio' })
+      .expect(201)
+  ).body.id;
 });
 afterAll(() => t.close());
 
-const PNG = Buffer.from('89504e470d0a1a0a0000000d49484452000000010000000108060000001f15c4890000000d49444154789c6360000002000154a24f5d0000000049454e44ae426082', 'hex');
-const incomingFiles = () => (fs.existsSync(incomingDir(t.ctx.config.uploadsDir)) ? fs.readdirSync(incomingDir(t.ctx.config.uploadsDir)) : []);
+const PNG = Buffer.from(
+  '89504e470d0a1a0a0000000d49484452000000010000000108060000001f15c4890000000d49444154789c6360000002000154a24f5d0000000049454e44ae426082',
+  'hex',
+);
+const incomingFiles = () =>
+  fs.existsSync(incomingDir(t.ctx.config.uploadsDir)) ? fs.readdirSync(incomingDir(t.ctx.config.uploadsDir)) : [];
 const expectEnvelope = (body: unknown) => expect(body).toMatchObject({ error: { code: expect.any(String), message: expect.any(String) } });
 
 describe('malformed multipart on every upload route answers 400', () => {
-  const routes = () => [`/api/lots/${lotId}/readings`, `/api/parts/${partId}/sweeps`, `/api/parts/${partId}/attachments`, `/api/lots/${lotId}/attachments`];
-  const part = '--zzz\r\nContent-Disposition: form-data; name="file"; filename="a.csv"\r\nContent-Type: text/csv\r\n\r\nItem,C (nF)\r\n1,47\r\n';
+  const routes = () => [
+    `/api/lots/${lotId}/readings`,
+    `/api/parts/${partId}/sweeps`,
+    `/api/parts/${partId}/attachments`,
+    `/api/lots/${lotId}/attachments`,
+  ];
+  const part =
+    '--zzz\r\nContent-Disposition: form-data; name="file"; filename="a.csv"\r\nContent-Type: text/csv\r\n\r\nItem,C (nF)\r\n1,47\r\n';
   const cases: [string, Record<string, string>, string][] = [
     ['no boundary', { 'Content-Type': 'multipart/form-data' }, part + '--zzz--\r\n'],
     ['a boundary the body does not use', { 'Content-Type': 'multipart/form-data; boundary=yyy' }, part + '--zzz--\r\n'],
@@ -58,7 +73,9 @@ describe('reproduced 500s answer 4xx', () => {
 
   test('a part with an unknown tolerance profile is 422 naming profileId, on create and on change', async () => {
     const tech = await t.as('tech');
-    const created = await tech.post('/api/parts').send({ kind: 'pot', label: 'POT-HARD-2', nominal: 500e3, tolerancePct: 20, profileId: 99_999 });
+    const created = await tech
+      .post('/api/parts')
+      .send({ kind: 'pot', label: 'POT-HARD-2', nominal: 500e3, tolerancePct: 20, profileId: 99_999 });
     expect(created.status).toBe(422);
     expect(created.body.error.fields).toHaveProperty('profileId');
     const changed = await tech.patch(`/api/parts/${partId}`).send({ profileId: 99_999 });
@@ -72,9 +89,13 @@ describe('reproduced 500s answer 4xx', () => {
     const sweep = await viewer.post('/api/harness/sweep').send({ preset: 'bleed-cap', values: { bleedC: 1e308 } });
     expect(sweep.status).toBe(422);
     expectEnvelope(sweep.body);
-    const sim = await viewer.post('/api/harness/simulate').send({ preset: 'bleed-cap', knobs: { volume: 10, tone: 10 }, values: { bleedC: 1e308 } });
+    const sim = await viewer
+      .post('/api/harness/simulate')
+      .send({ preset: 'bleed-cap', knobs: { volume: 10, tone: 10 }, values: { bleedC: 1e308 } });
     expect(sim.status).toBe(422);
-    const tiny = await viewer.post('/api/harness/simulate').send({ preset: 'bleed-cap', knobs: { volume: 10, tone: 10 }, frequencies: [5e-324, 1000] });
+    const tiny = await viewer
+      .post('/api/harness/simulate')
+      .send({ preset: 'bleed-cap', knobs: { volume: 10, tone: 10 }, frequencies: [5e-324, 1000] });
     expect(tiny.status, JSON.stringify(tiny.body)).toBe(422);
   });
 
@@ -83,8 +104,14 @@ describe('reproduced 500s answer 4xx', () => {
     const design = await tech.post('/api/harnesses').send({ name: 'Far out', preset: 'bleed-cap', values: {} });
     expect(design.status).toBe(201);
     // Written straight to the table: the state of a design saved before the ranges were checked.
-    t.ctx.db.update(harnesses).set({ values: { bleedC: 1e308 } }).where(eq(harnesses.id, design.body.id)).run();
-    const job = await tech.post('/api/jobs').send({ customer: 'R. Example', customerEmail: 'r@example.test', instrument: 'Bass', harnessId: design.body.id });
+    t.ctx.db
+      .update(harnesses)
+      .set({ values: { bleedC: 1e308 } })
+      .where(eq(harnesses.id, design.body.id))
+      .run();
+    const job = await tech
+      .post('/api/jobs')
+      .send({ customer: 'R. Example', customerEmail: 'r@example.test', instrument: 'Bass', harnessId: design.body.id });
     expect(job.status, JSON.stringify(job.body)).toBe(201);
     const report = await tech.get(`/api/jobs/${job.body.id}/report`);
     expect(report.status, JSON.stringify(report.body)).toBe(200);
@@ -92,7 +119,9 @@ describe('reproduced 500s answer 4xx', () => {
   });
 
   test('fullRotationDeg=5e-324 is 422 naming the field', async () => {
-    const res = await (await t.as('tech'))
+    const res = await (
+      await t.as('tech')
+    )
       .post(`/api/parts/${partId}/sweeps`)
       .field('kind', 'taper')
       .field('fullRotationDeg', '5e-324')
@@ -137,7 +166,12 @@ describe('stored files are never served as pages', () => {
 
   test('a PDF downloads (attachment) and its UTF-8 name survives (RFC 6266/5987)', async () => {
     const pdf = Buffer.from('%PDF-1.4\n1 0 obj<<>>endobj\ntrailer<<>>\n%%EOF\n');
-    const up = await (await t.as('tech')).post(`/api/parts/${partId}/attachments`).field('purpose', 'certificate').attach('file', pdf, 'résumé.pdf');
+    const up = await (
+      await t.as('tech')
+    )
+      .post(`/api/parts/${partId}/attachments`)
+      .field('purpose', 'certificate')
+      .attach('file', pdf, 'résumé.pdf');
     expect(up.status).toBe(201);
     expect(up.body.originalName).toBe('résumé.pdf');
     const back = await (await t.as('viewer')).get(`/api/attachments/${up.body.id}/file`);
@@ -147,7 +181,11 @@ describe('stored files are never served as pages', () => {
   });
 
   test('a lot export stored as CSV is never served as text/html, and downloads', async () => {
-    const res = await (await t.as('tech')).post(`/api/lots/${lotId}/readings`).attach('file', Buffer.from('Item,C (nF)\n1,47\n2,47.5\n'), 'x.html.csv');
+    const res = await (
+      await t.as('tech')
+    )
+      .post(`/api/lots/${lotId}/readings`)
+      .attach('file', Buffer.from('Item,C (nF)\n1,47\n2,47.5\n'), 'x.html.csv');
     expect(res.status).toBe(201);
     const list = (await (await t.as('viewer')).get(`/api/lots/${lotId}/attachments`)).body.attachments;
     const back = await (await t.as('viewer')).get(`/api/attachments/${list[0].id}/file`);
@@ -162,7 +200,14 @@ describe('no leftover files', () => {
     const csv = Buffer.from('Item,C (nF)\n1,47\n');
     expect((await tech.post(`/api/lots/${lotId}/readings`).field('replace', 'maybe').attach('file', csv, 'l.csv')).status).toBe(422);
     expect((await tech.post('/api/lots/99999/readings').attach('file', csv, 'l.csv')).status).toBe(404);
-    expect((await tech.post(`/api/lots/${lotId}/readings`).field('replace', 'true').attach('file', Buffer.from('Item,C (nF)\n1,forty\n'), 'l.csv')).status).toBe(422);
+    expect(
+      (
+        await tech
+          .post(`/api/lots/${lotId}/readings`)
+          .field('replace', 'true')
+          .attach('file', Buffer.from('Item,C (nF)\n1,forty\n'), 'l.csv')
+      ).status,
+    ).toBe(422);
     expect((await tech.post(`/api/lots/${lotId}/readings`).attach('file', csv, 'l.pdf')).status).toBe(415);
     expect(incomingFiles()).toEqual([]);
   });
@@ -184,9 +229,11 @@ describe('no leftover files', () => {
 });
 
 describe('job reports', () => {
-  test('go only to the job\'s customer address or a member\'s address', async () => {
+  test("go only to the job's customer address or a member's address", async () => {
     const tech = await t.as('tech');
-    const job = (await tech.post('/api/jobs').send({ customer: 'S. Example', customerEmail: 's@example.test', instrument: 'Guitar' }).expect(201)).body;
+    const job = (
+      await tech.post('/api/jobs').send({ customer: 'S. Example', customerEmail: 's@example.test', instrument: 'Guitar' }).expect(201)
+    ).body;
     const stranger = await tech.post(`/api/jobs/${job.id}/report`).send({ to: 'someone@elsewhere.test' });
     expect(stranger.status).toBe(422);
     expect(stranger.body.error.fields).toHaveProperty('to');
@@ -196,14 +243,20 @@ describe('job reports', () => {
 });
 
 describe('bounds on work size', () => {
-  test('a harness sweep beyond the bounds is 422 with the limit in words; the screen\'s own sweep passes', async () => {
+  test("a harness sweep beyond the bounds is 422 with the limit in words; the screen's own sweep passes", async () => {
     const viewer = await t.as('viewer');
     const grid = Array.from({ length: 41 }, (_, i) => i / 4);
     const frequencies = Array.from({ length: 2000 }, (_, i) => 20 * 1.0035 ** i);
     const big = await viewer.post('/api/harness/sweep').send({ preset: 'bleed-cap', volume: grid, tone: grid, frequencies });
     expect(big.status).toBe(422);
     expect(big.body.error.message).toMatch(/at most 48,400 points/);
-    const parts = Array.from({ length: 61 }, (_, i) => ({ kind: 'resistor', id: `R${i}`, a: i === 0 ? 'hot' : `n${i}`, b: `n${i + 1}`, R: 1000 }));
+    const parts = Array.from({ length: 61 }, (_, i) => ({
+      kind: 'resistor',
+      id: `R${i}`,
+      a: i === 0 ? 'hot' : `n${i}`,
+      b: `n${i + 1}`,
+      R: 1000,
+    }));
     const many = await viewer.post('/api/harness/simulate').send({ netlist: { parts }, knobs: { volume: 10, tone: 10 } });
     expect(many.status).toBe(422);
     expect(many.body.error.message).toMatch(/at most 60 parts/);

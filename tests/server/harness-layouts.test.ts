@@ -37,8 +37,14 @@ describe('layouts', () => {
     expect(neckR).not.toBe(bridgeR);
   });
 
-  test('simulate with a layout answers the engine, with each pickup\'s own transfer', async () => {
-    const body = { layout: 'three-pickups-5way', selector: 3, knobs: { volume: 6, tone2: 3 }, options: { phase: 'reversed', tone2Serves: 'middle-bridge' }, values: { 'middle.pickupL': 2.7 } };
+  test("simulate with a layout answers the engine, with each pickup's own transfer", async () => {
+    const body = {
+      layout: 'three-pickups-5way',
+      selector: 3,
+      knobs: { volume: 6, tone2: 3 },
+      options: { phase: 'reversed', tone2Serves: 'middle-bridge' },
+      values: { 'middle.pickupL': 2.7 },
+    };
     const res = await (await t.as('viewer')).post('/api/harness/simulate').send(body);
     expect(res.status).toBe(200);
     const layout = getLayout('three-pickups-5way')!;
@@ -52,20 +58,33 @@ describe('layouts', () => {
   });
 
   test('a cancelled output answers "no signal (cancelled)" without figures', async () => {
-    const res = await (await t.as('viewer')).post('/api/harness/simulate').send({ layout: 'dual-coil', options: { coils: 'series-reversed' } });
+    const res = await (
+      await t.as('viewer')
+    )
+      .post('/api/harness/simulate')
+      .send({ layout: 'dual-coil', options: { coils: 'series-reversed' } });
     expect(res.status).toBe(200);
     expect(res.body.signal).toBe('cancelled');
     expect(res.body.note).toBe('no signal (cancelled)');
     expect(res.body.metrics).toBeNull();
   });
 
-  test('the older preset body keeps working and equals the one-pickup layout with the preset\'s options', async () => {
+  test("the older preset body keeps working and equals the one-pickup layout with the preset's options", async () => {
     const agent = await t.as('viewer');
-    const a = await agent.post('/api/harness/simulate').send({ preset: 'dual-cap-tone', values: { toneC: 33e-9 }, knobs: { volume: 4, tone: 2 } });
-    const b = await agent.post('/api/harness/simulate').send({ layout: 'one-pickup', options: { toneNetwork: 'floor-and-second-cap' }, values: { toneC: 33e-9 }, knobs: { volume: 4, tone: 2 } });
+    const a = await agent
+      .post('/api/harness/simulate')
+      .send({ preset: 'dual-cap-tone', values: { toneC: 33e-9 }, knobs: { volume: 4, tone: 2 } });
+    const b = await agent.post('/api/harness/simulate').send({
+      layout: 'one-pickup',
+      options: { toneNetwork: 'floor-and-second-cap' },
+      values: { toneC: 33e-9 },
+      knobs: { volume: 4, tone: 2 },
+    });
     expect(a.status).toBe(200);
     const preset = getPreset('dual-cap-tone')!;
-    expect(a.body.magnitudeDb).toEqual(Array.from(simulate(preset.build({ ...preset.defaults, toneC: 33e-9 }), { volume: 4, tone: 2 }).magnitudeDb));
+    expect(a.body.magnitudeDb).toEqual(
+      Array.from(simulate(preset.build({ ...preset.defaults, toneC: 33e-9 }), { volume: 4, tone: 2 }).magnitudeDb),
+    );
     a.body.magnitudeDb.forEach((v: number, k: number) => expect(Math.abs(v - b.body.magnitudeDb[k])).toBeLessThan(1e-9));
   });
 
@@ -91,7 +110,11 @@ describe('layouts', () => {
   });
 
   test('netlist: one AC source per pickup or coil, phase 180 when reversed, node out', async () => {
-    const res = await (await t.as('viewer')).post('/api/harness/netlist').send({ layout: 'dual-coil', options: { coils: 'series-reversed' }, knobs: { volume: 7 } });
+    const res = await (
+      await t.as('viewer')
+    )
+      .post('/api/harness/netlist')
+      .send({ layout: 'dual-coil', options: { coils: 'series-reversed' }, knobs: { volume: 7 } });
     expect(res.status).toBe(200);
     const sources = res.text.split('\n').filter((l: string) => /^V/i.test(l));
     expect(sources).toHaveLength(2);
@@ -102,7 +125,9 @@ describe('layouts', () => {
 
   test('sweep takes the two axes by knob id; other knobs from knobs', async () => {
     const agent = await t.as('viewer');
-    const res = await agent.post('/api/harness/sweep').send({ layout: 'two-pickups-3way', selector: 1, volume: [0, 10], tone: [10], knobs: { 'bridge.volume': 10 } });
+    const res = await agent
+      .post('/api/harness/sweep')
+      .send({ layout: 'two-pickups-3way', selector: 1, volume: [0, 10], tone: [10], knobs: { 'bridge.volume': 10 } });
     expect(res.status).toBe(200);
     expect(res.body.volumeKnob).toBe('neck.volume');
     expect(res.body.toneKnob).toBe('neck.tone');
@@ -140,7 +165,14 @@ describe('saved designs carry the whole instrument', () => {
     });
     expect(created.status).toBe(201);
     const got = await agent.get(`/api/harnesses/${created.body.id}`);
-    expect(got.body).toMatchObject({ layout: 'three-pickups-5way', selector: 3, options: { load: 'low-impedance-pedal', tone2Serves: 'middle-bridge' }, knobs: { volume: 7, tone1: 5 }, values: { pedalR: 22e3 }, preset: null });
+    expect(got.body).toMatchObject({
+      layout: 'three-pickups-5way',
+      selector: 3,
+      options: { load: 'low-impedance-pedal', tone2Serves: 'middle-bridge' },
+      knobs: { volume: 7, tone1: 5 },
+      values: { pedalR: 22e3 },
+      preset: null,
+    });
     const old = await agent.post('/api/harnesses').send({ name: 'Old shape', preset: 'bleed-cap', values: { bleedC: 680e-12 } });
     expect(old.status).toBe(201);
     expect(old.body).toMatchObject({ layout: 'one-pickup', options: { bleed: 'cap' }, preset: 'bleed-cap' });

@@ -19,7 +19,11 @@ describe('harness engine routes', () => {
 
   test('simulate answers what the shared engine computes for the same preset and values', async () => {
     const values = { toneC: 15e-9, cableLength: 6 };
-    const res = await (await t.as('viewer')).post('/api/harness/simulate').send({ preset: 'interactive-tone', values, knobs: { volume: 6, tone: 4 } });
+    const res = await (
+      await t.as('viewer')
+    )
+      .post('/api/harness/simulate')
+      .send({ preset: 'interactive-tone', values, knobs: { volume: 6, tone: 4 } });
     expect(res.status).toBe(200);
     const preset = getPreset('interactive-tone')!;
     const engine = simulate(preset.build({ ...preset.defaults, ...values } as HarnessValues), { volume: 6, tone: 4 });
@@ -56,7 +60,9 @@ describe('harness engine routes', () => {
     const both = await viewer.post('/api/harness/simulate').send({ knobs: { volume: 1, tone: 1 } });
     expect(both.status).toBe(422);
     expect((await viewer.post('/api/harness/simulate').send({ preset: 'famous-wiring', knobs: { volume: 1, tone: 1 } })).status).toBe(422);
-    const negative = await viewer.post('/api/harness/simulate').send({ preset: 'bleed-cap', values: { toneC: -1 }, knobs: { volume: 1, tone: 1 } });
+    const negative = await viewer
+      .post('/api/harness/simulate')
+      .send({ preset: 'bleed-cap', values: { toneC: -1 }, knobs: { volume: 1, tone: 1 } });
     expect(negative.body.error.fields).toHaveProperty(['values.toneC']);
   });
 });
@@ -64,7 +70,12 @@ describe('harness engine routes', () => {
 describe('saved harness designs', () => {
   test('a tech saves and edits a design; a viewer reads but cannot save; another tech cannot change it', async () => {
     const tech = await t.as('tech');
-    const design = { name: 'Neck pickup, keeps treble', preset: 'bleed-cap-parallel-r', values: { bleedC: 1.2e-9, bleedR: 150e3 }, notes: 'customer wants treble at 5' };
+    const design = {
+      name: 'Neck pickup, keeps treble',
+      preset: 'bleed-cap-parallel-r',
+      values: { bleedC: 1.2e-9, bleedR: 150e3 },
+      notes: 'customer wants treble at 5',
+    };
     const created = await tech.post('/api/harnesses').send(design);
     expect(created.status).toBe(201);
     expect((await tech.put(`/api/harnesses/${created.body.id}`).send({ ...design, name: 'Renamed' })).body.name).toBe('Renamed');
@@ -79,9 +90,13 @@ describe('saved harness designs', () => {
 
 test('a harness without cable (0 m) is solved, and differs from one with cable only by the cable capacitance', async () => {
   const viewer = await t.as('viewer');
-  const none = await viewer.post('/api/harness/simulate').send({ preset: 'independent-tone', values: { cableLength: 0 }, knobs: { volume: 10, tone: 10 } });
+  const none = await viewer
+    .post('/api/harness/simulate')
+    .send({ preset: 'independent-tone', values: { cableLength: 0 }, knobs: { volume: 10, tone: 10 } });
   expect(none.status).toBe(200);
-  const some = await viewer.post('/api/harness/simulate').send({ preset: 'independent-tone', values: { cableLength: 6 }, knobs: { volume: 10, tone: 10 } });
+  const some = await viewer
+    .post('/api/harness/simulate')
+    .send({ preset: 'independent-tone', values: { cableLength: 6 }, knobs: { volume: 10, tone: 10 } });
   // More capacitance across the pickup lowers its resonance (standard circuit theory).
   expect(some.body.metrics.peak.frequency).toBeLessThan(none.body.metrics.peak.frequency);
 });
@@ -124,10 +139,18 @@ describe('harness inputs outside their physical range (the range table in shared
   });
 
   test('at volume 0 the figures say "no signal" (no peak at −170 dB)', async () => {
-    const res = await (await t.as('viewer')).post('/api/harness/simulate').send({ preset: 'independent-tone', knobs: { volume: 0, tone: 10 } });
+    const res = await (
+      await t.as('viewer')
+    )
+      .post('/api/harness/simulate')
+      .send({ preset: 'independent-tone', knobs: { volume: 0, tone: 10 } });
     expect(res.status).toBe(200);
     expect(res.body.metrics.noSignal).toBe(true);
-    const up = await (await t.as('viewer')).post('/api/harness/simulate').send({ preset: 'independent-tone', knobs: { volume: 10, tone: 10 } });
+    const up = await (
+      await t.as('viewer')
+    )
+      .post('/api/harness/simulate')
+      .send({ preset: 'independent-tone', knobs: { volume: 10, tone: 10 } });
     expect(up.body.metrics.noSignal).toBe(false);
   });
 });

@@ -13,8 +13,18 @@ afterAll(() => t.close());
 describe('jobs', () => {
   test('parts installed in a job are traceable both ways, and a part cannot be installed twice', async () => {
     const tech = await t.as('tech');
-    const job = (await tech.post('/api/jobs').send({ customer: 'R. Example', customerEmail: 'r.example@lugbook.test', instrument: 'Solid-body six-string, sunburst' }).expect(201)).body;
-    const pot = (await tech.post('/api/parts').send({ kind: 'pot', label: 'POT-JOB-1', nominal: 500e3, tolerancePct: 20, taperClass: 'audio' }).expect(201)).body;
+    const job = (
+      await tech
+        .post('/api/jobs')
+        .send({ customer: 'R. Example', customerEmail: 'r.example@lugbook.test', instrument: 'Solid-body six-string, sunburst' })
+        .expect(201)
+    ).body;
+    const pot = (
+      await tech
+        .post('/api/parts')
+        .send({ kind: 'pot', label: 'POT-JOB-1', nominal: 500e3, tolerancePct: 20, taperClass: 'audio' })
+        .expect(201)
+    ).body;
     await tech.post(`/api/parts/${pot.id}/readings`).send({ quantity: 'resistance', value: 489e3 }).expect(201);
     const installed = await tech.post(`/api/jobs/${job.id}/parts`).send({ partId: pot.id, position: 'volume, neck' });
     expect(installed.status).toBe(201);
@@ -30,9 +40,22 @@ describe('jobs', () => {
 
   test('the customer report lists the measured parts and the predicted wiring, and goes out by e-mail', async () => {
     const tech = await t.as('tech');
-    const harness = (await tech.post('/api/harnesses').send({ name: 'Bleed for R.', preset: 'bleed-cap-parallel-r', values: {} }).expect(201)).body;
-    const job = (await tech.post('/api/jobs').send({ customer: 'R. Example', customerEmail: 'r.example@lugbook.test', instrument: 'Solid-body six-string', harnessId: harness.id }).expect(201)).body;
-    const pot = (await tech.post('/api/parts').send({ kind: 'pot', label: 'POT-JOB-2', nominal: 500e3, tolerancePct: 20 }).expect(201)).body;
+    const harness = (
+      await tech.post('/api/harnesses').send({ name: 'Bleed for R.', preset: 'bleed-cap-parallel-r', values: {} }).expect(201)
+    ).body;
+    const job = (
+      await tech
+        .post('/api/jobs')
+        .send({
+          customer: 'R. Example',
+          customerEmail: 'r.example@lugbook.test',
+          instrument: 'Solid-body six-string',
+          harnessId: harness.id,
+        })
+        .expect(201)
+    ).body;
+    const pot = (await tech.post('/api/parts').send({ kind: 'pot', label: 'POT-JOB-2', nominal: 500e3, tolerancePct: 20 }).expect(201))
+      .body;
     await tech.post(`/api/parts/${pot.id}/readings`).send({ quantity: 'resistance', value: 512e3 }).expect(201);
     await tech.post(`/api/jobs/${job.id}/parts`).send({ partId: pot.id, position: 'volume' }).expect(201);
     const preview = (await tech.get(`/api/jobs/${job.id}/report`)).body;
@@ -51,7 +74,10 @@ describe('jobs', () => {
     expect(table.header.join(',')).toBe('frequency_hz,volume_10_db,volume_8_db,volume_6_db,volume_4_db,volume_2_db');
     const sent = await tech.post(`/api/jobs/${job.id}/report`).send({ message: 'Thanks for waiting.' });
     expect(sent.status).toBe(200);
-    const mail = t.ctx.sqlite.prepare("select * from outbox where topic = 'customer-report' order by id desc").get() as { to: string; raw: string };
+    const mail = t.ctx.sqlite.prepare("select * from outbox where topic = 'customer-report' order by id desc").get() as {
+      to: string;
+      raw: string;
+    };
     expect(mail.to).toBe('r.example@lugbook.test');
     expect(mail.raw).toMatch(/predicted-curves\.csv/);
     expect((await (await t.as('viewer')).post(`/api/jobs/${job.id}/report`).send({})).status).toBe(403);
@@ -61,7 +87,9 @@ describe('jobs', () => {
     const tech = await t.as('tech');
     const job = (await tech.post('/api/jobs').send({ customer: 'T. Override', instrument: 'Semi-hollow' }).expect(201)).body;
     // Never judged: no reading, no fit.
-    const fresh = (await tech.post('/api/parts').send({ kind: 'capacitor', label: 'CAP-JOB-NEW', nominal: 22e-9, tolerancePct: 10 }).expect(201)).body;
+    const fresh = (
+      await tech.post('/api/parts').send({ kind: 'capacitor', label: 'CAP-JOB-NEW', nominal: 22e-9, tolerancePct: 10 }).expect(201)
+    ).body;
     const refused = await tech.post(`/api/jobs/${job.id}/parts`).send({ partId: fresh.id, position: 'tone cap' });
     expect(refused.status).toBe(409);
     expect(refused.body.error.code).toBe('needs_override');
@@ -71,13 +99,25 @@ describe('jobs', () => {
     const short = await tech.post(`/api/jobs/${job.id}/parts`).send({ partId: fresh.id, position: 'tone cap', overrideReason: 'ok' });
     expect(short.status).toBe(422);
     expect(short.body.error.fields).toHaveProperty('overrideReason');
-    expect((await tech.post(`/api/jobs/${job.id}/parts`).send({ partId: fresh.id, position: 'tone cap', overrideReason: 'x'.repeat(301) })).status).toBe(422);
+    expect(
+      (await tech.post(`/api/jobs/${job.id}/parts`).send({ partId: fresh.id, position: 'tone cap', overrideReason: 'x'.repeat(301) }))
+        .status,
+    ).toBe(422);
 
     // A pot whose resistance passes after its taper fit flagged it: its status says passed, the evidence says flagged.
-    const pot = (await tech.post('/api/parts').send({ kind: 'pot', label: 'POT-JOB-LIN', nominal: 500e3, tolerancePct: 20, taperClass: 'audio' }).expect(201)).body;
+    const pot = (
+      await tech
+        .post('/api/parts')
+        .send({ kind: 'pot', label: 'POT-JOB-LIN', nominal: 500e3, tolerancePct: 20, taperClass: 'audio' })
+        .expect(201)
+    ).body;
     const lines = ['Rotation (deg),R (kOhm)'];
-    for (let deg = 0; deg <= 300; deg += 10) lines.push(`${deg},${((500e3 * taperLawValue('linear', 0.5, deg / 300) + 300) / 1e3).toFixed(4)}`);
-    const sweep = await tech.post(`/api/parts/${pot.id}/sweeps`).field('kind', 'taper').attach('file', Buffer.from(lines.join('\n') + '\n'), 'linear.csv');
+    for (let deg = 0; deg <= 300; deg += 10)
+      lines.push(`${deg},${((500e3 * taperLawValue('linear', 0.5, deg / 300) + 300) / 1e3).toFixed(4)}`);
+    const sweep = await tech
+      .post(`/api/parts/${pot.id}/sweeps`)
+      .field('kind', 'taper')
+      .attach('file', Buffer.from(lines.join('\n') + '\n'), 'linear.csv');
     expect(sweep.status).toBe(201);
     expect(sweep.body.fit.result.flags.map((f: { code: string }) => f.code)).toContain('law-outside-profile');
     await tech.post(`/api/parts/${pot.id}/readings`).send({ quantity: 'resistance', value: 497e3 }).expect(201);
@@ -88,11 +128,19 @@ describe('jobs', () => {
     expect(potRefused.body.error.details.reasons.join(' ')).toMatch(/taper fit: Best-fitting law is linear/);
     expect((await tech.get(`/api/jobs/${job.id}`)).body.parts).toHaveLength(0);
 
-    const ok = await tech.post(`/api/jobs/${job.id}/parts`).send({ partId: pot.id, position: 'volume', overrideReason: 'Customer asked for a linear volume pot.' });
+    const ok = await tech
+      .post(`/api/jobs/${job.id}/parts`)
+      .send({ partId: pot.id, position: 'volume', overrideReason: 'Customer asked for a linear volume pot.' });
     expect(ok.status).toBe(201);
     expect(ok.body.parts).toEqual([expect.objectContaining({ partId: pot.id, overrideReason: 'Customer asked for a linear volume pot.' })]);
-    const entry = t.ctx.sqlite.prepare("select detail from audit_log where action = 'job.install-override' and entity_id = ? order by id desc").get(String(job.id)) as { detail: string };
-    expect(JSON.parse(entry.detail)).toMatchObject({ partId: pot.id, overrideReason: 'Customer asked for a linear volume pot.', previousStatus: 'passed' });
+    const entry = t.ctx.sqlite
+      .prepare("select detail from audit_log where action = 'job.install-override' and entity_id = ? order by id desc")
+      .get(String(job.id)) as { detail: string };
+    expect(JSON.parse(entry.detail)).toMatchObject({
+      partId: pot.id,
+      overrideReason: 'Customer asked for a linear volume pot.',
+      previousStatus: 'passed',
+    });
 
     // The report never calls it a pass: it states the flag, the latest verdict, the fit and the override.
     const report = (await tech.get(`/api/jobs/${job.id}/report`)).body.text as string;
@@ -105,12 +153,16 @@ describe('jobs', () => {
     expect(report).not.toMatch(/Predictions/);
 
     // A part with no readings installed with an override is "not checked" and "not measured".
-    await tech.post(`/api/jobs/${job.id}/parts`).send({ partId: fresh.id, position: 'tone cap', overrideReason: 'Only one in stock; checked by ear.' }).expect(201);
+    await tech
+      .post(`/api/jobs/${job.id}/parts`)
+      .send({ partId: fresh.id, position: 'tone cap', overrideReason: 'Only one in stock; checked by ear.' })
+      .expect(201);
     const report2 = (await tech.get(`/api/jobs/${job.id}/report`)).body.text as string;
     expect(report2).toMatch(/tone cap: capacitor CAP-JOB-NEW 22 nF: not checked\.\n\s+evidence: not measured/);
 
     // Rejected parts stay refused, override or not.
-    const bad = (await tech.post('/api/parts').send({ kind: 'resistor', label: 'R-JOB-REJ', nominal: 1e3, tolerancePct: 5 }).expect(201)).body;
+    const bad = (await tech.post('/api/parts').send({ kind: 'resistor', label: 'R-JOB-REJ', nominal: 1e3, tolerancePct: 5 }).expect(201))
+      .body;
     t.ctx.sqlite.prepare("update parts set status = 'rejected' where id = ?").run(bad.id);
     const rej = await tech.post(`/api/jobs/${job.id}/parts`).send({ partId: bad.id, position: 'bleed', overrideReason: 'Please let me.' });
     expect(rej.status).toBe(409);

@@ -14,7 +14,8 @@ afterAll(() => t.close());
 describe('part labels in any case', () => {
   test('look-up ignores case; a label differing only in case is refused on create and on rename', async () => {
     const tech = await t.as('tech');
-    const pot = (await tech.post('/api/parts').send({ kind: 'pot', label: 'POT-CASE-5', nominal: 500e3, tolerancePct: 20 }).expect(201)).body;
+    const pot = (await tech.post('/api/parts').send({ kind: 'pot', label: 'POT-CASE-5', nominal: 500e3, tolerancePct: 20 }).expect(201))
+      .body;
     const found = await tech.get('/api/parts/by-label/pot-case-5');
     expect(found.status).toBe(200);
     expect(found.body.id).toBe(pot.id);
@@ -33,8 +34,15 @@ describe('part labels in any case', () => {
 
   test('labels that already differ only in case are kept, listed at start and on Team, and a look-up names both parts', async () => {
     // As an older database could hold them: written past the API (the unique index compares case).
-    t.ctx.sqlite.prepare("insert into parts (kind, label, status, created_at) values ('resistor', 'RES-OLD-9', 'incoming', 1), ('resistor', 'res-old-9', 'incoming', 2)").run();
-    const ids = (t.ctx.sqlite.prepare("select id, label from parts where lower(label) = 'res-old-9' order by id").all() as { id: number; label: string }[]);
+    t.ctx.sqlite
+      .prepare(
+        "insert into parts (kind, label, status, created_at) values ('resistor', 'RES-OLD-9', 'incoming', 1), ('resistor', 'res-old-9', 'incoming', 2)",
+      )
+      .run();
+    const ids = t.ctx.sqlite.prepare("select id, label from parts where lower(label) = 'res-old-9' order by id").all() as {
+      id: number;
+      label: string;
+    }[];
     expect(ids.map((r) => r.label)).toEqual(['RES-OLD-9', 'res-old-9']);
 
     const tech = await t.as('tech');
@@ -52,9 +60,19 @@ describe('part labels in any case', () => {
 
     // Opening the database again (migrations run, as at start) renames nothing and logs the clash.
     const logs: string[] = [];
-    const again = createContext({ dbFile: path.join(t.dataDir, 'lugbook.db'), uploadsDir: path.join(t.dataDir, 'uploads'), log: (m) => logs.push(m) });
+    const again = createContext({
+      dbFile: path.join(t.dataDir, 'lugbook.db'),
+      uploadsDir: path.join(t.dataDir, 'uploads'),
+      log: (m) => logs.push(m),
+    });
     again.sqlite.close();
-    expect(logs.filter((l) => /differ only in case/.test(l))).toEqual([expect.stringMatching(/RES-OLD-9 \(id \d+\), res-old-9 \(id \d+\)/)]);
-    expect((t.ctx.sqlite.prepare("select label from parts where lower(label) = 'res-old-9' order by id").all() as { label: string }[]).map((r) => r.label)).toEqual(['RES-OLD-9', 'res-old-9']);
+    expect(logs.filter((l) => /differ only in case/.test(l))).toEqual([
+      expect.stringMatching(/RES-OLD-9 \(id \d+\), res-old-9 \(id \d+\)/),
+    ]);
+    expect(
+      (t.ctx.sqlite.prepare("select label from parts where lower(label) = 'res-old-9' order by id").all() as { label: string }[]).map(
+        (r) => r.label,
+      ),
+    ).toEqual(['RES-OLD-9', 'res-old-9']);
   });
 });

@@ -19,13 +19,22 @@ describe('lot history and watchers', () => {
   test('creation, upload, disposition and reopen are listed oldest first with who and why; the reopen e-mails the watchers', async () => {
     const qa = await t.as('qa');
     const viewer = byRole('viewer');
-    const lot = (await qa.post('/api/lots').send({ kind: 'capacitor', marking: '473J', watcherIds: [viewer.id] }).expect(201)).body;
+    const lot = (
+      await qa
+        .post('/api/lots')
+        .send({ kind: 'capacitor', marking: '473J', watcherIds: [viewer.id] })
+        .expect(201)
+    ).body;
     await (await t.as('tech')).post(`/api/lots/${lot.id}/readings`).attach('file', Buffer.from(lotCsv), 'four-caps.csv').expect(201);
     await qa.post(`/api/lots/${lot.id}/disposition`).send({ status: 'rejected', reason: 'Drift above the sheet.' }).expect(200);
     const reopened = await (await t.as('admin')).post(`/api/lots/${lot.id}/reopen`).send({ reason: 'Meter was on the wrong range.' });
     expect(reopened.status).toBe(200);
     expect(reopened.body.notified).toBe(1);
-    const mail = t.ctx.sqlite.prepare("select \"to\", subject, raw from outbox where topic = 'lot-reopen' order by id desc").get() as { to: string; subject: string; raw: string };
+    const mail = t.ctx.sqlite.prepare('select "to", subject, raw from outbox where topic = \'lot-reopen\' order by id desc').get() as {
+      to: string;
+      subject: string;
+      raw: string;
+    };
     expect(mail.to).toBe(viewer.email);
     expect(mail.subject).toBe(`Lot ${lot.code} reopened`);
     expect(mail.raw).toMatch(/Meter was on the wrong range/);
@@ -33,7 +42,16 @@ describe('lot history and watchers', () => {
     const detail = (await (await t.as('viewer')).get(`/api/lots/${lot.id}`)).body;
     expect(detail.status).toBe('open');
     expect(detail.dispositionReason).toBeNull();
-    const h = detail.history as { kind: string; at: number; by: string; file?: string; rows?: number; status?: string; was?: string; reason?: string }[];
+    const h = detail.history as {
+      kind: string;
+      at: number;
+      by: string;
+      file?: string;
+      rows?: number;
+      status?: string;
+      was?: string;
+      reason?: string;
+    }[];
     expect(h.map((e) => e.kind)).toEqual(['created', 'upload', 'disposition', 'reopen']);
     expect(h[1]).toMatchObject({ file: 'four-caps.csv', rows: 4, by: byRole('tech').name });
     expect(h[2]).toMatchObject({ status: 'rejected', reason: 'Drift above the sheet.', by: byRole('qa').name });
@@ -55,7 +73,9 @@ describe('lot history and watchers', () => {
     expect(set.status).toBe(200);
     expect(set.body.watchers).toHaveLength(members.length);
     // A tech removing someone else is refused; removing themself is allowed.
-    expect((await tech.put(`/api/lots/${lot.id}/watchers`).send({ userIds: everyone.filter((id) => id !== byRole('viewer').id) })).status).toBe(403);
+    expect(
+      (await tech.put(`/api/lots/${lot.id}/watchers`).send({ userIds: everyone.filter((id) => id !== byRole('viewer').id) })).status,
+    ).toBe(403);
     const self = await tech.put(`/api/lots/${lot.id}/watchers`).send({ userIds: everyone.filter((id) => id !== byRole('tech').id) });
     expect(self.status).toBe(200);
     expect(self.body.watchers.map((w: { id: string }) => w.id)).not.toContain(byRole('tech').id);
@@ -66,9 +86,23 @@ describe('lot history and watchers', () => {
 
   test('promoted items carry the lot’s meter and test frequency and are marked with their part', async () => {
     const qa = await t.as('qa');
-    const instrument = (await qa.post('/api/instruments').send({ name: 'Bench LCR meter 2', kind: 'analyser', calibrationDue: '2099-12-31' })).body;
+    const instrument = (
+      await qa.post('/api/instruments').send({ name: 'Bench LCR meter 2', kind: 'analyser', calibrationDue: '2099-12-31' })
+    ).body;
     expect(instrument.id).toEqual(expect.any(Number));
-    const lot = (await qa.post('/api/lots').send({ kind: 'capacitor', marking: '473J', secondQuantity: 'dissipation', secondLimit: 0.01, instrumentId: instrument.id, testFrequency: 1000 }).expect(201)).body;
+    const lot = (
+      await qa
+        .post('/api/lots')
+        .send({
+          kind: 'capacitor',
+          marking: '473J',
+          secondQuantity: 'dissipation',
+          secondLimit: 0.01,
+          instrumentId: instrument.id,
+          testFrequency: 1000,
+        })
+        .expect(201)
+    ).body;
     expect(lot).toMatchObject({ instrumentId: instrument.id, testFrequency: 1000 });
     await qa.post(`/api/lots/${lot.id}/readings`).attach('file', Buffer.from(lotCsv), 'four-caps.csv').expect(201);
     const before = (await qa.get(`/api/lots/${lot.id}/items`)).body;
@@ -78,7 +112,11 @@ describe('lot history and watchers', () => {
     const partId = promoted.body.partIds[0];
     const after = (await qa.get(`/api/lots/${lot.id}/items`)).body;
     expect(after.partIds).toEqual([null, partId, null, null]);
-    const readings = (await qa.get(`/api/parts/${partId}/readings`)).body.readings as { quantity: string; instrumentId: number | null; frequency: number | null }[];
+    const readings = (await qa.get(`/api/parts/${partId}/readings`)).body.readings as {
+      quantity: string;
+      instrumentId: number | null;
+      frequency: number | null;
+    }[];
     expect(readings.length).toBe(2);
     for (const r of readings) expect(r).toMatchObject({ instrumentId: instrument.id, frequency: 1000 });
     expect((await qa.post('/api/lots').send({ kind: 'capacitor', marking: '473J', instrumentId: 99999 })).status).toBe(422);

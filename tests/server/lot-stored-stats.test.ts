@@ -32,7 +32,11 @@ function lotFile(n: number, shift = 0): { csv: string; values: number[]; second:
 }
 
 async function newLot() {
-  const res = await (await t.as('qa')).post('/api/lots').send({ kind: 'capacitor', nominal: NOMINAL, tolerancePct: TOL, secondQuantity: 'dissipation', secondLimit: D_LIMIT });
+  const res = await (
+    await t.as('qa')
+  )
+    .post('/api/lots')
+    .send({ kind: 'capacitor', nominal: NOMINAL, tolerancePct: TOL, secondQuantity: 'dissipation', secondLimit: D_LIMIT });
   expect(res.status).toBe(201);
   return res.body as { id: number };
 }
@@ -46,13 +50,24 @@ async function upload(lotId: number, csv: string, replace = false) {
 
 /** The engine's answer for these readings with the routes' default matching (1 %, pairs), as JSON would carry it. */
 function fresh(values: number[], second: number[]) {
-  const s = lotStatistics({ values, nominal: NOMINAL, tolerancePct: TOL, matchPct: 1, setSize: 2, withBinIndices: true, second: { values: second, max: D_LIMIT } });
+  const s = lotStatistics({
+    values,
+    nominal: NOMINAL,
+    tolerancePct: TOL,
+    matchPct: 1,
+    setSize: 2,
+    withBinIndices: true,
+    second: { values: second, max: D_LIMIT },
+  });
   return JSON.parse(JSON.stringify(s)) as typeof s & { deviationsPct: Record<string, number> };
 }
 
 /** The lot's readings as stored (value and D), in upload order. */
 function readings(lotId: number) {
-  const rows = t.ctx.sqlite.prepare('select value, second_value from lot_readings where lot_id = ? order by id').all(lotId) as { value: number; second_value: number }[];
+  const rows = t.ctx.sqlite.prepare('select value, second_value from lot_readings where lot_id = ? order by id').all(lotId) as {
+    value: number;
+    second_value: number;
+  }[];
   return { values: rows.map((r) => r.value), second: rows.map((r) => r.second_value) };
 }
 
@@ -67,7 +82,23 @@ async function expectMatchesEngine(lotId: number, file: { values: number[]; seco
   const items = (await viewer.get(`/api/lots/${lotId}/items`).expect(200)).body;
   const e = fresh(values, second);
   expect(detail.count).toBe(values.length);
-  for (const key of ['n', 'mean', 'sd', 'median', 'q1', 'q3', 'min', 'max', 'cp', 'cpk', 'countBelow', 'countAbove', 'lower', 'upper'] as const) expect(detail.stats[key]).toBe(e[key]);
+  for (const key of [
+    'n',
+    'mean',
+    'sd',
+    'median',
+    'q1',
+    'q3',
+    'min',
+    'max',
+    'cp',
+    'cpk',
+    'countBelow',
+    'countAbove',
+    'lower',
+    'upper',
+  ] as const)
+    expect(detail.stats[key]).toBe(e[key]);
   expect(detail.stats.outliers).toEqual(e.outliers);
   expect(detail.stats.histogram).toEqual(e.histogram);
   expect(detail.stats.secondFailures).toEqual(e.secondFailures);
@@ -88,7 +119,9 @@ async function expectMatchesEngine(lotId: number, file: { values: number[]; seco
   return { detail, items };
 }
 
-const storedRow = (lotId: number) => t.ctx.sqlite.prepare('select engine_version, count, detail from lot_stats where lot_id = ?').get(lotId) as { engine_version: string; count: number; detail: string } | undefined;
+const storedRow = (lotId: number) =>
+  t.ctx.sqlite.prepare('select engine_version, count, detail from lot_stats where lot_id = ?').get(lotId) as
+    { engine_version: string; count: number; detail: string } | undefined;
 
 describe('stored lot statistics', () => {
   test('an upload stores them, and the reads send what the engine computes for the readings', async () => {
@@ -101,7 +134,7 @@ describe('stored lot statistics', () => {
     await expectMatchesEngine(lot.id, a);
   });
 
-  test('a replace is never answered with the old readings\' statistics', async () => {
+  test("a replace is never answered with the old readings' statistics", async () => {
     const lot = await newLot();
     const a = lotFile(300);
     await upload(lot.id, a.csv);
@@ -112,7 +145,7 @@ describe('stored lot statistics', () => {
     expect(detail.stats.n).toBe(250);
   });
 
-  test('a promotion shows in the items\' part links, and the statistics stay those of the readings', async () => {
+  test("a promotion shows in the items' part links, and the statistics stay those of the readings", async () => {
     const lot = await newLot();
     const a = lotFile(120);
     await upload(lot.id, a.csv);
@@ -127,7 +160,7 @@ describe('stored lot statistics', () => {
     expect(new Set(items.partIds.filter((p: number | null) => p !== null))).toEqual(new Set(res.body.partIds));
   });
 
-  test('a lot without a stored row (from before the table) or with an older engine\'s row is computed on its next read', async () => {
+  test("a lot without a stored row (from before the table) or with an older engine's row is computed on its next read", async () => {
     const lot = await newLot();
     const a = lotFile(90);
     await upload(lot.id, a.csv);
@@ -135,7 +168,9 @@ describe('stored lot statistics', () => {
     await expectMatchesEngine(lot.id, a);
     expect(storedRow(lot.id)?.count).toBe(90);
     // A row of another engine version holding wrong figures is not sent.
-    t.ctx.sqlite.prepare("update lot_stats set engine_version = 'analysis-0.0.0', detail = replace(detail, '\"n\":90', '\"n\":1') where lot_id = ?").run(lot.id);
+    t.ctx.sqlite
+      .prepare("update lot_stats set engine_version = 'analysis-0.0.0', detail = replace(detail, '\"n\":90', '\"n\":1') where lot_id = ?")
+      .run(lot.id);
     await expectMatchesEngine(lot.id, a);
     expect(storedRow(lot.id)?.engine_version).not.toBe('analysis-0.0.0');
   });

@@ -12,7 +12,9 @@ afterAll(() => t.close());
 describe('saved comparison notes', () => {
   test('notes are saved, changed with PATCH, cleared, and limited in length', async () => {
     const tech = await t.as('tech');
-    const created = await tech.post('/api/comparisons').send({ name: 'Noted', selection: {}, notes: 'Supplier B runs 5 % low at mid-rotation.' });
+    const created = await tech
+      .post('/api/comparisons')
+      .send({ name: 'Noted', selection: {}, notes: 'Supplier B runs 5 % low at mid-rotation.' });
     expect(created.status).toBe(201);
     expect(created.body.notes).toBe('Supplier B runs 5 % low at mid-rotation.');
     const changed = await tech.patch(`/api/comparisons/${created.body.id}`).send({ notes: 'Checked again with the second meter.' });

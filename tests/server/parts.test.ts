@@ -10,7 +10,9 @@ afterAll(() => t.close());
 describe('parts', () => {
   test('a tech creates a part and finds it in the list; the audit log records it', async () => {
     const tech = await t.as('tech');
-    const res = await tech.post('/api/parts').send({ kind: 'pot', label: 'POT-NEW-1', nominal: 500e3, tolerancePct: 20, taperClass: 'audio' });
+    const res = await tech
+      .post('/api/parts')
+      .send({ kind: 'pot', label: 'POT-NEW-1', nominal: 500e3, tolerancePct: 20, taperClass: 'audio' });
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({ id: expect.any(Number), label: 'POT-NEW-1', nominal: 500e3, status: 'incoming' });
     const list = await tech.get('/api/parts').query({ q: 'POT-NEW' });
@@ -18,7 +20,11 @@ describe('parts', () => {
     expect(list.body.parts.map((p: { label: string }) => p.label)).toEqual(['POT-NEW-1']);
     const admin = await t.as('admin');
     const audit = await admin.get('/api/audit');
-    expect(audit.body.entries.find((e: { action: string; entityId: string }) => e.action === 'part.create' && e.entityId === String(res.body.id))).toBeTruthy();
+    expect(
+      audit.body.entries.find(
+        (e: { action: string; entityId: string }) => e.action === 'part.create' && e.entityId === String(res.body.id),
+      ),
+    ).toBeTruthy();
   });
 
   test('a duplicate label is a 409; a bad nominal is a 422 naming the field', async () => {

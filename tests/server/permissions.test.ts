@@ -48,16 +48,27 @@ describe('role matrix: every route, every role and anonymous', () => {
 test('a route missing from the map is refused for everyone, admin included', async () => {
   const { authorize } = await import('@server/auth/middleware');
   const calls: unknown[] = [];
-  authorize('GET /api/not-in-the-map')({ user: { id: 'x', email: 'a', name: 'a', role: 'admin' } } as never, {} as never, (err?: unknown) => calls.push(err));
+  authorize('GET /api/not-in-the-map')({ user: { id: 'x', email: 'a', name: 'a', role: 'admin' } } as never, {} as never, (err?: unknown) =>
+    calls.push(err),
+  );
   expect(calls[0]).toMatchObject({ status: 403, code: 'not_permitted' });
 });
 
 test('failed sign-ins from one address are rate-limited (429), successful ones are not counted', async () => {
   const limited = await createTestApp({ signInLimits: { perAddress: 3, perAccount: 1000, windowMs: 60_000 } });
   try {
-    for (let i = 0; i < 5; i++) await limited.anon().post('/api/auth/sign-in').send({ email: 'tech@lugbook.test', password: TEST_PASSWORD }).expect(200);
+    for (let i = 0; i < 5; i++)
+      await limited.anon().post('/api/auth/sign-in').send({ email: 'tech@lugbook.test', password: TEST_PASSWORD }).expect(200);
     const statuses: number[] = [];
-    for (let i = 0; i < 4; i++) statuses.push((await limited.anon().post('/api/auth/sign-in').send({ email: 'tech@lugbook.test', password: 'wrong-' + i })).status);
+    for (let i = 0; i < 4; i++)
+      statuses.push(
+        (
+          await limited
+            .anon()
+            .post('/api/auth/sign-in')
+            .send({ email: 'tech@lugbook.test', password: 'wrong-' + i })
+        ).status,
+      );
     expect(statuses).toEqual([401, 401, 401, 429]);
   } finally {
     limited.close();

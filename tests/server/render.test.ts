@@ -28,13 +28,12 @@ const binary = (res: Response, done: (err: Error | null, body: Buffer) => void) 
 
 async function render(file: Uint8Array | Buffer, design: unknown, chain?: unknown, name = 'take.wav'): Promise<Response> {
   const agent = await t.as('tech');
-  let req = agent
-    .post('/api/harness/render')
-    .field('design', typeof design === 'string' ? design : JSON.stringify(design));
+  let req = agent.post('/api/harness/render').field('design', typeof design === 'string' ? design : JSON.stringify(design));
   if (chain !== undefined) req = req.field('chain', typeof chain === 'string' ? chain : JSON.stringify(chain));
   return req.attach('file', Buffer.from(file), name).buffer(true).parse(binary);
 }
-const errorOf = (res: Response) => JSON.parse((res.body as Buffer).toString('utf8')) as { error: { code: string; message: string; fields?: Record<string, string> } };
+const errorOf = (res: Response) =>
+  JSON.parse((res.body as Buffer).toString('utf8')) as { error: { code: string; message: string; fields?: Record<string, string> } };
 
 function noise(frames: number, seed: number, scale = 0.1): Float32Array {
   const g = seededNormals(seed);
@@ -42,7 +41,13 @@ function noise(frames: number, seed: number, scale = 0.1): Float32Array {
 }
 
 /** Largest |dB| difference between the Welch PSD ratio out/in and simulate's |H|², 50 Hz–10 kHz. */
-function worstPsdError(input: Float32Array, output: Float32Array, fs: number, preset: string, knobs: { volume: number; tone: number }): number {
+function worstPsdError(
+  input: Float32Array,
+  output: Float32Array,
+  fs: number,
+  preset: string,
+  knobs: { volume: number; tone: number },
+): number {
   const seg = 4096;
   const pin = welchPsd(input, seg);
   const pout = welchPsd(output, seg);
@@ -52,7 +57,11 @@ function worstPsdError(input: Float32Array, output: Float32Array, fs: number, pr
     if (f >= 50 && f <= 10000) ks.push(k);
   }
   const p = getPreset(preset)!;
-  const sim = simulate(p.build(p.defaults), knobs, Float64Array.from(ks, (k) => (k * fs) / seg));
+  const sim = simulate(
+    p.build(p.defaults),
+    knobs,
+    Float64Array.from(ks, (k) => (k * fs) / seg),
+  );
   let worst = 0;
   ks.forEach((k, j) => {
     worst = Math.max(worst, Math.abs(10 * Math.log10(pout[k]! / pin[k]!) - sim.magnitudeDb[j]!));
@@ -102,7 +111,9 @@ function eightBit(): Buffer {
 
 /** Every file under the data folder (the database's own files aside). */
 function filesUnder(dir: string): string[] {
-  return (fs.readdirSync(dir, { recursive: true, encoding: 'utf8' }) as string[]).filter((f) => !f.startsWith('lugbook.db') && fs.statSync(path.join(dir, f)).isFile());
+  return (fs.readdirSync(dir, { recursive: true, encoding: 'utf8' }) as string[]).filter(
+    (f) => !f.startsWith('lugbook.db') && fs.statSync(path.join(dir, f)).isFile(),
+  );
 }
 
 describe('POST /api/harness/render', () => {
@@ -148,7 +159,11 @@ describe('POST /api/harness/render', () => {
     expect(out.channels).toHaveLength(2);
     let worst = 0;
     for (let i = 0; i < 22050; i++) {
-      worst = Math.max(worst, Math.abs(out.channels[0]![i]! - samples[2 * i]! / 8388608), Math.abs(out.channels[1]![i]! - samples[2 * i + 1]! / 8388608));
+      worst = Math.max(
+        worst,
+        Math.abs(out.channels[0]![i]! - samples[2 * i]! / 8388608),
+        Math.abs(out.channels[1]![i]! - samples[2 * i + 1]! / 8388608),
+      );
     }
     expect(worst).toBeLessThan(1e-5);
   });
@@ -157,7 +172,11 @@ describe('POST /api/harness/render', () => {
     const fs = 48000;
     const input = noise(fs * 4, 7);
     // recorded into a 20 kΩ input: the design (1 MΩ) needs up to tens of dB of treble back
-    const res = await render(writeWav([input], fs), { preset: 'independent-tone', knobs: { volume: 10, tone: 10 } }, { preset: 'independent-tone', inputR: 20e3 });
+    const res = await render(
+      writeWav([input], fs),
+      { preset: 'independent-tone', knobs: { volume: 10, tone: 10 } },
+      { preset: 'independent-tone', inputR: 20e3 },
+    );
     expect(res.status).toBe(200);
     const out = readWav(new Uint8Array(res.body as Buffer)).channels[0]!;
     const pin = welchPsd(input);
@@ -189,7 +208,10 @@ describe('POST /api/harness/render', () => {
 
   test('over 60 s or over 20 MB: 413; nothing stored', async () => {
     const before = filesUnder(t.dataDir);
-    const long = await render(writeWav([new Float32Array(22050 * 61)], 22050, 'pcm16'), { preset: 'bleed-cap', knobs: { volume: 5, tone: 5 } });
+    const long = await render(writeWav([new Float32Array(22050 * 61)], 22050, 'pcm16'), {
+      preset: 'bleed-cap',
+      knobs: { volume: 5, tone: 5 },
+    });
     expect(long.status).toBe(413);
     expect(errorOf(long).error.message).toMatch(/61\.0 s/);
     const big = await render(Buffer.alloc(20_000_100), { preset: 'bleed-cap', knobs: { volume: 5, tone: 5 } });
@@ -205,7 +227,11 @@ describe('POST /api/harness/render', () => {
       [await render(writeWav([new Float32Array(100)], 8000), design), 'file', /8000 Hz/],
       [await render(writeWav([new Float32Array(10), new Float32Array(10), new Float32Array(10)], 48000), design), 'file', /3 channels/],
       [await render(writeWav([new Float32Array(100)], 48000), '{"preset": '), 'design', /JSON/],
-      [await render(writeWav([new Float32Array(100)], 48000), { preset: 'bleed-cap', knobs: { volume: 11, tone: 5 } }), 'design.knobs.volume', /0 to 10/],
+      [
+        await render(writeWav([new Float32Array(100)], 48000), { preset: 'bleed-cap', knobs: { volume: 11, tone: 5 } }),
+        'design.knobs.volume',
+        /0 to 10/,
+      ],
       [await render(writeWav([new Float32Array(100)], 48000), design, { preset: 'bleed-cap', inputR: 5 }), 'chain.inputR', /1 kΩ/],
     ];
     for (const [res, field, message] of cases) {
@@ -236,7 +262,12 @@ describe('POST /api/harness/render', () => {
 describe('POST /api/harness/render with a whole-instrument layout', () => {
   async function renderPhrase(design: unknown, phrase: unknown = {}): Promise<Response> {
     const agent = await t.as('tech');
-    return agent.post('/api/harness/render').field('design', JSON.stringify(design)).field('phrase', JSON.stringify(phrase)).buffer(true).parse(binary);
+    return agent
+      .post('/api/harness/render')
+      .field('design', JSON.stringify(design))
+      .field('phrase', JSON.stringify(phrase))
+      .buffer(true)
+      .parse(binary);
   }
 
   test('a layout body renders a recording through the summed transfer: Welch PSD ratio within 0.5 dB of simulate ("both", volumes 6)', async () => {
@@ -247,7 +278,11 @@ describe('POST /api/harness/render with a whole-instrument layout', () => {
     expect(res.status).toBe(200);
     const out = readWav(new Uint8Array(res.body as Buffer)).channels[0]!;
     expect(out.length).toBe(input.length);
-    const sim = await (await t.as('tech')).post('/api/harness/simulate').send({ ...design, frequencies: Array.from({ length: 200 }, (_, i) => ((i + 2) * fs) / 4096).filter((f) => f >= 50 && f <= 10000) });
+    const sim = await (
+      await t.as('tech')
+    )
+      .post('/api/harness/simulate')
+      .send({ ...design, frequencies: Array.from({ length: 200 }, (_, i) => ((i + 2) * fs) / 4096).filter((f) => f >= 50 && f <= 10000) });
     expect(sim.status).toBe(200);
     const pin = welchPsd(input, 4096);
     const pout = welchPsd(out, 4096);

@@ -6,7 +6,10 @@ import { api, ApiError, isApiError, withParams } from '@/lib/api-client';
 import { applyServerError } from '@/lib/form';
 
 function answer(status: number, body: string, statusText = ''): void {
-  vi.stubGlobal('fetch', vi.fn(async () => new Response(status === 204 ? null : body, { status, statusText })));
+  vi.stubGlobal(
+    'fetch',
+    vi.fn(async () => new Response(status === 204 ? null : body, { status, statusText })),
+  );
 }
 
 afterEach(() => {
@@ -58,13 +61,19 @@ describe('api client', () => {
   });
 
   it('a network failure is status 0 with a message to check the connection; an abort stays an abort', async () => {
-    vi.stubGlobal('fetch', vi.fn(async () => Promise.reject(new TypeError('Failed to fetch'))));
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async () => Promise.reject(new TypeError('Failed to fetch'))),
+    );
     const e = (await caught(api.get('/api/parts'))) as ApiError;
     expect(e.status).toBe(0);
     expect(e.code).toBe('network');
     expect(e.message).toMatch(/cannot be reached/);
 
-    vi.stubGlobal('fetch', vi.fn(async () => Promise.reject(new DOMException('The operation was aborted.', 'AbortError'))));
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async () => Promise.reject(new DOMException('The operation was aborted.', 'AbortError'))),
+    );
     const abort = await caught(api.get('/api/parts'));
     expect(isApiError(abort)).toBe(false);
     expect((abort as DOMException).name).toBe('AbortError');

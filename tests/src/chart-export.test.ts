@@ -18,10 +18,23 @@ describe('wrapText', () => {
 });
 
 describe('exportLayout', () => {
-  const base = { width: 600, plotHeight: 300, title: 'Harness response', conditions: 'design: A · volume knob: 10.0', scale: 1, measure: (t: string) => mono(t) };
+  const base = {
+    width: 600,
+    plotHeight: 300,
+    title: 'Harness response',
+    conditions: 'design: A · volume knob: 10.0',
+    scale: 1,
+    measure: (t: string) => mono(t),
+  };
 
   it('puts the title, then the conditions, then the plot, then the legend, without overlap', () => {
-    const l = exportLayout({ ...base, legend: [{ label: 'Now', colour: '#2d5189' }, { label: 'Volume 8', colour: '#c2571a' }] });
+    const l = exportLayout({
+      ...base,
+      legend: [
+        { label: 'Now', colour: '#2d5189' },
+        { label: 'Volume 8', colour: '#c2571a' },
+      ],
+    });
     expect(l.title.y).toBeLessThan(l.conditions[0]!.y);
     expect(l.conditions[0]!.y + l.fonts.conditions).toBeLessThanOrEqual(l.plotY);
     expect(l.legend[0]!.y).toBeGreaterThanOrEqual(l.plotY + base.plotHeight);

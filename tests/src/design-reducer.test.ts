@@ -1,7 +1,15 @@
 // The Harness editor's state: typed text, errors per field, taper laws by their mid-rotation share,
 // values taken from measured parts (and let go when typed over), and the saved-design link.
 import { describe, expect, it } from 'vitest';
-import { activeErrors, describeValue, designReducer, initialDesign, partRefsOf, usedValues, type DesignState } from '@/features/harness/components/design-state';
+import {
+  activeErrors,
+  describeValue,
+  designReducer,
+  initialDesign,
+  partRefsOf,
+  usedValues,
+  type DesignState,
+} from '@/features/harness/components/design-state';
 
 const start = () => initialDesign('independent-tone');
 
@@ -48,7 +56,11 @@ describe('designReducer', () => {
   });
 
   it('values from a measured part remember the part until one of them is typed over or detached', () => {
-    let s = designReducer(start(), { type: 'apply', values: { pickupR: 7.9e3, pickupL: 4.1, pickupC: 110e-12 }, ref: { partId: 42, label: 'PU-004', source: 'coil fit' } });
+    let s = designReducer(start(), {
+      type: 'apply',
+      values: { pickupR: 7.9e3, pickupL: 4.1, pickupC: 110e-12 },
+      ref: { partId: 42, label: 'PU-004', source: 'coil fit' },
+    });
     expect(s.values.pickupR).toBe(7.9e3);
     expect(s.texts.pickupR).not.toBe(start().texts.pickupR);
     expect(partRefsOf(s)).toEqual({ pickupR: 42, pickupL: 42, pickupC: 42 });

@@ -66,7 +66,14 @@ describe('sortRows', () => {
   it('item names that are all numbers sort as numbers (2 before 10), otherwise naturally', () => {
     expect(sortRows(all, items, [{ id: 'item', desc: false }]).map((i) => items.items[i])).toEqual(['1', '2', '4', '5', '10', '33']);
     const named: LotItems = { ...items, items: ['B-10', 'B-2', 'A-1', 'B-33', 'A-4', 'A-10'] };
-    expect(sortRows(all, named, [{ id: 'item', desc: false }]).map((i) => named.items[i])).toEqual(['A-1', 'A-4', 'A-10', 'B-2', 'B-10', 'B-33']);
+    expect(sortRows(all, named, [{ id: 'item', desc: false }]).map((i) => named.items[i])).toEqual([
+      'A-1',
+      'A-4',
+      'A-10',
+      'B-2',
+      'B-10',
+      'B-33',
+    ]);
   });
 
   it('a missing second reading sorts below every reading', () => {

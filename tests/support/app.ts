@@ -31,7 +31,15 @@ export function newAgent(app: TestApp['app']): TestAgent {
   return request.agent(app).set('Origin', ORIGIN).set('Host', HOST);
 }
 
-export async function createTestApp(opts: { signInLimits?: SignInLimits; studies?: boolean; production?: boolean; requestLog?: NodeJS.WritableStream; clientDir?: string } = {}): Promise<TestApp> {
+export async function createTestApp(
+  opts: {
+    signInLimits?: SignInLimits;
+    studies?: boolean;
+    production?: boolean;
+    requestLog?: NodeJS.WritableStream;
+    clientDir?: string;
+  } = {},
+): Promise<TestApp> {
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'lugbook-test-'));
   const logs: string[] = [];
   const ctx = createContext({

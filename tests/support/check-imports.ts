@@ -12,7 +12,8 @@ const root = fileURLToPath(new URL('../..', import.meta.url));
 function filesUnder(dir: string): string[] {
   const abs = path.join(root, dir);
   if (!fs.existsSync(abs)) return [];
-  return fs.readdirSync(abs, { recursive: true, encoding: 'utf8' })
+  return fs
+    .readdirSync(abs, { recursive: true, encoding: 'utf8' })
     .filter((f) => /\.(ts|tsx)$/.test(f))
     .map((f) => path.join(dir, f));
 }
@@ -39,7 +40,8 @@ export function clientLayerViolations(file: string, target: string, spec: string
   const targetFeature = to.match(/^src\/features\/([^/]+)(\/|$)/)?.[1];
   const targetIsApp = /^src\/app(\/|$)/.test(to);
   if (feature && targetFeature && feature !== targetFeature) problems.push(`${file}: feature ${feature} imports feature ${targetFeature}`);
-  if (/^src\/(components|lib)\//.test(from) && (targetFeature || targetIsApp)) problems.push(`${file}: shared client code imports ${targetIsApp ? 'app' : `feature ${targetFeature}`} (${spec})`);
+  if (/^src\/(components|lib)\//.test(from) && (targetFeature || targetIsApp))
+    problems.push(`${file}: shared client code imports ${targetIsApp ? 'app' : `feature ${targetFeature}`} (${spec})`);
   if (feature && targetIsApp) problems.push(`${file}: feature ${feature} imports app (${spec})`);
   return problems;
 }
@@ -49,7 +51,9 @@ export function serverFeatureViolations(file: string, target: string, spec: stri
   const norm = (p: string) => p.split(path.sep).join('/');
   const feature = norm(file).match(/^server\/features\/([^/]+)\//)?.[1];
   const routerOf = norm(target).match(/^server\/features\/([^/]+)\/router(\.ts)?$/)?.[1];
-  return feature && routerOf && routerOf !== feature ? [`${file}: server feature ${feature} imports the router of ${routerOf} (${spec})`] : [];
+  return feature && routerOf && routerOf !== feature
+    ? [`${file}: server feature ${feature} imports the router of ${routerOf} (${spec})`]
+    : [];
 }
 
 export function importViolations(): string[] {

@@ -7,7 +7,13 @@ import { lotStatistics } from '@shared/analysis/lot-stats';
 import { fitTaper } from '@shared/analysis/taper';
 import { decodeMarking } from '@shared/markings/decode';
 import { MarkingError } from '@shared/markings/tolerance-letters';
-import { CoilRequestSchema, LotRequestSchema, MarkingRequestSchema, TaperRequestSchema, ValueRequestSchema } from '@shared/schemas/analysis';
+import {
+  CoilRequestSchema,
+  LotRequestSchema,
+  MarkingRequestSchema,
+  TaperRequestSchema,
+  ValueRequestSchema,
+} from '@shared/schemas/analysis';
 import { parseValue, ValueParseError } from '@shared/units/parse';
 import type { Quantity } from '@shared/units/quantities';
 
@@ -50,7 +56,9 @@ export function analysisRoutes(_ctx: AppContext) {
     schemas: { body: LotRequestSchema },
     handle: ({ body }) => {
       if (body.second && body.second.values.length !== body.values.length) {
-        throw unprocessable('second.values must have one value per part.', { 'second.values': `Expected ${body.values.length} values, got ${body.second.values.length}.` });
+        throw unprocessable('second.values must have one value per part.', {
+          'second.values': `Expected ${body.values.length} values, got ${body.second.values.length}.`,
+        });
       }
       const stats = asUnprocessable('values', () => lotStatistics(body));
       return { ...stats, deviationsPct: Array.from(stats.deviationsPct) };

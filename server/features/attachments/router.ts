@@ -35,7 +35,14 @@ export function attachmentRoutes(ctx: AppContext) {
       schemas: { params: IdParamsSchema },
       handle: ({ params }) => {
         if (!exists(params.id)) throw notFound('That record');
-        return { attachments: db.select().from(attachments).where(and(eq(attachments.ownerType, owner.type), eq(attachments.ownerId, params.id))).orderBy(desc(attachments.id)).all() };
+        return {
+          attachments: db
+            .select()
+            .from(attachments)
+            .where(and(eq(attachments.ownerType, owner.type), eq(attachments.ownerId, params.id)))
+            .orderBy(desc(attachments.id))
+            .all(),
+        };
       },
     });
 
@@ -51,10 +58,25 @@ export function attachmentRoutes(ctx: AppContext) {
           db.transaction((tx) => {
             const row = tx
               .insert(attachments)
-              .values({ ownerType: owner.type, ownerId: params.id, purpose: body.purpose, originalName: storedName(file.originalname), contentHash: content.contentHash, mime, size: content.size, createdBy: user.id })
+              .values({
+                ownerType: owner.type,
+                ownerId: params.id,
+                purpose: body.purpose,
+                originalName: storedName(file.originalname),
+                contentHash: content.contentHash,
+                mime,
+                size: content.size,
+                createdBy: user.id,
+              })
               .returning()
               .get();
-            audit(tx, { userId: user.id, action: 'attachment.upload', entity: owner.type, entityId: params.id, detail: { attachmentId: row.id, purpose: body.purpose, name: row.originalName } });
+            audit(tx, {
+              userId: user.id,
+              action: 'attachment.upload',
+              entity: owner.type,
+              entityId: params.id,
+              detail: { attachmentId: row.id, purpose: body.purpose, name: row.originalName },
+            });
             return row;
           }),
         );
@@ -74,7 +96,8 @@ export function attachmentRoutes(ctx: AppContext) {
       // JPEG images open in the page; everything else downloads. The name travels as RFC 6266/5987 UTF-8.
       const type = SERVED_TYPES[row.mime] ?? 'application/octet-stream';
       res.attachment(row.originalName);
-      if (INLINE_TYPES.has(type)) res.setHeader('Content-Disposition', (res.getHeader('Content-Disposition') as string).replace(/^attachment/, 'inline'));
+      if (INLINE_TYPES.has(type))
+        res.setHeader('Content-Disposition', (res.getHeader('Content-Disposition') as string).replace(/^attachment/, 'inline'));
       res.setHeader('Content-Type', type);
       res.setHeader('Content-Security-Policy', "default-src 'none'; img-src 'self'; sandbox");
       await new Promise<void>((resolve, reject) => res.sendFile(file, (err) => (err ? reject(err) : resolve())));

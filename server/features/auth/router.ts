@@ -7,12 +7,7 @@ import type { AppContext } from '@server/context';
 import { invitations, passwordResets, users } from '@server/db/schema';
 import { HttpError, unprocessable } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
-import {
-  AcceptInviteInputSchema,
-  RequestResetInputSchema,
-  ResetPasswordInputSchema,
-  SignInInputSchema,
-} from '@shared/schemas/auth';
+import { AcceptInviteInputSchema, RequestResetInputSchema, ResetPasswordInputSchema, SignInInputSchema } from '@shared/schemas/auth';
 import { SignInBackoff, signInAddressLimiter, WindowCounter } from './sign-in-limiter';
 
 const RESET_LIFETIME_MS = 60 * 60 * 1000;
@@ -89,7 +84,8 @@ export function authRoutes(ctx: AppContext) {
     schemas: { params: z.object({ token: z.string().min(20).max(200) }) },
     handle: ({ params }) => {
       const invite = openInvitation(params.token);
-      if (!invite) throw new HttpError(404, 'invitation_invalid', 'This invitation is unknown, used or expired. Ask an admin for a new one.');
+      if (!invite)
+        throw new HttpError(404, 'invitation_invalid', 'This invitation is unknown, used or expired. Ask an admin for a new one.');
       return { email: invite.email, role: invite.role, expiresAt: invite.expiresAt };
     },
   });
@@ -100,7 +96,8 @@ export function authRoutes(ctx: AppContext) {
       const problem = passwordProblem(body.password);
       if (problem) throw unprocessable(problem, { password: problem });
       const invite = openInvitation(body.token);
-      if (!invite) throw new HttpError(410, 'invitation_invalid', 'This invitation is unknown, used or expired. Ask an admin for a new one.');
+      if (!invite)
+        throw new HttpError(410, 'invitation_invalid', 'This invitation is unknown, used or expired. Ask an admin for a new one.');
       if (db.select().from(users).where(eq(users.email, invite.email)).get()) {
         throw new HttpError(409, 'conflict', 'An account with this e-mail exists already; sign in instead.');
       }
@@ -114,7 +111,8 @@ export function authRoutes(ctx: AppContext) {
           .set({ acceptedAt: Date.now() })
           .where(and(eq(invitations.id, invite.id), isNull(invitations.acceptedAt), isNull(invitations.revokedAt)))
           .run();
-        if (spent.changes !== 1) throw new HttpError(410, 'invitation_invalid', 'This invitation is unknown, used or expired. Ask an admin for a new one.');
+        if (spent.changes !== 1)
+          throw new HttpError(410, 'invitation_invalid', 'This invitation is unknown, used or expired. Ask an admin for a new one.');
         if (tx.select({ id: users.id }).from(users).where(eq(users.email, invite.email)).get()) {
           throw new HttpError(409, 'conflict', 'An account with this e-mail exists already; sign in instead.');
         }
@@ -134,12 +132,15 @@ export function authRoutes(ctx: AppContext) {
       if (addressWait > 0) throw tooMany(res, addressWait, 'Too many reset requests from here. Wait and try again.');
       // Counted by the address typed, whether or not it has an account, so the answer reveals nothing.
       const accountWait = resetsPerAccount.take(body.email.toLowerCase());
-      if (accountWait > 0) throw tooMany(res, accountWait, 'Several reset links were sent to this address already; use the newest, or wait and try again.');
+      if (accountWait > 0)
+        throw tooMany(res, accountWait, 'Several reset links were sent to this address already; use the newest, or wait and try again.');
       const user = db.select().from(users).where(eq(users.email, body.email)).get();
       // The answer is the same whether or not the account exists, so it reveals no addresses.
       if (user && user.disabledAt === null) {
         const { token, hash } = newToken();
-        db.insert(passwordResets).values({ id: newId(), userId: user.id, tokenHash: hash, expiresAt: Date.now() + RESET_LIFETIME_MS }).run();
+        db.insert(passwordResets)
+          .values({ id: newId(), userId: user.id, tokenHash: hash, expiresAt: Date.now() + RESET_LIFETIME_MS })
+          .run();
         await ctx.mailer.send({
           to: user.email,
           topic: 'password-reset',
@@ -160,14 +161,19 @@ export function authRoutes(ctx: AppContext) {
       const reset = db
         .select()
         .from(passwordResets)
-        .where(and(eq(passwordResets.tokenHash, hashToken(body.token)), isNull(passwordResets.usedAt), gt(passwordResets.expiresAt, Date.now())))
+        .where(
+          and(eq(passwordResets.tokenHash, hashToken(body.token)), isNull(passwordResets.usedAt), gt(passwordResets.expiresAt, Date.now())),
+        )
         .get();
       if (!reset) throw new HttpError(410, 'token_invalid', 'This reset link is unknown, used or expired. Ask for a new one.');
       const passwordHash = await hashPassword(body.password);
       db.transaction((tx) => {
         tx.update(users).set({ passwordHash }).where(eq(users.id, reset.userId)).run();
         // Using one link ends every other outstanding link of the account.
-        tx.update(passwordResets).set({ usedAt: Date.now() }).where(and(eq(passwordResets.userId, reset.userId), isNull(passwordResets.usedAt))).run();
+        tx.update(passwordResets)
+          .set({ usedAt: Date.now() })
+          .where(and(eq(passwordResets.userId, reset.userId), isNull(passwordResets.usedAt)))
+          .run();
         audit(tx, { userId: reset.userId, action: 'auth.password-reset', entity: 'user', entityId: reset.userId });
       });
       // A new password ends every session of the account.

@@ -19,7 +19,9 @@ export function signInAddressLimiter(limits: SignInLimits) {
     standardHeaders: 'draft-7',
     legacyHeaders: false,
     handler: (_req, res) =>
-      res.status(429).json({ error: { code: 'rate_limited', message: 'Too many failed sign-ins from here. Wait a few minutes and try again.' } }),
+      res
+        .status(429)
+        .json({ error: { code: 'rate_limited', message: 'Too many failed sign-ins from here. Wait a few minutes and try again.' } }),
   });
 }
 
@@ -31,7 +33,10 @@ export function signInAddressLimiter(limits: SignInLimits) {
  */
 export class SignInBackoff {
   private failures = new Map<string, number[]>();
-  constructor(private limits: SignInLimits, private now: () => number = Date.now) {}
+  constructor(
+    private limits: SignInLimits,
+    private now: () => number = Date.now,
+  ) {}
 
   /** Milliseconds this account must wait from this address; 0 when it may try. */
   waitMs(email: string, address: string): number {
@@ -58,7 +63,11 @@ const key = (email: string, address: string) => `${email.toLowerCase()}\u0000${a
 /** A sliding-window count per key (reset requests per address and per account). */
 export class WindowCounter {
   private hits = new Map<string, number[]>();
-  constructor(private limit: number, private windowMs: number, private now: () => number = Date.now) {}
+  constructor(
+    private limit: number,
+    private windowMs: number,
+    private now: () => number = Date.now,
+  ) {}
 
   /** Counts one request; returns the milliseconds to wait when the key is over its limit (the request is not counted then). */
   take(k: string): number {

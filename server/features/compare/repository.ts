@@ -15,7 +15,12 @@ type PartRow = typeof parts.$inferSelect;
 function currentFits(db: DbLike, kind: 'taper' | 'coil', partIds?: number[]): Map<number, FitRow> {
   const where = [eq(fits.kind, kind), isNull(fits.supersededAt)];
   if (partIds) where.push(inArray(fits.partId, partIds));
-  const rows = db.select().from(fits).where(and(...where)).orderBy(desc(fits.id)).all();
+  const rows = db
+    .select()
+    .from(fits)
+    .where(and(...where))
+    .orderBy(desc(fits.id))
+    .all();
   const byPart = new Map<number, FitRow>();
   for (const r of rows) if (!byPart.has(r.partId)) byPart.set(r.partId, r);
   return byPart;
@@ -35,7 +40,9 @@ function hasTag(tags: string | null, tag: string): boolean {
 }
 
 function hasFilter(s: CompareSelection): boolean {
-  return Boolean(s.lotIds?.length || s.suppliers?.length || s.nominal !== undefined || s.taperClasses?.length || s.createdFrom || s.createdTo || s.tag);
+  return Boolean(
+    s.lotIds?.length || s.suppliers?.length || s.nominal !== undefined || s.taperClasses?.length || s.createdFrom || s.createdTo || s.tag,
+  );
 }
 
 /** Whether a pot passes every filter of the selection. */
@@ -81,7 +88,12 @@ export function resolveSelection(db: DbLike, selection: CompareSelection): { pot
   const pots = chosen.map(({ part, lotCode, fit }) => {
     const result = fit.result as unknown as TaperFit;
     const points = fit.sweepId
-      ? db.select({ x: sweepPoints.x, r: sweepPoints.y }).from(sweepPoints).where(eq(sweepPoints.sweepId, fit.sweepId)).orderBy(sweepPoints.idx).all()
+      ? db
+          .select({ x: sweepPoints.x, r: sweepPoints.y })
+          .from(sweepPoints)
+          .where(eq(sweepPoints.sweepId, fit.sweepId))
+          .orderBy(sweepPoints.idx)
+          .all()
       : [];
     return {
       partId: part.id,
@@ -120,9 +132,20 @@ export function compareCandidates(db: DbLike) {
     lotMap.set(part.lotId, entry);
   }
   const distinct = <T>(xs: (T | null)[]) => [...new Set(xs.filter((x): x is T => x !== null))];
-  const tags = distinct(pots.flatMap(({ part }) => (part.tags ?? '').toLowerCase().split(/[,;\s]+/).filter(Boolean)));
+  const tags = distinct(
+    pots.flatMap(({ part }) =>
+      (part.tags ?? '')
+        .toLowerCase()
+        .split(/[,;\s]+/)
+        .filter(Boolean),
+    ),
+  );
   const pickupParts = db.select().from(parts).where(eq(parts.kind, 'pickup')).orderBy(parts.label).all();
-  const coilFits = currentFits(db, 'coil', pickupParts.map((p) => p.id));
+  const coilFits = currentFits(
+    db,
+    'coil',
+    pickupParts.map((p) => p.id),
+  );
   const pickups = pickupParts.flatMap((p) => {
     const fit = coilFits.get(p.id);
     if (!fit) return [];

@@ -12,10 +12,30 @@ import { forbidden, notFound } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
 import { compareTapers, groupOf } from '@shared/analysis/compare';
 import { IdParamsSchema } from '@shared/schemas/common';
-import { CompareTapersRequestSchema, ComparisonInputSchema, ComparisonUpdateSchema, GroupBySchema, type CompareSelection } from '@shared/schemas/compare';
+import {
+  CompareTapersRequestSchema,
+  ComparisonInputSchema,
+  ComparisonUpdateSchema,
+  GroupBySchema,
+  type CompareSelection,
+} from '@shared/schemas/compare';
 import { compareCandidates, resolveSelection } from './repository';
 
-const EXPORT_FIELDS = ['part', 'group', 'lot', 'supplier', 'nominal_ohm', 'law', 'm', 'r2', 'max_deviation_pct', 'total_ohm', 'total_deviation_pct', 'end_resistance_start_ohm', 'end_resistance_end_ohm'];
+const EXPORT_FIELDS = [
+  'part',
+  'group',
+  'lot',
+  'supplier',
+  'nominal_ohm',
+  'law',
+  'm',
+  'r2',
+  'max_deviation_pct',
+  'total_ohm',
+  'total_deviation_pct',
+  'end_resistance_start_ohm',
+  'end_resistance_end_ohm',
+];
 
 export function compareRoutes(ctx: AppContext) {
   const { db } = ctx;
@@ -70,7 +90,13 @@ export function compareRoutes(ctx: AppContext) {
       const id = db.transaction((tx) => {
         const row = tx
           .insert(comparisons)
-          .values({ name: body.name, selection: body.selection as Record<string, unknown>, settings: (body.settings ?? {}) as Record<string, unknown>, notes: body.notes || null, ownerId: user.id })
+          .values({
+            name: body.name,
+            selection: body.selection as Record<string, unknown>,
+            settings: (body.settings ?? {}) as Record<string, unknown>,
+            notes: body.notes || null,
+            ownerId: user.id,
+          })
           .returning()
           .get();
         audit(tx, { userId: user.id, action: 'comparison.create', entity: 'comparison', entityId: row.id, detail: { name: body.name } });
@@ -96,7 +122,13 @@ export function compareRoutes(ctx: AppContext) {
           })
           .where(eq(comparisons.id, params.id))
           .run();
-        audit(tx, { userId: user.id, action: 'comparison.update', entity: 'comparison', entityId: params.id, detail: { before: { name: before.name, selection: before.selection, settings: before.settings }, after: body } });
+        audit(tx, {
+          userId: user.id,
+          action: 'comparison.update',
+          entity: 'comparison',
+          entityId: params.id,
+          detail: { before: { name: before.name, selection: before.selection, settings: before.settings }, after: body },
+        });
       });
       return mustFind(params.id);
     },
@@ -109,7 +141,13 @@ export function compareRoutes(ctx: AppContext) {
       if (!mayChangeOwned(before.ownerId, user)) throw forbidden("Only the comparison's owner (or qa/admin) may delete it.");
       db.transaction((tx) => {
         tx.delete(comparisons).where(eq(comparisons.id, params.id)).run();
-        audit(tx, { userId: user.id, action: 'comparison.delete', entity: 'comparison', entityId: params.id, detail: { name: before.name } });
+        audit(tx, {
+          userId: user.id,
+          action: 'comparison.delete',
+          entity: 'comparison',
+          entityId: params.id,
+          detail: { name: before.name },
+        });
       });
       return { ok: true };
     },
@@ -137,7 +175,11 @@ export function compareRoutes(ctx: AppContext) {
         end_resistance_start_ohm: p.fit.endResistance.start,
         end_resistance_end_ohm: p.fit.endResistance.end ?? '',
       }));
-      const safeName = row.name.replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 60) || `comparison-${row.id}`;
+      const safeName =
+        row.name
+          .replace(/[^A-Za-z0-9._-]+/g, '-')
+          .replace(/^-+|-+$/g, '')
+          .slice(0, 60) || `comparison-${row.id}`;
       const conditions = withConditions(
         [
           { key: 'comparison', value: `${row.name} (#${row.id})` },

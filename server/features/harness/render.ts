@@ -21,10 +21,15 @@ const RENDER_SLOTS = 2;
 let busy = 0;
 
 /** The netlist of a recording chain (a preset with the recorder's input, or a netlist). */
-function chainNetlistOf(body: { preset?: string; netlist?: Netlist; values?: HarnessValuesInput }, field: string, override: Partial<HarnessValues> = {}): Netlist {
+function chainNetlistOf(
+  body: { preset?: string; netlist?: Netlist; values?: HarnessValuesInput },
+  field: string,
+  override: Partial<HarnessValues> = {},
+): Netlist {
   if (body.netlist) {
     const problems = validateNetlist(body.netlist);
-    if (problems.length > 0) throw unprocessable(`The ${field} netlist cannot be solved: ${problems[0]}`, { [`${field}.netlist`]: problems.join('; ') });
+    if (problems.length > 0)
+      throw unprocessable(`The ${field} netlist cannot be solved: ${problems[0]}`, { [`${field}.netlist`]: problems.join('; ') });
     return body.netlist;
   }
   const preset = body.preset ? getPreset(body.preset) : undefined;
@@ -32,7 +37,10 @@ function chainNetlistOf(body: { preset?: string; netlist?: Netlist; values?: Har
   return preset.build({ ...preset.defaults, ...(body.values ?? {}), ...override } as HarnessValues);
 }
 
-const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: RENDER_LIMITS.maxBytes, files: 1, fields: 5, parts: 6 } }).single('file');
+const upload = multer({
+  storage: multer.memoryStorage(),
+  limits: { fileSize: RENDER_LIMITS.maxBytes, files: 1, fields: 5, parts: 6 },
+}).single('file');
 
 export function renderRoutes(_ctx: AppContext) {
   const api = new ApiRouter('/api/harness');
@@ -53,15 +61,24 @@ export function renderRoutes(_ctx: AppContext) {
         throw e;
       }
       if (body.phrase) {
-        if (file) throw unprocessable('Send a file or ask for the phrase, not both.', { phrase: 'Leave out the phrase when sending a file.' });
+        if (file)
+          throw unprocessable('Send a file or ask for the phrase, not both.', { phrase: 'Leave out the phrase when sending a file.' });
         if (body.chain) throw unprocessable('The built-in phrase has no recording chain.', { chain: 'Only for a recording.' });
         if (busy >= RENDER_SLOTS) throw new HttpError(503, 'busy', 'Other recordings are being rendered; try again in a moment.');
         busy++;
         try {
           // each pickup hears the string at its own place and goes through its own transfer
           const { sampleRate, seed } = body.phrase;
-          const phrase = synthesizePhrase({ sampleRate, seed, pickupPositions: instrument.pickups.map((p) => pickupPositionOf(p.pickupId)) });
-          const out = renderPickupTracks(phrase.tracks, sampleRate, instrument.pickups.map((p) => p.response));
+          const phrase = synthesizePhrase({
+            sampleRate,
+            seed,
+            pickupPositions: instrument.pickups.map((p) => pickupPositionOf(p.pickupId)),
+          });
+          const out = renderPickupTracks(
+            phrase.tracks,
+            sampleRate,
+            instrument.pickups.map((p) => p.response),
+          );
           const answer = writeWav([out], sampleRate, 'float32');
           res.status(200).type('audio/wav').setHeader('Content-Disposition', 'attachment; filename="phrase.wav"');
           res.end(Buffer.from(answer.buffer, answer.byteOffset, answer.byteLength));
@@ -70,7 +87,10 @@ export function renderRoutes(_ctx: AppContext) {
           busy--;
         }
       }
-      if (!file) throw new HttpError(422, 'invalid', 'Attach a WAV file in the "file" field (or ask for the built-in phrase).', { file: 'No file was sent.' });
+      if (!file)
+        throw new HttpError(422, 'invalid', 'Attach a WAV file in the "file" field (or ask for the built-in phrase).', {
+          file: 'No file was sent.',
+        });
       const bytes = new Uint8Array(file.buffer.buffer, file.buffer.byteOffset, file.buffer.byteLength);
       let header: ReturnType<typeof readWavHeader>;
       try {
@@ -81,13 +101,21 @@ export function renderRoutes(_ctx: AppContext) {
       }
       const seconds = header.frames / header.sampleRate;
       if (seconds > RENDER_LIMITS.maxSeconds) {
-        throw new HttpError(413, 'too_long', `The recording is ${seconds.toFixed(1)} s long; at most ${RENDER_LIMITS.maxSeconds} s can be rendered.`, { file: `At most ${RENDER_LIMITS.maxSeconds} s.` });
+        throw new HttpError(
+          413,
+          'too_long',
+          `The recording is ${seconds.toFixed(1)} s long; at most ${RENDER_LIMITS.maxSeconds} s can be rendered.`,
+          { file: `At most ${RENDER_LIMITS.maxSeconds} s.` },
+        );
       }
       if (header.frames === 0) throw new HttpError(422, 'invalid_file', 'The WAV file holds no samples.', { file: 'No samples.' });
       // one source signal: it goes through the sum of the pickups' transfers
       const design = instrument.total;
       const chain = body.chain
-        ? harnessResponse(chainNetlistOf(body.chain, 'chain', body.chain.netlist ? {} : { ampR: body.chain.inputR, cableLength: body.chain.cableLength }), { volume: 10, tone: 10 })
+        ? harnessResponse(
+            chainNetlistOf(body.chain, 'chain', body.chain.netlist ? {} : { ampR: body.chain.inputR, cableLength: body.chain.cableLength }),
+            { volume: 10, tone: 10 },
+          )
         : undefined;
       if (busy >= RENDER_SLOTS) throw new HttpError(503, 'busy', 'Other recordings are being rendered; try again in a moment.');
       busy++;

@@ -6,10 +6,27 @@ import { harnesses } from '@server/db/schema';
 import { forbidden, notFound, unprocessable } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
 import { findBleed } from '@shared/circuit/bleed-finder';
-import { buildLayoutNetlist, getLayout, LAYOUTS, layoutKnobs, PRESET_AS_LAYOUT, resolveLayoutConfig, toneKnobs, volumeKnobs, type LayoutDef } from '@shared/circuit/layouts';
+import {
+  buildLayoutNetlist,
+  getLayout,
+  LAYOUTS,
+  layoutKnobs,
+  PRESET_AS_LAYOUT,
+  resolveLayoutConfig,
+  toneKnobs,
+  volumeKnobs,
+  type LayoutDef,
+} from '@shared/circuit/layouts';
 import { DEFAULT_FREQUENCIES, simulateInstrument, sweepKnobs } from '@shared/circuit/metrics';
 import { validateNetlist, type Netlist } from '@shared/circuit/netlist';
-import { DEFAULT_HARNESS_VALUES, getPreset, HARNESS_PRESETS, HARNESS_VALUE_FIELDS, PICKUP_PRESETS, type HarnessValues } from '@shared/circuit/presets';
+import {
+  DEFAULT_HARNESS_VALUES,
+  getPreset,
+  HARNESS_PRESETS,
+  HARNESS_VALUE_FIELDS,
+  PICKUP_PRESETS,
+  type HarnessValues,
+} from '@shared/circuit/presets';
 import { HarnessUnsolvableError } from '@shared/circuit/solver';
 import { toSpiceNetlist } from '@shared/circuit/spice';
 import { IdParamsSchema } from '@shared/schemas/common';
@@ -34,7 +51,9 @@ export const HARNESS_LIMITS = { parts: 60, sweepPoints: 11 * 11 * 400 } as const
 
 function assertWorkSize(netlist: Netlist, settings: number, frequencies: number) {
   if (netlist.parts.length > HARNESS_LIMITS.parts) {
-    throw unprocessable(`A netlist may hold at most ${HARNESS_LIMITS.parts} parts; this one has ${netlist.parts.length}.`, { netlist: `At most ${HARNESS_LIMITS.parts} parts.` });
+    throw unprocessable(`A netlist may hold at most ${HARNESS_LIMITS.parts} parts; this one has ${netlist.parts.length}.`, {
+      netlist: `At most ${HARNESS_LIMITS.parts} parts.`,
+    });
   }
   const points = settings * frequencies;
   if (points > HARNESS_LIMITS.sweepPoints) {
@@ -83,7 +102,9 @@ export function sourceOf(body: SourceBody): { netlist: Netlist; layout: LayoutDe
     if (!parsed.success) {
       const issue = parsed.error.issues[0]!;
       const path = ['values', ...(issue.code === 'unrecognized_keys' ? [issue.keys[0]!] : issue.path.map(String))].join('.');
-      throw unprocessable(issue.code === 'unrecognized_keys' ? `This preset has no value "${issue.keys[0]}".` : issue.message, { [path]: issue.message });
+      throw unprocessable(issue.code === 'unrecognized_keys' ? `This preset has no value "${issue.keys[0]}".` : issue.message, {
+        [path]: issue.message,
+      });
     }
     const preset = getPreset(body.preset)!;
     return { netlist: preset.build({ ...preset.defaults, ...parsed.data } as HarnessValues), layout: null, label: body.preset };
@@ -94,7 +115,9 @@ export function sourceOf(body: SourceBody): { netlist: Netlist; layout: LayoutDe
 
 function checkKnobIds(ids: string[], layout: LayoutDef | null, field: string) {
   if (!layout) return;
-  for (const id of ids) if (!layout.knobs.some((k) => k.id === id)) throw unprocessable(`This layout has no knob "${id}".`, { [field]: `Choose one of ${layout.knobs.map((k) => k.id).join(', ')}.` });
+  for (const id of ids)
+    if (!layout.knobs.some((k) => k.id === id))
+      throw unprocessable(`This layout has no knob "${id}".`, { [field]: `Choose one of ${layout.knobs.map((k) => k.id).join(', ')}.` });
 }
 
 /** Every knob of the source at its setting (missing ones at 10). */
@@ -108,12 +131,18 @@ export function knobsOf(layout: LayoutDef | null, knobs: Record<string, number> 
  * and knobs are checked against the layout (422 naming the field).
  */
 function designRow(body: HarnessDesignInput) {
-  if (body.layout !== undefined && body.preset !== undefined) throw unprocessable('Give a layout or a preset, not both.', { preset: 'Leave out the preset when giving a layout.' });
-  if (body.layout === undefined && body.preset === undefined) throw unprocessable('Give the design\'s layout.', { layout: 'Required.' });
+  if (body.layout !== undefined && body.preset !== undefined)
+    throw unprocessable('Give a layout or a preset, not both.', { preset: 'Leave out the preset when giving a layout.' });
+  if (body.layout === undefined && body.preset === undefined) throw unprocessable("Give the design's layout.", { layout: 'Required.' });
   const layoutId = body.layout ?? 'one-pickup';
   const layout = getLayout(layoutId)!;
   const options = body.preset !== undefined ? { ...PRESET_AS_LAYOUT[body.preset], ...(body.options ?? {}) } : (body.options ?? {});
-  const { problems } = resolveLayoutConfig(layout, { selector: body.selector, options, values: body.values, knobs: body.knobs ?? undefined });
+  const { problems } = resolveLayoutConfig(layout, {
+    selector: body.selector,
+    options,
+    values: body.values,
+    knobs: body.knobs ?? undefined,
+  });
   if (problems.length > 0) layoutProblems(problems);
   return {
     name: body.name,
@@ -144,7 +173,14 @@ export function harnessRoutes(ctx: AppContext) {
 
   engine.get('/presets', {
     handle: () => ({
-      presets: HARNESS_PRESETS.map((p) => ({ id: p.id, name: p.name, description: p.description, defaults: p.defaults, layout: 'one-pickup', options: PRESET_AS_LAYOUT[p.id] })),
+      presets: HARNESS_PRESETS.map((p) => ({
+        id: p.id,
+        name: p.name,
+        description: p.description,
+        defaults: p.defaults,
+        layout: 'one-pickup',
+        options: PRESET_AS_LAYOUT[p.id],
+      })),
       fields: HARNESS_VALUE_FIELDS,
       pickups: PICKUP_PRESETS,
       defaults: DEFAULT_HARNESS_VALUES,
@@ -171,7 +207,9 @@ export function harnessRoutes(ctx: AppContext) {
     handle: ({ body }) => {
       const { netlist, layout } = sourceOf(body);
       assertWorkSize(netlist, 1, body.frequencies?.length ?? DEFAULT_FREQUENCIES.length);
-      const r = solved(body.netlist ? 'netlist' : 'preset', () => simulateInstrument(netlist, knobsOf(layout, body.knobs), body.frequencies ?? DEFAULT_FREQUENCIES));
+      const r = solved(body.netlist ? 'netlist' : 'preset', () =>
+        simulateInstrument(netlist, knobsOf(layout, body.knobs), body.frequencies ?? DEFAULT_FREQUENCIES),
+      );
       return {
         frequencies: Array.from(r.frequencies),
         magnitudeDb: Array.from(r.magnitudeDb),
@@ -179,7 +217,11 @@ export function harnessRoutes(ctx: AppContext) {
         metrics: r.metrics,
         signal: r.signal,
         note: r.note,
-        perPickup: r.perPickup.map((p) => ({ pickupId: p.pickupId, magnitudeDb: Array.from(p.magnitudeDb), phaseDeg: Array.from(p.phaseDeg) })),
+        perPickup: r.perPickup.map((p) => ({
+          pickupId: p.pickupId,
+          magnitudeDb: Array.from(p.magnitudeDb),
+          phaseDeg: Array.from(p.phaseDeg),
+        })),
       };
     },
   });
@@ -192,12 +234,18 @@ export function harnessRoutes(ctx: AppContext) {
       const toneKnob = body.toneKnob ?? (layout ? toneKnobs(layout)[0]! : 'tone');
       checkKnobIds([volumeKnob], layout, 'volumeKnob');
       checkKnobIds([toneKnob], layout, 'toneKnob');
-      assertWorkSize(netlist, (body.volume ?? DIAL).length * (body.tone ?? DIAL).length, body.frequencies?.length ?? DEFAULT_FREQUENCIES.length);
-      const grid = solved(body.netlist ? 'netlist' : 'preset', () => sweepKnobs(netlist, { volume: body.volume ?? DIAL, tone: body.tone ?? DIAL }, body.frequencies ?? DEFAULT_FREQUENCIES, {
-        volumeKnob,
-        toneKnob,
-        knobs: knobsOf(layout, body.knobs),
-      }));
+      assertWorkSize(
+        netlist,
+        (body.volume ?? DIAL).length * (body.tone ?? DIAL).length,
+        body.frequencies?.length ?? DEFAULT_FREQUENCIES.length,
+      );
+      const grid = solved(body.netlist ? 'netlist' : 'preset', () =>
+        sweepKnobs(netlist, { volume: body.volume ?? DIAL, tone: body.tone ?? DIAL }, body.frequencies ?? DEFAULT_FREQUENCIES, {
+          volumeKnob,
+          toneKnob,
+          knobs: knobsOf(layout, body.knobs),
+        }),
+      );
       return {
         frequencies: Array.from(grid.frequencies),
         volumeKnob,
@@ -218,9 +266,17 @@ export function harnessRoutes(ctx: AppContext) {
     handle: ({ body, res }) => {
       const { netlist, layout, label } = sourceOf(body);
       const knobs = knobsOf(layout, body.knobs);
-      const text = toSpiceNetlist({ ...netlist, title: netlist.title ? `Lugbook harness ${netlist.title}` : `Lugbook harness ${label}` }, knobs);
-      const suffix = Object.values(knobs).map((v) => String(v)).join('-');
-      res.attachment(`harness-${label}-${body.layout ? `p${body.selector ?? 0}-` : ''}${suffix}.cir`).type('text/plain').send(text);
+      const text = toSpiceNetlist(
+        { ...netlist, title: netlist.title ? `Lugbook harness ${netlist.title}` : `Lugbook harness ${label}` },
+        knobs,
+      );
+      const suffix = Object.values(knobs)
+        .map((v) => String(v))
+        .join('-');
+      res
+        .attachment(`harness-${label}-${body.layout ? `p${body.selector ?? 0}-` : ''}${suffix}.cir`)
+        .type('text/plain')
+        .send(text);
       return undefined;
     },
   });
@@ -230,7 +286,10 @@ export function harnessRoutes(ctx: AppContext) {
     handle: ({ body }) => {
       const layout = getLayout(body.layout)!;
       const config = layoutConfig(layout, body);
-      const { candidates, evaluated } = findBleed(layout, config, layoutKnobs(layout, body.knobs), { series: body.series ?? 'E12', weight: body.weight ?? 0.7 });
+      const { candidates, evaluated } = findBleed(layout, config, layoutKnobs(layout, body.knobs), {
+        series: body.series ?? 'E12',
+        weight: body.weight ?? 0.7,
+      });
       return { candidates, evaluated, series: body.series ?? 'E12', weight: body.weight ?? 0.7 };
     },
   });
@@ -242,7 +301,9 @@ export function harnessRoutes(ctx: AppContext) {
     return row;
   };
 
-  designs.get('/', { handle: (): { harnesses: HarnessDesign[] } => ({ harnesses: db.select().from(harnesses).orderBy(desc(harnesses.id)).all() }) });
+  designs.get('/', {
+    handle: (): { harnesses: HarnessDesign[] } => ({ harnesses: db.select().from(harnesses).orderBy(desc(harnesses.id)).all() }),
+  });
   designs.get('/:id', { schemas: { params: IdParamsSchema }, handle: ({ params }) => mustFind(params.id) });
 
   designs.post('/', {
@@ -251,8 +312,18 @@ export function harnessRoutes(ctx: AppContext) {
     handle: ({ body, user }) => {
       const design = designRow(body);
       return db.transaction((tx) => {
-        const row = tx.insert(harnesses).values({ ...design, ownerId: user.id }).returning().get();
-        audit(tx, { userId: user.id, action: 'harness.create', entity: 'harness', entityId: row.id, detail: { name: body.name, layout: design.layout, preset: design.preset } });
+        const row = tx
+          .insert(harnesses)
+          .values({ ...design, ownerId: user.id })
+          .returning()
+          .get();
+        audit(tx, {
+          userId: user.id,
+          action: 'harness.create',
+          entity: 'harness',
+          entityId: row.id,
+          detail: { name: body.name, layout: design.layout, preset: design.preset },
+        });
         return row;
       });
     },
@@ -262,11 +333,22 @@ export function harnessRoutes(ctx: AppContext) {
     schemas: { params: IdParamsSchema, body: HarnessDesignInputSchema },
     handle: ({ params, body, user }): HarnessDesign => {
       const before = mustFind(params.id);
-      if (!mayChangeOwned(before.ownerId, user)) throw forbidden('Only the design\'s owner (or qa/admin) may change it.');
+      if (!mayChangeOwned(before.ownerId, user)) throw forbidden("Only the design's owner (or qa/admin) may change it.");
       const design = designRow(body);
       return db.transaction((tx) => {
-        const row = tx.update(harnesses).set({ ...design, updatedAt: Date.now() }).where(eq(harnesses.id, params.id)).returning().get();
-        audit(tx, { userId: user.id, action: 'harness.update', entity: 'harness', entityId: row.id, detail: { before: { name: before.name, layout: before.layout, options: before.options, values: before.values }, after: design } });
+        const row = tx
+          .update(harnesses)
+          .set({ ...design, updatedAt: Date.now() })
+          .where(eq(harnesses.id, params.id))
+          .returning()
+          .get();
+        audit(tx, {
+          userId: user.id,
+          action: 'harness.update',
+          entity: 'harness',
+          entityId: row.id,
+          detail: { before: { name: before.name, layout: before.layout, options: before.options, values: before.values }, after: design },
+        });
         return row;
       });
     },
@@ -276,7 +358,7 @@ export function harnessRoutes(ctx: AppContext) {
     schemas: { params: IdParamsSchema },
     handle: ({ params, user }) => {
       const before = mustFind(params.id);
-      if (!mayChangeOwned(before.ownerId, user)) throw forbidden('Only the design\'s owner (or qa/admin) may delete it.');
+      if (!mayChangeOwned(before.ownerId, user)) throw forbidden("Only the design's owner (or qa/admin) may delete it.");
       db.transaction((tx) => {
         tx.delete(harnesses).where(eq(harnesses.id, params.id)).run();
         audit(tx, { userId: user.id, action: 'harness.delete', entity: 'harness', entityId: params.id, detail: { name: before.name } });

@@ -14,7 +14,8 @@ export function solveChecked<T>(compute: () => T, results: (r: T) => ArrayLike<n
   try {
     r = compute();
   } catch (err) {
-    if (err instanceof HarnessUnsolvableError || (err instanceof Error && ENGINE_REFUSAL.test(err.message))) throw new UnsolvableHarness(err.message);
+    if (err instanceof HarnessUnsolvableError || (err instanceof Error && ENGINE_REFUSAL.test(err.message)))
+      throw new UnsolvableHarness(err.message);
     throw err;
   }
   for (const a of results(r)) {
@@ -29,7 +30,9 @@ export function solveOrRefuse<T>(compute: () => T, results: (r: T) => ArrayLike<
     return solveChecked(compute, results);
   } catch (err) {
     if (err instanceof UnsolvableHarness) {
-      throw unprocessable('The wiring cannot be computed with these values (they are far outside what a harness holds).', { values: 'Values outside what the engine can solve.' });
+      throw unprocessable('The wiring cannot be computed with these values (they are far outside what a harness holds).', {
+        values: 'Values outside what the engine can solve.',
+      });
     }
     throw err;
   }

@@ -16,7 +16,14 @@ export function instrumentRoutes(ctx: AppContext) {
   api.get('/', {
     handle: () => {
       const today = new Date();
-      return { instruments: db.select().from(instruments).orderBy(instruments.name).all().map((i) => ({ ...i, calibrationOverdue: calibrationOverdue(i.calibrationDue, today) })) };
+      return {
+        instruments: db
+          .select()
+          .from(instruments)
+          .orderBy(instruments.name)
+          .all()
+          .map((i) => ({ ...i, calibrationOverdue: calibrationOverdue(i.calibrationDue, today) })),
+      };
     },
   });
 
@@ -42,7 +49,13 @@ export function instrumentRoutes(ctx: AppContext) {
       if (clash && clash.id !== before.id) throw conflict(`An instrument named "${body.name}" exists already.`);
       return db.transaction((tx) => {
         const row = tx.update(instruments).set(body).where(eq(instruments.id, params.id)).returning().get();
-        audit(tx, { userId: user.id, action: 'instrument.update', entity: 'instrument', entityId: row.id, detail: { before, after: body } });
+        audit(tx, {
+          userId: user.id,
+          action: 'instrument.update',
+          entity: 'instrument',
+          entityId: row.id,
+          detail: { before, after: body },
+        });
         return row;
       });
     },

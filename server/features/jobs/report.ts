@@ -23,7 +23,11 @@ export function harnessSummary(db: DbLike, harnessId: number | null): { text: st
   const layout = design && getLayout(design.layout);
   if (!design || !layout) return null;
   const { config, problems } = resolveLayoutConfig(layout, { selector: design.selector, options: design.options, values: design.values });
-  if (problems.length > 0) return { text: `Wiring: ${design.name} (${layout.name}). Its predicted response could not be computed: ${problems[0]!.message}`, csv: null };
+  if (problems.length > 0)
+    return {
+      text: `Wiring: ${design.name} (${layout.name}). Its predicted response could not be computed: ${problems[0]!.message}`,
+      csv: null,
+    };
   const netlist = buildLayoutNetlist(layout, config);
   const knobs = layoutKnobs(layout, design.knobs ?? {});
   const volumeKnob = volumeKnobs(layout)[0]!;
@@ -34,26 +38,49 @@ export function harnessSummary(db: DbLike, harnessId: number | null): { text: st
   let now: ReturnType<typeof simulateInstrument>;
   try {
     grid = solveChecked(
-      () => sweepKnobs(netlist, { volume, tone: [knobs[toneKnobs(layout)[0]!]!] }, undefined, { volumeKnob, toneKnob: toneKnobs(layout)[0]!, knobs }),
+      () =>
+        sweepKnobs(netlist, { volume, tone: [knobs[toneKnobs(layout)[0]!]!] }, undefined, {
+          volumeKnob,
+          toneKnob: toneKnobs(layout)[0]!,
+          knobs,
+        }),
       (g) => [g.level1kDb, g.volumeTaperDb, g.trebleRetentionDb],
     );
-    now = solveChecked(() => simulateInstrument(netlist, knobs), (r) => [r.magnitudeDb]);
+    now = solveChecked(
+      () => simulateInstrument(netlist, knobs),
+      (r) => [r.magnitudeDb],
+    );
   } catch (err) {
     // A design saved with values the engine cannot solve: the report says so instead of failing.
-    if (err instanceof UnsolvableHarness) return { text: `Wiring: ${design.name} (${layout.name}). Its predicted response could not be computed with the values saved in the design.`, csv: null };
+    if (err instanceof UnsolvableHarness)
+      return {
+        text: `Wiring: ${design.name} (${layout.name}). Its predicted response could not be computed with the values saved in the design.`,
+        csv: null,
+      };
     throw err;
   }
   const choice = (id: string) => layout.options.find((o) => o.id === id)!.choices.find((c) => c.id === config.options[id])!.name;
-  const loadValue = config.options.load === 'buffer' ? `${formatValue(config.values.bufferR as number, 'Ω')}` : config.options.load === 'low-impedance-pedal' ? `${formatValue(config.values.pedalR as number, 'Ω')}` : `${formatValue(config.values.ampR as number, 'Ω')}`;
+  const loadValue =
+    config.options.load === 'buffer'
+      ? `${formatValue(config.values.bufferR as number, 'Ω')}`
+      : config.options.load === 'low-impedance-pedal'
+        ? `${formatValue(config.values.pedalR as number, 'Ω')}`
+        : `${formatValue(config.values.ampR as number, 'Ω')}`;
   const lines = [
     `Wiring: ${design.name} (${layout.name}${preset ? `, from the preset ${preset.name}` : ''}), selector at ${layout.selector.positions[config.selector]!.name}.`,
-    `Options: ${layout.options.filter((o) => o.id !== 'load').map((o) => `${o.name.toLowerCase()}: ${choice(o.id).toLowerCase()}`).join('; ')}.`,
+    `Options: ${layout.options
+      .filter((o) => o.id !== 'load')
+      .map((o) => `${o.name.toLowerCase()}: ${choice(o.id).toLowerCase()}`)
+      .join('; ')}.`,
     `Plays into: ${choice('load').toLowerCase()} (${loadValue}). Knobs: ${layout.knobs.map((k) => `${k.name.toLowerCase()} ${knobs[k.id]}`).join(', ')}.`,
     now.metrics
       ? `At these knobs the resonance sits at ${formatValue(now.metrics.peak.frequency, 'Hz')}, ${fmtDb(now.metrics.peakRiseDb)} above the bass.`
       : `At these knobs: ${now.note}.`,
     `As the ${volumeName} comes down:`,
-    ...volume.map((v, i) => `  ${volumeName} ${v}: level ${fmtDb(grid.volumeTaperDb[i]!)}, treble balance ${fmtDb(grid.trebleRetentionDb[i]!)} against full volume`),
+    ...volume.map(
+      (v, i) =>
+        `  ${volumeName} ${v}: level ${fmtDb(grid.volumeTaperDb[i]!)}, treble balance ${fmtDb(grid.trebleRetentionDb[i]!)} against full volume`,
+    ),
     'Predicted with every pickup as an equal signal source; a real string drives each pickup differently.',
   ];
   const header = conditionsHeader([
@@ -82,7 +109,8 @@ export function partLine(db: DbLike, p: JobDetail['parts'][number]): string {
   const ev = partEvidence(db, part);
   const flagWords = ev.fits.flatMap((f) => f.flags.map((fl) => fl.code.replace(/^m-/, 'mid-rotation-').replace(/-/g, ' ')));
   const failed = ev.verdicts.filter((v) => v.verdict === 'fail' || v.verdict === 'marginal').map((v) => `${v.quantity} ${v.verdict}`);
-  const status = ev.judged === 'flagged' ? `flagged: ${[...failed, ...flagWords].join(', ')}` : ev.judged === 'passed' ? 'passed' : 'not checked';
+  const status =
+    ev.judged === 'flagged' ? `flagged: ${[...failed, ...flagWords].join(', ')}` : ev.judged === 'passed' ? 'passed' : 'not checked';
   const evidence = [
     ...ev.verdicts.map((v) => `latest ${describeVerdict(v)}`),
     ...ev.fits.map((f) => {
@@ -106,9 +134,17 @@ export function reportText(db: DbLike, job: JobDetail, shopMessage?: string): { 
     '',
     'Parts installed:',
     ...(partLines.length ? partLines : ['  (none recorded)']),
-    ...(harness ? ['', harness.text, ...(harness.csv ? ['', 'The predicted curves are attached as CSV (level in dB against frequency).'] : [])] : []),
+    ...(harness
+      ? ['', harness.text, ...(harness.csv ? ['', 'The predicted curves are attached as CSV (level in dB against frequency).'] : [])]
+      : []),
     '',
-    ...(harness ? ["Predictions come from a circuit model of the wiring design with the design's typical part values, not the measured parts above; your amplifier and cable change the exact figures."] : []),
-  ].join('\n').trimEnd();
+    ...(harness
+      ? [
+          "Predictions come from a circuit model of the wiring design with the design's typical part values, not the measured parts above; your amplifier and cable change the exact figures.",
+        ]
+      : []),
+  ]
+    .join('\n')
+    .trimEnd();
   return { text, csv: harness?.csv ?? null };
 }

@@ -4,7 +4,16 @@ import { harnesses, jobParts, jobs, parts } from '@server/db/schema';
 
 export type JobRow = typeof jobs.$inferSelect;
 export interface JobDetail extends JobRow {
-  parts: { partId: number; label: string; kind: (typeof parts.$inferSelect)['kind']; nominal: number | null; status: string; position: string; overrideReason: string | null; installedAt: number }[];
+  parts: {
+    partId: number;
+    label: string;
+    kind: (typeof parts.$inferSelect)['kind'];
+    nominal: number | null;
+    status: string;
+    position: string;
+    overrideReason: string | null;
+    installedAt: number;
+  }[];
   harnessName: string | null;
 }
 
@@ -21,20 +30,38 @@ export function jobDetail(db: DbLike, id: number): JobDetail | undefined {
   const job = db.select().from(jobs).where(eq(jobs.id, id)).get();
   if (!job) return undefined;
   const installed = db
-    .select({ partId: parts.id, label: parts.label, kind: parts.kind, nominal: parts.nominal, status: parts.status, position: jobParts.position, overrideReason: jobParts.overrideReason, installedAt: jobParts.installedAt })
+    .select({
+      partId: parts.id,
+      label: parts.label,
+      kind: parts.kind,
+      nominal: parts.nominal,
+      status: parts.status,
+      position: jobParts.position,
+      overrideReason: jobParts.overrideReason,
+      installedAt: jobParts.installedAt,
+    })
     .from(jobParts)
     .innerJoin(parts, eq(jobParts.partId, parts.id))
     .where(eq(jobParts.jobId, id))
     .orderBy(jobParts.installedAt)
     .all();
-  const harnessName = job.harnessId ? (db.select({ name: harnesses.name }).from(harnesses).where(eq(harnesses.id, job.harnessId)).get()?.name ?? null) : null;
+  const harnessName = job.harnessId
+    ? (db.select({ name: harnesses.name }).from(harnesses).where(eq(harnesses.id, job.harnessId)).get()?.name ?? null)
+    : null;
   return { ...job, parts: installed, harnessName };
 }
 
 /** The jobs a part went into (the other direction of the trace). */
 export function jobsOfPart(db: DbLike, partId: number) {
   return db
-    .select({ jobId: jobs.id, code: jobs.code, customer: jobs.customer, instrument: jobs.instrument, position: jobParts.position, installedAt: jobParts.installedAt })
+    .select({
+      jobId: jobs.id,
+      code: jobs.code,
+      customer: jobs.customer,
+      instrument: jobs.instrument,
+      position: jobParts.position,
+      installedAt: jobParts.installedAt,
+    })
     .from(jobParts)
     .innerJoin(jobs, eq(jobParts.jobId, jobs.id))
     .where(eq(jobParts.partId, partId))

@@ -21,7 +21,8 @@ export function jobRoutes(ctx: AppContext) {
     return job;
   };
   const checkHarness = (id: number | null | undefined) => {
-    if (id != null && !db.select().from(harnesses).where(eq(harnesses.id, id)).get()) throw unprocessable('That harness design does not exist.', { harnessId: 'Unknown design.' });
+    if (id != null && !db.select().from(harnesses).where(eq(harnesses.id, id)).get())
+      throw unprocessable('That harness design does not exist.', { harnessId: 'Unknown design.' });
   };
 
   api.get('/', { handle: () => ({ jobs: listJobs(db) }) });
@@ -32,10 +33,18 @@ export function jobRoutes(ctx: AppContext) {
     schemas: { body: CreateJobInputSchema },
     handle: ({ body, user }) => {
       checkHarness(body.harnessId);
-      const n = (db.select({ n: sql<number>`count(*)` }).from(jobs).get()?.n ?? 0) + 1;
+      const n =
+        (db
+          .select({ n: sql<number>`count(*)` })
+          .from(jobs)
+          .get()?.n ?? 0) + 1;
       const code = `JOB-${String(n).padStart(4, '0')}`;
       return db.transaction((tx) => {
-        const job = tx.insert(jobs).values({ ...body, code, createdBy: user.id }).returning().get();
+        const job = tx
+          .insert(jobs)
+          .values({ ...body, code, createdBy: user.id })
+          .returning()
+          .get();
         audit(tx, { userId: user.id, action: 'job.create', entity: 'job', entityId: job.id, detail: body });
         return job;
       });
@@ -48,8 +57,17 @@ export function jobRoutes(ctx: AppContext) {
       const before = mustFind(params.id);
       checkHarness(body.harnessId);
       db.transaction((tx) => {
-        tx.update(jobs).set({ ...body, updatedAt: Date.now() }).where(eq(jobs.id, params.id)).run();
-        audit(tx, { userId: user.id, action: 'job.update', entity: 'job', entityId: params.id, detail: { before: { status: before.status, harnessId: before.harnessId }, after: body } });
+        tx.update(jobs)
+          .set({ ...body, updatedAt: Date.now() })
+          .where(eq(jobs.id, params.id))
+          .run();
+        audit(tx, {
+          userId: user.id,
+          action: 'job.update',
+          entity: 'job',
+          entityId: params.id,
+          detail: { before: { status: before.status, harnessId: before.harnessId }, after: body },
+        });
       });
       return mustFind(params.id);
     },
@@ -63,26 +81,47 @@ export function jobRoutes(ctx: AppContext) {
       const part = findPart(db, body.partId);
       if (!part) throw unprocessable('That part does not exist.', { partId: 'Unknown part.' });
       if (part.status === 'installed') {
-        const where = jobsOfPart(db, part.id).map((j) => j.code).join(', ');
+        const where = jobsOfPart(db, part.id)
+          .map((j) => j.code)
+          .join(', ');
         throw conflict(`${part.label} is installed already (${where}).`);
       }
-      if (part.status === 'rejected' || part.status === 'retired') throw conflict(`${part.label} is ${part.status}; it cannot be installed.`);
+      if (part.status === 'rejected' || part.status === 'retired')
+        throw conflict(`${part.label} is ${part.status}; it cannot be installed.`);
       const check = installCheck(db, part);
       if (check.needsOverride && !body.overrideReason) {
-        throw new HttpError(409, 'needs_override', `${part.label} is ${check.status}: ${check.reasons.join('; ')}. Give an override reason to install it anyway.`, undefined, {
-          details: { status: check.status, reasons: check.reasons },
-        });
+        throw new HttpError(
+          409,
+          'needs_override',
+          `${part.label} is ${check.status}: ${check.reasons.join('; ')}. Give an override reason to install it anyway.`,
+          undefined,
+          {
+            details: { status: check.status, reasons: check.reasons },
+          },
+        );
       }
       const overrideReason = check.needsOverride ? body.overrideReason! : null;
       db.transaction((tx) => {
         tx.insert(jobParts).values({ jobId: job.id, partId: part.id, position: body.position, overrideReason, installedBy: user.id }).run();
-        setPartStatus(tx, part, 'installed', `installed in ${job.code} (${body.position})${overrideReason ? ` over ${check.status} status: ${overrideReason}` : ''}`, user.id);
+        setPartStatus(
+          tx,
+          part,
+          'installed',
+          `installed in ${job.code} (${body.position})${overrideReason ? ` over ${check.status} status: ${overrideReason}` : ''}`,
+          user.id,
+        );
         audit(tx, {
           userId: user.id,
           action: overrideReason ? 'job.install-override' : 'job.install',
           entity: 'job',
           entityId: job.id,
-          detail: { partId: part.id, label: part.label, position: body.position, previousStatus: part.status, ...(overrideReason ? { overrideReason, overridden: check.reasons } : {}) },
+          detail: {
+            partId: part.id,
+            label: part.label,
+            position: body.position,
+            previousStatus: part.status,
+            ...(overrideReason ? { overrideReason, overridden: check.reasons } : {}),
+          },
         });
       });
       return mustFind(job.id);
@@ -96,10 +135,18 @@ export function jobRoutes(ctx: AppContext) {
       const part = findPart(db, params.partId);
       if (!part || !job.parts.some((p) => p.partId === part.id)) throw notFound('That part in this job');
       db.transaction((tx) => {
-        tx.delete(jobParts).where(and(eq(jobParts.jobId, job.id), eq(jobParts.partId, part.id))).run();
+        tx.delete(jobParts)
+          .where(and(eq(jobParts.jobId, job.id), eq(jobParts.partId, part.id)))
+          .run();
         // A removed part goes back to the bench as incoming: it must be checked again before reuse.
         setPartStatus(tx, part, 'incoming', `removed from ${job.code}`, user.id);
-        audit(tx, { userId: user.id, action: 'job.remove-part', entity: 'job', entityId: job.id, detail: { partId: part.id, label: part.label } });
+        audit(tx, {
+          userId: user.id,
+          action: 'job.remove-part',
+          entity: 'job',
+          entityId: job.id,
+          detail: { partId: part.id, label: part.label },
+        });
       });
       return mustFind(job.id);
     },
@@ -119,7 +166,9 @@ export function jobRoutes(ctx: AppContext) {
       // Only to the job's customer or a member: the server is not a relay for arbitrary addresses.
       const member = db.select({ id: users.id }).from(users).where(eq(users.email, to.toLowerCase())).get();
       if (to.toLowerCase() !== job.customerEmail?.toLowerCase() && !member) {
-        throw unprocessable('A report goes to the job\'s customer address or to a member\'s address.', { to: 'Not the customer\'s address nor a member\'s.' });
+        throw unprocessable("A report goes to the job's customer address or to a member's address.", {
+          to: "Not the customer's address nor a member's.",
+        });
       }
       const report = reportText(db, job, body.message);
       await ctx.mailer.send({
@@ -127,7 +176,9 @@ export function jobRoutes(ctx: AppContext) {
         topic: 'customer-report',
         subject: `Your ${job.instrument}: work record ${job.code}`,
         text: report.text,
-        attachments: report.csv ? [{ filename: `${job.code}-predicted-curves.csv`, content: report.csv, contentType: 'text/csv' }] : undefined,
+        attachments: report.csv
+          ? [{ filename: `${job.code}-predicted-curves.csv`, content: report.csv, contentType: 'text/csv' }]
+          : undefined,
       });
       audit(db, { userId: user.id, action: 'job.report-sent', entity: 'job', entityId: job.id, detail: { to } });
       return { ok: true, to };

@@ -25,8 +25,17 @@ export function lotDispositionRoutes(api: ApiRouter, ctx: AppContext) {
       if (data.values.length === 0) throw conflict('The lot has no readings yet.');
       const stats = lotStats(lot, data, { sets: false })!;
       db.transaction((tx) => {
-        tx.update(lots).set({ status: body.status, dispositionReason: body.reason, disposedBy: user.id, disposedAt: Date.now() }).where(eq(lots.id, lot.id)).run();
-        audit(tx, { userId: user.id, action: 'lot.disposition', entity: 'lot', entityId: lot.id, detail: { status: body.status, reason: body.reason, n: stats.n, cpk: stats.cpk } });
+        tx.update(lots)
+          .set({ status: body.status, dispositionReason: body.reason, disposedBy: user.id, disposedAt: Date.now() })
+          .where(eq(lots.id, lot.id))
+          .run();
+        audit(tx, {
+          userId: user.id,
+          action: 'lot.disposition',
+          entity: 'lot',
+          entityId: lot.id,
+          detail: { status: body.status, reason: body.reason, n: stats.n, cpk: stats.cpk },
+        });
       });
       const unit = UNIT[lotKind(lot)];
       const watchers = lotWatcherRows(db, lot.id);
@@ -53,8 +62,17 @@ export function lotDispositionRoutes(api: ApiRouter, ctx: AppContext) {
       const lot = mustFind(params.id);
       if (lot.status === 'open') throw conflict('The lot is open already.');
       db.transaction((tx) => {
-        tx.update(lots).set({ status: 'open', dispositionReason: null, disposedBy: null, disposedAt: null }).where(eq(lots.id, lot.id)).run();
-        audit(tx, { userId: user.id, action: 'lot.reopen', entity: 'lot', entityId: lot.id, detail: { was: lot.status, previousReason: lot.dispositionReason, reason: body.reason } });
+        tx.update(lots)
+          .set({ status: 'open', dispositionReason: null, disposedBy: null, disposedAt: null })
+          .where(eq(lots.id, lot.id))
+          .run();
+        audit(tx, {
+          userId: user.id,
+          action: 'lot.reopen',
+          entity: 'lot',
+          entityId: lot.id,
+          detail: { was: lot.status, previousReason: lot.dispositionReason, reason: body.reason },
+        });
       });
       const notified = await notifyReopen(ctx, lot, user, body.reason);
       return { lot: lotSummary(mustFind(lot.id)), notified };

@@ -27,13 +27,27 @@ export function lotExportRoutes(api: ApiRouter, ctx: AppContext) {
       const rows = Array.from({ length: n }, (_, i) => {
         const v = data.values[i]!;
         const verdict = stats ? (v < stats.lower || v > stats.upper ? 'fail' : 'pass') : '';
-        return { item: data.items[i], value: v, deviation_pct: stats ? Number(stats.deviationsPct[i]!.toFixed(4)) : '', bin: binOf[i], set: setOf[i], verdict };
+        return {
+          item: data.items[i],
+          value: v,
+          deviation_pct: stats ? Number(stats.deviationsPct[i]!.toFixed(4)) : '',
+          bin: binOf[i],
+          set: setOf[i],
+          verdict,
+        };
       });
-      const conditions = lotConditions(lot, { readings: n, matchPct: query.matchPct ?? 1, setSize: query.setSize ?? 2, madeAt: new Date() });
+      const conditions = lotConditions(lot, {
+        readings: n,
+        matchPct: query.matchPct ?? 1,
+        setSize: query.setSize ?? 2,
+        madeAt: new Date(),
+      });
       const body = Papa.unparse(rows, { escapeFormulae: true, newline: '\n' });
-      res.type('text/csv').attachment(`${lot.code}.csv`).send(withConditions(conditions, `${body}\n`));
+      res
+        .type('text/csv')
+        .attachment(`${lot.code}.csv`)
+        .send(withConditions(conditions, `${body}\n`));
       return undefined;
     },
   });
-
 }

@@ -47,7 +47,12 @@ export function lotHistory(db: DbLike, lot: Pick<LotRow, 'id' | 'createdAt' | 'c
     const base: LotHistoryEvent = { kind, at: r.at, by: r.by ?? null };
     switch (kind) {
       case 'upload':
-        return { ...base, file: typeof d.file === 'string' ? d.file : undefined, rows: typeof d.rows === 'number' ? d.rows : undefined, replaced: r.action === 'lot.readings-replaced' };
+        return {
+          ...base,
+          file: typeof d.file === 'string' ? d.file : undefined,
+          rows: typeof d.rows === 'number' ? d.rows : undefined,
+          replaced: r.action === 'lot.readings-replaced',
+        };
       case 'disposition':
         return { ...base, status: String(d.status ?? ''), reason: typeof d.reason === 'string' ? d.reason : undefined };
       case 'reopen':

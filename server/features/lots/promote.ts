@@ -23,30 +23,75 @@ export function promoteToParts(ctx: AppContext, lot: LotRow, input: PromoteInput
   } else {
     const stats = lotStats(lot, data, { matchPct: input.matchPct, setSize: input.setSize, withBinIndices: true });
     const group = input.bin !== undefined ? stats?.bins[input.bin]?.indices : stats?.matchedSets[input.set!]?.indices;
-    if (!group) throw unprocessable(input.bin !== undefined ? 'There is no such bin.' : 'There is no such matched set.', { [input.bin !== undefined ? 'bin' : 'set']: 'Not found.' });
+    if (!group)
+      throw unprocessable(input.bin !== undefined ? 'There is no such bin.' : 'There is no such matched set.', {
+        [input.bin !== undefined ? 'bin' : 'set']: 'Not found.',
+      });
     indices = group;
   }
   if (indices.length === 0) throw unprocessable('The selection is empty.', { readingIds: 'Nothing to promote.' });
   if (indices.length > 1000) throw unprocessable('Promote at most 1,000 items at once.', { readingIds: 'Too many.' });
 
   const labels = indices.map((i) => `${lot.code}-${data.items[i]}`.slice(0, 60));
-  const taken = db.select({ label: parts.label }).from(parts).where(inArray(sql`lower(${parts.label})`, labels.map((l) => l.toLowerCase()))).all();
+  const taken = db
+    .select({ label: parts.label })
+    .from(parts)
+    .where(
+      inArray(
+        sql`lower(${parts.label})`,
+        labels.map((l) => l.toLowerCase()),
+      ),
+    )
+    .all();
   if (taken.length > 0) throw conflict(`Parts exist already for ${taken.length} of these items (e.g. ${taken[0]!.label}).`);
 
   return db.transaction((tx) => {
     const created = indices.map((i, k) => {
       const part = tx
         .insert(parts)
-        .values({ kind: lot.kind, label: labels[k]!, nominal: lot.nominal, tolerancePct: lot.tolerancePct, marking: lot.marking, supplier: lot.supplier, lotId: lot.id, lotItem: data.items[i]!, createdBy: userId })
+        .values({
+          kind: lot.kind,
+          label: labels[k]!,
+          nominal: lot.nominal,
+          tolerancePct: lot.tolerancePct,
+          marking: lot.marking,
+          supplier: lot.supplier,
+          lotId: lot.id,
+          lotItem: data.items[i]!,
+          createdBy: userId,
+        })
         .returning()
         .get();
-      tx.insert(partStatusEvents).values({ partId: part.id, toStatus: 'incoming', reason: `promoted from lot ${lot.code}`, userId }).run();
+      tx.insert(partStatusEvents)
+        .values({ partId: part.id, toStatus: 'incoming', reason: `promoted from lot ${lot.code}`, userId })
+        .run();
       // The lot's meter and test frequency go with each reading, when the lot has them.
-      const conditions = { ...(lot.instrumentId != null ? { instrumentId: lot.instrumentId } : {}), ...(lot.testFrequency != null ? { frequency: lot.testFrequency } : {}) };
-      recordReading(tx, part, { quantity: lot.kind === 'capacitor' ? 'capacitance' : 'resistance', value: data.values[i]!, ...conditions }, userId, 'lot');
+      const conditions = {
+        ...(lot.instrumentId != null ? { instrumentId: lot.instrumentId } : {}),
+        ...(lot.testFrequency != null ? { frequency: lot.testFrequency } : {}),
+      };
+      recordReading(
+        tx,
+        part,
+        { quantity: lot.kind === 'capacitor' ? 'capacitance' : 'resistance', value: data.values[i]!, ...conditions },
+        userId,
+        'lot',
+      );
       const second = data.second[i]!;
-      const secondQuantity = lot.secondQuantity === 'dissipation' || lot.secondQuantity === 'esr' ? SECOND_READING[lot.secondQuantity] : null;
-      if (secondQuantity && !Number.isNaN(second)) recordReading(tx, tx.select().from(parts).where(inArray(parts.id, [part.id])).get()!, { quantity: secondQuantity, value: second, ...conditions }, userId, 'lot');
+      const secondQuantity =
+        lot.secondQuantity === 'dissipation' || lot.secondQuantity === 'esr' ? SECOND_READING[lot.secondQuantity] : null;
+      if (secondQuantity && !Number.isNaN(second))
+        recordReading(
+          tx,
+          tx
+            .select()
+            .from(parts)
+            .where(inArray(parts.id, [part.id]))
+            .get()!,
+          { quantity: secondQuantity, value: second, ...conditions },
+          userId,
+          'lot',
+        );
       return part.id;
     });
     audit(tx, { userId, action: 'lot.promote', entity: 'lot', entityId: lot.id, detail: { parts: created.length, selection: input } });

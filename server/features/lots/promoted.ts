@@ -6,13 +6,23 @@ import { parts } from '@server/db/schema';
 
 export function itemPartIds(db: DbLike, lotId: number, items: readonly string[]): (number | null)[] {
   const byItem = new Map<string, number>();
-  for (const p of db.select({ id: parts.id, item: parts.lotItem }).from(parts).where(and(eq(parts.lotId, lotId), isNotNull(parts.lotItem))).all()) byItem.set(p.item!, p.id);
+  for (const p of db
+    .select({ id: parts.id, item: parts.lotItem })
+    .from(parts)
+    .where(and(eq(parts.lotId, lotId), isNotNull(parts.lotItem)))
+    .all())
+    byItem.set(p.item!, p.id);
   return items.map((item) => byItem.get(item) ?? null);
 }
 
 /** itemPartIds for the lot's readings in upload order; reads the item names only when some item became a part. */
 export function lotItemPartIds(db: DbLike, sqlite: Database.Database, lotId: number, count: number): (number | null)[] {
-  const promoted = db.select({ id: parts.id }).from(parts).where(and(eq(parts.lotId, lotId), isNotNull(parts.lotItem))).limit(1).get();
+  const promoted = db
+    .select({ id: parts.id })
+    .from(parts)
+    .where(and(eq(parts.lotId, lotId), isNotNull(parts.lotItem)))
+    .limit(1)
+    .get();
   if (!promoted) return new Array<null>(count).fill(null);
   const items = sqlite.prepare('select item from lot_readings where lot_id = ? order by id').pluck().all(lotId) as string[];
   return itemPartIds(db, lotId, items);

@@ -4,7 +4,15 @@
 import { createHash } from 'node:crypto';
 import fs from 'node:fs';
 import Papa from 'papaparse';
-import { createLotRowReader, createRowLineCounter, isBlankRow, sniffTable, SNIFF_BYTES, DEFAULT_MAX_LOT_ROWS, type LotQuantity } from '@shared/csv/lots';
+import {
+  createLotRowReader,
+  createRowLineCounter,
+  isBlankRow,
+  sniffTable,
+  SNIFF_BYTES,
+  DEFAULT_MAX_LOT_ROWS,
+  type LotQuantity,
+} from '@shared/csv/lots';
 import type { CsvIssue } from '@shared/csv/issues';
 import { isCsvIssue } from '@shared/csv/lots';
 import type { ExplicitMapping, NeedsMapping } from '@shared/csv/columns';
@@ -45,14 +53,23 @@ function readHead(file: string): string {
   }
 }
 
-export async function readLotFile(file: string, opts: { quantity: LotQuantity; mapping?: ExplicitMapping; maxRows?: number }): Promise<ReadLotResult> {
+export async function readLotFile(
+  file: string,
+  opts: { quantity: LotQuantity; mapping?: ExplicitMapping; maxRows?: number },
+): Promise<ReadLotResult> {
   const maxRows = opts.maxRows ?? DEFAULT_MAX_LOT_ROWS;
   const size = fs.statSync(file).size;
   const head = readHead(file);
-  if (head.includes('\u0000')) return { ok: false, issues: [{ line: null, column: null, message: 'This is not a text CSV file (it holds binary data).' }] };
+  if (head.includes('\u0000'))
+    return { ok: false, issues: [{ line: null, column: null, message: 'This is not a text CSV file (it holds binary data).' }] };
   const sniff = sniffTable(head, { complete: size <= SNIFF_BYTES });
   if (!sniff.ok) return sniff;
-  const reader = createLotRowReader(sniff.header, { quantity: opts.quantity, decimalComma: sniff.decimalComma, headerLine: sniff.headerLine, ...(opts.mapping ? { mapping: opts.mapping } : {}) });
+  const reader = createLotRowReader(sniff.header, {
+    quantity: opts.quantity,
+    decimalComma: sniff.decimalComma,
+    headerLine: sniff.headerLine,
+    ...(opts.mapping ? { mapping: opts.mapping } : {}),
+  });
   if (!reader.ok) return reader;
 
   const hash = createHash('sha256');
@@ -85,7 +102,11 @@ export async function readLotFile(file: string, opts: { quantity: LotQuantity; m
           const c0 = cells[0]!.charCodeAt(0);
           if ((c0 === 35 || c0 === 47) && isCommentRow(cells)) continue;
           if (n >= maxRows) {
-            failure = { line, column: null, message: `the lot has more than ${maxRows.toLocaleString('en')} rows, the most one upload may hold.` };
+            failure = {
+              line,
+              column: null,
+              message: `the lot has more than ${maxRows.toLocaleString('en')} rows, the most one upload may hold.`,
+            };
             parser.abort();
             return;
           }
@@ -115,10 +136,24 @@ export async function readLotFile(file: string, opts: { quantity: LotQuantity; m
     });
   });
   if (failure) return { ok: false, issues: [failure] };
-  if (n === 0) return { ok: false, issues: [{ line: null, column: null, message: `The file has a header (line ${sniff.headerLine}) but no data rows.` }] };
+  if (n === 0)
+    return {
+      ok: false,
+      issues: [{ line: null, column: null, message: `The file has a header (line ${sniff.headerLine}) but no data rows.` }],
+    };
   // The stream was aborted early only on failure, so the hash covers the whole file here.
   return {
     ok: true,
-    data: { items, values: values.subarray(0, n), second: second.subarray(0, n), frequency: frequency.subarray(0, n), lines: lines.subarray(0, n), n, columns: reader.columns, secondQuantity: reader.secondQuantity, contentHash: hash.digest('hex') },
+    data: {
+      items,
+      values: values.subarray(0, n),
+      second: second.subarray(0, n),
+      frequency: frequency.subarray(0, n),
+      lines: lines.subarray(0, n),
+      n,
+      columns: reader.columns,
+      secondQuantity: reader.secondQuantity,
+      contentHash: hash.digest('hex'),
+    },
   };
 }

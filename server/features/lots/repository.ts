@@ -41,9 +41,17 @@ export interface LotValues {
 
 /** The lot's readings as columns, in upload order (raw statement: 100,000 rows without row objects per column). */
 export function lotValues(sqlite: Database.Database, lotId: number): LotValues {
-  const rows = sqlite.prepare('select id, item, value, second_value from lot_readings where lot_id = ? order by id').raw(true).all(lotId) as [number, string, number, number | null][];
+  const rows = sqlite
+    .prepare('select id, item, value, second_value from lot_readings where lot_id = ? order by id')
+    .raw(true)
+    .all(lotId) as [number, string, number, number | null][];
   const n = rows.length;
-  const out: LotValues = { ids: new Float64Array(n), items: new Array<string>(n), values: new Float64Array(n), second: new Float64Array(n) };
+  const out: LotValues = {
+    ids: new Float64Array(n),
+    items: new Array<string>(n),
+    values: new Float64Array(n),
+    second: new Float64Array(n),
+  };
   for (let i = 0; i < n; i++) {
     const r = rows[i]!;
     out.ids[i] = r[0];

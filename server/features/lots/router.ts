@@ -21,13 +21,18 @@ import { isDefaultMatching, lotResults, storedLotStats, type StoredLotResults } 
 import { promoteToParts } from './promote';
 import { lotUploadRoutes } from './upload';
 
-
 export function lotRoutes(ctx: AppContext) {
   const { db, sqlite } = ctx;
   const api = new ApiRouter('/api/lots');
   /** Watchers must be members; the field names where the stranger was given. */
   const assertMembers = (ids: string[], field: string) => {
-    const known = new Set(db.select({ id: users.id }).from(users).all().map((u) => u.id));
+    const known = new Set(
+      db
+        .select({ id: users.id })
+        .from(users)
+        .all()
+        .map((u) => u.id),
+    );
     const stranger = ids.find((id) => !known.has(id));
     if (stranger) throw unprocessable('A watcher is not a member.', { [field]: `Unknown member ${stranger}.` });
   };
@@ -56,12 +61,25 @@ export function lotRoutes(ctx: AppContext) {
           throw err;
         }
       }
-      if (tolerancePct == null) throw unprocessable('Give the tolerance, or a marking with a tolerance letter.', { tolerancePct: 'Required without a tolerance letter.' });
-      const code = body.code ?? `LOT-${new Date().toISOString().slice(0, 10).replace(/-/g, '')}-${(db.select({ n: sql<number>`count(*)` }).from(lots).get()?.n ?? 0) + 1}`;
+      if (tolerancePct == null)
+        throw unprocessable('Give the tolerance, or a marking with a tolerance letter.', {
+          tolerancePct: 'Required without a tolerance letter.',
+        });
+      const code =
+        body.code ??
+        `LOT-${new Date().toISOString().slice(0, 10).replace(/-/g, '')}-${
+          (db
+            .select({ n: sql<number>`count(*)` })
+            .from(lots)
+            .get()?.n ?? 0) + 1
+        }`;
       if (db.select().from(lots).where(eq(lots.code, code)).get()) throw conflict(`A lot with code ${code} exists already.`);
       assertMembers(body.watcherIds, 'watcherIds');
       assertWatcherChange(user, [], body.watcherIds);
-      if (body.instrumentId != null && !db.select({ id: instruments.id }).from(instruments).where(eq(instruments.id, body.instrumentId)).get()) {
+      if (
+        body.instrumentId != null &&
+        !db.select({ id: instruments.id }).from(instruments).where(eq(instruments.id, body.instrumentId)).get()
+      ) {
         throw unprocessable('That instrument does not exist.', { instrumentId: 'Unknown instrument.' });
       }
       return db.transaction((tx) => {
@@ -99,7 +117,9 @@ export function lotRoutes(ctx: AppContext) {
       const lot = mustFind(params.id);
       // The default matching is stored (stored-stats.ts); another matching is computed for this request.
       const results = isDefaultMatching(query) ? storedLotStats(sqlite, lot, 'detail') : freshResults(lot, query);
-      const disposedByName = lot.disposedBy ? (db.select({ name: users.name }).from(users).where(eq(users.id, lot.disposedBy)).get()?.name ?? null) : null;
+      const disposedByName = lot.disposedBy
+        ? (db.select({ name: users.name }).from(users).where(eq(users.id, lot.disposedBy)).get()?.name ?? null)
+        : null;
       const head = {
         ...lotSummary(lot),
         disposedByName,
@@ -130,7 +150,11 @@ export function lotRoutes(ctx: AppContext) {
     handle: ({ params, body, user }) => {
       const lot = mustFind(params.id);
       assertMembers(body.userIds, 'userIds');
-      assertWatcherChange(user, lotWatcherRows(db, lot.id).map((w) => w.id), body.userIds);
+      assertWatcherChange(
+        user,
+        lotWatcherRows(db, lot.id).map((w) => w.id),
+        body.userIds,
+      );
       db.transaction((tx) => {
         tx.delete(lotWatchers).where(eq(lotWatchers.lotId, lot.id)).run();
         for (const userId of new Set(body.userIds)) tx.insert(lotWatchers).values({ lotId: lot.id, userId }).run();

@@ -92,7 +92,17 @@ export function refreshLotStats(sqlite: Database.Database, lot: LotRow): StoredL
          tolerance_pct = excluded.tolerance_pct, second_limit = excluded.second_limit, count = excluded.count,
          detail = excluded.detail, columns = excluded.columns, computed_at = excluded.computed_at`,
     )
-    .run(lot.id, ANALYSIS_ENGINE_VERSION, lot.nominal, lot.tolerancePct, lot.secondLimit, stored.count, stored.statsJson, stored.columnsJson, Date.now());
+    .run(
+      lot.id,
+      ANALYSIS_ENGINE_VERSION,
+      lot.nominal,
+      lot.tolerancePct,
+      lot.secondLimit,
+      stored.count,
+      stored.statsJson,
+      stored.columnsJson,
+      Date.now(),
+    );
   return stored;
 }
 
@@ -103,9 +113,17 @@ export function refreshLotStats(sqlite: Database.Database, lot: LotRow): StoredL
  */
 export function storedLotStats(sqlite: Database.Database, lot: LotRow, part: 'detail' | 'columns'): StoredLotResults {
   const row = sqlite
-    .prepare(`select engine_version, nominal, tolerance_pct, second_limit, count, ${part === 'detail' ? "detail, '' as columns" : "'' as detail, columns"} from lot_stats where lot_id = ?`)
+    .prepare(
+      `select engine_version, nominal, tolerance_pct, second_limit, count, ${part === 'detail' ? "detail, '' as columns" : "'' as detail, columns"} from lot_stats where lot_id = ?`,
+    )
     .get(lot.id) as Row | undefined;
-  if (row && row.engine_version === ANALYSIS_ENGINE_VERSION && row.nominal === lot.nominal && row.tolerance_pct === lot.tolerancePct && row.second_limit === lot.secondLimit) {
+  if (
+    row &&
+    row.engine_version === ANALYSIS_ENGINE_VERSION &&
+    row.nominal === lot.nominal &&
+    row.tolerance_pct === lot.tolerancePct &&
+    row.second_limit === lot.secondLimit
+  ) {
     return { count: row.count, statsJson: row.detail, columnsJson: row.columns };
   }
   return refreshLotStats(sqlite, lot);
@@ -113,5 +131,8 @@ export function storedLotStats(sqlite: Database.Database, lot: LotRow, part: 'de
 
 /** True when a request asks for the default matching (so the stored results answer it). */
 export function isDefaultMatching(query: { matchPct?: number; setSize?: number }): boolean {
-  return (query.matchPct ?? DEFAULT_MATCHING.matchPct) === DEFAULT_MATCHING.matchPct && (query.setSize ?? DEFAULT_MATCHING.setSize) === DEFAULT_MATCHING.setSize;
+  return (
+    (query.matchPct ?? DEFAULT_MATCHING.matchPct) === DEFAULT_MATCHING.matchPct &&
+    (query.setSize ?? DEFAULT_MATCHING.setSize) === DEFAULT_MATCHING.setSize
+  );
 }

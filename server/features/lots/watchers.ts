@@ -12,7 +12,12 @@ import { lotWatcherRows, type LotRow } from './repository';
 
 /** The members a watcher can be chosen from (active accounts), for the lot form and page. */
 export function watcherCandidates(db: DbLike) {
-  return db.select({ id: users.id, name: users.name, email: users.email, role: users.role }).from(users).where(isNull(users.disabledAt)).orderBy(users.name).all();
+  return db
+    .select({ id: users.id, name: users.name, email: users.email, role: users.role })
+    .from(users)
+    .where(isNull(users.disabledAt))
+    .orderBy(users.name)
+    .all();
 }
 
 /** Refuses (403) a change of other members' watching by someone without the qa capability. */
@@ -21,7 +26,8 @@ export function assertWatcherChange(user: AuthUser, before: string[], after: str
   const a = new Set(before);
   const b = new Set(after);
   const changed = [...b].filter((id) => !a.has(id)).concat([...a].filter((id) => !b.has(id)));
-  if (changed.some((id) => id !== user.id)) throw forbidden('Only QA leads and admins choose other members as watchers; you may add or remove yourself.');
+  if (changed.some((id) => id !== user.id))
+    throw forbidden('Only QA leads and admins choose other members as watchers; you may add or remove yourself.');
 }
 
 /** Tells the watchers that a lot was reopened, by whom and why. Returns how many were told. */

@@ -44,12 +44,23 @@ export interface PartEvidence {
 export function partEvidence(db: DbLike, part: PartRow): PartEvidence {
   const latest = new Map<string, QuantityVerdict>();
   for (const r of db.select().from(readings).where(eq(readings.partId, part.id)).orderBy(desc(readings.id)).all()) {
-    if (!latest.has(r.quantity)) latest.set(r.quantity, { quantity: r.quantity, value: r.value, verdict: r.verdict, reason: r.verdictReason, takenAt: r.takenAt });
+    if (!latest.has(r.quantity))
+      latest.set(r.quantity, { quantity: r.quantity, value: r.value, verdict: r.verdict, reason: r.verdictReason, takenAt: r.takenAt });
   }
   const current = new Map<string, FitEvidence>();
-  for (const f of db.select().from(fits).where(and(eq(fits.partId, part.id), isNull(fits.supersededAt))).orderBy(desc(fits.id)).all()) {
+  for (const f of db
+    .select()
+    .from(fits)
+    .where(and(eq(fits.partId, part.id), isNull(fits.supersededAt)))
+    .orderBy(desc(fits.id))
+    .all()) {
     if (current.has(f.kind)) continue;
-    const result = f.result as { flags?: { code: string; message: string }[]; law?: string; m?: number; best?: { law?: string; m?: number } };
+    const result = f.result as {
+      flags?: { code: string; message: string }[];
+      law?: string;
+      m?: number;
+      best?: { law?: string; m?: number };
+    };
     current.set(f.kind, {
       kind: f.kind,
       fitId: f.id,
@@ -84,10 +95,18 @@ export const NEEDS_OVERRIDE = new Set<PartRow['status']>(['flagged', 'incoming']
  * flagged or incoming (never judged), and also when its status says passed but its current
  * evidence flags it (a later passing reading does not clear a flagged taper fit).
  */
-export function installCheck(db: DbLike, part: PartRow): { needsOverride: boolean; status: string; reasons: string[]; evidence: PartEvidence } {
+export function installCheck(
+  db: DbLike,
+  part: PartRow,
+): { needsOverride: boolean; status: string; reasons: string[]; evidence: PartEvidence } {
   const evidence = partEvidence(db, part);
   if (part.status === 'incoming') {
-    return { needsOverride: true, status: 'incoming', reasons: [part.statusReason ?? 'never judged: no reading with limits and no fit'], evidence };
+    return {
+      needsOverride: true,
+      status: 'incoming',
+      reasons: [part.statusReason ?? 'never judged: no reading with limits and no fit'],
+      evidence,
+    };
   }
   if (part.status === 'flagged' || (part.status === 'passed' && evidence.judged === 'flagged')) {
     const reasons = evidence.reasons.length ? evidence.reasons : [part.statusReason ?? 'flagged'];

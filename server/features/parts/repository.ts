@@ -34,19 +34,40 @@ export function findPart(db: DbLike, id: number): PartRow | undefined {
  * every part it could mean, never a guess.
  */
 export function findPartByLabel(db: DbLike, label: string): PartRow | undefined {
-  const found = db.select().from(parts).where(sql`lower(${parts.label}) = lower(${label})`).orderBy(parts.id).all();
+  const found = db
+    .select()
+    .from(parts)
+    .where(sql`lower(${parts.label}) = lower(${label})`)
+    .orderBy(parts.id)
+    .all();
   if (found.length > 1) {
-    throw new HttpError(409, 'label_clash', `The label "${label}" names ${found.length} parts that differ only in case: ${found.map((p) => `${p.label} (id ${p.id})`).join(' and ')}. Rename one of them.`, undefined, {
-      details: { parts: found.map((p) => ({ id: p.id, label: p.label })) },
-    });
+    throw new HttpError(
+      409,
+      'label_clash',
+      `The label "${label}" names ${found.length} parts that differ only in case: ${found.map((p) => `${p.label} (id ${p.id})`).join(' and ')}. Rename one of them.`,
+      undefined,
+      {
+        details: { parts: found.map((p) => ({ id: p.id, label: p.label })) },
+      },
+    );
   }
   return found[0];
 }
 
 /** Refuses (409) a label that another part holds already, in any case. */
 export function assertLabelFree(db: DbLike, label: string, exceptId?: number): void {
-  const holder = db.select({ id: parts.id, label: parts.label }).from(parts).where(sql`lower(${parts.label}) = lower(${label})`).all().find((p) => p.id !== exceptId);
-  if (holder) throw conflict(holder.label === label ? `A part labelled "${label}" exists already.` : `A part labelled "${holder.label}" exists already; labels are the same in any case.`);
+  const holder = db
+    .select({ id: parts.id, label: parts.label })
+    .from(parts)
+    .where(sql`lower(${parts.label}) = lower(${label})`)
+    .all()
+    .find((p) => p.id !== exceptId);
+  if (holder)
+    throw conflict(
+      holder.label === label
+        ? `A part labelled "${label}" exists already.`
+        : `A part labelled "${holder.label}" exists already; labels are the same in any case.`,
+    );
 }
 
 /** Labels held by more than one part when compared without case (from before the rule): each group with its parts. */

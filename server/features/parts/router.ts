@@ -16,7 +16,10 @@ export function partRoutes(ctx: AppContext) {
   const api = new ApiRouter('/api/parts');
   /** The records a part may refer to must exist; the answer names the field. */
   const assertReferences = (body: { profileId?: number | null; lotId?: number | null }) => {
-    if (body.profileId != null && !db.select({ id: toleranceProfiles.id }).from(toleranceProfiles).where(eq(toleranceProfiles.id, body.profileId)).get()) {
+    if (
+      body.profileId != null &&
+      !db.select({ id: toleranceProfiles.id }).from(toleranceProfiles).where(eq(toleranceProfiles.id, body.profileId)).get()
+    ) {
       throw unprocessable(`There is no tolerance profile ${body.profileId}.`, { profileId: 'No such tolerance profile.' });
     }
     if (body.lotId != null && !db.select({ id: lots.id }).from(lots).where(eq(lots.id, body.lotId)).get()) {
@@ -36,8 +39,14 @@ export function partRoutes(ctx: AppContext) {
       assertReferences(body);
       assertLabelFree(db, body.label);
       return db.transaction((tx) => {
-        const part = tx.insert(parts).values({ ...body, createdBy: user.id }).returning().get();
-        tx.insert(partStatusEvents).values({ partId: part.id, fromStatus: null, toStatus: part.status, reason: 'created', userId: user.id }).run();
+        const part = tx
+          .insert(parts)
+          .values({ ...body, createdBy: user.id })
+          .returning()
+          .get();
+        tx.insert(partStatusEvents)
+          .values({ partId: part.id, fromStatus: null, toStatus: part.status, reason: 'created', userId: user.id })
+          .run();
         audit(tx, { userId: user.id, action: 'part.create', entity: 'part', entityId: part.id, detail: { ...body } });
         return part;
       });
@@ -79,11 +88,13 @@ export function partRoutes(ctx: AppContext) {
       const qr = await QRCode.toString(`${ctx.config.publicUrl}/parts/${part.id}`, { type: 'svg', margin: 1, width: 160 });
       const inner = qr.replace(/^<svg[^>]*>/, '').replace(/<\/svg>\s*$/, '');
       const label = part.label.replace(/[<>&"]/g, '');
-      res.type('image/svg+xml').send(
-        `<svg xmlns="http://www.w3.org/2000/svg" width="360" height="170" viewBox="0 0 360 170"><rect width="360" height="170" fill="#fff"/>` +
-          `<svg x="5" y="5" width="160" height="160" viewBox="${qr.match(/viewBox="([^"]+)"/)?.[1] ?? '0 0 33 33'}">${inner}</svg>` +
-          `<text x="175" y="80" font-family="monospace" font-size="24">${label}</text><text x="175" y="110" font-family="sans-serif" font-size="14">${part.kind}</text></svg>`,
-      );
+      res
+        .type('image/svg+xml')
+        .send(
+          `<svg xmlns="http://www.w3.org/2000/svg" width="360" height="170" viewBox="0 0 360 170"><rect width="360" height="170" fill="#fff"/>` +
+            `<svg x="5" y="5" width="160" height="160" viewBox="${qr.match(/viewBox="([^"]+)"/)?.[1] ?? '0 0 33 33'}">${inner}</svg>` +
+            `<text x="175" y="80" font-family="monospace" font-size="24">${label}</text><text x="175" y="110" font-family="sans-serif" font-size="14">${part.kind}</text></svg>`,
+        );
     },
   });
 
@@ -97,10 +108,20 @@ export function partRoutes(ctx: AppContext) {
       const { status, statusReason, ...fields } = body;
       return db.transaction((tx) => {
         const changed = Object.fromEntries(Object.entries(fields).filter(([k, v]) => part[k as keyof typeof part] !== v));
-        if (Object.keys(changed).length > 0) tx.update(parts).set({ ...changed, updatedAt: Date.now() }).where(eq(parts.id, part.id)).run();
+        if (Object.keys(changed).length > 0)
+          tx.update(parts)
+            .set({ ...changed, updatedAt: Date.now() })
+            .where(eq(parts.id, part.id))
+            .run();
         if (status) setPartStatus(tx, part, status, statusReason ?? null, user.id);
         const before = Object.fromEntries(Object.keys(changed).map((k) => [k, part[k as keyof typeof part]]));
-        audit(tx, { userId: user.id, action: status === 'retired' ? 'part.retire' : 'part.update', entity: 'part', entityId: part.id, detail: { before, after: changed, ...(status ? { status: { from: part.status, to: status } } : {}) } });
+        audit(tx, {
+          userId: user.id,
+          action: status === 'retired' ? 'part.retire' : 'part.update',
+          entity: 'part',
+          entityId: part.id,
+          detail: { before, after: changed, ...(status ? { status: { from: part.status, to: status } } : {}) },
+        });
         return findPart(tx, part.id);
       });
     },

@@ -14,10 +14,14 @@ export function listProfiles(db: DbLike): ProfileRow[] {
 
 /** The profile a part follows (shared/analysis/profile-match.ts: the same choice the browser makes). */
 export function profileForPart(db: DbLike, part: Pick<PartRow, 'kind' | 'nominal' | 'profileId' | 'taperClass'>): ProfileRow | null {
-  const candidates = part.profileId != null
-    ? db.select().from(toleranceProfiles).where(eq(toleranceProfiles.id, part.profileId)).all()
-    : db.select().from(toleranceProfiles).where(eq(toleranceProfiles.kind, part.kind)).all();
-  return chooseProfile(candidates.map((p) => ({ ...p, rules: p.rules as ProfileRules })), part);
+  const candidates =
+    part.profileId != null
+      ? db.select().from(toleranceProfiles).where(eq(toleranceProfiles.id, part.profileId)).all()
+      : db.select().from(toleranceProfiles).where(eq(toleranceProfiles.kind, part.kind)).all();
+  return chooseProfile(
+    candidates.map((p) => ({ ...p, rules: p.rules as ProfileRules })),
+    part,
+  );
 }
 
 export function toProfileSpec(p: ProfileRow | null): ProfileSpec | null {

@@ -21,7 +21,11 @@ export function profileRoutes(ctx: AppContext) {
     handle: ({ body, user }) => {
       if (byName(body.name)) throw conflict(`A profile named "${body.name}" exists already.`);
       return db.transaction((tx) => {
-        const row = tx.insert(toleranceProfiles).values({ ...body, createdBy: user.id }).returning().get();
+        const row = tx
+          .insert(toleranceProfiles)
+          .values({ ...body, createdBy: user.id })
+          .returning()
+          .get();
         audit(tx, { userId: user.id, action: 'profile.create', entity: 'profile', entityId: row.id, detail: body });
         return row;
       });

@@ -56,7 +56,13 @@ export function readingRoutes(ctx: AppContext) {
       if (!part) throw notFound('That part');
       return db.transaction((tx) => {
         const reading = recordReading(tx, part, body, user.id);
-        audit(tx, { userId: user.id, action: 'reading.create', entity: 'part', entityId: part.id, detail: { readingId: reading.id, ...body, verdict: reading.verdict } });
+        audit(tx, {
+          userId: user.id,
+          action: 'reading.create',
+          entity: 'part',
+          entityId: part.id,
+          detail: { readingId: reading.id, ...body, verdict: reading.verdict },
+        });
         return { reading, part: findPart(tx, part.id) };
       });
     },

@@ -18,14 +18,25 @@ const JUDGED_STATUSES = new Set<PartRow['status']>(['incoming', 'passed', 'flagg
  * Stores one reading with its verdict (limits from the part or its profile, guard band from the
  * instrument's accuracy) and moves the part to passed or flagged by that verdict.
  */
-export function recordReading(db: DbLike, part: PartRow, input: CreateReadingInput, userId: string, entry: 'typed' | 'file' | 'lot' = 'typed'): ReadingRow {
+export function recordReading(
+  db: DbLike,
+  part: PartRow,
+  input: CreateReadingInput,
+  userId: string,
+  entry: 'typed' | 'file' | 'lot' = 'typed',
+): ReadingRow {
   if (NON_NEGATIVE_QUANTITIES.has(input.quantity) && input.value < 0) {
     throw unprocessable(`A ${input.quantity} reading cannot be negative.`, { value: 'Must be zero or more.' });
   }
   const instrument = input.instrumentId ? db.select().from(instruments).where(eq(instruments.id, input.instrumentId)).get() : undefined;
-  if (input.instrumentId && !instrument) throw new HttpError(422, 'invalid', 'That instrument does not exist.', { instrumentId: 'Unknown instrument.' });
+  if (input.instrumentId && !instrument)
+    throw new HttpError(422, 'invalid', 'That instrument does not exist.', { instrumentId: 'Unknown instrument.' });
   const accuracy = (instrument?.accuracy as Partial<Record<string, Accuracy>> | undefined)?.[input.quantity] ?? null;
-  const judgement = judgeReading(part, input, { profile: toProfileSpec(profileForPart(db, part)), accuracy, displayCounts: instrument?.displayCounts ?? null });
+  const judgement = judgeReading(part, input, {
+    profile: toProfileSpec(profileForPart(db, part)),
+    accuracy,
+    displayCounts: instrument?.displayCounts ?? null,
+  });
 
   const row = db
     .insert(readings)

@@ -22,7 +22,12 @@ export type SweepFit = { kind: 'taper'; result: TaperFit } | { kind: 'coil'; res
 /** Stored-form points in the engine's input shape (taper rotation in percent of the full rotation). */
 export function fitInput(kind: SweepRow['kind'], rows: StoredPoint[]): TaperPoint[] | CoilPoint[] {
   return kind === 'taper'
-    ? rows.map((r) => ({ rotation: r.x * 100, resistance: r.y, ...(r.z != null ? { resistanceW3: r.z } : {}), ...(r.total != null ? { total: r.total } : {}) }))
+    ? rows.map((r) => ({
+        rotation: r.x * 100,
+        resistance: r.y,
+        ...(r.z != null ? { resistanceW3: r.z } : {}),
+        ...(r.total != null ? { total: r.total } : {}),
+      }))
     : rows.map((r) => ({ frequency: r.x, re: r.y, im: r.z ?? 0 }));
 }
 
@@ -58,14 +63,22 @@ export function computeFit(db: DbLike, part: PartRow, sweep: SweepRow, stored?: 
       nominal: part.nominal ?? undefined,
       tolerancePct: part.tolerancePct ?? undefined,
       ...(choices.law ? { forceLaw: choices.law } : {}),
-      profile: { law: rules.law ?? (part.taperClass as TaperFit['law'] | null) ?? undefined, mMin: rules.mMin, mMax: rules.mMax, maxEndResistance: rules.maxEndResistance },
+      profile: {
+        law: rules.law ?? (part.taperClass as TaperFit['law'] | null) ?? undefined,
+        mMin: rules.mMin,
+        mMax: rules.mMax,
+        maxEndResistance: rules.maxEndResistance,
+      },
     });
     return { kind: 'taper', result };
   }
   const fit = fitCoil({ points: points as CoilPoint[], withRp: choices.withRp ?? 'auto' });
   const flags = coilFlags(fit, {
     dcr: part.nominal != null && part.tolerancePct != null ? { nominal: part.nominal, tolerancePct: part.tolerancePct } : undefined,
-    inductance: rules.inductanceNominal && rules.inductanceTolerancePct ? { nominal: rules.inductanceNominal, tolerancePct: rules.inductanceTolerancePct } : undefined,
+    inductance:
+      rules.inductanceNominal && rules.inductanceTolerancePct
+        ? { nominal: rules.inductanceNominal, tolerancePct: rules.inductanceTolerancePct }
+        : undefined,
     minQ: rules.minQ,
   });
   return { kind: 'coil', result: { ...fit, flags } };
@@ -85,7 +98,10 @@ export function fitAndStore(
   const fit = computeFit(db, part, sweep, opts.points, opts.choices);
   const flags = fit.result.flags;
   const now = Date.now();
-  db.update(fits).set({ supersededAt: now }).where(and(eq(fits.sweepId, sweep.id), eq(fits.partId, part.id))).run();
+  db.update(fits)
+    .set({ supersededAt: now })
+    .where(and(eq(fits.sweepId, sweep.id), eq(fits.partId, part.id)))
+    .run();
   const row = db
     .insert(fits)
     .values({

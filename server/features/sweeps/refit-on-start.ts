@@ -28,7 +28,9 @@ export function refitOutdatedTaperFits(db: Db): RefitSummary {
     if (!sweep || !part) continue;
     try {
       db.transaction((tx) => {
-        fitAndStore(tx, part, sweep, null, { reasonPrefix: `refitted by engine version ${ANALYSIS_ENGINE_VERSION} (was ${f.engineVersion})` });
+        fitAndStore(tx, part, sweep, null, {
+          reasonPrefix: `refitted by engine version ${ANALYSIS_ENGINE_VERSION} (was ${f.engineVersion})`,
+        });
       });
       summary.refitted++;
     } catch (err) {

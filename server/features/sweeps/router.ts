@@ -23,7 +23,20 @@ export function sweepRoutes(ctx: AppContext) {
 
   const withFits = (list: SweepRow[]) => {
     if (list.length === 0) return [];
-    const current = db.select().from(fits).where(and(inArray(fits.sweepId, list.map((s) => s.id)), isNull(fits.supersededAt))).all().map(asFit);
+    const current = db
+      .select()
+      .from(fits)
+      .where(
+        and(
+          inArray(
+            fits.sweepId,
+            list.map((s) => s.id),
+          ),
+          isNull(fits.supersededAt),
+        ),
+      )
+      .all()
+      .map(asFit);
     return list.map((s) => ({ ...s, points: sweepInput(db, s), fit: current.find((f) => f.sweepId === s.id) ?? null }));
   };
 
@@ -42,24 +55,57 @@ export function sweepRoutes(ctx: AppContext) {
     handle: ({ params, body, req, user }) => {
       const part = findPart(db, params.id);
       if (!part) throw notFound('That part');
-      if (body.kind === 'taper' && part.kind !== 'pot') throw unprocessable('Rotation sweeps belong to pots.', { kind: `This part is a ${part.kind}.` });
+      if (body.kind === 'taper' && part.kind !== 'pot')
+        throw unprocessable('Rotation sweeps belong to pots.', { kind: `This part is a ${part.kind}.` });
       const { mime } = checkFileType(req.file, 'table');
       const file = req.file!;
       const parsed = parseSweepCsv(file.buffer.toString('utf8'), body.kind, { mapping: body.mapping });
       if (!parsed.ok) throw fileRefused(parsed);
-      const stored = toStoredPoints(body.kind, parsed.points, parsed.kind === 'taper' ? parsed.rotationUnit : 'percent', body.fullRotationDeg ?? DEFAULT_FULL_ROTATION_DEG);
+      const stored = toStoredPoints(
+        body.kind,
+        parsed.points,
+        parsed.kind === 'taper' ? parsed.rotationUnit : 'percent',
+        body.fullRotationDeg ?? DEFAULT_FULL_ROTATION_DEG,
+      );
       try {
         return withStoredFile(ctx.config.uploadsDir, file.buffer, (content) =>
           db.transaction((tx) => {
             const attachment = tx
               .insert(attachments)
-              .values({ ownerType: 'part', ownerId: part.id, purpose: 'sweep', originalName: storedName(file.originalname), contentHash: content.contentHash, mime, size: content.size, createdBy: user.id })
+              .values({
+                ownerType: 'part',
+                ownerId: part.id,
+                purpose: 'sweep',
+                originalName: storedName(file.originalname),
+                contentHash: content.contentHash,
+                mime,
+                size: content.size,
+                createdBy: user.id,
+              })
               .returning()
               .get();
-            const sweep = insertSweep(tx, ctx.sqlite, { partId: part.id, kind: body.kind, attachmentId: attachment.id, columns: parsed.columns, createdBy: user.id }, stored);
+            const sweep = insertSweep(
+              tx,
+              ctx.sqlite,
+              { partId: part.id, kind: body.kind, attachmentId: attachment.id, columns: parsed.columns, createdBy: user.id },
+              stored,
+            );
             const fit = fitAndStore(tx, part, sweep, user.id, { points: stored });
-            audit(tx, { userId: user.id, action: 'sweep.upload', entity: 'part', entityId: part.id, detail: { sweepId: sweep.id, kind: body.kind, points: stored.length, file: attachment.originalName, flagged: fit.flagged } });
-            return { ...sweep, points: fitInput(sweep.kind, stored), fit: asFit(fit), ignoredColumns: parsed.ignored, notes: parsed.notes, part: findPart(tx, part.id) };
+            audit(tx, {
+              userId: user.id,
+              action: 'sweep.upload',
+              entity: 'part',
+              entityId: part.id,
+              detail: { sweepId: sweep.id, kind: body.kind, points: stored.length, file: attachment.originalName, flagged: fit.flagged },
+            });
+            return {
+              ...sweep,
+              points: fitInput(sweep.kind, stored),
+              fit: asFit(fit),
+              ignoredColumns: parsed.ignored,
+              notes: parsed.notes,
+              part: findPart(tx, part.id),
+            };
           }),
         );
       } catch (err) {
@@ -82,11 +128,21 @@ export function sweepRoutes(ctx: AppContext) {
     schemas: { params: IdParamsSchema.extend({ sweepId: z.coerce.number().int().positive() }), body: RefitInputSchema },
     handle: ({ params, body, user }) => {
       const part = findPart(db, params.id);
-      const sweep = db.select().from(sweeps).where(and(eq(sweeps.id, params.sweepId), eq(sweeps.partId, params.id))).get();
+      const sweep = db
+        .select()
+        .from(sweeps)
+        .where(and(eq(sweeps.id, params.sweepId), eq(sweeps.partId, params.id)))
+        .get();
       if (!part || !sweep) throw notFound('That sweep');
       return db.transaction((tx) => {
         const fit = fitAndStore(tx, part, sweep, user.id, { choices: body });
-        audit(tx, { userId: user.id, action: 'fit.rerun', entity: 'part', entityId: part.id, detail: { sweepId: sweep.id, fitId: fit.id, choices: body } });
+        audit(tx, {
+          userId: user.id,
+          action: 'fit.rerun',
+          entity: 'part',
+          entityId: part.id,
+          detail: { sweepId: sweep.id, fitId: fit.id, choices: body },
+        });
         return { fit: asFit(fit), part: findPart(tx, part.id) };
       });
     },

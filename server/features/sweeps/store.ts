@@ -20,10 +20,20 @@ export interface StoredPoint {
  * y = Re Z, z = Im Z. The rotation is converted to a fraction here, once; the fit takes these
  * same points (fitInput), whether just parsed or read back from the database.
  */
-export function toStoredPoints(kind: SweepKind, points: TaperPoint[] | CoilPoint[], rotationUnit: 'deg' | 'percent', fullRotationDeg: number): StoredPoint[] {
+export function toStoredPoints(
+  kind: SweepKind,
+  points: TaperPoint[] | CoilPoint[],
+  rotationUnit: 'deg' | 'percent',
+  fullRotationDeg: number,
+): StoredPoint[] {
   if (kind === 'taper') {
     const scale = rotationUnit === 'deg' ? 1 / fullRotationDeg : 1 / 100;
-    return (points as TaperPoint[]).map((p) => ({ x: p.rotation * scale, y: p.resistance, z: p.resistanceW3 ?? null, total: p.total ?? null }));
+    return (points as TaperPoint[]).map((p) => ({
+      x: p.rotation * scale,
+      y: p.resistance,
+      z: p.resistanceW3 ?? null,
+      total: p.total ?? null,
+    }));
   }
   return (points as CoilPoint[]).map((p) => {
     if ('re' in p) return { x: p.frequency, y: p.re, z: p.im, total: null };
@@ -39,7 +49,11 @@ export function insertSweep(
   sweep: { partId: number; kind: SweepKind; attachmentId: number | null; columns: Record<string, string> | null; createdBy: string },
   points: StoredPoint[],
 ): SweepRow {
-  const row = db.insert(sweeps).values({ ...sweep, pointCount: points.length }).returning().get();
+  const row = db
+    .insert(sweeps)
+    .values({ ...sweep, pointCount: points.length })
+    .returning()
+    .get();
   const insertPoint = sqlite.prepare('insert into sweep_points (sweep_id, idx, x, y, z, total) values (?, ?, ?, ?, ?, ?)');
   points.forEach((p, i) => insertPoint.run(row.id, i, p.x, p.y, p.z, p.total ?? null));
   return row;

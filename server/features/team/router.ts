@@ -19,7 +19,14 @@ export function teamRoutes(ctx: AppContext) {
   api.get('/members', {
     handle: (): { members: Member[] } => ({
       members: db
-        .select({ id: users.id, email: users.email, name: users.name, role: users.role, disabledAt: users.disabledAt, createdAt: users.createdAt })
+        .select({
+          id: users.id,
+          email: users.email,
+          name: users.name,
+          role: users.role,
+          disabledAt: users.disabledAt,
+          createdAt: users.createdAt,
+        })
         .from(users)
         .orderBy(users.email)
         .all(),
@@ -34,8 +41,9 @@ export function teamRoutes(ctx: AppContext) {
     handle: async ({ params, body, user }) => {
       const member = db.select().from(users).where(eq(users.id, params.id)).get();
       if (!member) throw notFound('That member');
-      if (body.role === undefined && body.disabled === undefined) throw new HttpError(422, 'invalid', 'Give a new role or disabled: true/false.', { role: 'Give a role or disabled.' });
-      if (member.id === user.id && (body.role !== undefined && body.role !== 'admin' || body.disabled)) {
+      if (body.role === undefined && body.disabled === undefined)
+        throw new HttpError(422, 'invalid', 'Give a new role or disabled: true/false.', { role: 'Give a role or disabled.' });
+      if (member.id === user.id && ((body.role !== undefined && body.role !== 'admin') || body.disabled)) {
         throw new HttpError(409, 'conflict', 'You cannot demote or disable yourself; ask another admin.');
       }
       const changes: Partial<typeof users.$inferInsert> = {};
@@ -43,7 +51,13 @@ export function teamRoutes(ctx: AppContext) {
       if (body.disabled !== undefined) changes.disabledAt = body.disabled ? Date.now() : null;
       db.transaction((tx) => {
         tx.update(users).set(changes).where(eq(users.id, member.id)).run();
-        audit(tx, { userId: user.id, action: 'member.update', entity: 'user', entityId: member.id, detail: { from: { role: member.role, disabled: member.disabledAt !== null }, to: body } });
+        audit(tx, {
+          userId: user.id,
+          action: 'member.update',
+          entity: 'user',
+          entityId: member.id,
+          detail: { from: { role: member.role, disabled: member.disabledAt !== null }, to: body },
+        });
       });
       // A disabled account or a changed role ends the member's sessions.
       if (body.disabled || (body.role && body.role !== member.role)) await lucia.invalidateUserSessions(member.id);
@@ -54,7 +68,15 @@ export function teamRoutes(ctx: AppContext) {
   api.get('/invitations', {
     handle: () => ({
       invitations: db
-        .select({ id: invitations.id, email: invitations.email, role: invitations.role, expiresAt: invitations.expiresAt, acceptedAt: invitations.acceptedAt, revokedAt: invitations.revokedAt, createdAt: invitations.createdAt })
+        .select({
+          id: invitations.id,
+          email: invitations.email,
+          role: invitations.role,
+          expiresAt: invitations.expiresAt,
+          acceptedAt: invitations.acceptedAt,
+          revokedAt: invitations.revokedAt,
+          createdAt: invitations.createdAt,
+        })
         .from(invitations)
         .orderBy(desc(invitations.createdAt))
         .all(),
@@ -73,7 +95,13 @@ export function teamRoutes(ctx: AppContext) {
       const expiresAt = Date.now() + INVITATION_LIFETIME_MS;
       db.transaction((tx) => {
         tx.insert(invitations).values({ id, email: body.email, role: body.role, tokenHash: hash, invitedBy: user.id, expiresAt }).run();
-        audit(tx, { userId: user.id, action: 'invitation.create', entity: 'invitation', entityId: id, detail: { email: body.email, role: body.role } });
+        audit(tx, {
+          userId: user.id,
+          action: 'invitation.create',
+          entity: 'invitation',
+          entityId: id,
+          detail: { email: body.email, role: body.role },
+        });
       });
       await ctx.mailer.send({
         to: body.email,

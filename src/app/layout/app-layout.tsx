@@ -91,7 +91,10 @@ export function AppLayout() {
 
   return (
     <div className="min-h-screen lg:grid lg:grid-cols-[15rem_1fr]">
-      <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:z-50 focus:rounded focus:bg-paper-bright focus:px-3 focus:py-2">
+      <a
+        href="#main"
+        className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:z-50 focus:rounded focus:bg-paper-bright focus:px-3 focus:py-2"
+      >
         Skip to the content
       </a>
       {navigation.state !== 'idle' && (
@@ -100,17 +103,17 @@ export function AppLayout() {
 
       {/* Wide screens: the side column. */}
       <div className="hidden border-r border-paper-edge bg-paper-deep/60 lg:block">
-      <aside className="sticky top-0 flex h-screen flex-col p-4">
-        <div className="mb-6 px-1 text-lg">
-          <Wordmark />
-        </div>
-        <nav aria-label="Main" className="flex-1 overflow-y-auto">
-          <NavList user={user} />
-        </nav>
-        <div className="border-t border-paper-edge pt-4">
-          <UserBox user={user} onSignOut={handleSignOut} busy={signOut.isPending} />
-        </div>
-      </aside>
+        <aside className="sticky top-0 flex h-screen flex-col p-4">
+          <div className="mb-6 px-1 text-lg">
+            <Wordmark />
+          </div>
+          <nav aria-label="Main" className="flex-1 overflow-y-auto">
+            <NavList user={user} />
+          </nav>
+          <div className="border-t border-paper-edge pt-4">
+            <UserBox user={user} onSignOut={handleSignOut} busy={signOut.isPending} />
+          </div>
+        </aside>
       </div>
 
       {/* Tablets and phones: a top bar with a menu. */}

@@ -16,7 +16,9 @@ export const makeLoader =
     await Promise.all([
       queryClient.ensureQueryData(profilesQueryOptions()),
       queryClient.ensureQueryData(instrumentsQueryOptions()),
-      ...(roleCan(user.role, 'admin') ? [queryClient.ensureQueryData(membersQueryOptions()), queryClient.ensureQueryData(invitationsQueryOptions())] : []),
+      ...(roleCan(user.role, 'admin')
+        ? [queryClient.ensureQueryData(membersQueryOptions()), queryClient.ensureQueryData(invitationsQueryOptions())]
+        : []),
     ]);
     return null;
   };

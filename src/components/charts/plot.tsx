@@ -59,7 +59,13 @@ export function Plot({ options, data, label, className, onReady }: PlotProps) {
 /** Lugbook's series colours, in order: distinct on paper and for common colour-vision deficiencies. */
 export const SERIES_COLOURS = ['#2d5189', '#c2571a', '#2d6a39', '#7b3f98', '#a2312a', '#1d7f86', '#865707', '#5a5248'];
 
-const AXIS = { stroke: '#5a5248', grid: { stroke: '#e6dcc9', width: 1 }, ticks: { stroke: '#d9cdb8', width: 1 }, font: '12px "IBM Plex Mono", monospace', labelFont: '600 12px "IBM Plex Sans", sans-serif' };
+const AXIS = {
+  stroke: '#5a5248',
+  grid: { stroke: '#e6dcc9', width: 1 },
+  ticks: { stroke: '#d9cdb8', width: 1 },
+  font: '12px "IBM Plex Mono", monospace',
+  labelFont: '600 12px "IBM Plex Sans", sans-serif',
+};
 
 /** An axis with its name and unit in the label, in Lugbook's style. */
 export function axis(label: string, extra: Partial<uPlot.Axis> = {}): uPlot.Axis {
@@ -107,7 +113,11 @@ export function legendOf(u: uPlot): LegendEntry[] {
 export function downloadPng(u: uPlot, fileName: string, info: PngExport): void {
   const src = u.ctx.canvas;
   const scale = src.width / Math.max(u.width, 1);
-  const fontOf = { title: (px: number) => `600 ${px}px "IBM Plex Sans", sans-serif`, conditions: (px: number) => `${px}px "IBM Plex Sans", sans-serif`, legend: (px: number) => `${px}px "IBM Plex Sans", sans-serif` };
+  const fontOf = {
+    title: (px: number) => `600 ${px}px "IBM Plex Sans", sans-serif`,
+    conditions: (px: number) => `${px}px "IBM Plex Sans", sans-serif`,
+    legend: (px: number) => `${px}px "IBM Plex Sans", sans-serif`,
+  };
   const out = document.createElement('canvas');
   const ctx = out.getContext('2d')!;
   const sizes = { title: Math.round(16 * scale), conditions: Math.round(12 * scale), legend: Math.round(12 * scale) };

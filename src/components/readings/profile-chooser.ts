@@ -8,7 +8,8 @@ import type { Instrument, Profile } from './api';
 
 export type JudgedPart = ProfiledPart & { tolerancePct: number | null };
 
-export const toProfileSpec = (p: Profile | null): ProfileSpec | null => (p ? { name: p.name, tolerancePct: p.tolerancePct, rules: p.rules } : null);
+export const toProfileSpec = (p: Profile | null): ProfileSpec | null =>
+  p ? { name: p.name, tolerancePct: p.tolerancePct, rules: p.rules } : null;
 
 /** The verdict the server will give this reading (null: no limit applies to the quantity). */
 export function previewVerdict(

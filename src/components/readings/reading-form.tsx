@@ -32,7 +32,8 @@ const FIELDS = ['quantity', 'value', 'frequency', 'instrumentId'] as const;
 
 /** Text as typed → the API's input, checked with the shared CreateReadingInputSchema. */
 const ReadingFormSchema = ReadingFormFields.transform((v, ctx) => {
-  const value = v.value.trim() === '' ? ({ ok: false, error: 'Type the reading, e.g. 487k.' } as const) : tryParseValue(v.value, v.quantity);
+  const value =
+    v.value.trim() === '' ? ({ ok: false, error: 'Type the reading, e.g. 487k.' } as const) : tryParseValue(v.value, v.quantity);
   if (!value.ok) ctx.addIssue({ code: 'custom', path: ['value'], message: value.error });
   const frequency = v.frequency.trim() === '' ? ({ ok: true, value: null } as const) : tryParseValue(v.frequency, 'frequency');
   if (!frequency.ok) ctx.addIssue({ code: 'custom', path: ['frequency'], message: frequency.error });
@@ -44,7 +45,8 @@ const ReadingFormSchema = ReadingFormFields.transform((v, ctx) => {
     instrumentId: v.instrumentId ? Number(v.instrumentId) : null,
   });
   if (!checked.success) {
-    for (const issue of checked.error.issues) ctx.addIssue({ code: 'custom', path: [String(issue.path[0] ?? 'value')], message: issue.message });
+    for (const issue of checked.error.issues)
+      ctx.addIssue({ code: 'custom', path: [String(issue.path[0] ?? 'value')], message: issue.message });
     return z.NEVER;
   }
   return checked.data;
@@ -61,8 +63,27 @@ function defaultInstrument(instruments: readonly Instrument[], quantity: Reading
   return good ? String(good.id) : '';
 }
 
-function VerdictPanel({ title, verdict, reason, source, note }: { title: string; verdict: Verdict | null; reason: string; source?: string; note?: string }) {
-  const tone = verdict === 'pass' ? 'border-pass/40 bg-pass-tint/50' : verdict === 'fail' ? 'border-fail/40 bg-fail-tint/50' : verdict === 'marginal' ? 'border-marginal/40 bg-marginal-tint/50' : 'border-paper-edge bg-paper-deep/40';
+function VerdictPanel({
+  title,
+  verdict,
+  reason,
+  source,
+  note,
+}: {
+  title: string;
+  verdict: Verdict | null;
+  reason: string;
+  source?: string;
+  note?: string;
+}) {
+  const tone =
+    verdict === 'pass'
+      ? 'border-pass/40 bg-pass-tint/50'
+      : verdict === 'fail'
+        ? 'border-fail/40 bg-fail-tint/50'
+        : verdict === 'marginal'
+          ? 'border-marginal/40 bg-marginal-tint/50'
+          : 'border-paper-edge bg-paper-deep/40';
   return (
     <div className={`rounded-md border p-3 ${tone}`}>
       <p className="flex flex-wrap items-center gap-2 text-xs font-medium uppercase tracking-wide text-ink-soft">
@@ -129,7 +150,8 @@ export const ReadingForm = forwardRef<ReadingFormHandle, ReadingFormProps>(funct
   const quantityField = form.register('quantity', {
     onChange: (e: { target: { value: ReadingQuantity } }) => {
       // Keep the chosen instrument unless it has nothing to say about the new quantity.
-      if (!instrument?.accuracy[e.target.value]) form.setValue('instrumentId', defaultInstrument(instruments, e.target.value) || form.getValues('instrumentId'));
+      if (!instrument?.accuracy[e.target.value])
+        form.setValue('instrumentId', defaultInstrument(instruments, e.target.value) || form.getValues('instrumentId'));
     },
   });
   const bench = size === 'bench';
@@ -152,7 +174,16 @@ export const ReadingForm = forwardRef<ReadingFormHandle, ReadingFormProps>(funct
           spellCheck={false}
           autoFocus={autoFocus}
           inputClassName={`num ${bench ? 'text-xl sm:text-xl py-2.5' : ''}`}
-          hint={parsed?.ok ? <span>Reads as <span className="num text-ink">{formatReading(quantity, parsed.value)}</span>{parsed.readAs ? ' (a bare decimal on a capacitor is µF)' : ''} · Enter saves</span> : QUANTITY_EXAMPLES[quantity]}
+          hint={
+            parsed?.ok ? (
+              <span>
+                Reads as <span className="num text-ink">{formatReading(quantity, parsed.value)}</span>
+                {parsed.readAs ? ' (a bare decimal on a capacitor is µF)' : ''} · Enter saves
+              </span>
+            ) : (
+              QUANTITY_EXAMPLES[quantity]
+            )
+          }
           error={errors.value?.message ?? (parsed && !parsed.ok ? parsed.error : undefined)}
           {...form.register('value')}
         />
@@ -189,7 +220,10 @@ export const ReadingForm = forwardRef<ReadingFormHandle, ReadingFormProps>(funct
       </div>
 
       {/* At the bench on a phone the verdict stays pinned to the bottom of the screen while the form is in view. */}
-      <div aria-live="polite" className={bench ? 'max-sm:sticky max-sm:bottom-2 max-sm:z-10 max-sm:rounded-md max-sm:bg-paper max-sm:shadow-md' : undefined}>
+      <div
+        aria-live="polite"
+        className={bench ? 'max-sm:sticky max-sm:bottom-2 max-sm:z-10 max-sm:rounded-md max-sm:bg-paper max-sm:shadow-md' : undefined}
+      >
         {live ? (
           <VerdictPanel title="Verdict as typed" verdict={live.verdict} reason={live.reason} source={live.source} />
         ) : parsed?.ok ? (
@@ -197,7 +231,9 @@ export const ReadingForm = forwardRef<ReadingFormHandle, ReadingFormProps>(funct
             title="Verdict as typed"
             verdict={null}
             reason={`No limit applies to a ${QUANTITY_NAME[quantity].toLowerCase()} reading of this part; it is kept as information.`}
-            note={profile ? `Profile in use: ${profile.name}.` : 'No tolerance profile matches this part and it has no tolerance of its own.'}
+            note={
+              profile ? `Profile in use: ${profile.name}.` : 'No tolerance profile matches this part and it has no tolerance of its own.'
+            }
           />
         ) : null}
       </div>
@@ -214,8 +250,13 @@ export const ReadingForm = forwardRef<ReadingFormHandle, ReadingFormProps>(funct
           <VerdictPanel
             title={`Saved for ${saved.part.label} · server verdict`}
             verdict={saved.reading.verdict}
-            reason={saved.reading.verdictReason ?? `${formatReading(saved.reading.quantity, saved.reading.value)} recorded; no limit applies, so no verdict.`}
-            note={saved.reading.calibrationOverdue ? 'Taken with an instrument whose calibration is overdue: the reading is marked.' : undefined}
+            reason={
+              saved.reading.verdictReason ??
+              `${formatReading(saved.reading.quantity, saved.reading.value)} recorded; no limit applies, so no verdict.`
+            }
+            note={
+              saved.reading.calibrationOverdue ? 'Taken with an instrument whose calibration is overdue: the reading is marked.' : undefined
+            }
           />
         </div>
       )}

@@ -14,12 +14,16 @@ const WarnIcon = () => (
 export const SAFETY_WORDS = {
   measure: 'Measure parts out of circuit with nothing powered: unplug the guitar or bass from any amplifier, and the meter from the mains.',
   valve: 'Valve amplifiers keep lethal voltages after they are switched off, until a qualified person has discharged their capacitors.',
-  qualified: 'Leave mains and amplifier work to qualified technicians (licensed where your local rules require it) and follow your local electrical codes.',
-  solder: 'Soldering: the iron and fresh joints burn, so use a stand and let joints cool; wear eye protection; ventilate the fumes; wash your hands after handling lead-bearing solder.',
+  qualified:
+    'Leave mains and amplifier work to qualified technicians (licensed where your local rules require it) and follow your local electrical codes.',
+  solder:
+    'Soldering: the iron and fresh joints burn, so use a stand and let joints cool; wear eye protection; ventilate the fumes; wash your hands after handling lead-bearing solder.',
   solvents: 'Solvents and contact cleaners: ventilate, keep them away from the hot iron and flames, and wear gloves.',
   esr: 'ESR is measured on capacitors taken from amplifiers: have them discharged by a qualified person before they reach the bench, and check with a meter that they read near 0 V before touching the leads.',
-  install: 'Install with the instrument unplugged from any amplifier; solder with eye protection and ventilation, and let the iron rest in its stand.',
-  harness: 'These curves are computed, not measured on a powered circuit: wire the harness with the instrument unplugged, solder with eye protection and ventilation, and leave amplifier work to qualified technicians.',
+  install:
+    'Install with the instrument unplugged from any amplifier; solder with eye protection and ventilation, and let the iron rest in its stand.',
+  harness:
+    'These curves are computed, not measured on a powered circuit: wire the harness with the instrument unplugged, solder with eye protection and ventilation, and leave amplifier work to qualified technicians.',
 } as const;
 
 function Line({ id, children, className }: { id?: string; children: string; className?: string }) {
@@ -36,14 +40,13 @@ function Line({ id, children, className }: { id?: string; children: string; clas
 /** Where readings are entered: a panel beside the Bench form, one line under a part page's form. */
 export function BenchSafetyNote({ className, compact }: { className?: string; compact?: boolean }) {
   if (compact) {
-    return (
-      <Line className={className}>
-        {`${SAFETY_WORDS.measure} ${SAFETY_WORDS.valve} ${SAFETY_WORDS.qualified}`}
-      </Line>
-    );
+    return <Line className={className}>{`${SAFETY_WORDS.measure} ${SAFETY_WORDS.valve} ${SAFETY_WORDS.qualified}`}</Line>;
   }
   return (
-    <aside aria-labelledby="bench-safety-heading" className={`rounded-lg border border-paper-edge bg-paper-deep/60 p-4 text-sm text-ink-soft ${className ?? ''}`}>
+    <aside
+      aria-labelledby="bench-safety-heading"
+      className={`rounded-lg border border-paper-edge bg-paper-deep/60 p-4 text-sm text-ink-soft ${className ?? ''}`}
+    >
       <h2 id="bench-safety-heading" className="mb-1.5 flex items-center gap-1.5 text-sm font-semibold text-ink">
         <WarnIcon />
         At the bench

@@ -59,7 +59,10 @@ function BadgeIcon({ icon }: { icon: BadgeIconName }) {
 
 export function Badge({ tone, icon, label, title }: { tone: BadgeTone; icon: BadgeIconName; label: string; title?: string }) {
   return (
-    <span title={title} className={`inline-flex items-center gap-1 whitespace-nowrap rounded-full border px-2 py-0.5 text-xs font-medium ${TONE[tone]}`}>
+    <span
+      title={title}
+      className={`inline-flex items-center gap-1 whitespace-nowrap rounded-full border px-2 py-0.5 text-xs font-medium ${TONE[tone]}`}
+    >
       <BadgeIcon icon={icon} />
       {label}
     </span>

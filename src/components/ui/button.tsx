@@ -25,9 +25,25 @@ interface ButtonProps extends ButtonHTMLAttributes<HTMLButtonElement> {
   busyText?: string;
 }
 
-export function Button({ variant = 'secondary', size = 'md', busy, busyText, className, children, disabled, type = 'button', ...rest }: ButtonProps) {
+export function Button({
+  variant = 'secondary',
+  size = 'md',
+  busy,
+  busyText,
+  className,
+  children,
+  disabled,
+  type = 'button',
+  ...rest
+}: ButtonProps) {
   return (
-    <button type={type} className={`${buttonClass(variant, size)} ${className ?? ''}`} disabled={disabled || busy} aria-busy={busy || undefined} {...rest}>
+    <button
+      type={type}
+      className={`${buttonClass(variant, size)} ${className ?? ''}`}
+      disabled={disabled || busy}
+      aria-busy={busy || undefined}
+      {...rest}
+    >
       {busy && busyText ? busyText : children}
     </button>
   );

@@ -53,24 +53,25 @@ interface CommonProps {
   className?: string;
 }
 
-export const TextField = forwardRef<HTMLInputElement, CommonProps & Omit<InputHTMLAttributes<HTMLInputElement>, 'className'> & { inputClassName?: string }>(
-  function TextField({ label, hint, error, className, inputClassName, id, ...rest }, ref) {
-    const auto = useId();
-    const fieldId = id ?? auto;
-    return (
-      <FieldShell id={fieldId} label={label} hint={hint} error={error} className={className}>
-        <input
-          ref={ref}
-          id={fieldId}
-          aria-invalid={error ? true : undefined}
-          aria-describedby={describedBy(fieldId, hint, error)}
-          className={`${CONTROL} ${borderFor(error)} read-only:bg-paper-deep read-only:text-ink-soft ${inputClassName ?? ''}`}
-          {...rest}
-        />
-      </FieldShell>
-    );
-  },
-);
+export const TextField = forwardRef<
+  HTMLInputElement,
+  CommonProps & Omit<InputHTMLAttributes<HTMLInputElement>, 'className'> & { inputClassName?: string }
+>(function TextField({ label, hint, error, className, inputClassName, id, ...rest }, ref) {
+  const auto = useId();
+  const fieldId = id ?? auto;
+  return (
+    <FieldShell id={fieldId} label={label} hint={hint} error={error} className={className}>
+      <input
+        ref={ref}
+        id={fieldId}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={describedBy(fieldId, hint, error)}
+        className={`${CONTROL} ${borderFor(error)} read-only:bg-paper-deep read-only:text-ink-soft ${inputClassName ?? ''}`}
+        {...rest}
+      />
+    </FieldShell>
+  );
+});
 
 export const SelectField = forwardRef<HTMLSelectElement, CommonProps & Omit<SelectHTMLAttributes<HTMLSelectElement>, 'className'>>(
   function SelectField({ label, hint, error, className, id, children, ...rest }, ref) {

@@ -1,7 +1,17 @@
 import type { ReactNode } from 'react';
 
 /** The screen's heading; also sets the browser tab's title (React 19 hoists <title> into <head>). */
-export function PageHeader({ title, documentTitle, description, actions }: { title: ReactNode; documentTitle?: string; description?: ReactNode; actions?: ReactNode }) {
+export function PageHeader({
+  title,
+  documentTitle,
+  description,
+  actions,
+}: {
+  title: ReactNode;
+  documentTitle?: string;
+  description?: ReactNode;
+  actions?: ReactNode;
+}) {
   const tab = documentTitle ?? (typeof title === 'string' ? title : null);
   return (
     <header className="mb-6 flex flex-wrap items-end justify-between gap-4 border-b border-paper-edge pb-4">
@@ -16,10 +26,26 @@ export function PageHeader({ title, documentTitle, description, actions }: { tit
 }
 
 /** A titled block of a screen (panel on paper). */
-export function Panel({ title, id, actions, children, className }: { title?: ReactNode; id?: string; actions?: ReactNode; children: ReactNode; className?: string }) {
+export function Panel({
+  title,
+  id,
+  actions,
+  children,
+  className,
+}: {
+  title?: ReactNode;
+  id?: string;
+  actions?: ReactNode;
+  children: ReactNode;
+  className?: string;
+}) {
   const headingId = id ? `${id}-heading` : undefined;
   return (
-    <section id={id} aria-labelledby={headingId} className={`rounded-lg border border-paper-edge bg-paper-bright p-4 sm:p-5 ${className ?? ''}`}>
+    <section
+      id={id}
+      aria-labelledby={headingId}
+      className={`rounded-lg border border-paper-edge bg-paper-bright p-4 sm:p-5 ${className ?? ''}`}
+    >
       {(title || actions) && (
         <div className="mb-3 flex flex-wrap items-center justify-between gap-2">
           {title && (

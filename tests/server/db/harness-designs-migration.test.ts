@@ -38,7 +38,13 @@ test('designs saved with a preset become the one-pickup layout with the same net
   sqlite.prepare("insert into jobs (code, customer, instrument, status, harness_id) values ('J-1', 'C', 'I', 'open', 3)").run();
 
   applyMigrations(sqlite, db, MIGRATIONS_DIR);
-  const rows = sqlite.prepare('select * from harnesses order by id').all() as { preset: string; layout: string; selector: number; options: string; values: string }[];
+  const rows = sqlite.prepare('select * from harnesses order by id').all() as {
+    preset: string;
+    layout: string;
+    selector: number;
+    options: string;
+    values: string;
+  }[];
   expect(rows).toHaveLength(HARNESS_PRESETS.length);
   for (const row of rows) {
     expect(row.layout).toBe('one-pickup');

@@ -23,8 +23,12 @@ const tempDir = () => {
 afterAll(() => dirs.forEach((d) => fs.rmSync(d, { recursive: true, force: true })));
 
 function rowCounts(sqlite: Database.Database): Record<string, number> {
-  const tables = sqlite.prepare("select name from sqlite_master where type = 'table' and name not like 'sqlite_%' and name not like '__drizzle%'").all() as { name: string }[];
-  return Object.fromEntries(tables.map(({ name }) => [name, (sqlite.prepare(`select count(*) as n from "${name}"`).get() as { n: number }).n]));
+  const tables = sqlite
+    .prepare("select name from sqlite_master where type = 'table' and name not like 'sqlite_%' and name not like '__drizzle%'")
+    .all() as { name: string }[];
+  return Object.fromEntries(
+    tables.map(({ name }) => [name, (sqlite.prepare(`select count(*) as n from "${name}"`).get() as { n: number }).n]),
+  );
 }
 
 async function populatedDatabase(): Promise<string> {
@@ -43,7 +47,9 @@ function foldersWithRebuild(sqlite: Database.Database): string {
   const folder = tempDir();
   fs.cpSync(MIGRATIONS_DIR, folder, { recursive: true });
   const create = (sqlite.prepare("select sql from sqlite_master where name = 'parts'").get() as { sql: string }).sql;
-  const columns = (sqlite.prepare("select name from pragma_table_info('parts')").all() as { name: string }[]).map((c) => `\`${c.name}\``).join(', ');
+  const columns = (sqlite.prepare("select name from pragma_table_info('parts')").all() as { name: string }[])
+    .map((c) => `\`${c.name}\``)
+    .join(', ');
   const statements = [
     'PRAGMA foreign_keys=OFF;',
     `${create.replace(/CREATE TABLE [`"]?parts[`"]?/, 'CREATE TABLE `__new_parts`')};`,
@@ -135,7 +141,10 @@ describe('0001: the reverse law’s m becomes its mid-rotation value y(0.5)', ()
     expect(Object.fromEntries(Object.keys(before).map((k) => [k, afterCounts[k]]))).toEqual(before);
     for (const [k, n] of Object.entries(afterCounts)) if (!(k in before)) expect(n).toBe(0);
     const after = new Map(
-      (sqlite.prepare('select name, "values" as v from harnesses').all() as { name: string; v: string }[]).map((r) => [r.name, JSON.parse(r.v) as Record<string, TaperLaw | number>]),
+      (sqlite.prepare('select name, "values" as v from harnesses').all() as { name: string; v: string }[]).map((r) => [
+        r.name,
+        JSON.parse(r.v) as Record<string, TaperLaw | number>,
+      ]),
     );
     for (const [name, old] of designs) {
       const now = after.get(name)!;

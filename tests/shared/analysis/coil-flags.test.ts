@@ -7,7 +7,10 @@ import { coilFlags } from '@shared/analysis/coil';
 describe('coilFlags: each shorted-turns rule on its own', () => {
   const fitOf = (L: number, Q: number) => ({ R: 6000, L, Q, flags: [] });
   const spec = { inductance: { nominal: 4, tolerancePct: 5 }, minQ: 10 };
-  const codes = (L: number, Q: number) => coilFlags(fitOf(L, Q), spec).map((f) => f.code).sort();
+  const codes = (L: number, Q: number) =>
+    coilFlags(fitOf(L, Q), spec)
+      .map((f) => f.code)
+      .sort();
 
   it('low L with a high Q: shorted turns from the L rule alone (L 25 % low, beyond max(3 × 5 %, 20 %))', () => {
     expect(codes(3.0, 40)).toEqual(['inductance-out-of-tolerance', 'shorted-turns']);

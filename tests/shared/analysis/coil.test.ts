@@ -27,7 +27,10 @@ beforeAll(async () => {
 });
 
 /** Z(f) of the network by ngspice: a 1 A AC current source into it, so V(out) = Z. 401 points, 10 Hz–100 kHz. */
-async function sweep(p: { R: number; L: number; C: number; Rp?: number }, extra = ''): Promise<{ frequency: number; re: number; im: number }[]> {
+async function sweep(
+  p: { R: number; L: number; C: number; Rp?: number },
+  extra = '',
+): Promise<{ frequency: number; re: number; im: number }[]> {
   const netlist = [
     '* coil impedance',
     'I1 0 out DC 0 AC 1',
@@ -100,7 +103,17 @@ describe('fitCoil on ngspice sweeps', () => {
 
   it('Q agrees with the half-power bandwidth of the ngspice peak (Q ≈ f0/Δf for a high-Q resonator, standard theory)', async () => {
     const fit = fitCoil({ points: await sweep(SINGLE) });
-    const r = await ng.runAc(['* peak', 'I1 0 out DC 0 AC 1', `R1 out a ${SINGLE.R}`, `L1 a 0 ${SINGLE.L}`, `C1 out 0 ${SINGLE.C}`, '.ac lin 40001 8k 12k', '.end'].join('\n'));
+    const r = await ng.runAc(
+      [
+        '* peak',
+        'I1 0 out DC 0 AC 1',
+        `R1 out a ${SINGLE.R}`,
+        `L1 a 0 ${SINGLE.L}`,
+        `C1 out 0 ${SINGLE.C}`,
+        '.ac lin 40001 8k 12k',
+        '.end',
+      ].join('\n'),
+    );
     const mags = (r.nodes.out ?? []).map((z) => Math.hypot(z.re, z.im));
     const peak = Math.max(...mags);
     const inside = r.frequencies.filter((_, i) => (mags[i] as number) >= peak / Math.SQRT2);
@@ -157,9 +170,13 @@ describe('fitCoil on ngspice sweeps', () => {
   });
 
   it('flags an open coil (only the capacitance and a leakage left)', async () => {
-    const r = await ng.runAc(['* open coil', 'I1 0 out DC 0 AC 1', 'C1 out 0 100p', 'R2 out 0 10meg', '.ac dec 50 10 100k', '.end'].join('\n'));
+    const r = await ng.runAc(
+      ['* open coil', 'I1 0 out DC 0 AC 1', 'C1 out 0 100p', 'R2 out 0 10meg', '.ac dec 50 10 100k', '.end'].join('\n'),
+    );
     const z = r.nodes.out ?? [];
-    const fit = fitCoil({ points: r.frequencies.map((frequency, i) => ({ frequency, re: (z[i] as { re: number }).re, im: (z[i] as { im: number }).im })) });
+    const fit = fitCoil({
+      points: r.frequencies.map((frequency, i) => ({ frequency, re: (z[i] as { re: number }).re, im: (z[i] as { im: number }).im })),
+    });
     expect(coilFlags(fit).map((f) => f.code)).toContain('open-coil');
   });
 });
@@ -181,7 +198,9 @@ describe('resonance and LCR readings', () => {
   it('two resonances of the coil alone and with Cx, from ngspice peaks, give back C and L', async () => {
     // Resonances found in ngspice sweeps of the lossless network (R = 1 mΩ), fine grid around the peak.
     const peakOf = async (cx: number) => {
-      const r = await ng.runAc(['* lc', 'I1 0 out DC 0 AC 1', 'R1 out a 1m', 'L1 a 0 2.5', `C1 out 0 ${100e-12 + cx}`, '.ac lin 20001 5k 15k', '.end'].join('\n'));
+      const r = await ng.runAc(
+        ['* lc', 'I1 0 out DC 0 AC 1', 'R1 out a 1m', 'L1 a 0 2.5', `C1 out 0 ${100e-12 + cx}`, '.ac lin 20001 5k 15k', '.end'].join('\n'),
+      );
       const z = r.nodes.out ?? [];
       let k = 0;
       z.forEach((v, i) => {
@@ -199,7 +218,9 @@ describe('resonance and LCR readings', () => {
   });
 
   it("apparent inductance L/(1 − ω²LC) is what ngspice's Im Z/ω shows at 1 kHz for a low-loss coil", async () => {
-    const r = await ng.runAc(['* lcr', 'I1 0 out DC 0 AC 1', 'R1 out a 1m', 'L1 a 0 2.5', 'C1 out 0 100p', '.ac lin 1 1k 1k', '.end'].join('\n'));
+    const r = await ng.runAc(
+      ['* lcr', 'I1 0 out DC 0 AC 1', 'R1 out a 1m', 'L1 a 0 2.5', 'C1 out 0 100p', '.ac lin 1 1k 1k', '.end'].join('\n'),
+    );
     const z = (r.nodes.out ?? [])[0] as { re: number; im: number };
     const read = z.im / (2 * Math.PI * 1000);
     expect(rel(apparentInductance({ L: 2.5, C: 100e-12, frequency: 1000 }), read)).toBeLessThan(1e-9);
@@ -213,7 +234,11 @@ describe('coilFlags against a spec', () => {
   it('flags shorted turns, L and DCR out of tolerance and low Q; nothing for a part inside its spec', async () => {
     const fit = fitCoil({ points: await sweep(SINGLE) });
     const spec = { dcr: { nominal: 8000, tolerancePct: 10 }, inductance: { nominal: 4.4, tolerancePct: 10 }, minQ: 60 };
-    expect(coilFlags(fit, spec).map((f) => f.code).sort()).toEqual(['dcr-out-of-tolerance', 'inductance-out-of-tolerance', 'low-q', 'shorted-turns']);
+    expect(
+      coilFlags(fit, spec)
+        .map((f) => f.code)
+        .sort(),
+    ).toEqual(['dcr-out-of-tolerance', 'inductance-out-of-tolerance', 'low-q', 'shorted-turns']);
     const inside = { dcr: { nominal: 6100, tolerancePct: 5 }, inductance: { nominal: 2.45, tolerancePct: 5 }, minQ: 20 };
     expect(coilFlags(fit, inside)).toEqual([]);
   });

@@ -32,13 +32,28 @@ function pot(partId: number, lot: number, law: TaperLawKind, m: number, total: n
     nominal: 500e3,
     taperClass: law,
     taperM: m,
-    fit: { law, m, r2: 0.999, rmsPct: 0.1, maxPct: 0.3, total, totalDeviationPct: (total / 500e3 - 1) * 100, endResistance: { start: 0, end: null } },
+    fit: {
+      law,
+      m,
+      r2: 0.999,
+      rmsPct: 0.1,
+      maxPct: 0.3,
+      total,
+      totalDeviationPct: (total / 500e3 - 1) * 100,
+      endResistance: { start: 0, end: null },
+    },
     curve: normalisedCurve(points, total),
   };
 }
 
 describe('group statistics', () => {
-  const pots = [pot(1, 1, 'audio', 0.12, 480e3), pot(2, 1, 'audio', 0.15, 510e3), pot(3, 1, 'audio', 0.17, 530e3), pot(4, 2, 'audio', 0.2, 455e3), pot(5, 2, 'two-segment', 0.1, 520e3)];
+  const pots = [
+    pot(1, 1, 'audio', 0.12, 480e3),
+    pot(2, 1, 'audio', 0.15, 510e3),
+    pot(3, 1, 'audio', 0.17, 530e3),
+    pot(4, 2, 'audio', 0.2, 455e3),
+    pot(5, 2, 'two-segment', 0.1, 520e3),
+  ];
 
   it('m and total of each group equal summaryStatistics and lotStatistics of the same fits (the measurement engine)', () => {
     const r = compareTapers(pots, 'lot');
@@ -96,7 +111,13 @@ describe('curves on a common grid', () => {
   });
 
   it('a pot measured only over part of the rotation is left out of the envelope there', () => {
-    const env = curveEnvelope([[0, 0.5, 1], [null, 0.7, null]], 3);
+    const env = curveEnvelope(
+      [
+        [0, 0.5, 1],
+        [null, 0.7, null],
+      ],
+      3,
+    );
     expect(env.n).toEqual([1, 2, 1]);
     expect(env.mean[1]).toBeCloseTo(0.6, 14);
   });
@@ -158,7 +179,9 @@ describe('loaded taper', () => {
         { kind: 'resistor', id: 'amp', a: 'out', b: '0', R: 470e3 },
       ],
     };
-    const ours = loadedTaper(volumeNetlist({ R: 6e3, L: 2.5, C: 100e-12 }, { R: 250e3, law: { kind: 'two-segment', m: 0.1 } }, { cableC: 600e-12, ampR: 470e3 }));
+    const ours = loadedTaper(
+      volumeNetlist({ R: 6e3, L: 2.5, C: 100e-12 }, { R: 250e3, law: { kind: 'two-segment', m: 0.1 } }, { cableC: 600e-12, ampR: 470e3 }),
+    );
     const full = simulate(net, { volume: 10, tone: 10 }, [1000, 2000]).metrics.level1kDb;
     for (const d of [0.5, 2, 3.3, 5, 7.5, 10]) {
       const i = LOADED_DIAL.findIndex((v) => Math.abs(v - d) < 1e-9);
@@ -197,25 +220,30 @@ describe('matching loaded tapers', () => {
 
   it('every set is within tolerance, sets are disjoint, and the first pair is the globally closest (brute force)', () => {
     fc.assert(
-      fc.property(fc.array(fc.double({ min: -3, max: 3, noNaN: true }), { minLength: 2, maxLength: 12 }), fc.integer({ min: 2, max: 4 }), (offsets, size) => {
-        const curves = offsets.map((o) => shifted(o));
-        const sets = matchLoadedTapers(curves, { toleranceDb: 0.8, setSize: size });
-        const seen = new Set<number>();
-        for (const s of sets) {
-          expect(s.indices).toHaveLength(size);
-          for (const i of s.indices) {
-            expect(seen.has(i)).toBe(false);
-            seen.add(i);
-            for (const j of s.indices) expect(taperDistanceDb(curves[i]!, curves[j]!)).toBeLessThanOrEqual(0.8 + 1e-12);
+      fc.property(
+        fc.array(fc.double({ min: -3, max: 3, noNaN: true }), { minLength: 2, maxLength: 12 }),
+        fc.integer({ min: 2, max: 4 }),
+        (offsets, size) => {
+          const curves = offsets.map((o) => shifted(o));
+          const sets = matchLoadedTapers(curves, { toleranceDb: 0.8, setSize: size });
+          const seen = new Set<number>();
+          for (const s of sets) {
+            expect(s.indices).toHaveLength(size);
+            for (const i of s.indices) {
+              expect(seen.has(i)).toBe(false);
+              seen.add(i);
+              for (const j of s.indices) expect(taperDistanceDb(curves[i]!, curves[j]!)).toBeLessThanOrEqual(0.8 + 1e-12);
+            }
           }
-        }
-        if (size === 2) {
-          let best = Infinity;
-          for (let i = 0; i < curves.length; i++) for (let j = i + 1; j < curves.length; j++) best = Math.min(best, taperDistanceDb(curves[i]!, curves[j]!));
-          if (best <= 0.8) expect(sets[0]!.spreadDb).toBe(best);
-          else expect(sets).toEqual([]);
-        }
-      }),
+          if (size === 2) {
+            let best = Infinity;
+            for (let i = 0; i < curves.length; i++)
+              for (let j = i + 1; j < curves.length; j++) best = Math.min(best, taperDistanceDb(curves[i]!, curves[j]!));
+            if (best <= 0.8) expect(sets[0]!.spreadDb).toBe(best);
+            else expect(sets).toEqual([]);
+          }
+        },
+      ),
     );
   });
 });

@@ -255,7 +255,14 @@ describe('matched sets', () => {
       const b = rest[j]!;
       const lo = Math.min(a!, b);
       if (Math.abs(a! - b) <= f * lo) {
-        best = Math.max(best, 1 + bruteMaxPairs(rest.filter((_, k) => k !== j), f));
+        best = Math.max(
+          best,
+          1 +
+            bruteMaxPairs(
+              rest.filter((_, k) => k !== j),
+              f,
+            ),
+        );
       }
     }
     return best;
@@ -263,18 +270,22 @@ describe('matched sets', () => {
 
   it('pairs: as many as any pairing can make (property against brute force, n ≤ 9)', () => {
     fc.assert(
-      fc.property(fc.array(fc.integer({ min: 900, max: 1100 }), { minLength: 0, maxLength: 9 }), fc.integer({ min: 0, max: 3 }), (ints, pct) => {
-        const x = Float64Array.from(ints);
-        const { sorted, order } = sortWithIndex(x);
-        const sets = matchSets(sorted, order, pct, 2);
-        expect(sets.length).toBe(bruteMaxPairs(ints, pct / 100));
-        const used = sets.flatMap((s) => s.indices);
-        expect(new Set(used).size).toBe(used.length);
-        for (const s of sets) {
-          const vs = s.indices.map((i) => x[i]!);
-          expect(Math.max(...vs) - Math.min(...vs)).toBeLessThanOrEqual((pct / 100) * Math.min(...vs));
-        }
-      }),
+      fc.property(
+        fc.array(fc.integer({ min: 900, max: 1100 }), { minLength: 0, maxLength: 9 }),
+        fc.integer({ min: 0, max: 3 }),
+        (ints, pct) => {
+          const x = Float64Array.from(ints);
+          const { sorted, order } = sortWithIndex(x);
+          const sets = matchSets(sorted, order, pct, 2);
+          expect(sets.length).toBe(bruteMaxPairs(ints, pct / 100));
+          const used = sets.flatMap((s) => s.indices);
+          expect(new Set(used).size).toBe(used.length);
+          for (const s of sets) {
+            const vs = s.indices.map((i) => x[i]!);
+            expect(Math.max(...vs) - Math.min(...vs)).toBeLessThanOrEqual((pct / 100) * Math.min(...vs));
+          }
+        },
+      ),
       { numRuns: 300 },
     );
   });

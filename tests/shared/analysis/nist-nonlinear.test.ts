@@ -50,24 +50,45 @@ function readSet(name: string): NistSet {
 // Model formulas, copied from the "Model:" block of each file.
 const models: Record<string, (b: number[]) => (x: number) => number> = {
   // y = b1*(1-exp[-b2*x])
-  Misra1a: ([b1 = 0, b2 = 0]) => (x) => b1 * (1 - Math.exp(-b2 * x)),
+  Misra1a:
+    ([b1 = 0, b2 = 0]) =>
+    (x) =>
+      b1 * (1 - Math.exp(-b2 * x)),
   // y = exp[-b1*x]/(b2+b3*x)
-  Chwirut2: ([b1 = 0, b2 = 0, b3 = 0]) => (x) => Math.exp(-b1 * x) / (b2 + b3 * x),
+  Chwirut2:
+    ([b1 = 0, b2 = 0, b3 = 0]) =>
+    (x) =>
+      Math.exp(-b1 * x) / (b2 + b3 * x),
   // y = b1*b2*x*((1+b2*x)**(-1))
-  Misra1d: ([b1 = 0, b2 = 0]) => (x) => (b1 * b2 * x) / (1 + b2 * x),
+  Misra1d:
+    ([b1 = 0, b2 = 0]) =>
+    (x) =>
+      (b1 * b2 * x) / (1 + b2 * x),
   // y = b1*(1-exp[-b2*x])
-  BoxBOD: ([b1 = 0, b2 = 0]) => (x) => b1 * (1 - Math.exp(-b2 * x)),
+  BoxBOD:
+    ([b1 = 0, b2 = 0]) =>
+    (x) =>
+      b1 * (1 - Math.exp(-b2 * x)),
   // y = b1*(x**2+x*b2) / (x**2+x*b3+b4)
-  MGH09: ([b1 = 0, b2 = 0, b3 = 0, b4 = 0]) => (x) => (b1 * (x * x + x * b2)) / (x * x + x * b3 + b4),
+  MGH09:
+    ([b1 = 0, b2 = 0, b3 = 0, b4 = 0]) =>
+    (x) =>
+      (b1 * (x * x + x * b2)) / (x * x + x * b3 + b4),
   // y = (b1 + b2*x + b3*x**2 + b4*x**3) / (1 + b5*x + b6*x**2 + b7*x**3)
   Thurber:
     ([b1 = 0, b2 = 0, b3 = 0, b4 = 0, b5 = 0, b6 = 0, b7 = 0]) =>
     (x) =>
       (b1 + b2 * x + b3 * x ** 2 + b4 * x ** 3) / (1 + b5 * x + b6 * x ** 2 + b7 * x ** 3),
   // y = (b1/b2) * exp[-0.5*((x-b3)/b2)**2]
-  Eckerle4: ([b1 = 0, b2 = 0, b3 = 0]) => (x) => (b1 / b2) * Math.exp(-0.5 * ((x - b3) / b2) ** 2),
+  Eckerle4:
+    ([b1 = 0, b2 = 0, b3 = 0]) =>
+    (x) =>
+      (b1 / b2) * Math.exp(-0.5 * ((x - b3) / b2) ** 2),
   // y = b1 / (1+exp[b2-b3*x])
-  Rat42: ([b1 = 0, b2 = 0, b3 = 0]) => (x) => b1 / (1 + Math.exp(b2 - b3 * x)),
+  Rat42:
+    ([b1 = 0, b2 = 0, b3 = 0]) =>
+    (x) =>
+      b1 / (1 + Math.exp(b2 - b3 * x)),
 };
 
 /** Relative error, as in NIST's log relative error LRE = −log10(|fit − certified|/|certified|). */
@@ -147,7 +168,10 @@ describe('fitLeastSquares against NIST StRD non-linear regression (certified val
     const result = fitLeastSquares({
       observed: set.y,
       initial: set.starts[1],
-      model: ([b1 = 0, b2 = 0]) => (i) => b1 * (1 - Math.exp(-b2 * (set.x[i] as number))),
+      model:
+        ([b1 = 0, b2 = 0]) =>
+        (i) =>
+          b1 * (1 - Math.exp(-b2 * (set.x[i] as number))),
       // ∂/∂b1 = 1 − e^(−b2 x), ∂/∂b2 = b1·x·e^(−b2 x)
       jacobian:
         ([b1 = 0, b2 = 0]) =>

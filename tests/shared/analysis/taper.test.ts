@@ -10,13 +10,40 @@ import { seededNormals } from '@shared/random/seeded';
 // tests/fixtures/examples/pot-laws.txt (rows pot-exp-10, -15, -20, -85). Source of the law:
 // B. Holmes, "Modelling logarithmic potentiometer laws", 2017 (READ); the numbers are DERIVED there.
 const HOLMES_CHECKS: { m: number; at: [number, number][] }[] = [
-  { m: 0.1, at: [[0.25, 0.025], [0.5, 0.1], [0.75, 0.325]] },
-  { m: 0.15, at: [[0.25, 0.044372], [0.5, 0.15], [0.75, 0.401444]] },
-  { m: 0.2, at: [[0.25, 0.0666667], [0.5, 0.2], [0.75, 0.466667]] },
+  {
+    m: 0.1,
+    at: [
+      [0.25, 0.025],
+      [0.5, 0.1],
+      [0.75, 0.325],
+    ],
+  },
+  {
+    m: 0.15,
+    at: [
+      [0.25, 0.044372],
+      [0.5, 0.15],
+      [0.75, 0.401444],
+    ],
+  },
+  {
+    m: 0.2,
+    at: [
+      [0.25, 0.0666667],
+      [0.5, 0.2],
+      [0.75, 0.466667],
+    ],
+  },
   { m: 0.85, at: [[0.5, 0.85]] },
 ];
 
-function synthetic(law: TaperLawKind, m: number, n: number, total: number, noise?: { seed: number; rel: number; abs: number }): TaperPoint[] {
+function synthetic(
+  law: TaperLawKind,
+  m: number,
+  n: number,
+  total: number,
+  noise?: { seed: number; rel: number; abs: number },
+): TaperPoint[] {
   const g = noise ? seededNormals(noise.seed) : () => 0;
   return Array.from({ length: n }, (_, i) => {
     const x = i / (n - 1);
@@ -48,7 +75,12 @@ describe('taperLawValue', () => {
   });
 
   it('every law passes through (0, 0), (0.5, m) and (1, 1)', () => {
-    const cases: [TaperLawKind, number][] = [['linear', 0.5], ['audio', 0.15], ['reverse', 0.8], ['two-segment', 0.2]];
+    const cases: [TaperLawKind, number][] = [
+      ['linear', 0.5],
+      ['audio', 0.15],
+      ['reverse', 0.8],
+      ['two-segment', 0.2],
+    ];
     for (const [law, m] of cases) {
       expect(taperLawValue(law, m, 0)).toBeCloseTo(0, 12);
       expect(taperLawValue(law, m, 0.5)).toBeCloseTo(m, 12);
@@ -157,7 +189,15 @@ describe('fitTaper', () => {
   });
 
   it('rejects fewer than three usable readings', () => {
-    expect(() => fitTaper({ points: [{ rotation: 0, resistance: 0 }, { rotation: 300, resistance: 1 }], rotationUnit: 'deg' })).toThrow(/three/);
+    expect(() =>
+      fitTaper({
+        points: [
+          { rotation: 0, resistance: 0 },
+          { rotation: 300, resistance: 1 },
+        ],
+        rotationUnit: 'deg',
+      }),
+    ).toThrow(/three/);
   });
 });
 
@@ -199,7 +239,10 @@ describe('the linear-versus-curved F test uses F(1, n − 1) for the actual numb
     expect(rows.length).toBe(30);
     for (const [alpha, nu, f] of rows) {
       const digits = String(f).replace('.', '').replace(/^0+/, '').length;
-      expect(Number(fCritical(nu, 1 - alpha).toPrecision(Math.max(digits, 4))), `alpha ${alpha}, nu ${nu}`).toBeCloseTo(f, 3 - Math.floor(Math.log10(f)) - 1);
+      expect(Number(fCritical(nu, 1 - alpha).toPrecision(Math.max(digits, 4))), `alpha ${alpha}, nu ${nu}`).toBeCloseTo(
+        f,
+        3 - Math.floor(Math.log10(f)) - 1,
+      );
     }
   });
 

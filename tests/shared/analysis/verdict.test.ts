@@ -6,7 +6,10 @@ import { parseValue } from '@shared/units/parse';
 
 function readSeries(name: string): number[] {
   const text = readFileSync(new URL(`../../fixtures/iec/iec60063-${name}.txt`, import.meta.url), 'utf8');
-  return text.split('\n').filter((l) => /^\d+$/.test(l.trim())).map(Number);
+  return text
+    .split('\n')
+    .filter((l) => /^\d+$/.test(l.trim()))
+    .map(Number);
 }
 
 describe('limitsFromTolerance', () => {
@@ -85,7 +88,9 @@ describe('judge — guarded acceptance', () => {
   it('marginal when the upper limit lies within the uncertainty', () => {
     const v = judge({ value: 598e3, nominal: 500e3, ...L, uncertainty: U, unit: 'Ω' });
     expect(v.verdict).toBe('marginal');
-    expect(v.reason).toMatch(/^598 kΩ is 19\.6 % over nominal 500 kΩ, within the measurement uncertainty \(±3\.19 kΩ\) of the upper limit 600 kΩ/);
+    expect(v.reason).toMatch(
+      /^598 kΩ is 19\.6 % over nominal 500 kΩ, within the measurement uncertainty \(±3\.19 kΩ\) of the upper limit 600 kΩ/,
+    );
   });
 
   it('marginal just outside a limit (still within U of it)', () => {
@@ -167,7 +172,9 @@ describe('judge — simple acceptance when no uncertainty is known', () => {
     expect(judge({ value: 600e3, nominal: 500e3, ...L, unit: 'Ω' }).verdict).toBe('pass');
     const v = judge({ value: 397e3, nominal: 500e3, ...L, unit: 'Ω' });
     expect(v.verdict).toBe('fail');
-    expect(v.reason).toMatch(/^397 kΩ is 20\.6 % under nominal 500 kΩ, outside ±20 %: below the lower limit 400 kΩ by 3 kΩ \(simple acceptance/);
+    expect(v.reason).toMatch(
+      /^397 kΩ is 20\.6 % under nominal 500 kΩ, outside ±20 %: below the lower limit 400 kΩ by 3 kΩ \(simple acceptance/,
+    );
   });
   it('without a nominal the reason names the limits; asymmetric limits are shown as such', () => {
     const v = judge({ value: 1.2e-3, lower: 1e-3, upper: 2e-3, unit: 'H' });

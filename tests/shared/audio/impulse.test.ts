@@ -79,7 +79,11 @@ function worstError(net: Netlist, knobs: Knobs, ir: ImpulseResponse): { dB: numb
   const fr = filterResponse(ir, 8);
   const idx: number[] = [];
   for (let k = 0; k < fr.frequencies.length; k++) if (fr.frequencies[k]! >= 50 && fr.frequencies[k]! <= 10000) idx.push(k);
-  const sim = simulate(net, knobs, Float64Array.from(idx, (k) => fr.frequencies[k]!));
+  const sim = simulate(
+    net,
+    knobs,
+    Float64Array.from(idx, (k) => fr.frequencies[k]!),
+  );
   let dB = 0;
   let deg = 0;
   let at = 0;
@@ -101,7 +105,7 @@ const SETTINGS: Knobs[] = [
   { volume: 10, tone: 2 },
 ];
 
-describe('impulse response: the filter\'s own response on a fine grid against simulate (50 Hz–10 kHz)', () => {
+describe("impulse response: the filter's own response on a fine grid against simulate (50 Hz–10 kHz)", () => {
   for (const preset of HARNESS_PRESETS) {
     it(`${preset.name}: within 0.1 dB and 0.5° at volume/tone 10/10, 4/10 and 10/2 (48 kHz)`, () => {
       const net = preset.build(preset.defaults);
@@ -146,7 +150,8 @@ describe('impulse response: the filter\'s own response on a fine grid against si
   });
 
   it('at volume 10 / tone 10 the bleed and interactive variants equal the plain wiring (the pot shorts the bleed; the tone branch starts at the same node)', () => {
-    const ir = (id: HarnessPresetId) => impulseResponse(harnessResponse(getPreset(id)!.build(getPreset(id)!.defaults), { volume: 10, tone: 10 }), 48000).samples;
+    const ir = (id: HarnessPresetId) =>
+      impulseResponse(harnessResponse(getPreset(id)!.build(getPreset(id)!.defaults), { volume: 10, tone: 10 }), 48000).samples;
     const plain = ir('independent-tone');
     const peak = plain.reduce((m, x) => Math.max(m, Math.abs(x)), 0);
     for (const id of ['interactive-tone', 'bleed-cap', 'bleed-cap-parallel-r', 'bleed-cap-series-r'] as const) {

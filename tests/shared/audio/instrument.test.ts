@@ -21,13 +21,21 @@ function knobsFor(layout: LayoutDef): Record<string, number> {
 describe('instrumentResponses: a layout as Listen hears it', () => {
   for (const layout of LAYOUTS) {
     it(`${layout.id}: the summed transfer's filter response is within 0.1 dB of simulateInstrument, 50 Hz–10 kHz (48 kHz, volumes 6, tones 4)`, () => {
-      const config = { selector: POSITION[layout.id]!, options: Object.fromEntries(layout.options.map((o) => [o.id, o.choices[0]!.id])), values: Object.fromEntries(layout.values.filter((v) => v.default !== null).map((v) => [v.key, v.default!])) };
+      const config = {
+        selector: POSITION[layout.id]!,
+        options: Object.fromEntries(layout.options.map((o) => [o.id, o.choices[0]!.id])),
+        values: Object.fromEntries(layout.values.filter((v) => v.default !== null).map((v) => [v.key, v.default!])),
+      };
       const net = buildLayoutNetlist(getLayout(layout.id)!, config);
       const knobs = knobsFor(layout);
       const fr = filterResponse(impulseResponse(instrumentResponses(net, knobs).total, 48000), 8);
       const idx: number[] = [];
       for (let k = 0; k < fr.frequencies.length; k++) if (fr.frequencies[k]! >= 50 && fr.frequencies[k]! <= 10000) idx.push(k);
-      const sim = simulateInstrument(net, knobs, Float64Array.from(idx, (k) => fr.frequencies[k]!));
+      const sim = simulateInstrument(
+        net,
+        knobs,
+        Float64Array.from(idx, (k) => fr.frequencies[k]!),
+      );
       let worst = 0;
       idx.forEach((k, j) => {
         worst = Math.max(worst, Math.abs(db(fr.re[k]!, fr.im[k]!) - sim.magnitudeDb[j]!));

@@ -57,7 +57,12 @@ describe('plucked-string phrase', () => {
     const fs = 48000;
     const positions = [0.25, 0.1];
     // low E (82.4 Hz); a mid-phrase window where the note rings
-    const phrase = synthesizePhrase({ sampleRate: fs, pickupPositions: positions, notes: [{ string: 0, fret: 0, time: 0, velocity: 0.8 }], seconds: 1.5 });
+    const phrase = synthesizePhrase({
+      sampleRate: fs,
+      pickupPositions: positions,
+      notes: [{ string: 0, fret: 0, time: 0, velocity: 0.8 }],
+      seconds: 1.5,
+    });
     const n = 32768;
     const f0 = 440 * Math.pow(2, (40 - 69) / 12);
     const a = spectrum(phrase.tracks[0]!, Math.round(0.3 * fs), n);
@@ -101,7 +106,14 @@ describe('overlap-add convolution', () => {
     const net = getPreset('bleed-cap')!.build(getPreset('bleed-cap')!.defaults);
     const ir = impulseResponse(harnessResponse(net, { volume: 5, tone: 7 }), fs);
     const one = convolve(phrase.tracks[0]!, ir);
-    const two = renderSegments(phrase.tracks, [{ at: 0, filters: [ir] }, { at: fs, filters: [ir] }], fs);
+    const two = renderSegments(
+      phrase.tracks,
+      [
+        { at: 0, filters: [ir] },
+        { at: fs, filters: [ir] },
+      ],
+      fs,
+    );
     let worst = 0;
     for (let i = 0; i < one.length; i++) worst = Math.max(worst, Math.abs(one[i]! - two[i]!));
     expect(worst).toBeLessThan(1e-6);
@@ -133,7 +145,14 @@ describe('no clicks when a knob moves (rendered offline, the change at t = 1 s)'
       const net = getPreset(c.id)!.build(getPreset(c.id)!.defaults);
       const a = impulseResponse(harnessResponse(net, c.from), fs);
       const b = impulseResponse(harnessResponse(net, c.to), fs);
-      const y = renderSegments(phrase.tracks, [{ at: 0, filters: [a] }, { at: fs, filters: [b] }], fs);
+      const y = renderSegments(
+        phrase.tracks,
+        [
+          { at: 0, filters: [a] },
+          { at: fs, filters: [b] },
+        ],
+        fs,
+      );
       expect(stepRatio(y)).toBeLessThanOrEqual(1.5);
     });
   }
@@ -142,7 +161,15 @@ describe('no clicks when a knob moves (rendered offline, the change at t = 1 s)'
     const net = getPreset('independent-tone')!.build(getPreset('independent-tone')!.defaults);
     const a = impulseResponse(harnessResponse(net, { volume: 10, tone: 10 }), fs);
     const b = impulseResponse(harnessResponse(net, { volume: 10, tone: 0 }), fs);
-    const hard = renderSegments(phrase.tracks, [{ at: 0, filters: [a] }, { at: fs, filters: [b] }], fs, 0);
+    const hard = renderSegments(
+      phrase.tracks,
+      [
+        { at: 0, filters: [a] },
+        { at: fs, filters: [b] },
+      ],
+      fs,
+      0,
+    );
     expect(stepRatio(hard)).toBeGreaterThan(1.5);
   });
 });

@@ -28,7 +28,10 @@ describe('WAV files', () => {
   });
 
   it('reads files the package wrote: 16-bit, 24-bit and 32-bit float', () => {
-    for (const [depth, full, format] of [['16', 32768, 'pcm16'], ['24', 8388608, 'pcm24']] as const) {
+    for (const [depth, full, format] of [
+      ['16', 32768, 'pcm16'],
+      ['24', 8388608, 'pcm24'],
+    ] as const) {
       const w = new WaveFile();
       w.fromScratch(2, 48000, depth, [
         [0, 100, -full, full - 1],

@@ -75,7 +75,7 @@ describe('behaviours of the trade — common practice (no published source)', ()
     expect(Math.abs(at5(par) - 0.9)).toBeLessThan(0.2);
   });
 
-  it('with the resistor in series instead, the volume taper stays closer to the bare pot\'s', () => {
+  it("with the resistor in series instead, the volume taper stays closer to the bare pot's", () => {
     const bare = taper(independent);
     const dSeries = rms(taper(seriesBleed), bare);
     const dParallel = rms(taper(parallelBleed), bare);
@@ -92,7 +92,7 @@ describe('behaviours of the trade — common practice (no published source)', ()
     expect(Math.abs(at5(int) - -3.2)).toBeLessThan(0.2);
   });
 
-  it('interactive tone: the volume and tone settings change each other\'s effect', () => {
+  it("interactive tone: the volume and tone settings change each other's effect", () => {
     expect(interactive.interactionIndexDb).toBeGreaterThan(1);
     expect(interactive.interactionIndexDb).toBeGreaterThan(5 * independent.interactionIndexDb);
   });
@@ -101,7 +101,9 @@ describe('behaviours of the trade — common practice (no published source)', ()
     // The plain branch: the independent-tone harness with the tone pot replaced by a resistor Rf.
     const plain = net('independent-tone');
     const withResistor: Netlist = {
-      parts: plain.parts.map((p) => (p.id === 'tone' && p.kind === 'pot' ? { kind: 'resistor', id: 'tone', a: p.a, b: p.w, R: VALUES.floorR } : p)),
+      parts: plain.parts.map((p) =>
+        p.id === 'tone' && p.kind === 'pot' ? { kind: 'resistor', id: 'tone', a: p.a, b: p.w, R: VALUES.floorR } : p,
+      ),
     };
     const floor = simulate(net('tone-floor-resistor'), { volume: 7, tone: 0 });
     const reference = simulate(withResistor, { volume: 7, tone: 0 });

@@ -73,7 +73,9 @@ describe('every preset against its hand-written netlist (reference solver)', () 
     }
   }
   afterAll(() => {
-    console.info(`hand-written netlists, reference solver: max |ΔdB| = ${worst.db.toExponential(2)}, max |Δphase| = ${worst.deg.toExponential(2)}°`);
+    console.info(
+      `hand-written netlists, reference solver: max |ΔdB| = ${worst.db.toExponential(2)}, max |Δphase| = ${worst.deg.toExponential(2)}°`,
+    );
   });
 });
 

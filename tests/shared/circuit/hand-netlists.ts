@@ -198,10 +198,20 @@ export function handNetlist(id: HandPresetId, v: HandValues, volume: number, ton
       lines.push(`Rtone hot tone ${n(toneR)}`, `Ctone tone 0 ${n(v.toneC)}`, `Cbleed hot out ${n(v.bleedC)}`);
       break;
     case 'bleed-cap-parallel-r':
-      lines.push(`Rtone hot tone ${n(toneR)}`, `Ctone tone 0 ${n(v.toneC)}`, `Cbleed hot out ${n(v.bleedC)}`, `Rbleed hot out ${n(v.bleedR)}`);
+      lines.push(
+        `Rtone hot tone ${n(toneR)}`,
+        `Ctone tone 0 ${n(v.toneC)}`,
+        `Cbleed hot out ${n(v.bleedC)}`,
+        `Rbleed hot out ${n(v.bleedR)}`,
+      );
       break;
     case 'bleed-cap-series-r':
-      lines.push(`Rtone hot tone ${n(toneR)}`, `Ctone tone 0 ${n(v.toneC)}`, `Cbleed hot bleed ${n(v.bleedC)}`, `Rbleed bleed out ${n(v.bleedR)}`);
+      lines.push(
+        `Rtone hot tone ${n(toneR)}`,
+        `Ctone tone 0 ${n(v.toneC)}`,
+        `Cbleed hot bleed ${n(v.bleedC)}`,
+        `Rbleed bleed out ${n(v.bleedR)}`,
+      );
       break;
     case 'tone-floor-resistor':
       lines.push(`Rtone hot tone ${n(toneR)}`, `Rfloor tone low ${n(v.floorR)}`, `Ctone low 0 ${n(v.toneC)}`);

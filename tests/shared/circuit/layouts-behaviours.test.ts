@@ -7,7 +7,10 @@ import { simulateInstrument, sweepKnobs } from '@shared/circuit/metrics';
 import type { Netlist } from '@shared/circuit/netlist';
 import { compileHarness, setKnobs, solvePoint } from '@shared/circuit/solver';
 
-function instrument(layoutId: string, input: { selector?: number; options?: Record<string, string>; values?: Record<string, unknown> } = {}) {
+function instrument(
+  layoutId: string,
+  input: { selector?: number; options?: Record<string, string>; values?: Record<string, unknown> } = {},
+) {
   const layout = getLayout(layoutId)!;
   const { config, problems } = resolveLayoutConfig(layout, input);
   expect(problems).toEqual([]);
@@ -38,10 +41,18 @@ describe('dual-coil switching (common practice)', () => {
     const coil = { R: 4e3, L: 2.2, C: 240e-12 };
     const open = { kind: 'resistor' as const, id: 'open', a: 'out', b: '0', R: 1e12 };
     const series: Netlist = {
-      parts: [{ kind: 'pickup', id: 'n', hot: 'mid', cold: '0', ...coil }, { kind: 'pickup', id: 's', hot: 'out', cold: 'mid', ...coil }, open],
+      parts: [
+        { kind: 'pickup', id: 'n', hot: 'mid', cold: '0', ...coil },
+        { kind: 'pickup', id: 's', hot: 'out', cold: 'mid', ...coil },
+        open,
+      ],
     };
     const parallel: Netlist = {
-      parts: [{ kind: 'pickup', id: 'n', hot: 'out', cold: '0', ...coil }, { kind: 'pickup', id: 's', hot: 'out', cold: '0', ...coil }, open],
+      parts: [
+        { kind: 'pickup', id: 'n', hot: 'out', cold: '0', ...coil },
+        { kind: 'pickup', id: 's', hot: 'out', cold: '0', ...coil },
+        open,
+      ],
     };
     const single: Netlist = { parts: [{ kind: 'pickup', id: 'n', hot: 'out', cold: '0', ...coil }, open] };
     const f = [series, parallel, single].map((n) => simulateInstrument(n, {}).metrics!.peak.frequency);
@@ -61,7 +72,10 @@ describe('dual-coil switching (common practice)', () => {
     expect(r.note).toBe('no signal (cancelled)');
     expect(r.metrics).toBeNull();
     // With unlike coils the reversed pair leaves a (thin) signal, not a cancellation.
-    const unlike = simulateInstrument(instrument('dual-coil', { options: { coils: 'series-reversed' }, values: { 'south.pickupL': 2.6 } }).netlist, {});
+    const unlike = simulateInstrument(
+      instrument('dual-coil', { options: { coils: 'series-reversed' }, values: { 'south.pickupL': 2.6 } }).netlist,
+      {},
+    );
     expect(unlike.signal).toBe('present');
     expect(unlike.metrics).not.toBeNull();
   });
@@ -104,7 +118,11 @@ describe('phase and selector (common practice)', () => {
   it('standard volume wiring silences "both" at one volume 0; independent wiring does not', () => {
     const knobs = { 'neck.volume': 0, 'bridge.volume': 10 };
     const standard = levelAt(instrument('two-pickups-3way', { selector: 1 }).netlist, knobs, 1000);
-    const independent = levelAt(instrument('two-pickups-3way', { selector: 1, options: { volumeWiring: 'independent' } }).netlist, knobs, 1000);
+    const independent = levelAt(
+      instrument('two-pickups-3way', { selector: 1, options: { volumeWiring: 'independent' } }).netlist,
+      knobs,
+      1000,
+    );
     expect(standard).toBeLessThan(-100);
     expect(independent).toBeGreaterThan(-12);
   });
@@ -130,7 +148,8 @@ describe('the load (COMPUTATION notes: common practice, from memory)', () => {
   });
 
   it('a buffer isolates the cable after it: a longer cable after the buffer changes nothing, before it does', () => {
-    const level = (values: Record<string, unknown>) => levelAt(instrument('one-pickup', { options: { load: 'buffer' }, values }).netlist, {}, 5000);
+    const level = (values: Record<string, unknown>) =>
+      levelAt(instrument('one-pickup', { options: { load: 'buffer' }, values }).netlist, {}, 5000);
     expect(level({ cableLength: 10 })).toBe(level({ cableLength: 1 }));
     expect(level({ cableBeforeBuffer: 10 })).not.toBeCloseTo(level({ cableBeforeBuffer: 1 }), 1);
   });
@@ -154,7 +173,8 @@ describe('treble-bleed finder', () => {
       expect(best.figures.trebleSpreadDb).toBeLessThan(bare.trebleSpreadDb);
       expect(best.figures.trebleSpreadDb).toBeLessThan(none.trebleSpreadDb);
       // ranked best first, scores as defined
-      for (let i = 1; i < candidates.length; i++) expect(candidates[i]!.figures.score).toBeGreaterThanOrEqual(candidates[i - 1]!.figures.score);
+      for (let i = 1; i < candidates.length; i++)
+        expect(candidates[i]!.figures.score).toBeGreaterThanOrEqual(candidates[i - 1]!.figures.score);
       // the finder's in-place value changes give the same figures as building the candidate afresh
       const again = bleedFigures(layout, config, knobs, { topology: best.topology, ...best.values }, 1);
       expect(again.trebleSpreadDb).toBeCloseTo(best.figures.trebleSpreadDb, 9);

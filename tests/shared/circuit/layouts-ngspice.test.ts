@@ -96,7 +96,15 @@ describe('every layout × position × option choice agrees with ngspice (1e-5 dB
 describe('hand-written netlists (not exported by the engine) agree with the layouts', () => {
   // Linear pots at knob 5 are two 250 kΩ halves; at 10 the near half is the engine's 1 mΩ clamp,
   // written here as 1m. Values are the layouts' defaults, typed in by hand.
-  async function check(label: string, text: string, layoutId: string, selector: number, options: Record<string, string>, values: Record<string, unknown>, knobs: Record<string, number>) {
+  async function check(
+    label: string,
+    text: string,
+    layoutId: string,
+    selector: number,
+    options: Record<string, string>,
+    values: Record<string, unknown>,
+    knobs: Record<string, number>,
+  ) {
     const layout = getLayout(layoutId)!;
     const { config, problems } = resolveLayoutConfig(layout, { selector, options, values });
     expect(problems).toEqual([]);
@@ -133,7 +141,15 @@ Ramp out 0 1meg
 .ac dec 50 20 20k
 .end
 `;
-    const { h } = await check('two pickups reversed', text, 'two-pickups-3way', 1, { phase: 'reversed' }, { 'neck.volumeLaw': { kind: 'linear' } }, { 'neck.volume': 5 });
+    const { h } = await check(
+      'two pickups reversed',
+      text,
+      'two-pickups-3way',
+      1,
+      { phase: 'reversed' },
+      { 'neck.volumeLaw': { kind: 'linear' } },
+      { 'neck.volume': 5 },
+    );
     expect(h.re.length).toBe(151);
   });
 
@@ -182,7 +198,15 @@ Rpedal out 0 10k
 .ac dec 50 20 20k
 .end
 `;
-    await check('three pickups into a pedal', text, 'three-pickups-5way', 3, { tone2Serves: 'middle-bridge', toneWiring: 'interactive', load: 'low-impedance-pedal' }, { volumeLaw: { kind: 'linear' } }, { volume: 5 });
+    await check(
+      'three pickups into a pedal',
+      text,
+      'three-pickups-5way',
+      3,
+      { tone2Serves: 'middle-bridge', toneWiring: 'interactive', load: 'low-impedance-pedal' },
+      { volumeLaw: { kind: 'linear' } },
+      { volume: 5 },
+    );
   });
 
   it('one pickup into a buffer: only the cable before it loads the pickup; an amplifier capacitance adds to the cable', async () => {
@@ -214,7 +238,12 @@ describe('the seven presets are the one-pickup layout with the matching options'
       expect(problems).toEqual([]);
       const fromLayout = compileHarness(buildLayoutNetlist(layout, config));
       const fromPreset = compileHarness(getPreset(preset.id)!.build(preset.defaults));
-      for (const knobs of [{ volume: 10, tone: 10 }, { volume: 5, tone: 3 }, { volume: 0.7, tone: 9.2 }, { volume: 0, tone: 0 }]) {
+      for (const knobs of [
+        { volume: 10, tone: 10 },
+        { volume: 5, tone: 3 },
+        { volume: 0.7, tone: 9.2 },
+        { volume: 0, tone: 0 },
+      ]) {
         const a = simulateInstrument(fromLayout, knobs);
         const b = simulate(fromPreset, knobs);
         let worstDb = 0;

@@ -71,7 +71,7 @@ async function compare(netlist: Netlist, knobs: Knobs): Promise<{ db: number; de
   return { db, deg, points: out.length };
 }
 
-describe('the engine\'s own SPICE export through ngspice (within 1e-5 dB and 1e-4°)', () => {
+describe("the engine's own SPICE export through ngspice (within 1e-5 dB and 1e-4°)", () => {
   for (const preset of HARNESS_PRESETS) {
     it(`${preset.id}: every knob setting agrees`, async () => {
       const netlist = preset.build(preset.defaults);
@@ -159,7 +159,10 @@ describe('hand-written netlists through ngspice (within 1e-5 dB and 1e-4° where
           worst.deg = Math.max(worst.deg, d.deg);
           // the reference solver that stands in for ngspice in hand-netlists.test.ts
           const ref = solveAc(parseSpice(text), result.frequencies);
-          const r = difference(out, { magnitudeDb: ref.map((z) => 10 * Math.log10(z.re ** 2 + z.im ** 2)), phaseDeg: ref.map((z) => (Math.atan2(z.im, z.re) * 180) / Math.PI) });
+          const r = difference(out, {
+            magnitudeDb: ref.map((z) => 10 * Math.log10(z.re ** 2 + z.im ** 2)),
+            phaseDeg: ref.map((z) => (Math.atan2(z.im, z.re) * 180) / Math.PI),
+          });
           expect(r.db, where).toBeLessThan(1e-5);
           expect(r.deg, where).toBeLessThan(1e-4);
         }
@@ -179,7 +182,9 @@ describe('hand-written netlists through ngspice (within 1e-5 dB and 1e-4° where
       ],
     };
     const fc = 1e4 / (2 * Math.PI * 0.5);
-    const corner = await ng.runAc(`rl corner\nV1 emf 0 DC 0 AC 1\nRs emf in 1000\nL1 in out 0.5\nR1 out 0 9000\n.ac lin 1 ${fc} ${fc}\n.end\n`);
+    const corner = await ng.runAc(
+      `rl corner\nV1 emf 0 DC 0 AC 1\nRs emf in 1000\nL1 in out 0.5\nR1 out 0 9000\n.ac lin 1 ${fc} ${fc}\n.end\n`,
+    );
     const z = corner.nodes.out![0]!;
     expect(10 * Math.log10(z.re ** 2 + z.im ** 2)).toBeCloseTo(20 * Math.log10(0.9) - 10 * Math.log10(2), 6);
     expect((Math.atan2(z.im, z.re) * 180) / Math.PI).toBeCloseTo(-45, 5);

@@ -9,8 +9,7 @@ import type { Netlist, Part } from '@shared/circuit/netlist';
 import type { TaperLaw } from '@shared/taper/law';
 
 /** Log-uniform positive value between lo and hi. */
-const logUniform = (lo: number, hi: number) =>
-  fc.double({ min: 0, max: 1, noNaN: true }).map((u) => lo * (hi / lo) ** u);
+const logUniform = (lo: number, hi: number) => fc.double({ min: 0, max: 1, noNaN: true }).map((u) => lo * (hi / lo) ** u);
 const law: fc.Arbitrary<TaperLaw> = fc.oneof(
   fc.constant<TaperLaw>({ kind: 'linear' }),
   fc.double({ min: 0.05, max: 0.45, noNaN: true }).map((m): TaperLaw => ({ kind: 'audio', m })),
@@ -109,7 +108,11 @@ describe('harness properties', () => {
           cableCapPerMetre: v.cableCapPerMetre / k,
         };
         const a = solve(compileHarness(p.build(v)), { volume, tone }, FREQS);
-        const b = solve(compileHarness(p.build(scaled)), { volume, tone }, FREQS.map((f) => f * k));
+        const b = solve(
+          compileHarness(p.build(scaled)),
+          { volume, tone },
+          FREQS.map((f) => f * k),
+        );
         for (let i = 0; i < FREQS.length; i++) {
           const mag = Math.hypot(a.re[i]!, a.im[i]!);
           expect(Math.hypot(a.re[i]! - b.re[i]!, a.im[i]! - b.im[i]!)).toBeLessThanOrEqual(1e-8 * mag);
@@ -127,7 +130,9 @@ describe('harness properties', () => {
         const audio = p.build({ ...v, volumeLaw: { kind: 'audio', m } });
         const swapped: Netlist = {
           parts: audio.parts.map((part): Part =>
-            part.id === 'volume' && part.kind === 'pot' ? { ...part, a: part.b!, b: part.a, law: { kind: 'reverse', m: 1 - m }, knob: { fixed: 10 - volume } } : part,
+            part.id === 'volume' && part.kind === 'pot'
+              ? { ...part, a: part.b!, b: part.a, law: { kind: 'reverse', m: 1 - m }, knob: { fixed: 10 - volume } }
+              : part,
           ),
         };
         const a = solve(compileHarness(audio), { volume, tone }, FREQS);

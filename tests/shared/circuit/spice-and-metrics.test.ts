@@ -38,9 +38,9 @@ describe('toSpiceNetlist', () => {
   });
 
   it('honours the frequency options', () => {
-    expect(toSpiceNetlist(preset.build(preset.defaults), { volume: 3, tone: 8 }, { fStart: 10, fStop: 40000, pointsPerDecade: 20 })).toContain(
-      '.ac dec 20 10 40000',
-    );
+    expect(
+      toSpiceNetlist(preset.build(preset.defaults), { volume: 3, tone: 8 }, { fStart: 10, fStop: 40000, pointsPerDecade: 20 }),
+    ).toContain('.ac dec 20 10 40000');
   });
 });
 
@@ -116,7 +116,7 @@ describe('presets', () => {
     expect(getPreset('nope')).toBeUndefined();
   });
 
-  it('every value field a preset lists changes that preset\'s response, and no other field does', () => {
+  it("every value field a preset lists changes that preset's response, and no other field does", () => {
     for (const p of HARNESS_PRESETS) {
       const base = simulate(p.build(p.defaults), { volume: 6, tone: 4 }, [300, 3000]).magnitudeDb;
       for (const f of HARNESS_VALUE_FIELDS) {

@@ -20,7 +20,11 @@ describe('closed-form circuits (standard theory, derived here)', () => {
     const R = 10e3;
     const C = 10e-9;
     const fc = 1 / (2 * Math.PI * R * C);
-    const h = solve(compileHarness(sourceR(R, [{ kind: 'capacitor', id: 'c', a: 'out', b: '0', C }])), { volume: 10, tone: 10 }, [fc, fc / 100, fc * 100]);
+    const h = solve(compileHarness(sourceR(R, [{ kind: 'capacitor', id: 'c', a: 'out', b: '0', C }])), { volume: 10, tone: 10 }, [
+      fc,
+      fc / 100,
+      fc * 100,
+    ]);
     expect(db(h.re[0]!, h.im[0]!)).toBeCloseTo(-10 * Math.log10(2), 10); // −3.0103 dB
     expect(deg(h.re[0]!, h.im[0]!)).toBeCloseTo(-45, 9);
     // far below: flat; far above: −20 dB a decade, so −40 dB two decades up (1/√(1 + 100²))

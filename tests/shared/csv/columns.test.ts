@@ -52,7 +52,7 @@ describe('units in headers', () => {
 });
 
 describe('detectColumns', () => {
-  it('taper: rotation in degrees, R1W, RW3 and the sweep\'s own R13 in kΩ', () => {
+  it("taper: rotation in degrees, R1W, RW3 and the sweep's own R13 in kΩ", () => {
     const d = detectColumns(['Rotation (°)', 'R1-W (kΩ)', 'R W-3 (kΩ)', 'R13 (kΩ)'], 'taper');
     expect(d.mapping.rotation).toMatchObject({ index: 0, rotationUnit: 'deg', scale: 1 });
     expect(d.mapping.resistance).toMatchObject({ index: 1, scale: 1e3 });
@@ -147,8 +147,14 @@ describe('resolveColumns with an explicit mapping', () => {
 
 describe('lug-numbered headers (lug 2 is the wiper; common practice)', () => {
   it.each([
-    [['Angle', 'R1-2', 'R2-3', 'R1-3'], ['resistance', 'resistanceW3', 'total']],
-    [['Angle', '1-W', 'W-3'], ['resistance', 'resistanceW3']],
+    [
+      ['Angle', 'R1-2', 'R2-3', 'R1-3'],
+      ['resistance', 'resistanceW3', 'total'],
+    ],
+    [
+      ['Angle', '1-W', 'W-3'],
+      ['resistance', 'resistanceW3'],
+    ],
   ])('%j', (header, roles) => {
     const d = detectColumns(header as string[], 'taper');
     roles.forEach((role, i) => expect(d.mapping[role as 'resistance']?.index).toBe(i + 1));

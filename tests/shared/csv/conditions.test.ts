@@ -6,9 +6,13 @@ import { csvText } from '@/lib/download';
 
 describe('the conditions header', () => {
   it('writes one `# key: value` line per condition, in order', () => {
-    expect(conditionsHeader([{ key: 'design', value: 'Two knobs' }, { key: 'volume knob', value: '7.5' }, { key: 'cable', value: 3 }])).toBe(
-      '# design: Two knobs\n# volume knob: 7.5\n# cable: 3\n',
-    );
+    expect(
+      conditionsHeader([
+        { key: 'design', value: 'Two knobs' },
+        { key: 'volume knob', value: '7.5' },
+        { key: 'cable', value: 3 },
+      ]),
+    ).toBe('# design: Two knobs\n# volume knob: 7.5\n# cable: 3\n');
   });
 
   it('writes unknown values as "not set" or "not measured", never blank', () => {
@@ -25,7 +29,7 @@ describe('the conditions header', () => {
       { key: 'design', value: 'Line one\r\nline two "quoted"' },
       { key: 'odd: key', value: '=cmd|x' },
     ]);
-    expect(text.split('\n')).toEqual(['# design: Line one line two \'quoted\'', '# odd key: =cmd|x', '']);
+    expect(text.split('\n')).toEqual(["# design: Line one line two 'quoted'", '# odd key: =cmd|x', '']);
     // A formula-looking value cannot become a cell formula: the line starts with "#".
     expect(text.split('\n').every((l) => l === '' || l.startsWith('# '))).toBe(true);
     expect(() => conditionsHeader([{ key: ' : ', value: 1 }])).toThrow(/key/);
@@ -50,16 +54,29 @@ describe('the conditions header', () => {
   });
 
   it('puts the conditions on one line for a PNG', () => {
-    expect(conditionsLine([{ key: 'lot', value: 'L-1' }, { key: 'test frequency', value: null }])).toBe('lot: L-1 · test frequency: not set');
+    expect(
+      conditionsLine([
+        { key: 'lot', value: 'L-1' },
+        { key: 'test frequency', value: null },
+      ]),
+    ).toBe('lot: L-1 · test frequency: not set');
   });
 
-  it('states a lot\'s conditions with SI prefixes and the matching options used', () => {
+  it("states a lot's conditions with SI prefixes and the matching options used", () => {
     const c = lotConditions(
       { code: 'LOT-7', quantity: 'resistance', nominal: 250e3, tolerancePct: 20, status: 'open', testFrequency: 1000 },
       { readings: 40, matchPct: 2, setSize: 4, madeAt: new Date('2026-03-01T10:20:30.456Z') },
     );
     const m = Object.fromEntries(c.map((x) => [x.key, conditionText(x)]));
-    expect(m).toMatchObject({ lot: 'LOT-7', nominal: '250 kΩ', tolerance: '±20 %', 'test frequency': '1 kHz', readings: '40', 'matched sets': 'within ±2 % of each other, 4 parts a set', exported: '2026-03-01T10:20:30Z' });
+    expect(m).toMatchObject({
+      lot: 'LOT-7',
+      nominal: '250 kΩ',
+      tolerance: '±20 %',
+      'test frequency': '1 kHz',
+      readings: '40',
+      'matched sets': 'within ±2 % of each other, 4 parts a set',
+      exported: '2026-03-01T10:20:30Z',
+    });
   });
 });
 
@@ -72,7 +89,12 @@ describe('round trip: an export read back by the importers uploads use', () => {
   ];
 
   it('harness curves: the reader skips the conditions, finds the header and gets the same numbers', () => {
-    const rows = [['frequency_Hz', 'now_v7.5_t10.0_dB', 'volume_8_t10.0_dB'], [20, -0.51234567, -3.25], [1000, -1.2, -4.0625], [20000, -18.75, -22.5]];
+    const rows = [
+      ['frequency_Hz', 'now_v7.5_t10.0_dB', 'volume_8_t10.0_dB'],
+      [20, -0.51234567, -3.25],
+      [1000, -1.2, -4.0625],
+      [20000, -18.75, -22.5],
+    ];
     const text = csvText(rows, conditions);
     expect(text.startsWith('# design: One pickup, one volume, one tone (unsaved)\n# volume knob: 7.5\n')).toBe(true);
     const table = readTable(text);
@@ -89,8 +111,16 @@ describe('round trip: an export read back by the importers uploads use', () => {
   });
 
   it('a taper sweep written with conditions reads back through the sweep upload reader unchanged', () => {
-    const rows = [['Rotation (°)', 'R (Ω)', 'R W-3 (Ω)'], [0, 300, 486670], [150, 73260, 413710], [300, 486700, 270]];
-    const text = csvText(rows, [{ key: 'part', value: 'POT-005' }, { key: 'instrument', value: null }]);
+    const rows = [
+      ['Rotation (°)', 'R (Ω)', 'R W-3 (Ω)'],
+      [0, 300, 486670],
+      [150, 73260, 413710],
+      [300, 486700, 270],
+    ];
+    const text = csvText(rows, [
+      { key: 'part', value: 'POT-005' },
+      { key: 'instrument', value: null },
+    ]);
     const r = parseSweepCsv(text, 'taper');
     if (!r.ok) throw new Error(JSON.stringify(r.issues));
     expect(r.points).toEqual([

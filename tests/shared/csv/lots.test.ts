@@ -21,7 +21,13 @@ describe('lot rows', () => {
   it('stops at the first bad row, naming line and column', () => {
     const text = 'Item,C (nF),D\n1,47.1,0.001\n2,4x7,0.001\n3,-47,0.001\n';
     const r = parseLotRows(text, { quantity: 'capacitance' });
-    expect(!r.ok && r.issues).toEqual([{ line: 3, column: 'C (nF)', message: 'Line 3, column "C (nF)": "4x7" is not a number (write a plain number in nF, the column\'s unit).' }]);
+    expect(!r.ok && r.issues).toEqual([
+      {
+        line: 3,
+        column: 'C (nF)',
+        message: 'Line 3, column "C (nF)": "4x7" is not a number (write a plain number in nF, the column\'s unit).',
+      },
+    ]);
   });
 
   it.each([
@@ -29,7 +35,10 @@ describe('lot rows', () => {
     ['Item,C (nF),D\n1,47.1,0.001\n,47.0,0.001\n', 'Line 3, column "Item": the item is empty; every row needs its item label or number.'],
     ['Item,C (nF),D\n1,47.1,0.001\n2,47.0\n', 'Line 3: the row has 2 cells, but the header (line 1) has 3.'],
     ['Item,C (nF),ESR (Ω)\n1,47.1,0.5\n2,47.0,-0.2\n', 'Line 3, column "ESR (Ω)": -0.2 is negative; an ESR cannot be.'],
-    ['Item,C (nF),Freq (kHz)\n1,47.1,1\n2,47.0,0\n', 'Line 3, column "Freq (kHz)": 0 is not a test frequency: it must be greater than zero.'],
+    [
+      'Item,C (nF),Freq (kHz)\n1,47.1,1\n2,47.0,0\n',
+      'Line 3, column "Freq (kHz)": 0 is not a test frequency: it must be greater than zero.',
+    ],
   ])('refuses %j', (text, message) => {
     const r = parseLotRows(text, { quantity: 'capacitance' });
     expect(!r.ok && r.issues.map((i) => i.message)).toEqual([message]);
@@ -70,7 +79,11 @@ describe('lot rows', () => {
     const sniff = sniffTable(text.slice(0, 2000));
     if (!sniff.ok) throw new Error(JSON.stringify(sniff.issues));
     expect([sniff.headerLine, sniff.delimiter, sniff.decimalComma]).toEqual([2, ';', true]);
-    const reader = createLotRowReader(sniff.header, { quantity: 'capacitance', decimalComma: sniff.decimalComma, headerLine: sniff.headerLine });
+    const reader = createLotRowReader(sniff.header, {
+      quantity: 'capacitance',
+      decimalComma: sniff.decimalComma,
+      headerLine: sniff.headerLine,
+    });
     if (!reader.ok) throw new Error('reader');
     const lineOf = createRowLineCounter();
     const rows: LotRow[] = [];

@@ -39,7 +39,8 @@ describe('readTable: delimiters, decimal separators, line numbers', () => {
   });
 
   it('BOM + preamble + semicolons + decimal commas + CRLF + blank lines anywhere and trailing', () => {
-    const text = '\uFEFFDevice;Bench fixture 2\r\nSample;250k audio\r\nDate;2026-02-03\r\nRotation (°);R1-W (kΩ)\r\n0;0,21\r\n\r\n150;25,4\r\n300;252,5\r\n\r\n\r\n';
+    const text =
+      '\uFEFFDevice;Bench fixture 2\r\nSample;250k audio\r\nDate;2026-02-03\r\nRotation (°);R1-W (kΩ)\r\n0;0,21\r\n\r\n150;25,4\r\n300;252,5\r\n\r\n\r\n';
     const r = ok(text);
     expect(r.header).toEqual(['Rotation (°)', 'R1-W (kΩ)']);
     expect(r.headerLine).toBe(4);
@@ -92,7 +93,10 @@ describe('readTable: refusals', () => {
   });
 
   it('UTF-16 text read as bytes (a NUL after every ASCII character) is refused, with the hint', () => {
-    const utf16 = 'Rotation,R\n0,1\n'.split('').map((c) => c + '\u0000').join('');
+    const utf16 = 'Rotation,R\n0,1\n'
+      .split('')
+      .map((c) => c + '\u0000')
+      .join('');
     expect(fail(utf16)[0]!.message).toMatch(/UTF-16/);
   });
 

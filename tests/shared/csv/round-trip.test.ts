@@ -19,7 +19,14 @@ describe('round trip: write a table, read it back', () => {
   it('random positive numbers, random delimiter / decimal comma / BOM / CRLF / preamble → the same values', () => {
     fc.assert(
       fc.property(
-        fc.integer({ min: 2, max: 5 }).chain((cols) => fc.tuple(fc.constant(cols), fc.array(fc.array(positive, { minLength: cols, maxLength: cols }), { minLength: 1, maxLength: 30 }))),
+        fc
+          .integer({ min: 2, max: 5 })
+          .chain((cols) =>
+            fc.tuple(
+              fc.constant(cols),
+              fc.array(fc.array(positive, { minLength: cols, maxLength: cols }), { minLength: 1, maxLength: 30 }),
+            ),
+          ),
         layout,
         fc.boolean(),
         fc.boolean(),
@@ -29,7 +36,11 @@ describe('round trip: write a table, read it back', () => {
           fc.pre(table.some((row) => row.some((x) => String(x).includes('.'))) || !decimalComma);
           const eol = crlf ? '\r\n' : '\n';
           const header = Array.from({ length: cols }, (_, i) => `Col ${i + 1} (ohm)`).join(delimiter);
-          const lines = [...(preamble ? ['# invented test table', `Device${delimiter}fixture`] : []), header, ...table.map((row) => row.map((x) => write(x, decimalComma)).join(delimiter))];
+          const lines = [
+            ...(preamble ? ['# invented test table', `Device${delimiter}fixture`] : []),
+            header,
+            ...table.map((row) => row.map((x) => write(x, decimalComma)).join(delimiter)),
+          ];
           const text = (bom ? '\uFEFF' : '') + lines.join(eol) + eol;
           const r = readTable(text);
           if (!r.ok) throw new Error(JSON.stringify(r.issues));
@@ -53,9 +64,7 @@ describe('round trip: write a table, read it back', () => {
           const rows = rotations.map((rot, i) => `${rot}${delimiter}${write(values[i]!, decimalComma)}`);
           const r = parseSweepCsv(['Rotation (°)', 'R (kΩ)'].join(delimiter) + '\n' + rows.join('\n'), 'taper');
           if (!r.ok) throw new Error(JSON.stringify(r.issues));
-          const expected = rotations
-            .map((rot, i) => ({ rotation: rot, resistance: values[i]! }))
-            .sort((a, b) => a.rotation - b.rotation);
+          const expected = rotations.map((rot, i) => ({ rotation: rot, resistance: values[i]! })).sort((a, b) => a.rotation - b.rotation);
           expect(r.points.map((p) => p.rotation)).toEqual(expected.map((p) => p.rotation));
           r.points.forEach((p, i) => {
             const want = expected[i]!.resistance * 1000;

@@ -33,7 +33,9 @@ describe('taper sweeps: values', () => {
   });
 
   it('an SI prefix in a cell is refused, the column unit after a number is accepted', () => {
-    expect(messages(issuesOf(taper('0,0.3,486', '10,2.2k,484', '20,4.4,482'), 'taper'))[0]).toMatch(/^Line 3, column "R \(kΩ\)": "2.2k" is not a number/);
+    expect(messages(issuesOf(taper('0,0.3,486', '10,2.2k,484', '20,4.4,482'), 'taper'))[0]).toMatch(
+      /^Line 3, column "R \(kΩ\)": "2.2k" is not a number/,
+    );
     const r = parseSweepCsv(taper('0,0.3 kΩ,486', '10,2.2kΩ,484', '20,4.4,482'), 'taper');
     expect(r.ok && r.points.map((p) => p.resistance)).toEqual([300, 2200, 4400]);
   });
@@ -106,7 +108,8 @@ describe('taper sweeps: values', () => {
   });
 
   it('decimal comma + semicolon + BOM + preamble + trailing blanks + CRLF', () => {
-    const text = '\uFEFFDevice;Bench fixture 2\r\nSample;250k audio\r\nDate;2026-02-03\r\nRotation (°);R1-W (kΩ)\r\n0;0,211\r\n150;25,45\r\n300;252,5\r\n\r\n\r\n';
+    const text =
+      '\uFEFFDevice;Bench fixture 2\r\nSample;250k audio\r\nDate;2026-02-03\r\nRotation (°);R1-W (kΩ)\r\n0;0,211\r\n150;25,45\r\n300;252,5\r\n\r\n\r\n';
     const r = parseSweepCsv(text, 'taper');
     if (!r.ok) throw new Error(JSON.stringify(r.issues));
     expect(r.points.map((p) => p.resistance)).toEqual([211, 25450, 252500]);
@@ -147,7 +150,9 @@ describe('taper sweeps: columns not recognised', () => {
   it('the explicit mapping then succeeds, with its units', () => {
     const first = parseSweepCsv(text, 'taper');
     expect(first.ok).toBe(false);
-    const r = parseSweepCsv(text, 'taper', { mapping: { rotation: { column: 'Winkel', unit: 'deg' }, resistance: { column: 1, unit: 'kΩ' } } });
+    const r = parseSweepCsv(text, 'taper', {
+      mapping: { rotation: { column: 'Winkel', unit: 'deg' }, resistance: { column: 1, unit: 'kΩ' } },
+    });
     if (!r.ok) throw new Error(JSON.stringify(r.issues));
     expect(r.rotationUnit).toBe('deg');
     expect(r.points.map((p) => p.resistance)).toEqual([300, 73200, 486700]);
@@ -167,24 +172,40 @@ describe('impedance sweeps', () => {
   });
 
   it('MΩ scaling', () => {
-    const r = parseSweepCsv(polar('Freq (Hz),Z (MΩ),Phase (deg)', ['20,0.0078,4', '100,0.0079,18', '1000,0.0096,62', '5000,0.18,-10', '10000,0.06,-80']), 'impedance');
+    const r = parseSweepCsv(
+      polar('Freq (Hz),Z (MΩ),Phase (deg)', ['20,0.0078,4', '100,0.0079,18', '1000,0.0096,62', '5000,0.18,-10', '10000,0.06,-80']),
+      'impedance',
+    );
     expect(r.ok && r.points.map((p) => ('magnitude' in p ? p.magnitude : NaN))).toEqual([7800, 7900, 9600, 180000, 60000]);
   });
 
   it('phase in radians is converted to degrees', () => {
-    const r = parseSweepCsv(polar('Freq (Hz),Mag (ohm),θ (rad)', ['20,7800,0.1', '100,7900,0.5', '1000,9600,1', '5000,180000,-0.5', '10000,60000,-1.5']), 'impedance');
+    const r = parseSweepCsv(
+      polar('Freq (Hz),Mag (ohm),θ (rad)', ['20,7800,0.1', '100,7900,0.5', '1000,9600,1', '5000,180000,-0.5', '10000,60000,-1.5']),
+      'impedance',
+    );
     if (!r.ok) throw new Error(JSON.stringify(r.issues));
     expect(r.points.map((p) => ('phaseDeg' in p ? p.phaseDeg : NaN))).toEqual([0.1, 0.5, 1, -0.5, -1.5].map((x) => (x * 180) / Math.PI));
   });
 
   it('re/im columns give rectangular points', () => {
-    const r = parseSweepCsv(polar('Frequency,Re(Z),Im(Z)', ['20,5900,290', '100,5950,1500', '1000,8000,16000', '5000,20000,-90000', '10000,1000,-30000']), 'impedance');
+    const r = parseSweepCsv(
+      polar('Frequency,Re(Z),Im(Z)', ['20,5900,290', '100,5950,1500', '1000,8000,16000', '5000,20000,-90000', '10000,1000,-30000']),
+      'impedance',
+    );
     expect(r.ok && r.points[2]).toEqual({ frequency: 1000, re: 8000, im: 16000 });
   });
 
   it('zero or negative frequency, negative magnitude, duplicate frequency', () => {
     const issues = issuesOf(
-      polar('Freq (Hz),|Z| (ohm),Phase (deg)', ['0,7800,4', '-20,7800,4', '100,-7900,18', '1000,9600,62', '1000,9700,61', '5000,180000,-10']),
+      polar('Freq (Hz),|Z| (ohm),Phase (deg)', [
+        '0,7800,4',
+        '-20,7800,4',
+        '100,-7900,18',
+        '1000,9600,62',
+        '1000,9700,61',
+        '5000,180000,-10',
+      ]),
       'impedance',
     );
     expect(messages(issues)).toEqual([
@@ -196,14 +217,17 @@ describe('impedance sweeps', () => {
   });
 
   it('a phase beyond ±180° is refused', () => {
-    const issues = issuesOf(polar('Freq (Hz),|Z| (ohm),Phase (deg)', ['20,7800,4', '100,7900,18', '1000,9600,62', '5000,180000,-190', '10000,60000,-80']), 'impedance');
+    const issues = issuesOf(
+      polar('Freq (Hz),|Z| (ohm),Phase (deg)', ['20,7800,4', '100,7900,18', '1000,9600,62', '5000,180000,-190', '10000,60000,-80']),
+      'impedance',
+    );
     expect(messages(issues)).toEqual(['Line 5, column "Phase (deg)": the phase -190° is outside ±180°.']);
   });
 
   it('fewer than 5 points', () => {
-    expect(messages(issuesOf(polar('Freq (Hz),|Z| (ohm),Phase (deg)', ['20,7800,4', '100,7900,18', '1000,9600,62']), 'impedance'))).toEqual([
-      'The file has a header (line 1) but only 3 data rows; at least 5 are needed.',
-    ]);
+    expect(messages(issuesOf(polar('Freq (Hz),|Z| (ohm),Phase (deg)', ['20,7800,4', '100,7900,18', '1000,9600,62']), 'impedance'))).toEqual(
+      ['The file has a header (line 1) but only 3 data rows; at least 5 are needed.'],
+    );
   });
 
   it('missing phase column → needsMapping names the phase', () => {

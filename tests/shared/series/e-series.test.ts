@@ -2,7 +2,14 @@ import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { E_SERIES, E_SERIES_NAMES, E_SERIES_TOLERANCE_PCT, isPreferredValue, nearestPreferred, type ESeriesName } from '@shared/series/e-series';
+import {
+  E_SERIES,
+  E_SERIES_NAMES,
+  E_SERIES_TOLERANCE_PCT,
+  isPreferredValue,
+  nearestPreferred,
+  type ESeriesName,
+} from '@shared/series/e-series';
 
 // Source: tests/fixtures/iec/iec60063-<series>.txt — IEC 60063 values as tabulated in a public
 // library, cross-checked against a university book appendix (each file's first line says so).
@@ -24,7 +31,7 @@ describe('E-series constants against the IEC 60063 fixtures, value for value', (
       expect([...E_SERIES[s]]).toEqual(f.values);
     });
   }
-  it('nesting E6 ⊂ E12 ⊂ E24 and E48 ⊂ E96 ⊂ E192 (IEC 60063 as tabulated in the fixtures\' source)', () => {
+  it("nesting E6 ⊂ E12 ⊂ E24 and E48 ⊂ E96 ⊂ E192 (IEC 60063 as tabulated in the fixtures' source)", () => {
     const sub = (a: ESeriesName, b: ESeriesName) => E_SERIES[a].every((v) => E_SERIES[b].includes(v));
     expect(sub('E6', 'E12') && sub('E12', 'E24') && sub('E48', 'E96') && sub('E96', 'E192')).toBe(true);
   });

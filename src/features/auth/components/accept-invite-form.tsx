@@ -24,7 +24,8 @@ export function AcceptInviteForm({ token, onAccepted }: { token: string; onAccep
   });
   const { errors } = form.formState;
 
-  if (token.length < 20) return <Alert>This invitation link is incomplete. Open the link from the e-mail again, or ask an admin for a new one.</Alert>;
+  if (token.length < 20)
+    return <Alert>This invitation link is incomplete. Open the link from the e-mail again, or ask an admin for a new one.</Alert>;
   if (invitation.isPending) return <Loading what="Checking the invitation" />;
   if (invitation.isError) return <Alert>{invitation.error.message}</Alert>;
 
@@ -57,7 +58,13 @@ export function AcceptInviteForm({ token, onAccepted }: { token: string; onAccep
         error={errors.password?.message}
         {...form.register('password')}
       />
-      <TextField label="Password again" type="password" autoComplete="new-password" error={errors.confirm?.message} {...form.register('confirm')} />
+      <TextField
+        label="Password again"
+        type="password"
+        autoComplete="new-password"
+        error={errors.confirm?.message}
+        {...form.register('confirm')}
+      />
       <Button type="submit" variant="primary" className="w-full" busy={accept.isPending} busyText="Joining…">
         Join and sign in
       </Button>

@@ -41,7 +41,9 @@ export function RequestResetForm() {
 
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-4">
-      <p className="text-sm text-ink-soft">Enter your account's e-mail address; we send a link to choose a new password. It works for one hour.</p>
+      <p className="text-sm text-ink-soft">
+        Enter your account's e-mail address; we send a link to choose a new password. It works for one hour.
+      </p>
       {errors.root?.server && <Alert>{errors.root.server.message}</Alert>}
       <TextField label="E-mail" type="email" autoComplete="username" autoFocus error={errors.email?.message} {...form.register('email')} />
       <Button type="submit" variant="primary" className="w-full" busy={request.isPending} busyText="Sending…">
@@ -106,7 +108,13 @@ export function ResetPasswordForm({ token }: { token: string }) {
         error={errors.password?.message}
         {...form.register('password')}
       />
-      <TextField label="New password again" type="password" autoComplete="new-password" error={errors.confirm?.message} {...form.register('confirm')} />
+      <TextField
+        label="New password again"
+        type="password"
+        autoComplete="new-password"
+        error={errors.confirm?.message}
+        {...form.register('confirm')}
+      />
       <Button type="submit" variant="primary" className="w-full" busy={reset.isPending} busyText="Saving…">
         Set the new password
       </Button>

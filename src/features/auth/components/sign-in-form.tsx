@@ -28,7 +28,13 @@ export function SignInForm({ onSignedIn }: { onSignedIn: (user: User) => void })
     <form onSubmit={onSubmit} noValidate className="space-y-4">
       {errors.root?.server && <Alert>{errors.root.server.message}</Alert>}
       <TextField label="E-mail" type="email" autoComplete="username" autoFocus error={errors.email?.message} {...form.register('email')} />
-      <TextField label="Password" type="password" autoComplete="current-password" error={errors.password?.message} {...form.register('password')} />
+      <TextField
+        label="Password"
+        type="password"
+        autoComplete="current-password"
+        error={errors.password?.message}
+        {...form.register('password')}
+      />
       <Button type="submit" variant="primary" className="w-full" busy={signIn.isPending} busyText="Signing in…">
         Sign in
       </Button>

@@ -15,7 +15,9 @@ export function readScan(text: string): { id: number } | { label: string } | nul
 }
 
 export const findPart = (scan: { id: number } | { label: string }, signal?: AbortSignal) =>
-  'id' in scan ? api.get<Part>(`/api/parts/${scan.id}`, { signal }) : api.get<Part>(`/api/parts/by-label/${encodeURIComponent(scan.label)}`, { signal });
+  'id' in scan
+    ? api.get<Part>(`/api/parts/${scan.id}`, { signal })
+    : api.get<Part>(`/api/parts/by-label/${encodeURIComponent(scan.label)}`, { signal });
 
 /** Asked afresh each time (staleTime 0): the part may have changed since the last scan. */
 export const findPartQueryOptions = (scan: { id: number } | { label: string }) =>

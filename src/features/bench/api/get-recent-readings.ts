@@ -7,8 +7,10 @@ export type RecentReading = Reading & { partLabel: string; partKind: PartKind };
 
 export const RECENT_LIMIT = 20;
 
-export const getRecentReadings = (signal?: AbortSignal) => api.get<{ readings: RecentReading[] }>('/api/readings/recent', { params: { limit: RECENT_LIMIT }, signal });
+export const getRecentReadings = (signal?: AbortSignal) =>
+  api.get<{ readings: RecentReading[] }>('/api/readings/recent', { params: { limit: RECENT_LIMIT }, signal });
 
-export const recentReadingsQueryOptions = () => queryOptions({ queryKey: ['readings', 'recent'], queryFn: ({ signal }) => getRecentReadings(signal) });
+export const recentReadingsQueryOptions = () =>
+  queryOptions({ queryKey: ['readings', 'recent'], queryFn: ({ signal }) => getRecentReadings(signal) });
 
 export const useRecentReadings = () => useQuery(recentReadingsQueryOptions());

@@ -93,7 +93,10 @@ export function BenchScreen() {
             </form>
 
             {lookup.state === 'missing' && creating === null && (
-              <div className="mt-3 flex flex-wrap items-center gap-3 rounded-md border border-paper-edge bg-paper-deep/50 p-3 text-sm" role="status">
+              <div
+                className="mt-3 flex flex-wrap items-center gap-3 rounded-md border border-paper-edge bg-paper-deep/50 p-3 text-sm"
+                role="status"
+              >
                 <span>
                   No part is labelled <span className="num font-medium">{lookup.label || 'that'}</span>.
                 </span>
@@ -124,7 +127,10 @@ export function BenchScreen() {
 
             {part && (
               <div className="mt-4 flex flex-wrap items-center gap-x-5 gap-y-2 rounded-md border border-paper-edge bg-paper p-3 text-sm">
-                <Link to={paths.app.part.getHref(part.id)} className="num text-base font-semibold text-accent underline-offset-2 hover:underline">
+                <Link
+                  to={paths.app.part.getHref(part.id)}
+                  className="num text-base font-semibold text-accent underline-offset-2 hover:underline"
+                >
                   {part.label}
                 </Link>
                 <span>{KIND_WORD[part.kind]}</span>

@@ -25,7 +25,8 @@ const Schema = Fields.transform((v, ctx) => {
   if (!nominal.ok) ctx.addIssue({ code: 'custom', path: ['nominal'], message: nominal.error });
   const tolText = v.tolerancePct.replace(/[±%\s]/g, '').replace(',', '.');
   const tolerance = tolText === '' ? null : Number(tolText);
-  if (tolerance !== null && !Number.isFinite(tolerance)) ctx.addIssue({ code: 'custom', path: ['tolerancePct'], message: 'Type a percentage such as 10 or 2.5.' });
+  if (tolerance !== null && !Number.isFinite(tolerance))
+    ctx.addIssue({ code: 'custom', path: ['tolerancePct'], message: 'Type a percentage such as 10 or 2.5.' });
   const checked = CreatePartInputSchema.safeParse({
     kind: v.kind,
     label: v.label,
@@ -33,7 +34,9 @@ const Schema = Fields.transform((v, ctx) => {
     tolerancePct: tolerance,
     taperClass: v.kind === 'pot' && v.taperClass ? v.taperClass : null,
   });
-  if (!checked.success) for (const issue of checked.error.issues) ctx.addIssue({ code: 'custom', path: [String(issue.path[0] ?? 'label')], message: issue.message });
+  if (!checked.success)
+    for (const issue of checked.error.issues)
+      ctx.addIssue({ code: 'custom', path: [String(issue.path[0] ?? 'label')], message: issue.message });
   if (!nominal.ok || !checked.success) return z.NEVER;
   return checked.data;
 });
@@ -59,48 +62,67 @@ export function QuickPartForm({ label, onCreated, onCancel }: { label: string; o
   return (
     // Escape from any field cancels: the wrapper only catches the keys its fields let bubble.
     <div role="presentation" onKeyDown={(e) => e.key === 'Escape' && onCancel()}>
-    <form onSubmit={onSubmit} noValidate aria-labelledby="quick-part-heading" className="space-y-3">
-      <h3 id="quick-part-heading" className="text-sm font-semibold">
-        New part
-      </h3>
-      {errors.root?.server && <Alert>{errors.root.server.message}</Alert>}
-      <div className="grid gap-3 sm:grid-cols-2">
-        <SelectField label="Kind" autoFocus error={errors.kind?.message} {...form.register('kind')}>
-          {PART_KINDS.map((k) => (
-            <option key={k} value={k}>
-              {KIND_LABEL[k]}
-            </option>
-          ))}
-        </SelectField>
-        <TextField label="Label" autoComplete="off" error={errors.label?.message} {...form.register('label')} />
-        <TextField
-          label={`Nominal (${NOMINAL_QUANTITY[kind] === 'capacitance' ? 'F' : 'Ω'})`}
-          autoComplete="off"
-          spellCheck={false}
-          inputClassName="num"
-          hint={parsed?.ok ? <span>Reads as <span className="num text-ink">{formatValue(parsed.value, parsed.unit)}</span>{parsed.readAs ? ' (a bare decimal on a capacitor is µF)' : ''}</span> : NOMINAL_QUANTITY[kind] === 'capacitance' ? 'e.g. 22n, 0.047u' : 'e.g. 500k, 4k7, 1meg'}
-          error={errors.nominal?.message}
-          {...form.register('nominal')}
-        />
-        <TextField label="Tolerance (±%)" inputMode="decimal" autoComplete="off" inputClassName="num" hint="Blank: the profile's" error={errors.tolerancePct?.message} {...form.register('tolerancePct')} />
-        {kind === 'pot' && (
-          <SelectField label="Taper class" error={errors.taperClass?.message} {...form.register('taperClass')}>
-            <option value="">Not given</option>
-            {TAPER_LAWS.map((t) => (
-              <option key={t} value={t}>
-                {TAPER_LAW_LABEL[t]}
+      <form onSubmit={onSubmit} noValidate aria-labelledby="quick-part-heading" className="space-y-3">
+        <h3 id="quick-part-heading" className="text-sm font-semibold">
+          New part
+        </h3>
+        {errors.root?.server && <Alert>{errors.root.server.message}</Alert>}
+        <div className="grid gap-3 sm:grid-cols-2">
+          <SelectField label="Kind" autoFocus error={errors.kind?.message} {...form.register('kind')}>
+            {PART_KINDS.map((k) => (
+              <option key={k} value={k}>
+                {KIND_LABEL[k]}
               </option>
             ))}
           </SelectField>
-        )}
-      </div>
-      <div className="flex flex-wrap gap-2">
-        <Button type="submit" variant="primary" busy={create.isPending} busyText="Creating…">
-          Create and measure
-        </Button>
-        <Button onClick={onCancel}>Cancel</Button>
-      </div>
-    </form>
+          <TextField label="Label" autoComplete="off" error={errors.label?.message} {...form.register('label')} />
+          <TextField
+            label={`Nominal (${NOMINAL_QUANTITY[kind] === 'capacitance' ? 'F' : 'Ω'})`}
+            autoComplete="off"
+            spellCheck={false}
+            inputClassName="num"
+            hint={
+              parsed?.ok ? (
+                <span>
+                  Reads as <span className="num text-ink">{formatValue(parsed.value, parsed.unit)}</span>
+                  {parsed.readAs ? ' (a bare decimal on a capacitor is µF)' : ''}
+                </span>
+              ) : NOMINAL_QUANTITY[kind] === 'capacitance' ? (
+                'e.g. 22n, 0.047u'
+              ) : (
+                'e.g. 500k, 4k7, 1meg'
+              )
+            }
+            error={errors.nominal?.message}
+            {...form.register('nominal')}
+          />
+          <TextField
+            label="Tolerance (±%)"
+            inputMode="decimal"
+            autoComplete="off"
+            inputClassName="num"
+            hint="Blank: the profile's"
+            error={errors.tolerancePct?.message}
+            {...form.register('tolerancePct')}
+          />
+          {kind === 'pot' && (
+            <SelectField label="Taper class" error={errors.taperClass?.message} {...form.register('taperClass')}>
+              <option value="">Not given</option>
+              {TAPER_LAWS.map((t) => (
+                <option key={t} value={t}>
+                  {TAPER_LAW_LABEL[t]}
+                </option>
+              ))}
+            </SelectField>
+          )}
+        </div>
+        <div className="flex flex-wrap gap-2">
+          <Button type="submit" variant="primary" busy={create.isPending} busyText="Creating…">
+            Create and measure
+          </Button>
+          <Button onClick={onCancel}>Cancel</Button>
+        </div>
+      </form>
     </div>
   );
 }

@@ -19,13 +19,27 @@ export function RecentReadings() {
         <caption className="sr-only">The last {RECENT_LIMIT} readings taken at the bench, newest first</caption>
         <thead>
           <tr className="border-b border-paper-edge text-left text-xs uppercase tracking-wide text-ink-soft">
-            <th scope="col" className="py-2 pr-3 font-medium">Part</th>
-            <th scope="col" className="py-2 pr-3 font-medium">Qty</th>
-            <th scope="col" className="py-2 pr-3 text-right font-medium">Value</th>
-            <th scope="col" className="py-2 pr-3 font-medium">Verdict</th>
-            <th scope="col" className="py-2 pr-3 font-medium">Instrument</th>
-            <th scope="col" className="py-2 pr-3 font-medium">Who</th>
-            <th scope="col" className="py-2 font-medium">When</th>
+            <th scope="col" className="py-2 pr-3 font-medium">
+              Part
+            </th>
+            <th scope="col" className="py-2 pr-3 font-medium">
+              Qty
+            </th>
+            <th scope="col" className="py-2 pr-3 text-right font-medium">
+              Value
+            </th>
+            <th scope="col" className="py-2 pr-3 font-medium">
+              Verdict
+            </th>
+            <th scope="col" className="py-2 pr-3 font-medium">
+              Instrument
+            </th>
+            <th scope="col" className="py-2 pr-3 font-medium">
+              Who
+            </th>
+            <th scope="col" className="py-2 font-medium">
+              When
+            </th>
           </tr>
         </thead>
         <tbody>
@@ -36,16 +50,26 @@ export function RecentReadings() {
                   {r.partLabel}
                 </Link>
               </td>
-              <td data-label="Qty" className="py-2 pr-3 text-ink-soft">{QUANTITY_SHORT[r.quantity]}</td>
-              <td data-label="Value" className="num whitespace-nowrap py-2 pr-3 text-right">{formatReading(r.quantity, r.value)}</td>
+              <td data-label="Qty" className="py-2 pr-3 text-ink-soft">
+                {QUANTITY_SHORT[r.quantity]}
+              </td>
+              <td data-label="Value" className="num whitespace-nowrap py-2 pr-3 text-right">
+                {formatReading(r.quantity, r.value)}
+              </td>
               <td data-label="Verdict" className="py-2 pr-3">
-                {r.verdict ? <VerdictBadge verdict={r.verdict} reason={r.verdictReason ?? undefined} /> : <span className="text-xs text-ink-soft">no limit</span>}
+                {r.verdict ? (
+                  <VerdictBadge verdict={r.verdict} reason={r.verdictReason ?? undefined} />
+                ) : (
+                  <span className="text-xs text-ink-soft">no limit</span>
+                )}
               </td>
               <td data-label="Instrument" className="py-2 pr-3">
                 {r.instrumentName ?? <span className="text-ink-faint">—</span>}
                 {r.calibrationOverdue && <OverdueMark />}
               </td>
-              <td data-label="Who" className="whitespace-nowrap py-2 pr-3">{r.takenBy ?? <span className="text-ink-faint">—</span>}</td>
+              <td data-label="Who" className="whitespace-nowrap py-2 pr-3">
+                {r.takenBy ?? <span className="text-ink-faint">—</span>}
+              </td>
               <td data-label="When" className="py-2 whitespace-nowrap text-ink-soft">
                 <time dateTime={new Date(r.takenAt).toISOString()}>{formatDateTime(r.takenAt)}</time>
               </td>

@@ -10,7 +10,8 @@ export interface TapersRequest {
 }
 
 // A POST because a selection can list many part ids; it reads only, so it is a query.
-export const getCompareTapers = (req: TapersRequest, signal?: AbortSignal) => api.post<CompareTapersResponse>('/api/compare/tapers', req, { signal });
+export const getCompareTapers = (req: TapersRequest, signal?: AbortSignal) =>
+  api.post<CompareTapersResponse>('/api/compare/tapers', req, { signal });
 
 export const compareTapersQueryOptions = (req: TapersRequest) =>
   queryOptions({

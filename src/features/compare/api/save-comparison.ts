@@ -4,7 +4,8 @@ import { api } from '@/lib/api-client';
 import type { SavedComparison } from './types';
 
 export const createComparison = (input: ComparisonInput) => api.post<SavedComparison>('/api/comparisons', input);
-export const updateComparison = ({ id, ...input }: ComparisonUpdate & { id: number }) => api.patch<SavedComparison>(`/api/comparisons/${id}`, input);
+export const updateComparison = ({ id, ...input }: ComparisonUpdate & { id: number }) =>
+  api.patch<SavedComparison>(`/api/comparisons/${id}`, input);
 export const deleteComparison = (id: number) => api.delete<{ ok: true }>(`/api/comparisons/${id}`);
 
 export const useCreateComparison = () => useMutation({ mutationFn: createComparison, meta: { invalidates: [['comparisons']] } });

@@ -14,15 +14,23 @@ export function groupColours(groups: readonly CompareGroup[]): Map<string, strin
 }
 
 /** A #rrggbb colour with an alpha (0–1) appended as two hex digits. */
-export const withAlpha = (hex: string, alpha: number) => `${hex}${Math.round(alpha * 255).toString(16).padStart(2, '0')}`;
+export const withAlpha = (hex: string, alpha: number) =>
+  `${hex}${Math.round(alpha * 255)
+    .toString(16)
+    .padStart(2, '0')}`;
 
-export const pct = (fraction: number | null | undefined, digits = 1) => (fraction === null || fraction === undefined || !Number.isFinite(fraction) ? '—' : `${(fraction * 100).toFixed(digits)} %`);
-export const signedPct = (p: number | null | undefined, digits = 1) => (p === null || p === undefined || !Number.isFinite(p) ? '—' : `${p > 0 ? '+' : ''}${p.toFixed(digits)} %`);
+export const pct = (fraction: number | null | undefined, digits = 1) =>
+  fraction === null || fraction === undefined || !Number.isFinite(fraction) ? '—' : `${(fraction * 100).toFixed(digits)} %`;
+export const signedPct = (p: number | null | undefined, digits = 1) =>
+  p === null || p === undefined || !Number.isFinite(p) ? '—' : `${p > 0 ? '+' : ''}${p.toFixed(digits)} %`;
 export const ohms = (v: number | null | undefined) => (v === null || v === undefined || !Number.isFinite(v) ? '—' : formatValue(v, 'Ω'));
 export const dial = (v: number | null | undefined) => (v === null || v === undefined ? '—' : v.toFixed(2));
 
 /** The pickup model a setting names; null when a measured pickup is chosen but not (or no longer) listed. */
-export function pickupModel(choice: CompareSettings['pickup'], measured: readonly CandidatePickup[]): { model: PickupModel; name: string } | null {
+export function pickupModel(
+  choice: CompareSettings['pickup'],
+  measured: readonly CandidatePickup[],
+): { model: PickupModel; name: string } | null {
   if (choice.source === 'preset') {
     const p = PICKUP_PRESETS.find((x) => x.id === choice.id) ?? PICKUP_PRESETS[0]!;
     return { model: { R: p.values.pickupR, L: p.values.pickupL, C: p.values.pickupC, Rp: p.values.pickupRp ?? null }, name: p.name };
@@ -41,7 +49,11 @@ export interface PotLoaded {
 }
 
 /** The loaded taper of each pot: the pickup, the pot with its fitted law and total, the cable and the amplifier. */
-export function loadedTapers(pots: readonly TaperPot[], pickup: PickupModel, settings: Pick<CompareSettings, 'cableLength' | 'ampR'>): PotLoaded[] {
+export function loadedTapers(
+  pots: readonly TaperPot[],
+  pickup: PickupModel,
+  settings: Pick<CompareSettings, 'cableLength' | 'ampR'>,
+): PotLoaded[] {
   const load = { cableC: settings.cableLength * CABLE_CAPACITANCE_PER_METRE, ampR: settings.ampR };
   return pots.map((pot) => {
     const taper = loadedTaper(volumeNetlist(pickup, { R: pot.fit.total, law: taperLaw(pot.fit.law, pot.fit.m) }, load));
@@ -49,7 +61,8 @@ export function loadedTapers(pots: readonly TaperPot[], pickup: PickupModel, set
   });
 }
 
-const round = (v: number | null | undefined, digits = 6) => (v === null || v === undefined || !Number.isFinite(v) ? '' : Number(v.toPrecision(digits)));
+const round = (v: number | null | undefined, digits = 6) =>
+  v === null || v === undefined || !Number.isFinite(v) ? '' : Number(v.toPrecision(digits));
 
 /** Curves CSV: one row per rotation, one column per pot (R1W/R13 on the common grid). */
 export function curveRows(grid: readonly number[], pots: readonly TaperPot[]): (string | number)[][] {

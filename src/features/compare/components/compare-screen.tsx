@@ -3,7 +3,12 @@
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
 import type { GroupBy } from '@shared/analysis/compare';
-import { CABLE_CAPACITANCE_PER_METRE, DEFAULT_COMPARE_SETTINGS, type CompareSelection, type CompareSettings } from '@shared/schemas/compare';
+import {
+  CABLE_CAPACITANCE_PER_METRE,
+  DEFAULT_COMPARE_SETTINGS,
+  type CompareSelection,
+  type CompareSettings,
+} from '@shared/schemas/compare';
 import { Alert, Loading } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { PageHeader, Panel } from '@/components/ui/page-header';
@@ -93,7 +98,7 @@ export function CompareScreen() {
     { key: 'pickup', value: pickup ? pickup.name : null },
     { key: 'cable', value: `${settings.cableLength} m at ${formatValue(CABLE_CAPACITANCE_PER_METRE, 'F')}/m` },
     { key: 'amplifier input', value: formatValue(settings.ampR, 'Ω') },
-    { key: 'level', value: 'at 1 kHz relative to full volume, computed with each pot\'s fitted law and measured total' },
+    { key: 'level', value: "at 1 kHz relative to full volume, computed with each pot's fitted law and measured total" },
   ];
 
   return (
@@ -139,8 +144,9 @@ export function CompareScreen() {
               <p className="text-sm text-accent-strong" aria-live="polite">
                 {data ? (
                   <>
-                    Comparing <span className="num font-semibold">{data.pots.length}</span> pots in <span className="num font-semibold">{data.groups.length}</span>{' '}
-                    {data.groups.length === 1 ? 'group' : 'groups'}: {describeSelection(selection, candidates.data)}
+                    Comparing <span className="num font-semibold">{data.pots.length}</span> pots in{' '}
+                    <span className="num font-semibold">{data.groups.length}</span> {data.groups.length === 1 ? 'group' : 'groups'}:{' '}
+                    {describeSelection(selection, candidates.data)}
                     {tapers.isFetching ? ' (updating…)' : ''}
                   </>
                 ) : (
@@ -151,7 +157,8 @@ export function CompareScreen() {
             </div>
             {data && data.missing.length > 0 && (
               <Alert tone="info">
-                {data.missing.length} picked {data.missing.length === 1 ? 'part has' : 'parts have'} no current taper fit and {data.missing.length === 1 ? 'is' : 'are'} left out.
+                {data.missing.length} picked {data.missing.length === 1 ? 'part has' : 'parts have'} no current taper fit and{' '}
+                {data.missing.length === 1 ? 'is' : 'are'} left out.
               </Alert>
             )}
             <SelectionPanel candidates={candidates.data} selection={selection} onChange={setSelection} />
@@ -183,7 +190,13 @@ export function CompareScreen() {
                     ] as const
                   ).map(([v, label]) => (
                     <label key={v} className="flex cursor-pointer items-center gap-1.5">
-                      <input type="radio" name="compare-envelope" className="size-4 accent-accent" checked={settings.envelope === v} onChange={() => change({ envelope: v })} />
+                      <input
+                        type="radio"
+                        name="compare-envelope"
+                        className="size-4 accent-accent"
+                        checked={settings.envelope === v}
+                        onChange={() => change({ envelope: v })}
+                      />
                       {label}
                     </label>
                   ))}
@@ -203,8 +216,8 @@ export function CompareScreen() {
 
           <Panel title="Loaded taper: what the player hears" id="compare-loaded">
             <p className="mb-4 max-w-prose text-sm text-ink-soft">
-              Each pot as the volume control: the pickup feeds lug 3, the wiper drives the cable (100 pF per metre) and the amplifier input. Level at 1 kHz, relative to full volume, from
-              the harness engine with each pot's fitted law and measured total.
+              Each pot as the volume control: the pickup feeds lug 3, the wiper drives the cable (100 pF per metre) and the amplifier input.
+              Level at 1 kHz, relative to full volume, from the harness engine with each pot's fitted law and measured total.
             </p>
             <LoadControls key={`load-${formKey}`} settings={settings} pickups={candidates.data?.pickups ?? []} onChange={change} />
             <div className="mt-5 space-y-6">
@@ -221,7 +234,14 @@ export function CompareScreen() {
 
           {pickup && (
             <Panel title="Matching: pots that track" id="compare-matching">
-              <Matching key={`match-${formKey}`} loaded={loaded} settings={settings} onChange={change} groupLabel={groupLabel} conditions={loadConditions} />
+              <Matching
+                key={`match-${formKey}`}
+                loaded={loaded}
+                settings={settings}
+                onChange={change}
+                groupLabel={groupLabel}
+                conditions={loadConditions}
+              />
             </Panel>
           )}
         </>

@@ -22,7 +22,15 @@ function pickupValue(p: CompareSettings['pickup']) {
   return p.source === 'preset' ? `preset:${p.id}` : `part:${p.partId}`;
 }
 
-export function LoadControls({ settings, pickups, onChange }: { settings: LoadSettings; pickups: CandidatePickup[]; onChange: (s: Partial<CompareSettings>) => void }) {
+export function LoadControls({
+  settings,
+  pickups,
+  onChange,
+}: {
+  settings: LoadSettings;
+  pickups: CandidatePickup[];
+  onChange: (s: Partial<CompareSettings>) => void;
+}) {
   const [cableText, setCableText] = useState(String(settings.cableLength));
   const [ampText, setAmpText] = useState(formatValue(settings.ampR, 'Ω'));
   const [cableError, setCableError] = useState<string>();
@@ -33,7 +41,10 @@ export function LoadControls({ settings, pickups, onChange }: { settings: LoadSe
     setCableText(text);
     const n = Number(text.replace(',', '.').replace(/\s*m$/i, ''));
     const check = CompareSettingsSchema.shape.cableLength.safeParse(text.trim() === '' ? Number.NaN : n);
-    if (!check.success) return setCableError(Number.isNaN(n) || text.trim() === '' ? 'Type the cable length in metres, e.g. 3 or 4.5.' : check.error.issues[0]!.message);
+    if (!check.success)
+      return setCableError(
+        Number.isNaN(n) || text.trim() === '' ? 'Type the cable length in metres, e.g. 3 or 4.5.' : check.error.issues[0]!.message,
+      );
     setCableError(undefined);
     onChange({ cableLength: check.data });
   };
@@ -53,7 +64,12 @@ export function LoadControls({ settings, pickups, onChange }: { settings: LoadSe
         value={pickupValue(settings.pickup)}
         onChange={(e) => {
           const [source, id] = e.target.value.split(':') as [string, string];
-          onChange({ pickup: source === 'part' ? { source: 'part', partId: Number(id) } : { source: 'preset', id: id as 'humbucker-like' | 'single-coil-like' } });
+          onChange({
+            pickup:
+              source === 'part'
+                ? { source: 'part', partId: Number(id) }
+                : { source: 'preset', id: id as 'humbucker-like' | 'single-coil-like' },
+          });
         }}
         hint="A typical coil, or a measured pickup's current coil fit."
       >
@@ -97,7 +113,17 @@ export function LoadControls({ settings, pickups, onChange }: { settings: LoadSe
 
 const GUIDE = '#857b70';
 
-export function LoadedChart({ loaded, colours, pickupName, conditions }: { loaded: PotLoaded[]; colours: Map<string, string>; pickupName: string; conditions: Condition[] }) {
+export function LoadedChart({
+  loaded,
+  colours,
+  pickupName,
+  conditions,
+}: {
+  loaded: PotLoaded[];
+  colours: Map<string, string>;
+  pickupName: string;
+  conditions: Condition[];
+}) {
   const plotRef = useRef<uPlot | null>(null);
   const [readout, setReadout] = useState<string | null>(null);
   const { options, data } = useMemo(() => {
@@ -105,7 +131,12 @@ export function LoadedChart({ loaded, colours, pickupName, conditions }: { loade
     const series: uPlot.Series[] = [{ label: 'Volume' }];
     const columns: (number | null)[][] = [];
     for (const l of loaded) {
-      series.push({ label: l.pot.label, stroke: withAlpha(colours.get(l.pot.group) ?? '#5a5248', 0.8), width: 1.25, points: { show: false } });
+      series.push({
+        label: l.pot.label,
+        stroke: withAlpha(colours.get(l.pot.group) ?? '#5a5248', 0.8),
+        width: 1.25,
+        points: { show: false },
+      });
       columns.push(l.taper.relativeDb);
     }
     for (const db of LEVEL_MARKS) {
@@ -118,7 +149,11 @@ export function LoadedChart({ loaded, colours, pickupName, conditions }: { loade
       const idx = u.cursor.idx;
       if (idx === null || idx === undefined || focus.series < 1 || focus.series > loaded.length) return setReadout(null);
       const v = u.data[focus.series]?.[idx];
-      setReadout(v === null || v === undefined ? null : `${String(u.series[focus.series]!.label)} · volume ${u.data[0][idx]!.toFixed(1)} · ${v.toFixed(1)} dB`);
+      setReadout(
+        v === null || v === undefined
+          ? null
+          : `${String(u.series[focus.series]!.label)} · volume ${u.data[0][idx]!.toFixed(1)} · ${v.toFixed(1)} dB`,
+      );
     };
     const opts: Omit<Options, 'width' | 'height'> & { height?: number } = {
       height: 340,
@@ -145,13 +180,18 @@ export function LoadedChart({ loaded, colours, pickupName, conditions }: { loade
   return (
     <div>
       <div className="mb-2 flex flex-wrap items-center justify-between gap-2">
-        <p className="num min-h-5 text-sm text-ink-soft">{readout ?? <span className="font-sans">Point at a curve to read its part, knob setting and level.</span>}</p>
+        <p className="num min-h-5 text-sm text-ink-soft">
+          {readout ?? <span className="font-sans">Point at a curve to read its part, knob setting and level.</span>}
+        </p>
         <div className="flex flex-wrap gap-2">
           <Button
             size="sm"
             onClick={() =>
               downloadCsv(
-                [['volume_dial', ...loaded.map((l) => l.pot.label)], ...(loaded[0]?.taper.dial ?? []).map((d, i) => [d, ...loaded.map((l) => Number(l.taper.relativeDb[i]!.toFixed(4)))])],
+                [
+                  ['volume_dial', ...loaded.map((l) => l.pot.label)],
+                  ...(loaded[0]?.taper.dial ?? []).map((d, i) => [d, ...loaded.map((l) => Number(l.taper.relativeDb[i]!.toFixed(4)))]),
+                ],
                 'loaded-taper.csv',
                 conditions,
               )
@@ -159,7 +199,13 @@ export function LoadedChart({ loaded, colours, pickupName, conditions }: { loade
           >
             Curves as CSV
           </Button>
-          <Button size="sm" onClick={() => plotRef.current && downloadPng(plotRef.current, 'loaded-taper.png', { title: 'Loaded volume taper: level against the volume knob', conditions })}>
+          <Button
+            size="sm"
+            onClick={() =>
+              plotRef.current &&
+              downloadPng(plotRef.current, 'loaded-taper.png', { title: 'Loaded volume taper: level against the volume knob', conditions })
+            }
+          >
             Chart as PNG
           </Button>
         </div>
@@ -177,7 +223,17 @@ export function LoadedChart({ loaded, colours, pickupName, conditions }: { loade
 const TH = 'border-b border-paper-edge px-3 py-2 text-left text-xs font-semibold uppercase tracking-wide text-ink-soft';
 const TD = 'border-b border-paper-edge/60 px-3 py-1.5';
 
-export function LoadedTable({ loaded, colours, groupLabel, conditions }: { loaded: PotLoaded[]; colours: Map<string, string>; groupLabel: (p: TaperPot) => string; conditions: Condition[] }) {
+export function LoadedTable({
+  loaded,
+  colours,
+  groupLabel,
+  conditions,
+}: {
+  loaded: PotLoaded[];
+  colours: Map<string, string>;
+  groupLabel: (p: TaperPot) => string;
+  conditions: Condition[];
+}) {
   return (
     <div>
       <div className="mb-2 flex flex-wrap items-center justify-between gap-2">
@@ -186,7 +242,14 @@ export function LoadedTable({ loaded, colours, groupLabel, conditions }: { loade
           size="sm"
           onClick={() =>
             downloadCsv(
-              loaded.map((l) => ({ part: l.pot.label, group: groupLabel(l.pot), dial_at_minus6_db: l.marks[0] ?? '', dial_at_minus12_db: l.marks[1] ?? '', dial_at_minus20_db: l.marks[2] ?? '', level_at_5_db: Number(l.taper.relativeDb[50]!.toFixed(4)) })),
+              loaded.map((l) => ({
+                part: l.pot.label,
+                group: groupLabel(l.pot),
+                dial_at_minus6_db: l.marks[0] ?? '',
+                dial_at_minus12_db: l.marks[1] ?? '',
+                dial_at_minus20_db: l.marks[2] ?? '',
+                level_at_5_db: Number(l.taper.relativeDb[50]!.toFixed(4)),
+              })),
               'loaded-taper-marks.csv',
               conditions,
             )
@@ -200,12 +263,24 @@ export function LoadedTable({ loaded, colours, groupLabel, conditions }: { loade
           <caption className="sr-only">Knob settings at which each pot's loaded level falls to −6, −12 and −20 dB</caption>
           <thead className="sticky top-0 bg-paper-deep">
             <tr>
-              <th scope="col" className={TH}>Part</th>
-              <th scope="col" className={TH}>Group</th>
-              <th scope="col" className={`${TH} text-right`}>Knob at −6 dB</th>
-              <th scope="col" className={`${TH} text-right`}>at −12 dB</th>
-              <th scope="col" className={`${TH} text-right`}>at −20 dB</th>
-              <th scope="col" className={`${TH} text-right`}>Level at 5</th>
+              <th scope="col" className={TH}>
+                Part
+              </th>
+              <th scope="col" className={TH}>
+                Group
+              </th>
+              <th scope="col" className={`${TH} text-right`}>
+                Knob at −6 dB
+              </th>
+              <th scope="col" className={`${TH} text-right`}>
+                at −12 dB
+              </th>
+              <th scope="col" className={`${TH} text-right`}>
+                at −20 dB
+              </th>
+              <th scope="col" className={`${TH} text-right`}>
+                Level at 5
+              </th>
             </tr>
           </thead>
           <tbody>
@@ -215,7 +290,11 @@ export function LoadedTable({ loaded, colours, groupLabel, conditions }: { loade
                   {l.pot.label}
                 </th>
                 <td className={`${TD} whitespace-nowrap`}>
-                  <span className="mr-2 inline-block size-2.5 rounded-full align-middle" style={{ background: colours.get(l.pot.group) }} aria-hidden="true" />
+                  <span
+                    className="mr-2 inline-block size-2.5 rounded-full align-middle"
+                    style={{ background: colours.get(l.pot.group) }}
+                    aria-hidden="true"
+                  />
                   {groupLabel(l.pot)}
                 </td>
                 {l.marks.map((m, i) => (

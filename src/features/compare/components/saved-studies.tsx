@@ -51,7 +51,11 @@ export function SavedStudies({ open, selection, settings, onOpen }: Props) {
           label="Open a saved study"
           value={open?.id ?? ''}
           onChange={(e) => onOpen(e.target.value ? Number(e.target.value) : null)}
-          hint={open ? `${open.name} — saved by ${open.ownerName ?? 'a former member'}, ${formatDate(open.updatedAt ?? open.createdAt)}. Share this page's address to share it.` : 'Studies saved by the team, with their selection and settings.'}
+          hint={
+            open
+              ? `${open.name} — saved by ${open.ownerName ?? 'a former member'}, ${formatDate(open.updatedAt ?? open.createdAt)}. Share this page's address to share it.`
+              : 'Studies saved by the team, with their selection and settings.'
+          }
         >
           <option value="">{list.data?.comparisons.length ? 'Choose a study…' : 'No saved studies yet'}</option>
           {list.data?.comparisons.map((c) => (
@@ -63,11 +67,24 @@ export function SavedStudies({ open, selection, settings, onOpen }: Props) {
         </SelectField>
         {open && !canWrite && open.notes && <p className="mt-2 text-sm whitespace-pre-wrap">Notes: {open.notes}</p>}
         {canWrite && open && (
-          <TextAreaField label="Notes on this study" rows={3} className="mt-2" value={notesText} onChange={(e) => setNotes({ id: open.id, text: e.target.value })} hint="Saved with “Save changes”." />
+          <TextAreaField
+            label="Notes on this study"
+            rows={3}
+            className="mt-2"
+            value={notesText}
+            onChange={(e) => setNotes({ id: open.id, text: e.target.value })}
+            hint="Saved with “Save changes”."
+          />
         )}
         {canWrite && open && (
           <div className="mt-2 flex flex-wrap gap-2">
-            <Button size="sm" variant="primary" busy={update.isPending} busyText="Saving…" onClick={() => update.mutate({ id: open.id, selection, settings, notes: notesText || null })}>
+            <Button
+              size="sm"
+              variant="primary"
+              busy={update.isPending}
+              busyText="Saving…"
+              onClick={() => update.mutate({ id: open.id, selection, settings, notes: notesText || null })}
+            >
               Save changes to “{open.name}”
             </Button>
             <Button
@@ -76,7 +93,8 @@ export function SavedStudies({ open, selection, settings, onOpen }: Props) {
               busy={remove.isPending}
               busyText="Deleting…"
               onClick={() => {
-                if (window.confirm(`Delete the saved study “${open.name}”? The pots and their fits stay.`)) remove.mutate(open.id, { onSuccess: () => onOpen(null) });
+                if (window.confirm(`Delete the saved study “${open.name}”? The pots and their fits stay.`))
+                  remove.mutate(open.id, { onSuccess: () => onOpen(null) });
               }}
             >
               Delete
@@ -92,11 +110,23 @@ export function SavedStudies({ open, selection, settings, onOpen }: Props) {
       </div>
       {canWrite ? (
         <form onSubmit={onSave} noValidate className="flex flex-wrap items-start gap-2">
-          <TextField label="Save this study as" placeholder="e.g. Spring lots, both suppliers" {...form.register('name')} error={form.formState.errors.name?.message ?? form.formState.errors.root?.server?.message} className="min-w-0 flex-1" />
+          <TextField
+            label="Save this study as"
+            placeholder="e.g. Spring lots, both suppliers"
+            {...form.register('name')}
+            error={form.formState.errors.name?.message ?? form.formState.errors.root?.server?.message}
+            className="min-w-0 flex-1"
+          />
           <Button type="submit" className="mt-6" busy={create.isPending} busyText="Saving…">
             Save
           </Button>
-          <TextAreaField label="Notes (optional)" rows={2} className="w-full" {...form.register('notes')} error={form.formState.errors.notes?.message} />
+          <TextAreaField
+            label="Notes (optional)"
+            rows={2}
+            className="w-full"
+            {...form.register('notes')}
+            error={form.formState.errors.notes?.message}
+          />
         </form>
       ) : (
         <p className="self-end text-sm text-ink-soft">Viewers can open and export studies; saving needs a bench, QA or admin account.</p>

@@ -13,7 +13,13 @@ function toggle<T>(list: readonly T[] | undefined, value: T, on: boolean): T[] |
   return next.length ? next : undefined;
 }
 
-function CheckList({ legend, items }: { legend: string; items: { key: string; label: React.ReactNode; checked: boolean; onChange: (on: boolean) => void }[] }) {
+function CheckList({
+  legend,
+  items,
+}: {
+  legend: string;
+  items: { key: string; label: React.ReactNode; checked: boolean; onChange: (on: boolean) => void }[];
+}) {
   return (
     <fieldset>
       <legend className="mb-1 text-sm font-medium text-ink">{legend}</legend>
@@ -24,7 +30,12 @@ function CheckList({ legend, items }: { legend: string; items: { key: string; la
           {items.map((it) => (
             <li key={it.key}>
               <label className="flex cursor-pointer items-start gap-2 text-sm">
-                <input type="checkbox" className="mt-0.5 size-4 accent-accent" checked={it.checked} onChange={(e) => it.onChange(e.target.checked)} />
+                <input
+                  type="checkbox"
+                  className="mt-0.5 size-4 accent-accent"
+                  checked={it.checked}
+                  onChange={(e) => it.onChange(e.target.checked)}
+                />
                 <span>{it.label}</span>
               </label>
             </li>
@@ -55,7 +66,15 @@ export function GroupByChooser({ value, onChange }: { value: GroupBy; onChange: 
   );
 }
 
-export function SelectionPanel({ candidates, selection, onChange }: { candidates: CompareCandidates; selection: CompareSelection; onChange: (s: CompareSelection) => void }) {
+export function SelectionPanel({
+  candidates,
+  selection,
+  onChange,
+}: {
+  candidates: CompareCandidates;
+  selection: CompareSelection;
+  onChange: (s: CompareSelection) => void;
+}) {
   const [search, setSearch] = useState('');
   const set = (patch: Partial<CompareSelection>) => {
     const next: CompareSelection = { ...selection, ...patch };
@@ -67,7 +86,10 @@ export function SelectionPanel({ candidates, selection, onChange }: { candidates
     const q = search.trim().toLowerCase();
     return candidates.pots.filter((p) => !q || [p.label, p.lotCode, p.supplier, p.tags].some((s) => s?.toLowerCase().includes(q)));
   }, [candidates.pots, search]);
-  const dateError = selection.createdFrom && selection.createdTo && selection.createdFrom > selection.createdTo ? 'The end date is before the start date.' : undefined;
+  const dateError =
+    selection.createdFrom && selection.createdTo && selection.createdFrom > selection.createdTo
+      ? 'The end date is before the start date.'
+      : undefined;
 
   return (
     <div className="space-y-4">
@@ -90,14 +112,28 @@ export function SelectionPanel({ candidates, selection, onChange }: { candidates
         />
         <CheckList
           legend="Suppliers"
-          items={candidates.suppliers.map((s) => ({ key: s, label: s, checked: selection.suppliers?.includes(s) ?? false, onChange: (on) => set({ suppliers: toggle(selection.suppliers, s, on) }) }))}
+          items={candidates.suppliers.map((s) => ({
+            key: s,
+            label: s,
+            checked: selection.suppliers?.includes(s) ?? false,
+            onChange: (on) => set({ suppliers: toggle(selection.suppliers, s, on) }),
+          }))}
         />
         <div className="space-y-3">
           <CheckList
             legend="Taper class"
-            items={TAPER_LAWS.map((c) => ({ key: c, label: TAPER_LAW_LABEL[c], checked: selection.taperClasses?.includes(c) ?? false, onChange: (on) => set({ taperClasses: toggle(selection.taperClasses, c, on) }) }))}
+            items={TAPER_LAWS.map((c) => ({
+              key: c,
+              label: TAPER_LAW_LABEL[c],
+              checked: selection.taperClasses?.includes(c) ?? false,
+              onChange: (on) => set({ taperClasses: toggle(selection.taperClasses, c, on) }),
+            }))}
           />
-          <SelectField label="Nominal" value={selection.nominal ?? ''} onChange={(e) => set({ nominal: e.target.value ? Number(e.target.value) : undefined })}>
+          <SelectField
+            label="Nominal"
+            value={selection.nominal ?? ''}
+            onChange={(e) => set({ nominal: e.target.value ? Number(e.target.value) : undefined })}
+          >
             <option value="">Any nominal</option>
             {candidates.nominals.map((n) => (
               <option key={n} value={n}>
@@ -107,8 +143,21 @@ export function SelectionPanel({ candidates, selection, onChange }: { candidates
           </SelectField>
         </div>
         <div className="space-y-3">
-          <TextField label="Added from" type="date" value={selection.createdFrom ?? ''} onChange={(e) => set({ createdFrom: e.target.value || undefined })} inputClassName="num" />
-          <TextField label="Added until" type="date" value={selection.createdTo ?? ''} onChange={(e) => set({ createdTo: e.target.value || undefined })} error={dateError} inputClassName="num" />
+          <TextField
+            label="Added from"
+            type="date"
+            value={selection.createdFrom ?? ''}
+            onChange={(e) => set({ createdFrom: e.target.value || undefined })}
+            inputClassName="num"
+          />
+          <TextField
+            label="Added until"
+            type="date"
+            value={selection.createdTo ?? ''}
+            onChange={(e) => set({ createdTo: e.target.value || undefined })}
+            error={dateError}
+            inputClassName="num"
+          />
           <SelectField label="Tag" value={selection.tag ?? ''} onChange={(e) => set({ tag: e.target.value || undefined })}>
             <option value="">Any tag</option>
             {candidates.tags.map((t) => (
@@ -122,15 +171,35 @@ export function SelectionPanel({ candidates, selection, onChange }: { candidates
 
       <details className="rounded-md border border-paper-edge bg-paper px-3 py-2">
         <summary className="cursor-pointer text-sm font-medium text-ink">
-          Pick pots one by one <span className="text-ink-soft">({picked.size} picked{picked.size > 0 && !hasFilters(selection) ? '; only these are compared' : picked.size > 0 ? '; added to the filtered pots' : ''})</span>
+          Pick pots one by one{' '}
+          <span className="text-ink-soft">
+            ({picked.size} picked
+            {picked.size > 0 && !hasFilters(selection)
+              ? '; only these are compared'
+              : picked.size > 0
+                ? '; added to the filtered pots'
+                : ''}
+            )
+          </span>
         </summary>
         <div className="mt-3 space-y-2">
-          <TextField label="Find a pot" placeholder="Label, lot, supplier or tag" value={search} onChange={(e) => setSearch(e.target.value)} className="max-w-sm" />
+          <TextField
+            label="Find a pot"
+            placeholder="Label, lot, supplier or tag"
+            value={search}
+            onChange={(e) => setSearch(e.target.value)}
+            className="max-w-sm"
+          />
           <ul className="grid max-h-56 gap-x-4 gap-y-1 overflow-y-auto sm:grid-cols-2 lg:grid-cols-3" aria-label="Pots with a taper fit">
             {shown.map((p) => (
               <li key={p.id}>
                 <label className="flex cursor-pointer items-center gap-2 text-sm">
-                  <input type="checkbox" className="size-4 accent-accent" checked={picked.has(p.id)} onChange={(e) => set({ partIds: toggle(selection.partIds, p.id, e.target.checked) })} />
+                  <input
+                    type="checkbox"
+                    className="size-4 accent-accent"
+                    checked={picked.has(p.id)}
+                    onChange={(e) => set({ partIds: toggle(selection.partIds, p.id, e.target.checked) })}
+                  />
                   <span className="font-medium">{p.label}</span>
                   <span className="truncate text-ink-soft">
                     {p.lotCode ?? 'no lot'} · <span className="num">{(p.m * 100).toFixed(1)} %</span>
@@ -146,7 +215,9 @@ export function SelectionPanel({ candidates, selection, onChange }: { candidates
 }
 
 export function hasFilters(s: CompareSelection): boolean {
-  return Boolean(s.lotIds?.length || s.suppliers?.length || s.nominal !== undefined || s.taperClasses?.length || s.createdFrom || s.createdTo || s.tag);
+  return Boolean(
+    s.lotIds?.length || s.suppliers?.length || s.nominal !== undefined || s.taperClasses?.length || s.createdFrom || s.createdTo || s.tag,
+  );
 }
 
 /** The selection in a few words, for the summary line and saved studies. */

@@ -10,14 +10,23 @@ import type { CompareTapersResponse } from '../api/types';
 import { withAlpha } from './compare-model';
 import type { Condition } from '@shared/csv/conditions';
 
-
 interface Readout {
   series: string;
   rotation: number;
   value: number;
 }
 
-export function TaperOverlay({ data, colours, envelope, conditions }: { data: CompareTapersResponse; colours: Map<string, string>; envelope: 'min-max' | 'two-sd'; conditions: Condition[] }) {
+export function TaperOverlay({
+  data,
+  colours,
+  envelope,
+  conditions,
+}: {
+  data: CompareTapersResponse;
+  colours: Map<string, string>;
+  envelope: 'min-max' | 'two-sd';
+  conditions: Condition[];
+}) {
   const plotRef = useRef<uPlot | null>(null);
   const [readout, setReadout] = useState<Readout | null>(null);
 
@@ -57,7 +66,13 @@ export function TaperOverlay({ data, colours, envelope, conditions }: { data: Co
       columns.push(scale(g.envelope.mean));
     }
     for (const r of references) {
-      series.push({ label: `Nominal ${TAPER_LAW_LABEL[r.law]}${r.law === 'linear' ? '' : ` (${Math.round(r.m * 100)} %)`}`, stroke: '#26221e', width: 1.5, dash: [8, 5], points: { show: false } });
+      series.push({
+        label: `Nominal ${TAPER_LAW_LABEL[r.law]}${r.law === 'linear' ? '' : ` (${Math.round(r.m * 100)} %)`}`,
+        stroke: '#26221e',
+        width: 1.5,
+        dash: [8, 5],
+        points: { show: false },
+      });
       columns.push(data.grid.map((g) => taperLawValue(r.law, r.m, g) * 100));
     }
     const opts: Omit<Options, 'width' | 'height'> & { height?: number } = {
@@ -99,21 +114,37 @@ export function TaperOverlay({ data, colours, envelope, conditions }: { data: Co
         <p className="num min-h-5 text-sm text-ink-soft" aria-live="off">
           {readout ? (
             <>
-              <span className="font-sans font-medium text-ink">{readout.series}</span> · rotation {readout.rotation.toFixed(0)} % · {readout.value.toFixed(1)} % of R13
+              <span className="font-sans font-medium text-ink">{readout.series}</span> · rotation {readout.rotation.toFixed(0)} % ·{' '}
+              {readout.value.toFixed(1)} % of R13
             </>
           ) : (
             <span className="font-sans">Point at a curve to read its part, rotation and value.</span>
           )}
         </p>
-        <Button size="sm" onClick={() => plotRef.current && downloadPng(plotRef.current, 'taper-overlay.png', {
+        <Button
+          size="sm"
+          onClick={() =>
+            plotRef.current &&
+            downloadPng(plotRef.current, 'taper-overlay.png', {
               title: 'Taper curves: R(lug 1–wiper) / R13 against rotation',
-              conditions: [...conditions, { key: 'envelope', value: envelope === 'min-max' ? 'min–max of each group' : '±2σ of each group' }],
+              conditions: [
+                ...conditions,
+                { key: 'envelope', value: envelope === 'min-max' ? 'min–max of each group' : '±2σ of each group' },
+              ],
               // The screen's key: one entry per group (the chart has a series per pot) and per nominal law.
               legend: [
-                ...data.groups.map((g) => ({ label: `${g.label} (${g.partIds.length}), bold line: mean`, colour: colours.get(g.key) ?? '#5a5248' })),
-                ...references.map((r) => ({ label: `Nominal ${TAPER_LAW_LABEL[r.law]}${r.law === 'linear' ? '' : ` (${Math.round(r.m * 100)} %)`}, dashed`, colour: '#26221e' })),
+                ...data.groups.map((g) => ({
+                  label: `${g.label} (${g.partIds.length}), bold line: mean`,
+                  colour: colours.get(g.key) ?? '#5a5248',
+                })),
+                ...references.map((r) => ({
+                  label: `Nominal ${TAPER_LAW_LABEL[r.law]}${r.law === 'linear' ? '' : ` (${Math.round(r.m * 100)} %)`}, dashed`,
+                  colour: '#26221e',
+                })),
               ],
-            })}>
+            })
+          }
+        >
           Chart as PNG
         </Button>
       </div>

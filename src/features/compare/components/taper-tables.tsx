@@ -17,7 +17,15 @@ function Swatch({ colour }: { colour?: string }) {
   return <span className="mr-2 inline-block size-2.5 rounded-full align-middle" style={{ background: colour }} aria-hidden="true" />;
 }
 
-export function GroupTable({ groups, colours, conditions }: { groups: CompareGroup[]; colours: Map<string, string>; conditions: Condition[] }) {
+export function GroupTable({
+  groups,
+  colours,
+  conditions,
+}: {
+  groups: CompareGroup[];
+  colours: Map<string, string>;
+  conditions: Condition[];
+}) {
   return (
     <div>
       <div className="mb-2 flex flex-wrap items-center justify-between gap-2">
@@ -28,17 +36,35 @@ export function GroupTable({ groups, colours, conditions }: { groups: CompareGro
       </div>
       <div className="overflow-x-auto rounded-md border border-paper-edge">
         <table className="w-full min-w-[640px] border-collapse text-sm">
-          <caption className="sr-only">Mean and spread of the fitted mid-rotation value m and of the total resistance for each group</caption>
+          <caption className="sr-only">
+            Mean and spread of the fitted mid-rotation value m and of the total resistance for each group
+          </caption>
           <thead className="bg-paper-deep/60">
             <tr>
-              <th scope="col" className={TH}>Group</th>
-              <th scope="col" className={THN}>Pots</th>
-              <th scope="col" className={THN}>m mean</th>
-              <th scope="col" className={THN}>m SD</th>
-              <th scope="col" className={THN}>m range</th>
-              <th scope="col" className={THN}>Total mean</th>
-              <th scope="col" className={THN}>Total SD</th>
-              <th scope="col" className={THN}>Total range</th>
+              <th scope="col" className={TH}>
+                Group
+              </th>
+              <th scope="col" className={THN}>
+                Pots
+              </th>
+              <th scope="col" className={THN}>
+                m mean
+              </th>
+              <th scope="col" className={THN}>
+                m SD
+              </th>
+              <th scope="col" className={THN}>
+                m range
+              </th>
+              <th scope="col" className={THN}>
+                Total mean
+              </th>
+              <th scope="col" className={THN}>
+                Total SD
+              </th>
+              <th scope="col" className={THN}>
+                Total range
+              </th>
             </tr>
           </thead>
           <tbody>
@@ -69,7 +95,17 @@ export function GroupTable({ groups, colours, conditions }: { groups: CompareGro
   );
 }
 
-export function PotTable({ pots, colours, groupLabel, conditions }: { pots: TaperPot[]; colours: Map<string, string>; groupLabel: (p: TaperPot) => string; conditions: Condition[] }) {
+export function PotTable({
+  pots,
+  colours,
+  groupLabel,
+  conditions,
+}: {
+  pots: TaperPot[];
+  colours: Map<string, string>;
+  groupLabel: (p: TaperPot) => string;
+  conditions: Condition[];
+}) {
   return (
     <div>
       <div className="mb-2 flex flex-wrap items-center justify-between gap-2">
@@ -83,16 +119,36 @@ export function PotTable({ pots, colours, groupLabel, conditions }: { pots: Tape
           <caption className="sr-only">Fitted taper of each pot in the comparison</caption>
           <thead className="sticky top-0 bg-paper-deep">
             <tr>
-              <th scope="col" className={TH}>Part</th>
-              <th scope="col" className={TH}>Group</th>
-              <th scope="col" className={TH}>Law</th>
-              <th scope="col" className={THN}>m</th>
-              <th scope="col" className={THN}>R²</th>
-              <th scope="col" className={THN}>Max dev.</th>
-              <th scope="col" className={THN}>Total</th>
-              <th scope="col" className={THN}>Total dev.</th>
-              <th scope="col" className={THN}>End R (0)</th>
-              <th scope="col" className={THN}>End R (full)</th>
+              <th scope="col" className={TH}>
+                Part
+              </th>
+              <th scope="col" className={TH}>
+                Group
+              </th>
+              <th scope="col" className={TH}>
+                Law
+              </th>
+              <th scope="col" className={THN}>
+                m
+              </th>
+              <th scope="col" className={THN}>
+                R²
+              </th>
+              <th scope="col" className={THN}>
+                Max dev.
+              </th>
+              <th scope="col" className={THN}>
+                Total
+              </th>
+              <th scope="col" className={THN}>
+                Total dev.
+              </th>
+              <th scope="col" className={THN}>
+                End R (0)
+              </th>
+              <th scope="col" className={THN}>
+                End R (full)
+              </th>
             </tr>
           </thead>
           <tbody>

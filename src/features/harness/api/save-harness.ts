@@ -4,7 +4,8 @@ import { api } from '@/lib/api-client';
 
 export const createHarness = (input: HarnessDesignInput) => api.post<HarnessDesign>('/api/harnesses', input);
 
-export const updateHarness = ({ id, input }: { id: number; input: HarnessDesignInput }) => api.put<HarnessDesign>(`/api/harnesses/${id}`, input);
+export const updateHarness = ({ id, input }: { id: number; input: HarnessDesignInput }) =>
+  api.put<HarnessDesign>(`/api/harnesses/${id}`, input);
 
 export const deleteHarness = (id: number) => api.delete<{ ok: true }>(`/api/harnesses/${id}`);
 

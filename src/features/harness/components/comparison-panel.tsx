@@ -32,12 +32,18 @@ function AbResponse({ a, b }: { a: HarnessAnalysis; b: HarnessAnalysis }) {
       axes: [frequencyX.axis, axis('Level (dB re 1 V of pickup signal)')],
       cursor: { drag: { x: false, y: false } },
       legend: { live: false },
-      series: [{ label: 'Frequency' }, { label: 'A (pinned)', stroke: A_COLOUR, width: 2.5, dash: A_DASH }, { label: 'B (editor)', stroke: B_COLOUR, width: 2.5 }],
+      series: [
+        { label: 'Frequency' },
+        { label: 'A (pinned)', stroke: A_COLOUR, width: 2.5, dash: A_DASH },
+        { label: 'B (editor)', stroke: B_COLOUR, width: 2.5 },
+      ],
     }),
     [],
   );
   const data = useMemo(() => [b.current.frequencies, a.current.magnitudeDb, b.current.magnitudeDb] as uPlot.AlignedData, [a, b]);
-  return <Plot options={options} data={data} label="Response of design A and design B at the current knobs, level in dB against frequency" />;
+  return (
+    <Plot options={options} data={data} label="Response of design A and design B at the current knobs, level in dB against frequency" />
+  );
 }
 
 function difference(kind: 'hz' | 'db', a: number | null, b: number | null): string {
@@ -51,7 +57,10 @@ function ValueDifferences({ pinned, preset, values }: { pinned: PinnedDesign; pr
   const usedA = new Set(fieldsFor(pinned.preset).map((f) => f.key));
   const usedB = new Set(fieldsFor(preset).map((f) => f.key));
   // A value differs when one design uses it and the other does not, or both use it with different values.
-  const rows = HARNESS_VALUE_FIELDS.filter((f) => (usedA.has(f.key) || usedB.has(f.key)) && (usedA.has(f.key) !== usedB.has(f.key) || !sameValue(pinned.values[f.key], values[f.key])));
+  const rows = HARNESS_VALUE_FIELDS.filter(
+    (f) =>
+      (usedA.has(f.key) || usedB.has(f.key)) && (usedA.has(f.key) !== usedB.has(f.key) || !sameValue(pinned.values[f.key], values[f.key])),
+  );
   const wiringDiffers = pinned.preset !== preset;
   if (!wiringDiffers && rows.length === 0) return <p className="text-sm text-ink-soft">A and B have the same wiring and values.</p>;
   return (
@@ -133,7 +142,8 @@ export function ComparisonPanel({
       id="harness-ab"
       title={
         <span>
-          A/B comparison at volume <span className="num">{formatKnob(knobs.volume)}</span>, tone <span className="num">{formatKnob(knobs.tone)}</span>
+          A/B comparison at volume <span className="num">{formatKnob(knobs.volume)}</span>, tone{' '}
+          <span className="num">{formatKnob(knobs.tone)}</span>
         </span>
       }
       actions={
@@ -151,8 +161,8 @@ export function ComparisonPanel({
         <span className="font-medium" style={{ color: A_COLOUR }}>
           A, dashed
         </span>
-        : {pinned.label === presetOf(pinned.preset).name ? pinned.label : `${pinned.label} (${presetOf(pinned.preset).name})`}. <span className="font-medium text-accent">B, solid</span>: the design in the editor ({presetOf(preset).name}). The knobs
-        move both.
+        : {pinned.label === presetOf(pinned.preset).name ? pinned.label : `${pinned.label} (${presetOf(pinned.preset).name})`}.{' '}
+        <span className="font-medium text-accent">B, solid</span>: the design in the editor ({presetOf(preset).name}). The knobs move both.
       </p>
       {'error' in a || !sweeps ? (
         <Alert>Design A cannot be solved: {'error' in a ? a.error : ''}</Alert>
@@ -163,11 +173,27 @@ export function ComparisonPanel({
             <div className="grid gap-4 md:grid-cols-2">
               <figure className="min-w-0">
                 <figcaption className="mb-1 text-sm font-medium">Volume taper (level at 1 kHz against full volume)</figcaption>
-                <SweepPlot volumes={TAPER_VOLUMES} series={sweeps.taper} yLabel="Level re full volume (dB)" range={taperRange} marker={knobs.volume} height={220} label="Volume taper of A and B" />
+                <SweepPlot
+                  volumes={TAPER_VOLUMES}
+                  series={sweeps.taper}
+                  yLabel="Level re full volume (dB)"
+                  range={taperRange}
+                  marker={knobs.volume}
+                  height={220}
+                  label="Volume taper of A and B"
+                />
               </figure>
               <figure className="min-w-0">
                 <figcaption className="mb-1 text-sm font-medium">Treble retention against the volume knob</figcaption>
-                <SweepPlot volumes={TAPER_VOLUMES} series={sweeps.treble} yLabel="Treble re full volume (dB)" range={trebleRange} marker={knobs.volume} height={220} label="Treble retention of A and B" />
+                <SweepPlot
+                  volumes={TAPER_VOLUMES}
+                  series={sweeps.treble}
+                  yLabel="Treble re full volume (dB)"
+                  range={trebleRange}
+                  marker={knobs.volume}
+                  height={220}
+                  label="Treble retention of A and B"
+                />
               </figure>
             </div>
           </div>
@@ -200,7 +226,9 @@ export function ComparisonPanel({
                       </th>
                       <td className="num whitespace-nowrap py-1 pr-2 text-right">{formatMetric(ra)}</td>
                       <td className="num whitespace-nowrap py-1 pr-2 text-right">{formatMetric(rb)}</td>
-                      <td className="num whitespace-nowrap py-1 text-right">{ra.text !== undefined || rb.text !== undefined ? '—' : difference(ra.kind, ra.value, rb.value)}</td>
+                      <td className="num whitespace-nowrap py-1 text-right">
+                        {ra.text !== undefined || rb.text !== undefined ? '—' : difference(ra.kind, ra.value, rb.value)}
+                      </td>
                     </tr>
                   );
                 })}
@@ -221,4 +249,3 @@ export function ComparisonPanel({
     </Panel>
   );
 }
-

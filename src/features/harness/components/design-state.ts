@@ -1,7 +1,14 @@
 // The design being edited: the preset, the part values (the last valid value of every field), the
 // text in each field as typed (with its error), and which values came from which measured part.
 // Plain functions and a reducer, so the screen's state changes are easy to follow and to test.
-import { DEFAULT_HARNESS_VALUES, HARNESS_PRESETS, HARNESS_VALUE_FIELDS, type HarnessPresetId, type HarnessValueField, type HarnessValues } from '@shared/circuit/presets';
+import {
+  DEFAULT_HARNESS_VALUES,
+  HARNESS_PRESETS,
+  HARNESS_VALUE_FIELDS,
+  type HarnessPresetId,
+  type HarnessValueField,
+  type HarnessValues,
+} from '@shared/circuit/presets';
 import { lawMid, TAPER_LAW_LABEL, taperLaw, TYPICAL_MID, type TaperLaw, type TaperLawKind } from '@shared/taper/law';
 import { formatValue } from '@shared/units/format';
 import { tryParseValue } from '@shared/units/parse';
@@ -211,7 +218,11 @@ export function designFromSaved(saved: {
   for (const [k, id] of Object.entries(saved.partRefs ?? {})) {
     if (HARNESS_VALUE_FIELDS.some((f) => f.key === k)) refs[k as keyof HarnessValues] = { partId: id };
   }
-  return { ...initialDesign(saved.preset, values), refs, loaded: { id: saved.id, name: saved.name, notes: saved.notes, ownerId: saved.ownerId } };
+  return {
+    ...initialDesign(saved.preset, values),
+    refs,
+    loaded: { id: saved.id, name: saved.name, notes: saved.notes, ownerId: saved.ownerId },
+  };
 }
 
 /** partRefs for saving: value key → part id. */
@@ -244,7 +255,11 @@ export function describeValue(key: keyof HarnessValues, values: HarnessValues): 
   }
   const v = values[key] as number | undefined;
   if (v === undefined) return 'none';
-  return field.quantity === 'length' ? `${Number(v.toPrecision(4))} m` : field.quantity === 'capacitance-per-length' ? `${formatValue(v, 'F')}/m` : formatValue(v, field.unit);
+  return field.quantity === 'length'
+    ? `${Number(v.toPrecision(4))} m`
+    : field.quantity === 'capacitance-per-length'
+      ? `${formatValue(v, 'F')}/m`
+      : formatValue(v, field.unit);
 }
 
 export const sameValue = (a: unknown, b: unknown) => JSON.stringify(a) === JSON.stringify(b);

@@ -31,7 +31,10 @@ function SaveDesignForm({ state, onSaved }: { state: DesignState; onSaved: (d: H
   const user = useUser();
   const loaded = state.loaded;
   const mayUpdate = !!loaded && !!user && (loaded.ownerId === user.id || roleCan(user.role, 'qa'));
-  const form = useForm<SaveForm>({ resolver: zodResolver(SaveFormSchema), defaultValues: { name: loaded?.name ?? '', notes: loaded?.notes ?? '' } });
+  const form = useForm<SaveForm>({
+    resolver: zodResolver(SaveFormSchema),
+    defaultValues: { name: loaded?.name ?? '', notes: loaded?.notes ?? '' },
+  });
   const { errors, isSubmitting } = form.formState;
   // The message belongs to the saved record; it goes away when the editor leaves that record.
   const [done, setDone] = useState<{ id: number; text: string } | null>(null);
@@ -49,10 +52,19 @@ function SaveDesignForm({ state, onSaved }: { state: DesignState; onSaved: (d: H
         form.setError('root.server', { message: 'Some values are not readable (marked in red below); fix them before saving.' });
         return;
       }
-      const input = { name, notes: notes?.trim() ? notes.trim() : null, preset: state.preset, values: usedValues(state.preset, state.values), partRefs: partRefsOf(state) };
+      const input = {
+        name,
+        notes: notes?.trim() ? notes.trim() : null,
+        preset: state.preset,
+        values: usedValues(state.preset, state.values),
+        partRefs: partRefsOf(state),
+      };
       try {
         const saved = mode === 'update' && loaded ? await update.mutateAsync({ id: loaded.id, input }) : await create.mutateAsync(input);
-        setDone({ id: saved.id, text: mode === 'update' ? `Saved the changes to “${saved.name}”.` : `Saved “${saved.name}” as a new design.` });
+        setDone({
+          id: saved.id,
+          text: mode === 'update' ? `Saved the changes to “${saved.name}”.` : `Saved “${saved.name}” as a new design.`,
+        });
         onSaved(saved);
       } catch (err) {
         applyServerError(err, form.setError, ['name', 'notes']);
@@ -64,14 +76,26 @@ function SaveDesignForm({ state, onSaved }: { state: DesignState; onSaved: (d: H
       {errors.root?.server && <Alert>{errors.root.server.message}</Alert>}
       {done && done.id === loaded?.id && <Alert tone="success">{done.text}</Alert>}
       <TextField label="Name" autoComplete="off" error={errors.name?.message} {...form.register('name')} />
-      <TextAreaField label="Notes" rows={2} hint="What it is for, whose guitar, what the customer asked" error={errors.notes?.message} {...form.register('notes')} />
+      <TextAreaField
+        label="Notes"
+        rows={2}
+        hint="What it is for, whose guitar, what the customer asked"
+        error={errors.notes?.message}
+        {...form.register('notes')}
+      />
       <div className="flex flex-wrap gap-2">
         {mayUpdate && (
           <Button type="submit" variant="primary" busy={isSubmitting} busyText="Saving…">
             Save changes
           </Button>
         )}
-        <Button type={mayUpdate ? 'button' : 'submit'} variant={mayUpdate ? 'secondary' : 'primary'} busy={!mayUpdate && isSubmitting} busyText="Saving…" onClick={mayUpdate ? submit('new') : undefined}>
+        <Button
+          type={mayUpdate ? 'button' : 'submit'}
+          variant={mayUpdate ? 'secondary' : 'primary'}
+          busy={!mayUpdate && isSubmitting}
+          busyText="Saving…"
+          onClick={mayUpdate ? submit('new') : undefined}
+        >
           Save as a new design
         </Button>
       </div>
@@ -138,7 +162,9 @@ export const DesignsPanel = memo(function DesignsPanel({
         ) : list.isError ? (
           <Alert>{list.error.message}</Alert>
         ) : list.data.harnesses.length === 0 ? (
-          <p className="text-sm text-ink-soft">No saved designs yet.{canWrite ? ' Save the one in the editor with the form beside this list.' : ''}</p>
+          <p className="text-sm text-ink-soft">
+            No saved designs yet.{canWrite ? ' Save the one in the editor with the form beside this list.' : ''}
+          </p>
         ) : (
           <ul className="divide-y divide-paper-edge">
             {list.data.harnesses.map((d) => {
@@ -149,10 +175,15 @@ export const DesignsPanel = memo(function DesignsPanel({
                   <div className="min-w-0 flex-1">
                     <p className="font-medium">
                       {d.name}
-                      {open && <span className="ml-2 inline-block whitespace-nowrap rounded bg-accent-tint px-1.5 py-0.5 align-middle text-xs font-normal text-accent-strong">in the editor</span>}
+                      {open && (
+                        <span className="ml-2 inline-block whitespace-nowrap rounded bg-accent-tint px-1.5 py-0.5 align-middle text-xs font-normal text-accent-strong">
+                          in the editor
+                        </span>
+                      )}
                     </p>
                     <p className="text-xs text-ink-soft">
-                      {d.preset ? (presetOf(d.preset)?.name ?? d.preset) : `Whole instrument (${d.layout}, position ${d.selector})`} · {formatDateTime(d.updatedAt ?? d.createdAt)}
+                      {d.preset ? (presetOf(d.preset)?.name ?? d.preset) : `Whole instrument (${d.layout}, position ${d.selector})`} ·{' '}
+                      {formatDateTime(d.updatedAt ?? d.createdAt)}
                     </p>
                     {d.notes && <p className="mt-0.5 line-clamp-2 text-sm text-ink-soft">{d.notes}</p>}
                   </div>
@@ -160,11 +191,11 @@ export const DesignsPanel = memo(function DesignsPanel({
                     {isPresetDesign(d) ? (
                       <>
                         <Button size="sm" onClick={() => onOpen(d)} aria-label={`Open ${d.name} in the editor`}>
-                      Open
-                    </Button>
-                    <Button size="sm" onClick={() => onPin(d)} aria-label={`Pin ${d.name} as A`}>
-                      Pin as A
-                    </Button>
+                          Open
+                        </Button>
+                        <Button size="sm" onClick={() => onPin(d)} aria-label={`Pin ${d.name} as A`}>
+                          Pin as A
+                        </Button>
                       </>
                     ) : (
                       <span className="text-xs text-ink-soft">A whole-instrument design: the preset editor cannot open it</span>
@@ -183,7 +214,10 @@ export const DesignsPanel = memo(function DesignsPanel({
         </Panel>
       ) : (
         <Panel id="harness-save" title="Saving">
-          <p className="text-sm text-ink-soft">Your role can open, compute and compare designs and download their curves, but not save them. Ask a tech or the shop owner to save a design.</p>
+          <p className="text-sm text-ink-soft">
+            Your role can open, compute and compare designs and download their curves, but not save them. Ask a tech or the shop owner to
+            save a design.
+          </p>
         </Panel>
       )}
     </div>

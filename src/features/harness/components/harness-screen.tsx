@@ -38,7 +38,10 @@ function FamilyToggle({ mode, onChange }: { mode: FamilyMode; onChange: (m: Fami
       <legend className="mb-1 text-sm font-medium">Lighter curves at other positions of</legend>
       <div className="inline-flex rounded-md border border-paper-edge bg-paper-deep p-0.5">
         {(Object.keys(FAMILY_LABEL) as FamilyMode[]).map((m) => (
-          <label key={m} className={`cursor-pointer rounded px-2.5 py-1 text-sm has-[:focus-visible]:outline-2 has-[:focus-visible]:outline-accent ${mode === m ? 'bg-paper-bright font-medium shadow-sm' : 'text-ink-soft'}`}>
+          <label
+            key={m}
+            className={`cursor-pointer rounded px-2.5 py-1 text-sm has-[:focus-visible]:outline-2 has-[:focus-visible]:outline-accent ${mode === m ? 'bg-paper-bright font-medium shadow-sm' : 'text-ink-soft'}`}
+          >
             <input type="radio" name="family" value={m} checked={mode === m} onChange={() => onChange(m)} className="sr-only" />
             {FAMILY_LABEL[m]}
           </label>
@@ -84,15 +87,24 @@ export function HarnessScreen() {
     }));
   }, [b, knobs, family]);
 
-  const currentCurve = useMemo<Curve | null>(() => (b && !('error' in b) ? { label: pinned ? 'B: now' : 'Now', db: b.current.magnitudeDb } : null), [b, pinned]);
-  const pinnedCurve = useMemo<Curve | null>(() => (pinned && a && !('error' in a) ? { label: `A: ${pinned.label}`, db: a.current.magnitudeDb } : null), [pinned, a]);
+  const currentCurve = useMemo<Curve | null>(
+    () => (b && !('error' in b) ? { label: pinned ? 'B: now' : 'Now', db: b.current.magnitudeDb } : null),
+    [b, pinned],
+  );
+  const pinnedCurve = useMemo<Curve | null>(
+    () => (pinned && a && !('error' in a) ? { label: `A: ${pinned.label}`, db: a.current.magnitudeDb } : null),
+    [pinned, a],
+  );
 
   const openSaved = useCallback((d: PresetDesign) => dispatch({ type: 'replace', state: designFromSaved(d) }), []);
   const pinSaved = useCallback((d: PresetDesign) => {
     const s = designFromSaved(d);
     setPinned({ label: d.name, preset: s.preset, values: s.values });
   }, []);
-  const onSaved = useCallback((d: HarnessDesign) => dispatch({ type: 'saved', loaded: { id: d.id, name: d.name, notes: d.notes, ownerId: d.ownerId } }), []);
+  const onSaved = useCallback(
+    (d: HarnessDesign) => dispatch({ type: 'saved', loaded: { id: d.id, name: d.name, notes: d.notes, ownerId: d.ownerId } }),
+    [],
+  );
   const onDeleted = useCallback((id: number) => dispatch({ type: 'deleted', id }), []);
   const pinCurrent = () => setPinned({ label: design.loaded?.name ?? preset.name, preset: design.preset, values: design.values });
   const swap = () => {
@@ -104,24 +116,42 @@ export function HarnessScreen() {
   const downloadCurves = () => {
     if (!b || 'error' in b) return;
     const f = b.current.frequencies;
-    const slug = (t: string) => t.toLowerCase().replace(/[^a-z0-9.]+/g, '_').replace(/^_|_$/g, '');
+    const slug = (t: string) =>
+      t
+        .toLowerCase()
+        .replace(/[^a-z0-9.]+/g, '_')
+        .replace(/^_|_$/g, '');
     const header = [
       'frequency_Hz',
       `${pinnedCurve ? 'B_' : ''}now_v${formatKnob(knobs.volume)}_t${formatKnob(knobs.tone)}_dB`,
       // e.g. volume_8_t10.0_dB: volume 8 at the current tone (or tone_8_v6.5_dB).
-      ...familyCurves.map((c) => `${slug(c.label)}_${family === 'volume' ? `t${formatKnob(knobs.tone)}` : `v${formatKnob(knobs.volume)}`}_dB`),
+      ...familyCurves.map(
+        (c) => `${slug(c.label)}_${family === 'volume' ? `t${formatKnob(knobs.tone)}` : `v${formatKnob(knobs.volume)}`}_dB`,
+      ),
       ...(pinnedCurve && pinned ? [`A_${slug(pinned.label)}_v${formatKnob(knobs.volume)}_t${formatKnob(knobs.tone)}_dB`] : []),
     ];
     const rows: (string | number)[][] = [header];
     for (let k = 0; k < f.length; k++) {
-      rows.push([f[k]!, b.current.magnitudeDb[k]!, ...familyCurves.map((c) => c.db[k]!), ...(pinnedCurve ? [pinnedCurve.db[k]!] : [])].map((x) => (typeof x === 'number' ? Number(x.toPrecision(8)) : x)));
+      rows.push(
+        [f[k]!, b.current.magnitudeDb[k]!, ...familyCurves.map((c) => c.db[k]!), ...(pinnedCurve ? [pinnedCurve.db[k]!] : [])].map((x) =>
+          typeof x === 'number' ? Number(x.toPrecision(8)) : x,
+        ),
+      );
     }
     downloadCsv(rows, `harness-${design.preset}-${fileKnobs(knobs)}.csv`, exportConditions());
   };
   // What the curves were computed for; the pinned design A is named when its curve is in the export.
   const exportConditions = () =>
     harnessConditions(design, knobs, [
-      { key: 'lighter curves', value: familyCurves.length > 0 ? (family === 'volume' ? `volume at ${FAMILY_POSITIONS.join(', ')}` : `tone at ${FAMILY_POSITIONS.join(', ')}`) : 'none' },
+      {
+        key: 'lighter curves',
+        value:
+          familyCurves.length > 0
+            ? family === 'volume'
+              ? `volume at ${FAMILY_POSITIONS.join(', ')}`
+              : `tone at ${FAMILY_POSITIONS.join(', ')}`
+            : 'none',
+      },
       { key: 'pinned design A', value: pinnedCurve && pinned ? pinned.label : 'none' },
       { key: 'computed', value: 'circuit model in Lugbook (not measured)' },
     ]);
@@ -146,7 +176,13 @@ export function HarnessScreen() {
         description="Pick a wiring, give it the parts you have, and turn the knobs: the curves show what the player will hear, computed here as you move them."
         actions={
           <>
-            <Button size="sm" onClick={downloadNetlist} busy={netlist.isPending} busyText="Writing netlist…" disabled={!ok || invalid.length > 0}>
+            <Button
+              size="sm"
+              onClick={downloadNetlist}
+              busy={netlist.isPending}
+              busyText="Writing netlist…"
+              disabled={!ok || invalid.length > 0}
+            >
               SPICE netlist
             </Button>
             <Button size="sm" onClick={downloadCurves} disabled={!ok}>
@@ -168,7 +204,11 @@ export function HarnessScreen() {
       <div className="grid gap-6 lg:grid-cols-[19rem_minmax(0,1fr)]">
         <div className="grid content-start gap-6 md:grid-cols-2 lg:grid-cols-1">
           <Panel id="harness-wiring" title="Wiring">
-            <SelectField label="Preset" value={design.preset} onChange={(e) => dispatch({ type: 'preset', preset: e.currentTarget.value as HarnessPresetId })}>
+            <SelectField
+              label="Preset"
+              value={design.preset}
+              onChange={(e) => dispatch({ type: 'preset', preset: e.currentTarget.value as HarnessPresetId })}
+            >
               {HARNESS_PRESETS.map((p) => (
                 <option key={p.id} value={p.id}>
                   {p.name}
@@ -203,13 +243,16 @@ export function HarnessScreen() {
           className="min-w-0"
           title={
             <span>
-              Response at volume <span className="num">{formatKnob(knobs.volume)}</span>, tone <span className="num">{formatKnob(knobs.tone)}</span>
+              Response at volume <span className="num">{formatKnob(knobs.volume)}</span>, tone{' '}
+              <span className="num">{formatKnob(knobs.tone)}</span>
             </span>
           }
         >
           {invalid.length > 0 && (
             <div className="mb-3">
-              <Alert tone="info">Some values are not readable; the curves use the last readable value of those fields until they are fixed.</Alert>
+              <Alert tone="info">
+                Some values are not readable; the curves use the last readable value of those fields until they are fixed.
+              </Alert>
             </div>
           )}
           {ok && currentCurve ? (
@@ -249,7 +292,11 @@ export function HarnessScreen() {
               A: pinned ? listenDesignOf(pinned.label, pinned.preset, pinned.values, knobs) : null,
               B: instrumentDesign ?? listenDesignOf(design.loaded?.name ?? preset.name, design.preset, design.values, knobs),
             }}
-            chainFor={(inputR, cable) => (instrument && instrumentDesign ? instrumentChainOf(instrument, inputR, cable) : recordingChainOf(design.preset, design.values, inputR, cable))}
+            chainFor={(inputR, cable) =>
+              instrument && instrumentDesign
+                ? instrumentChainOf(instrument, inputR, cable)
+                : recordingChainOf(design.preset, design.values, inputR, cable)
+            }
             instrument={instrument && instrumentDesign ? instrumentDesign.label : undefined}
           />
         </div>
@@ -257,14 +304,24 @@ export function HarnessScreen() {
 
       {pinned && ok && a && (
         <div className="mt-6">
-          <ComparisonPanel pinned={pinned} a={a} preset={design.preset} values={design.values} b={ok} knobs={knobs} onSwap={swap} onUnpin={() => setPinned(null)} />
+          <ComparisonPanel
+            pinned={pinned}
+            a={a}
+            preset={design.preset}
+            values={design.values}
+            b={ok}
+            knobs={knobs}
+            onSwap={swap}
+            onUnpin={() => setPinned(null)}
+          />
         </div>
       )}
 
       <div className="mt-6">
         <Panel id="harness-values" title={`Part values — ${preset.name}`}>
           <p className="mb-3 text-sm text-ink-soft">
-            Type values in engineering notation (22n, 4k7, 1meg). A value taken from a measured part names the part under its field; typing over it unlinks it.
+            Type values in engineering notation (22n, 4k7, 1meg). A value taken from a measured part names the part under its field; typing
+            over it unlinks it.
           </p>
           <ValuesEditor state={design} dispatch={dispatch} />
         </Panel>

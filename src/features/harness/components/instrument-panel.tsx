@@ -5,7 +5,15 @@
 import { useMutation } from '@tanstack/react-query';
 import { useEffect, useMemo, useRef, useState } from 'react';
 import type { BleedCandidate } from '@shared/circuit/bleed-finder';
-import { buildLayoutNetlist, getLayout, LAYOUTS, layoutKnobs, resolveLayoutConfig, type LayoutDef, type LayoutId } from '@shared/circuit/layouts';
+import {
+  buildLayoutNetlist,
+  getLayout,
+  LAYOUTS,
+  layoutKnobs,
+  resolveLayoutConfig,
+  type LayoutDef,
+  type LayoutId,
+} from '@shared/circuit/layouts';
 import { simulateInstrument, type InstrumentResult } from '@shared/circuit/metrics';
 import { compileHarness } from '@shared/circuit/solver';
 import { formatValue } from '@shared/units/format';
@@ -41,7 +49,15 @@ function solveInstrument(layout: LayoutDef, inst: Instrument, selector = inst.se
   }
 }
 
-function ValueField({ def, value, onChange }: { def: LayoutDef['values'][number]; value: number | undefined; onChange: (v: number | undefined) => void }) {
+function ValueField({
+  def,
+  value,
+  onChange,
+}: {
+  def: LayoutDef['values'][number];
+  value: number | undefined;
+  onChange: (v: number | undefined) => void;
+}) {
   const [text, setText] = useState(value === undefined ? '' : formatValue(value, def.unit));
   const [error, setError] = useState<string | null>(null);
   const id = `inst-${def.key}`;
@@ -102,7 +118,8 @@ export function InstrumentPanel({ onChange }: { onChange?: (inst: Instrument) =>
     setInst({ layout: id, selector: Math.min(inst.selector, next.selector.positions.length - 1), options: {}, knobs: {}, values: {} });
     finder.reset();
   };
-  const valueOf = (key: string) => (inst.values[key] ?? layout.values.find((v) => v.key === key)?.default ?? undefined) as number | undefined;
+  const valueOf = (key: string) =>
+    (inst.values[key] ?? layout.values.find((v) => v.key === key)?.default ?? undefined) as number | undefined;
   const setValue = (key: string, v: number | undefined) =>
     setInst((s) => {
       const values = { ...s.values };
@@ -115,8 +132,15 @@ export function InstrumentPanel({ onChange }: { onChange?: (inst: Instrument) =>
   const positionName = layout.selector.positions[inst.selector]!.name;
   const currentCurve: Curve | null = ok ? { label: `Now: ${positionName}`, db: ok.magnitudeDb } : null;
   const family: Curve[] = [
-    ...positions.filter(({ p, r }) => p.index !== inst.selector && !('error' in r)).map(({ p, r }) => ({ label: `Position ${p.name}`, db: (r as InstrumentResult).magnitudeDb })),
-    ...(ok && ok.perPickup.length > 1 ? ok.perPickup.map((pp) => ({ label: `${layout.pickups.find((x) => x.id === pp.pickupId)?.name ?? pp.pickupId} alone`, db: pp.magnitudeDb })) : []),
+    ...positions
+      .filter(({ p, r }) => p.index !== inst.selector && !('error' in r))
+      .map(({ p, r }) => ({ label: `Position ${p.name}`, db: (r as InstrumentResult).magnitudeDb })),
+    ...(ok && ok.perPickup.length > 1
+      ? ok.perPickup.map((pp) => ({
+          label: `${layout.pickups.find((x) => x.id === pp.pickupId)?.name ?? pp.pickupId} alone`,
+          db: pp.magnitudeDb,
+        }))
+      : []),
   ];
   const loadKeys = LOAD_KEYS[option('load') ?? 'amp'] ?? [];
   const defsByKey = new Map(layout.values.map((v) => [v.key, v]));
@@ -142,7 +166,12 @@ export function InstrumentPanel({ onChange }: { onChange?: (inst: Instrument) =>
             <label htmlFor="inst-layout" className="block text-sm font-medium">
               Layout
             </label>
-            <select id="inst-layout" className="mt-1 w-full rounded border border-paper-edge bg-paper-bright px-2 py-1.5 text-sm" value={inst.layout} onChange={(e) => setLayout(e.target.value as LayoutId)}>
+            <select
+              id="inst-layout"
+              className="mt-1 w-full rounded border border-paper-edge bg-paper-bright px-2 py-1.5 text-sm"
+              value={inst.layout}
+              onChange={(e) => setLayout(e.target.value as LayoutId)}
+            >
               {LAYOUTS.map((l) => (
                 <option key={l.id} value={l.id}>
                   {l.name}
@@ -155,10 +184,23 @@ export function InstrumentPanel({ onChange }: { onChange?: (inst: Instrument) =>
           {layout.selector.positions.length > 1 && (
             <fieldset>
               <legend className="text-sm font-medium">Selector (arrow keys move it)</legend>
-              <div role="radiogroup" aria-label="Selector position" className="mt-1 inline-flex flex-wrap rounded-md border border-paper-edge bg-paper-deep p-0.5">
+              <div
+                role="radiogroup"
+                aria-label="Selector position"
+                className="mt-1 inline-flex flex-wrap rounded-md border border-paper-edge bg-paper-deep p-0.5"
+              >
                 {layout.selector.positions.map((p) => (
-                  <label key={p.index} className={`cursor-pointer rounded px-2.5 py-1 text-sm has-[:focus-visible]:outline-2 has-[:focus-visible]:outline-accent ${inst.selector === p.index ? 'bg-paper-bright font-medium shadow-sm' : 'text-ink-soft'}`}>
-                    <input type="radio" name="inst-selector" className="sr-only" checked={inst.selector === p.index} onChange={() => setInst((s) => ({ ...s, selector: p.index }))} />
+                  <label
+                    key={p.index}
+                    className={`cursor-pointer rounded px-2.5 py-1 text-sm has-[:focus-visible]:outline-2 has-[:focus-visible]:outline-accent ${inst.selector === p.index ? 'bg-paper-bright font-medium shadow-sm' : 'text-ink-soft'}`}
+                  >
+                    <input
+                      type="radio"
+                      name="inst-selector"
+                      className="sr-only"
+                      checked={inst.selector === p.index}
+                      onChange={() => setInst((s) => ({ ...s, selector: p.index }))}
+                    />
                     {p.index}: {p.name}
                   </label>
                 ))}
@@ -224,7 +266,12 @@ export function InstrumentPanel({ onChange }: { onChange?: (inst: Instrument) =>
               {layout.values
                 .filter((v) => v.quantity !== 'law' && !loadKeys.includes(v.key))
                 .map((v) => (
-                  <ValueField key={`${v.key}-${inst.values[v.key] ?? ''}`} def={v} value={valueOf(v.key)} onChange={(x) => setValue(v.key, x)} />
+                  <ValueField
+                    key={`${v.key}-${inst.values[v.key] ?? ''}`}
+                    def={v}
+                    value={valueOf(v.key)}
+                    onChange={(x) => setValue(v.key, x)}
+                  />
                 ))}
             </div>
           </details>
@@ -234,7 +281,9 @@ export function InstrumentPanel({ onChange }: { onChange?: (inst: Instrument) =>
           {ok && currentCurve ? (
             <>
               {ok.signal === 'cancelled' ? (
-                <Alert tone="info">No signal (cancelled): the sources oppose and cancel exactly at this setting, so there is no curve and no figure to show.</Alert>
+                <Alert tone="info">
+                  No signal (cancelled): the sources oppose and cancel exactly at this setting, so there is no curve and no figure to show.
+                </Alert>
               ) : null}
               <ResponsePlot
                 frequencies={ok.frequencies}
@@ -250,7 +299,10 @@ export function InstrumentPanel({ onChange }: { onChange?: (inst: Instrument) =>
                   : `${positionName}: ${ok.note}.`}
               </p>
               <div className="flex flex-wrap gap-2">
-                <Button size="sm" onClick={() => setPinned({ label: `A: ${layout.name}, ${positionName}`, db: Float64Array.from(ok.magnitudeDb) })}>
+                <Button
+                  size="sm"
+                  onClick={() => setPinned({ label: `A: ${layout.name}, ${positionName}`, db: Float64Array.from(ok.magnitudeDb) })}
+                >
                   {pinned ? 'Pin this as the new A' : 'Pin as A to compare'}
                 </Button>
                 {pinned && (
@@ -269,19 +321,38 @@ export function InstrumentPanel({ onChange }: { onChange?: (inst: Instrument) =>
               Treble-bleed finder
             </h3>
             <p className="mt-1 text-xs text-ink-soft">
-              Tries E12 capacitors from 100 pF to 4.7 nF, alone and with E12 resistors from 47 kΩ to 1 MΩ in parallel or in series, on every volume of this instrument at this position and load. It ranks by how even the treble stays (3 kHz against 200 Hz) from volume 10 to 2, and by how little the level at 1 kHz strays from the bare pot.
+              Tries E12 capacitors from 100 pF to 4.7 nF, alone and with E12 resistors from 47 kΩ to 1 MΩ in parallel or in series, on every
+              volume of this instrument at this position and load. It ranks by how even the treble stays (3 kHz against 200 Hz) from volume
+              10 to 2, and by how little the level at 1 kHz strays from the bare pot.
             </p>
             <div className="mt-2 flex flex-wrap items-center gap-3">
               <label htmlFor="finder-weight" className="text-sm">
                 Weight on even treble
               </label>
-              <input id="finder-weight" type="range" min={0} max={1} step={0.05} value={weight} onChange={(e) => setWeight(Number(e.target.value))} />
+              <input
+                id="finder-weight"
+                type="range"
+                min={0}
+                max={1}
+                step={0.05}
+                value={weight}
+                onChange={(e) => setWeight(Number(e.target.value))}
+              />
               <span className="num text-sm">{weight.toFixed(2)}</span>
               <Button
                 size="sm"
                 busy={finder.isPending}
                 busyText="Searching…"
-                onClick={() => finder.mutate({ layout: inst.layout, selector: inst.selector, options: inst.options, values: inst.values, knobs: inst.knobs, weight })}
+                onClick={() =>
+                  finder.mutate({
+                    layout: inst.layout,
+                    selector: inst.selector,
+                    options: inst.options,
+                    values: inst.values,
+                    knobs: inst.knobs,
+                    weight,
+                  })
+                }
               >
                 Find a bleed
               </Button>
@@ -289,7 +360,9 @@ export function InstrumentPanel({ onChange }: { onChange?: (inst: Instrument) =>
             {finder.error && <Alert>{finder.error.message}</Alert>}
             {finder.data && (
               <table className="mt-3 w-full text-sm">
-                <caption className="text-left text-xs text-ink-soft">Best of {finder.data.evaluated} candidates (lower score is better)</caption>
+                <caption className="text-left text-xs text-ink-soft">
+                  Best of {finder.data.evaluated} candidates (lower score is better)
+                </caption>
                 <thead>
                   <tr className="text-left text-xs text-ink-soft">
                     <th>Bleed</th>
@@ -304,7 +377,9 @@ export function InstrumentPanel({ onChange }: { onChange?: (inst: Instrument) =>
                     <tr key={i} className="border-t border-paper-edge">
                       <td>
                         {formatValue(c.values.bleedC, 'F')}
-                        {c.values.bleedR !== undefined ? ` with ${formatValue(c.values.bleedR, 'Ω')} ${c.topology === 'cap-parallel-r' ? 'in parallel' : 'in series'}` : ' alone'}
+                        {c.values.bleedR !== undefined
+                          ? ` with ${formatValue(c.values.bleedR, 'Ω')} ${c.topology === 'cap-parallel-r' ? 'in parallel' : 'in series'}`
+                          : ' alone'}
                       </td>
                       <td className="num">{c.figures.trebleSpreadDb.toFixed(2)} dB</td>
                       <td className="num">{c.figures.taperDeviationDb.toFixed(2)} dB</td>
@@ -322,7 +397,9 @@ export function InstrumentPanel({ onChange }: { onChange?: (inst: Instrument) =>
           </section>
 
           <p className="text-xs text-ink-soft">
-            Simplifications: every pickup (and every coil) is an equal signal source of 1 V, in phase or at 180° when reversed, so a combined position shows what the wiring does to equal signals, not what a string gives at two places; there is no mutual inductance between the coils of a dual-coil pickup; switches are ideal contacts.
+            Simplifications: every pickup (and every coil) is an equal signal source of 1 V, in phase or at 180° when reversed, so a
+            combined position shows what the wiring does to equal signals, not what a string gives at two places; there is no mutual
+            inductance between the coils of a dual-coil pickup; switches are ideal contacts.
           </p>
         </div>
       </div>

@@ -14,7 +14,11 @@ export function listenDesignOf(label: string, preset: HarnessPresetId, values: H
   if (!p) return null;
   try {
     const response = harnessResponse(p.build(values), knobs);
-    return { key: `${preset}|${JSON.stringify(values)}|${knobs.volume}|${knobs.tone}`, label, pickups: [{ position: PICKUP_POSITIONS.middle, response }] };
+    return {
+      key: `${preset}|${JSON.stringify(values)}|${knobs.volume}|${knobs.tone}`,
+      label,
+      pickups: [{ position: PICKUP_POSITIONS.middle, response }],
+    };
   } catch {
     return null;
   }
@@ -44,7 +48,12 @@ export interface ListenInstrument {
 export function listenInstrumentOf(inst: ListenInstrument): ListenDesign | null {
   const layout = getLayout(inst.layout);
   if (!layout) return null;
-  const { config, problems } = resolveLayoutConfig(layout, { selector: inst.selector, options: inst.options, values: inst.values, knobs: inst.knobs });
+  const { config, problems } = resolveLayoutConfig(layout, {
+    selector: inst.selector,
+    options: inst.options,
+    values: inst.values,
+    knobs: inst.knobs,
+  });
   if (problems.length > 0) return null;
   try {
     const r = instrumentResponses(buildLayoutNetlist(layout, config), layoutKnobs(layout, inst.knobs));
@@ -53,7 +62,10 @@ export function listenInstrumentOf(inst: ListenInstrument): ListenDesign | null 
       key: `layout|${JSON.stringify(inst)}`,
       label: layout.selector.positions.length > 1 ? `${layout.name}, ${position}` : layout.name,
       // every pickup of the layout, those the selector leaves out silent: the phrase keeps one track per pickup place as the selector moves
-      pickups: layout.pickups.map((p) => ({ position: pickupPositionOf(p.id), response: r.pickups.find((q) => q.pickupId === p.id)?.response ?? silent })),
+      pickups: layout.pickups.map((p) => ({
+        position: pickupPositionOf(p.id),
+        response: r.pickups.find((q) => q.pickupId === p.id)?.response ?? silent,
+      })),
     };
   } catch {
     return null;
@@ -63,6 +75,10 @@ export function listenInstrumentOf(inst: ListenInstrument): ListenDesign | null 
 /** The recording chain of a whole instrument: its wiring at full volume and tone into the recorder's input (an amplifier-like load) through its cable. */
 export function instrumentChainOf(inst: ListenInstrument, inputR: number, cableLength: number): ResponseFunction {
   const layout = getLayout(inst.layout)!;
-  const { config } = resolveLayoutConfig(layout, { selector: inst.selector, options: { ...inst.options, load: 'amp' }, values: { ...inst.values, ampR: inputR, cableLength } });
+  const { config } = resolveLayoutConfig(layout, {
+    selector: inst.selector,
+    options: { ...inst.options, load: 'amp' },
+    values: { ...inst.values, ampR: inputR, cableLength },
+  });
   return harnessResponse(buildLayoutNetlist(layout, config), layoutKnobs(layout, {}));
 }

@@ -53,19 +53,22 @@ export function ListenPanel({ designs, chainFor, instrument }: ListenPanelProps)
     });
 
   const meterValue = state.meterDb === null ? -60 : Math.max(-60, Math.min(0, state.meterDb));
-  const meterText = useMemo(() => (state.meterDb === null ? 'silent' : `${state.meterDb.toFixed(1).replace('-', '−')} dBFS`), [state.meterDb]);
+  const meterText = useMemo(
+    () => (state.meterDb === null ? 'silent' : `${state.meterDb.toFixed(1).replace('-', '−')} dBFS`),
+    [state.meterDb],
+  );
 
   return (
     <Panel id="harness-listen" title="Listen">
       <p id={ids.caution} className="rounded border-l-4 border-marginal bg-marginal-tint px-3 py-2 text-sm text-ink">
-        <strong>Start quiet.</strong> Set your speakers or headphones low before pressing Play and raise them slowly; loud sound, above all through
-        headphones, harms hearing for good.
+        <strong>Start quiet.</strong> Set your speakers or headphones low before pressing Play and raise them slowly; loud sound, above all
+        through headphones, harms hearing for good.
       </p>
 
       {instrument && (
         <p className="mt-3 text-sm" data-testid="listen-instrument">
-          Playing the whole instrument: <strong>{instrument}</strong>, at its knobs. Simplified: every pickup is a unit source and pickups differ
-          only by their place along the string (and their own values); coils do not couple (no mutual inductance).
+          Playing the whole instrument: <strong>{instrument}</strong>, at its knobs. Simplified: every pickup is a unit source and pickups
+          differ only by their place along the string (and their own values); coils do not couple (no mutual inductance).
         </p>
       )}
 
@@ -73,11 +76,23 @@ export function ListenPanel({ designs, chainFor, instrument }: ListenPanelProps)
         <fieldset>
           <legend className="mb-1 text-sm font-medium">What to play</legend>
           <label className="flex items-center gap-2 text-sm">
-            <input type="radio" name="listen-source" value="phrase" checked={sourceKind === 'phrase'} onChange={() => setSourceKind('phrase')} />
+            <input
+              type="radio"
+              name="listen-source"
+              value="phrase"
+              checked={sourceKind === 'phrase'}
+              onChange={() => setSourceKind('phrase')}
+            />
             Built-in phrase (plucked strings, synthesised here)
           </label>
           <label className="mt-1 flex items-center gap-2 text-sm">
-            <input type="radio" name="listen-source" value="recording" checked={sourceKind === 'recording'} onChange={() => setSourceKind('recording')} />
+            <input
+              type="radio"
+              name="listen-source"
+              value="recording"
+              checked={sourceKind === 'recording'}
+              onChange={() => setSourceKind('recording')}
+            />
             My own direct-input recording
           </label>
           {sourceKind === 'recording' && (
@@ -85,17 +100,35 @@ export function ListenPanel({ designs, chainFor, instrument }: ListenPanelProps)
               <label htmlFor={ids.file}>Recording (any format this browser plays)</label>
               <input id={ids.file} type="file" accept="audio/*" onChange={(e) => setFile(e.currentTarget.files?.[0] ?? null)} />
               <p className="text-xs text-ink-soft">
-                The recording already carries the instrument&apos;s present wiring. It is filtered by this design divided by that wiring at full volume
-                and tone into your recorder (at most +12 dB of boost), so the pickup is not counted twice.
+                The recording already carries the instrument&apos;s present wiring. It is filtered by this design divided by that wiring at
+                full volume and tone into your recorder (at most +12 dB of boost), so the pickup is not counted twice.
               </p>
               <div className="flex flex-wrap gap-3">
                 <label htmlFor={ids.input} className="grid gap-0.5">
                   Recorder input (kΩ)
-                  <input id={ids.input} type="number" min={1} max={100000} step="any" value={inputKOhm} onChange={(e) => setInputKOhm(e.currentTarget.value)} className="w-28 rounded border border-paper-edge px-2 py-1" />
+                  <input
+                    id={ids.input}
+                    type="number"
+                    min={1}
+                    max={100000}
+                    step="any"
+                    value={inputKOhm}
+                    onChange={(e) => setInputKOhm(e.currentTarget.value)}
+                    className="w-28 rounded border border-paper-edge px-2 py-1"
+                  />
                 </label>
                 <label htmlFor={ids.cable} className="grid gap-0.5">
                   Cable to the recorder (m)
-                  <input id={ids.cable} type="number" min={0} max={100} step="any" value={cableM} onChange={(e) => setCableM(e.currentTarget.value)} className="w-28 rounded border border-paper-edge px-2 py-1" />
+                  <input
+                    id={ids.cable}
+                    type="number"
+                    min={0}
+                    max={100}
+                    step="any"
+                    value={cableM}
+                    onChange={(e) => setCableM(e.currentTarget.value)}
+                    className="w-28 rounded border border-paper-edge px-2 py-1"
+                  />
                 </label>
               </div>
               {!chainOk && <p className="text-xs text-fail">The recorder input goes from 1 kΩ to 100 MΩ and the cable from 0 to 100 m.</p>}
@@ -155,7 +188,9 @@ export function ListenPanel({ designs, chainFor, instrument }: ListenPanelProps)
               onChange={(e) => setLevelDb(Number(e.currentTarget.value))}
               className="block w-full accent-accent"
             />
-            <p className="text-xs text-ink-soft">A limiter (20:1 above −6 dBFS) keeps peaks down; it is no substitute for a low starting level.</p>
+            <p className="text-xs text-ink-soft">
+              A limiter (20:1 above −6 dBFS) keeps peaks down; it is no substitute for a low starting level.
+            </p>
           </div>
 
           <div className="flex items-center gap-2 text-sm">
@@ -176,9 +211,11 @@ export function ListenPanel({ designs, chainFor, instrument }: ListenPanelProps)
         </div>
       )}
       <p className="mt-3 text-xs text-ink-soft">
-        The phrase is plucked strings made by a plucked-string model (K. Karplus and A. Strong, 1983), heard by the pickup at its place along the string,
-        then filtered by the design at the current knobs; moving a knob changes the sound within 50 ms.
-        {instrument ? ' Each pickup hears the string at its own place and goes through its own transfer.' : ' One pickup, in the middle of the usual range.'}
+        The phrase is plucked strings made by a plucked-string model (K. Karplus and A. Strong, 1983), heard by the pickup at its place
+        along the string, then filtered by the design at the current knobs; moving a knob changes the sound within 50 ms.
+        {instrument
+          ? ' Each pickup hears the string at its own place and goes through its own transfer.'
+          : ' One pickup, in the middle of the usual range.'}
       </p>
     </Panel>
   );

@@ -6,14 +6,38 @@ import { TAPER_LAW_LABEL } from '@shared/taper/law';
 import { formatValue } from '@shared/units/format';
 import { Alert } from '@/components/ui/alert';
 import { formatDate } from '@/lib/format';
-import { MEASURED_LIMIT, useMeasuredPickups, useMeasuredPots, type MeasuredList, type MeasuredPickup, type MeasuredPot } from '../api/get-measured-parts';
+import {
+  MEASURED_LIMIT,
+  useMeasuredPickups,
+  useMeasuredPots,
+  type MeasuredList,
+  type MeasuredPickup,
+  type MeasuredPot,
+} from '../api/get-measured-parts';
 
 const SELECT =
   'block w-full rounded-md border border-paper-edge bg-paper-bright px-3 py-2 text-base sm:text-sm focus-visible:outline-2 focus-visible:outline-offset-1 focus-visible:outline-accent';
 
-function Status({ pending, error, count, looked, none }: { pending: boolean; error: Error | null; count: number; looked: number; none: string }) {
+function Status({
+  pending,
+  error,
+  count,
+  looked,
+  none,
+}: {
+  pending: boolean;
+  error: Error | null;
+  count: number;
+  looked: number;
+  none: string;
+}) {
   if (error) return <Alert>{error.message}</Alert>;
-  if (pending) return <p className="text-xs text-ink-soft" role="status">Looking for measured parts…</p>;
+  if (pending)
+    return (
+      <p className="text-xs text-ink-soft" role="status">
+        Looking for measured parts…
+      </p>
+    );
   if (count === 0) return <p className="text-xs text-ink-soft">{none}</p>;
   if (looked >= MEASURED_LIMIT) return <p className="text-xs text-ink-soft">Among the {MEASURED_LIMIT} newest parts of this kind.</p>;
   return null;

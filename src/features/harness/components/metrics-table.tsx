@@ -28,13 +28,25 @@ export function metricRows(a: HarnessAnalysis): MetricRow[] {
     { label: '−3 dB corner', hint: 'where the treble falls 3 dB below the level at 20 Hz', value: m.cornerHz, kind: 'hz', ...silent },
     { label: 'Level at 1 kHz', hint: 'loudness in the middle of the range', value: m.level1kDb, kind: 'db', ...silent },
     { label: 'Volume taper here', hint: 'level at 1 kHz against full volume, same tone', value: a.point.volumeTaperDb, kind: 'db' },
-    { label: 'Treble retention here', hint: '(3 kHz − 200 Hz) against the same at full volume', value: a.point.trebleRetentionDb, kind: 'db', ...silent },
+    {
+      label: 'Treble retention here',
+      hint: '(3 kHz − 200 Hz) against the same at full volume',
+      value: a.point.trebleRetentionDb,
+      kind: 'db',
+      ...silent,
+    },
   ];
   return rows;
 }
 
 export const formatMetric = (row: Pick<MetricRow, 'kind' | 'value' | 'text'>) =>
-  row.text !== undefined ? row.text : row.kind === 'hz' ? (row.value === null ? 'none in range' : formatHz(row.value)) : formatDb(row.value);
+  row.text !== undefined
+    ? row.text
+    : row.kind === 'hz'
+      ? row.value === null
+        ? 'none in range'
+        : formatHz(row.value)
+      : formatDb(row.value);
 
 export function MetricsTable({ analysis, caption }: { analysis: HarnessAnalysis; caption: string }) {
   const rows = metricRows(analysis);

@@ -11,7 +11,9 @@ export interface Curve {
 }
 
 /** Family curves get the series colours after the first, lighter than the bold current curve. */
-export const FAMILY_COLOURS = [SERIES_COLOURS[2], SERIES_COLOURS[3], SERIES_COLOURS[5], SERIES_COLOURS[6], SERIES_COLOURS[7]].map((c) => `${c}99`);
+export const FAMILY_COLOURS = [SERIES_COLOURS[2], SERIES_COLOURS[3], SERIES_COLOURS[5], SERIES_COLOURS[6], SERIES_COLOURS[7]].map(
+  (c) => `${c}99`,
+);
 
 /** The engine's axis, 20 Hz – 20 kHz; without a fixed range a log scale widens to whole decades. */
 export const FREQUENCY_RANGE: uPlot.Range.MinMax = [20, 20000];

@@ -42,10 +42,16 @@ export function SweepPlot({
     () => ({
       height,
       scales: { x: { time: false, range: [0, 10] as uPlot.Range.MinMax }, y: { range } },
-      axes: [axis('Volume knob (0–10)', { values: (_u: uPlot, splits: number[]) => splits.map((v) => (Number.isInteger(v) ? String(v) : '')) }), axis(yLabel)],
+      axes: [
+        axis('Volume knob (0–10)', { values: (_u: uPlot, splits: number[]) => splits.map((v) => (Number.isInteger(v) ? String(v) : '')) }),
+        axis(yLabel),
+      ],
       cursor: { drag: { x: false, y: false } },
       legend: { live: false },
-      series: [{ label: 'Volume knob' }, ...series.map((s) => ({ label: s.label, stroke: s.colour, width: s.width ?? 2, ...(s.dash ? { dash: s.dash } : {}) }))],
+      series: [
+        { label: 'Volume knob' },
+        ...series.map((s) => ({ label: s.label, stroke: s.colour, width: s.width ?? 2, ...(s.dash ? { dash: s.dash } : {}) })),
+      ],
       hooks: {
         draw: [
           (u: uPlot) => {

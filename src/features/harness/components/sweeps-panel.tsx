@@ -18,7 +18,10 @@ function interactionWords(x: number): string {
 
 export function SweepsPanel({ analysis, volumeLaw, knobs }: { analysis: HarnessAnalysis; volumeLaw: TaperLaw; knobs: Knobs }) {
   // The pot's law on its own: 20·log10(y(x)), what the taper would be with no load and no pickup.
-  const bare = useMemo(() => Float64Array.from(TAPER_VOLUMES, (v) => 20 * Math.log10(Math.max(lawValue(volumeLaw, v / 10), 1e-9))), [volumeLaw]);
+  const bare = useMemo(
+    () => Float64Array.from(TAPER_VOLUMES, (v) => 20 * Math.log10(Math.max(lawValue(volumeLaw, v / 10), 1e-9))),
+    [volumeLaw],
+  );
   const taperSeries = useMemo<SweepSeries[]>(
     () => [
       { label: 'Pot law alone (no load)', values: bare, colour: SERIES_COLOURS[7]!, width: 1.5, dash: [3, 4] },
@@ -26,7 +29,10 @@ export function SweepsPanel({ analysis, volumeLaw, knobs }: { analysis: HarnessA
     ],
     [bare, analysis.taper],
   );
-  const trebleSeries = useMemo<SweepSeries[]>(() => [{ label: 'This design', values: analysis.taper.trebleRetentionDb, colour: SERIES_COLOURS[0]!, width: 2.5 }], [analysis.taper]);
+  const trebleSeries = useMemo<SweepSeries[]>(
+    () => [{ label: 'This design', values: analysis.taper.trebleRetentionDb, colour: SERIES_COLOURS[0]!, width: 2.5 }],
+    [analysis.taper],
+  );
   return (
     <Panel
       id="harness-sweeps"
@@ -38,10 +44,12 @@ export function SweepsPanel({ analysis, volumeLaw, knobs }: { analysis: HarnessA
     >
       <div className="mb-4 flex flex-wrap items-baseline gap-x-4 gap-y-1 rounded-md bg-paper-deep px-3 py-2">
         <p className="text-sm">
-          <span className="font-medium">Interaction index</span> <span className="num ml-1 text-lg font-semibold">{formatIndex(analysis.interactionIndexDb)}</span>
+          <span className="font-medium">Interaction index</span>{' '}
+          <span className="num ml-1 text-lg font-semibold">{formatIndex(analysis.interactionIndexDb)}</span>
         </p>
         <p className="text-sm text-ink-soft">
-          How far the volume taper at 1 kHz moves as the tone knob turns (RMS over the 11 × 11 dial grid); 0 means the knobs act independently — here {interactionWords(analysis.interactionIndexDb)}.
+          How far the volume taper at 1 kHz moves as the tone knob turns (RMS over the 11 × 11 dial grid); 0 means the knobs act
+          independently — here {interactionWords(analysis.interactionIndexDb)}.
         </p>
       </div>
       <div className="grid gap-6 md:grid-cols-2">
@@ -52,16 +60,31 @@ export function SweepsPanel({ analysis, volumeLaw, knobs }: { analysis: HarnessA
               Level at 1 kHz against full volume. Here: <span className="num text-ink">{formatDb(analysis.point.volumeTaperDb)}</span>
             </span>
           </figcaption>
-          <SweepPlot volumes={TAPER_VOLUMES} series={taperSeries} yLabel="Level re full volume (dB)" range={taperRange} marker={knobs.volume} label="Volume taper: level at 1 kHz relative to full volume, in dB, against the volume knob from 0 to 10" />
+          <SweepPlot
+            volumes={TAPER_VOLUMES}
+            series={taperSeries}
+            yLabel="Level re full volume (dB)"
+            range={taperRange}
+            marker={knobs.volume}
+            label="Volume taper: level at 1 kHz relative to full volume, in dB, against the volume knob from 0 to 10"
+          />
         </figure>
         <figure className="min-w-0">
           <figcaption className="mb-1">
             <span className="block text-sm font-medium">Treble retention</span>
             <span className="block text-xs text-ink-soft">
-              3 kHz against 200 Hz, relative to full volume; below 0 the sound darkens. Here: <span className="num text-ink">{formatDb(analysis.point.trebleRetentionDb)}</span>
+              3 kHz against 200 Hz, relative to full volume; below 0 the sound darkens. Here:{' '}
+              <span className="num text-ink">{formatDb(analysis.point.trebleRetentionDb)}</span>
             </span>
           </figcaption>
-          <SweepPlot volumes={TAPER_VOLUMES} series={trebleSeries} yLabel="Treble re full volume (dB)" range={trebleRange} marker={knobs.volume} label="Treble retention in dB against the volume knob from 0 to 10" />
+          <SweepPlot
+            volumes={TAPER_VOLUMES}
+            series={trebleSeries}
+            yLabel="Treble re full volume (dB)"
+            range={trebleRange}
+            marker={knobs.volume}
+            label="Treble retention in dB against the volume knob from 0 to 10"
+          />
         </figure>
       </div>
     </Panel>

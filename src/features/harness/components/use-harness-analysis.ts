@@ -43,20 +43,32 @@ export function compileDesign(preset: HarnessPresetId, values: HarnessValues): {
 /** The family of curves at the current knobs: other volume positions at this tone, or the reverse. */
 export function familyGrid(compiled: CompiledHarness, knobs: Knobs, mode: FamilyMode): KnobGrid | null {
   if (mode === 'none') return null;
-  return sweepKnobs(compiled, mode === 'volume' ? { volume: FAMILY_POSITIONS, tone: [knobs.tone] } : { volume: [knobs.volume], tone: FAMILY_POSITIONS });
+  return sweepKnobs(
+    compiled,
+    mode === 'volume' ? { volume: FAMILY_POSITIONS, tone: [knobs.tone] } : { volume: [knobs.volume], tone: FAMILY_POSITIONS },
+  );
 }
 
 /**
  * The analysis of one design at the knobs. Memoised in three layers: the compiled netlist (values),
  * the sweeps that depend on the tone only, and the curve at the exact knobs.
  */
-export function useHarnessAnalysis(design: { preset: HarnessPresetId; values: HarnessValues } | null, knobs: Knobs): HarnessAnalysis | { error: string } | null {
+export function useHarnessAnalysis(
+  design: { preset: HarnessPresetId; values: HarnessValues } | null,
+  knobs: Knobs,
+): HarnessAnalysis | { error: string } | null {
   const preset = design?.preset;
   const values = design?.values;
   const compiledOr = useMemo(() => (preset && values ? compileDesign(preset, values) : null), [preset, values]);
   const compiled = compiledOr && 'compiled' in compiledOr ? compiledOr.compiled : null;
-  const interactionIndexDb = useMemo(() => (compiled ? sweepKnobs(compiled, { volume: DIAL, tone: DIAL }, ONE_K).interactionIndexDb : NaN), [compiled]);
-  const taper = useMemo(() => (compiled ? sweepKnobs(compiled, { volume: TAPER_VOLUMES, tone: [knobs.tone] }, ONE_K) : null), [compiled, knobs.tone]);
+  const interactionIndexDb = useMemo(
+    () => (compiled ? sweepKnobs(compiled, { volume: DIAL, tone: DIAL }, ONE_K).interactionIndexDb : NaN),
+    [compiled],
+  );
+  const taper = useMemo(
+    () => (compiled ? sweepKnobs(compiled, { volume: TAPER_VOLUMES, tone: [knobs.tone] }, ONE_K) : null),
+    [compiled, knobs.tone],
+  );
   const current = useMemo(() => (compiled ? simulate(compiled, knobs) : null), [compiled, knobs]);
   const point = useMemo(() => {
     if (!compiled) return null;
@@ -64,6 +76,7 @@ export function useHarnessAnalysis(design: { preset: HarnessPresetId; values: Ha
     return { volumeTaperDb: g.volumeTaperDb[0]!, trebleRetentionDb: g.trebleRetentionDb[0]! };
   }, [compiled, knobs]);
   if (compiledOr === null) return null;
-  if (!compiled || !taper || !current || !point) return { error: 'error' in compiledOr ? compiledOr.error : 'The wiring cannot be solved.' };
+  if (!compiled || !taper || !current || !point)
+    return { error: 'error' in compiledOr ? compiledOr.error : 'The wiring cannot be solved.' };
   return { compiled, current, point, taper, interactionIndexDb };
 }

@@ -26,7 +26,8 @@ export interface ListenDesign {
 export type Slot = 'A' | 'B';
 
 /** The source: the phrase's tracks (one per pickup) or a recording (one track, filtered by the ratio to its recording chain). */
-export type ListenSource = { kind: 'phrase'; tracks: Float32Array[]; positions: number[] } | { kind: 'recording'; track: Float32Array; chain: ResponseFunction };
+export type ListenSource =
+  { kind: 'phrase'; tracks: Float32Array[]; positions: number[] } | { kind: 'recording'; track: Float32Array; chain: ResponseFunction };
 
 /** The track each filter of a design listens to: the phrase track of the pickup's place (−1: no such track), or the recording's one track. */
 export function designChannels(design: ListenDesign, source: ListenSource): number[] {
@@ -72,7 +73,14 @@ export function designBuffers(ctx: BaseAudioContext, design: ListenDesign, sourc
 }
 
 /** Builds one filter set after the splitter (one convolver per track) into `out`, starting silent. */
-export function buildFilterSet(ctx: BaseAudioContext, splitter: AudioNode, buffers: AudioBuffer[], out: AudioNode, gain0: number, channels?: readonly number[]): FilterSet {
+export function buildFilterSet(
+  ctx: BaseAudioContext,
+  splitter: AudioNode,
+  buffers: AudioBuffer[],
+  out: AudioNode,
+  gain0: number,
+  channels?: readonly number[],
+): FilterSet {
   const gain = new GainNode(ctx, { gain: gain0 });
   const convolvers = buffers.map((buffer, k) => {
     // disableNormalization first: the response's level is the point
@@ -148,10 +156,22 @@ export function useListenAudio(designs: Record<Slot, ListenDesign | null>) {
         const slotGain = { A: new GainNode(ctx, { gain: active === 'A' ? 1 : 0 }), B: new GainNode(ctx, { gain: active === 'B' ? 1 : 0 }) };
         slotGain.A.connect(master);
         slotGain.B.connect(master);
-        const g: Graph = { ctx, source, splitter, slotGain, sets: { A: null, B: null }, master, limiter, analyser, tracks: tracks.length, source0 };
+        const g: Graph = {
+          ctx,
+          source,
+          splitter,
+          slotGain,
+          sets: { A: null, B: null },
+          master,
+          limiter,
+          analyser,
+          tracks: tracks.length,
+          source0,
+        };
         for (const slot of ['A', 'B'] as const) {
           const d = designsRef.current[slot];
-          if (d) g.sets[slot] = buildFilterSet(ctx, splitter, designBuffers(ctx, d, source0), slotGain[slot], 1, designChannels(d, source0));
+          if (d)
+            g.sets[slot] = buildFilterSet(ctx, splitter, designBuffers(ctx, d, source0), slotGain[slot], 1, designChannels(d, source0));
         }
         graph.current = g;
         applied.current = { A: designsRef.current.A?.key, B: designsRef.current.B?.key };
@@ -190,7 +210,9 @@ export function useListenAudio(designs: Record<Slot, ListenDesign | null>) {
       }
       const old = g.sets[slot];
       const t0 = g.ctx.currentTime + SETTLE_S;
-      const next = d ? buildFilterSet(g.ctx, g.splitter, designBuffers(g.ctx, d, g.source0), g.slotGain[slot], 0, designChannels(d, g.source0)) : null;
+      const next = d
+        ? buildFilterSet(g.ctx, g.splitter, designBuffers(g.ctx, d, g.source0), g.slotGain[slot], 0, designChannels(d, g.source0))
+        : null;
       if (next) {
         next.gain.gain.setValueAtTime(0, t0);
         next.gain.gain.linearRampToValueAtTime(1, t0 + FADE_S);

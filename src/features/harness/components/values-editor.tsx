@@ -10,7 +10,16 @@ import { Button } from '@/components/ui/button';
 import { paths } from '@/config/paths';
 import { formatDate } from '@/lib/format';
 import { usePartLabel } from '../api/get-measured-parts';
-import { describeValue, fieldsFor, parseField, type DesignAction, type DesignState, type LawKey, type NumericKey, type PartRef } from './design-state';
+import {
+  describeValue,
+  fieldsFor,
+  parseField,
+  type DesignAction,
+  type DesignState,
+  type LawKey,
+  type NumericKey,
+  type PartRef,
+} from './design-state';
 import { MeasuredPickupPicker, MeasuredPotPicker } from './measured-pickers';
 
 const EXAMPLES: Record<string, string> = {
@@ -123,7 +132,15 @@ function Group({ title, children, aside }: { title: string; children: ReactNode;
 }
 
 /** "Values from PU-012 (coil fit, 3 Jun 2026) · Type your own" for a group fed by a measured part. */
-function LinkedNote({ partRef, keys, dispatch }: { partRef: PartRef | undefined; keys: (keyof HarnessValues)[]; dispatch: Dispatch<DesignAction> }) {
+function LinkedNote({
+  partRef,
+  keys,
+  dispatch,
+}: {
+  partRef: PartRef | undefined;
+  keys: (keyof HarnessValues)[];
+  dispatch: Dispatch<DesignAction>;
+}) {
   if (!partRef) return null;
   return (
     <p className="flex flex-wrap items-center gap-x-2 gap-y-1 rounded bg-accent-tint px-2 py-1.5 text-xs text-accent-strong">
@@ -143,7 +160,9 @@ const PICKUP_KEYS: (keyof HarnessValues)[] = ['pickupR', 'pickupL', 'pickupC', '
 function pickupChoice(state: DesignState): string {
   if (state.refs.pickupL || state.refs.pickupR) return 'measured';
   const v = state.values;
-  const typical = PICKUP_PRESETS.find((p) => p.values.pickupR === v.pickupR && p.values.pickupL === v.pickupL && p.values.pickupC === v.pickupC && v.pickupRp === undefined);
+  const typical = PICKUP_PRESETS.find(
+    (p) => p.values.pickupR === v.pickupR && p.values.pickupL === v.pickupL && p.values.pickupC === v.pickupC && v.pickupRp === undefined,
+  );
   return typical?.id ?? 'typed';
 }
 
@@ -192,13 +211,32 @@ function PickupGroup({ state, dispatch, fields }: { state: DesignState; dispatch
   );
 }
 
-function PotGroup({ which, state, dispatch, fields }: { which: 'volume' | 'tone'; state: DesignState; dispatch: Dispatch<DesignAction>; fields: HarnessValueField[] }) {
+function PotGroup({
+  which,
+  state,
+  dispatch,
+  fields,
+}: {
+  which: 'volume' | 'tone';
+  state: DesignState;
+  dispatch: Dispatch<DesignAction>;
+  fields: HarnessValueField[];
+}) {
   const [open, setOpen] = useState(false);
   const rKey = which === 'volume' ? 'volumeR' : 'toneR';
   const lawKey = which === 'volume' ? 'volumeLaw' : 'toneLaw';
   return (
-    <Group title={which === 'volume' ? 'Volume pot' : 'Tone pot'} aside={<LinkedNote partRef={state.refs[rKey] ?? state.refs[lawKey]} keys={[rKey, lawKey]} dispatch={dispatch} />}>
-      {fields.map((f) => (f.quantity === 'law' ? <LawField key={f.key} field={f} state={state} dispatch={dispatch} /> : <ValueField key={f.key} field={f} state={state} dispatch={dispatch} />))}
+    <Group
+      title={which === 'volume' ? 'Volume pot' : 'Tone pot'}
+      aside={<LinkedNote partRef={state.refs[rKey] ?? state.refs[lawKey]} keys={[rKey, lawKey]} dispatch={dispatch} />}
+    >
+      {fields.map((f) =>
+        f.quantity === 'law' ? (
+          <LawField key={f.key} field={f} state={state} dispatch={dispatch} />
+        ) : (
+          <ValueField key={f.key} field={f} state={state} dispatch={dispatch} />
+        ),
+      )}
       {open ? (
         <MeasuredPotPicker
           which={which}

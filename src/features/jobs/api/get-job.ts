@@ -4,7 +4,8 @@ import type { JobDetail, JobReport } from './types';
 
 export const getJob = (id: number, signal?: AbortSignal) => api.get<JobDetail>(`/api/jobs/${id}`, { signal });
 
-export const jobQueryOptions = (id: number) => queryOptions({ queryKey: ['jobs', 'detail', id], queryFn: ({ signal }) => getJob(id, signal) });
+export const jobQueryOptions = (id: number) =>
+  queryOptions({ queryKey: ['jobs', 'detail', id], queryFn: ({ signal }) => getJob(id, signal) });
 
 export const useJob = (id: number) => useQuery(jobQueryOptions(id));
 

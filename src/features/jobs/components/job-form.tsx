@@ -11,7 +11,13 @@ import { applyServerError } from '@/lib/form';
 import { useHarnesses } from '../api/get-harnesses';
 import { useCreateJob } from '../api/save-job';
 
-const JobFormFields = z.object({ customer: z.string(), customerEmail: z.string(), instrument: z.string(), harnessId: z.string(), notes: z.string() });
+const JobFormFields = z.object({
+  customer: z.string(),
+  customerEmail: z.string(),
+  instrument: z.string(),
+  harnessId: z.string(),
+  notes: z.string(),
+});
 type JobFormValues = z.input<typeof JobFormFields>;
 const FIELDS = ['customer', 'customerEmail', 'instrument', 'harnessId', 'notes'] as const;
 
@@ -25,7 +31,8 @@ const JobFormSchema = JobFormFields.transform((v, ctx): CreateJobInput => {
     notes: v.notes.trim() === '' ? null : v.notes,
   });
   if (!r.success) {
-    for (const issue of r.error.issues) ctx.addIssue({ code: 'custom', path: [String(issue.path[0] ?? 'customer')], message: issue.message });
+    for (const issue of r.error.issues)
+      ctx.addIssue({ code: 'custom', path: [String(issue.path[0] ?? 'customer')], message: issue.message });
     return z.NEVER;
   }
   return r.data;
@@ -57,9 +64,27 @@ export function CreateJobForm({ onClose }: { onClose: () => void }) {
       {errors.root?.server && <Alert>{errors.root.server.message}</Alert>}
       <div className="grid gap-4 sm:grid-cols-2">
         <TextField label="Customer" autoComplete="off" error={errors.customer?.message} {...form.register('customer')} />
-        <TextField label="Customer e-mail" type="email" autoComplete="off" hint="Where the report goes; optional" error={errors.customerEmail?.message} {...form.register('customerEmail')} />
-        <TextField label="Instrument" autoComplete="off" hint="e.g. solid-body, two humbuckers, 3-way switch" error={errors.instrument?.message} {...form.register('instrument')} />
-        <SelectField label="Harness design" hint={harnesses.isError ? harnesses.error.message : 'Designs from the Harness screen'} error={errors.harnessId?.message} {...form.register('harnessId')}>
+        <TextField
+          label="Customer e-mail"
+          type="email"
+          autoComplete="off"
+          hint="Where the report goes; optional"
+          error={errors.customerEmail?.message}
+          {...form.register('customerEmail')}
+        />
+        <TextField
+          label="Instrument"
+          autoComplete="off"
+          hint="e.g. solid-body, two humbuckers, 3-way switch"
+          error={errors.instrument?.message}
+          {...form.register('instrument')}
+        />
+        <SelectField
+          label="Harness design"
+          hint={harnesses.isError ? harnesses.error.message : 'Designs from the Harness screen'}
+          error={errors.harnessId?.message}
+          {...form.register('harnessId')}
+        >
           <option value="">None yet</option>
           {harnesses.data?.harnesses.map((h) => (
             <option key={h.id} value={h.id}>

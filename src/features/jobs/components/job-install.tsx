@@ -51,10 +51,19 @@ export function InstallPartForm({ jobId }: { jobId: number }) {
       try {
         target = await queryClient.fetchQuery(partByLabelQueryOptions(typed));
       } catch (err) {
-        next.label = isApiError(err) && err.status === 404 ? `No part is labelled “${typed}”.` : err instanceof Error ? err.message : 'The part could not be found.';
+        next.label =
+          isApiError(err) && err.status === 404
+            ? `No part is labelled “${typed}”.`
+            : err instanceof Error
+              ? err.message
+              : 'The part could not be found.';
       }
     }
-    const checked = InstallPartInputSchema.safeParse({ partId: target?.id ?? 1, position, overrideReason: refusal && refusal.partId === target?.id ? overrideReason : undefined });
+    const checked = InstallPartInputSchema.safeParse({
+      partId: target?.id ?? 1,
+      position,
+      overrideReason: refusal && refusal.partId === target?.id ? overrideReason : undefined,
+    });
     if (!checked.success) {
       for (const key of ['position', 'overrideReason'] as const) next[key] = checked.error.issues.find((i) => i.path[0] === key)?.message;
     }
@@ -62,7 +71,9 @@ export function InstallPartForm({ jobId }: { jobId: number }) {
     if (next.label || next.position || next.overrideReason || !target) return;
     try {
       await install.mutateAsync({ id: jobId, input: checked.data! });
-      setDone(`${target.label} installed at “${position.trim()}”${checked.data!.overrideReason ? ' with your override reason recorded' : ''}.`);
+      setDone(
+        `${target.label} installed at “${position.trim()}”${checked.data!.overrideReason ? ' with your override reason recorded' : ''}.`,
+      );
       setLabel('');
       setPosition('');
       setRefusal(null);
@@ -113,8 +124,23 @@ export function InstallPartForm({ jobId }: { jobId: number }) {
             )
           }
         />
-        <TextField label="Position" autoComplete="off" placeholder="volume, neck" hint="Where it goes, in the shop’s words" value={position} onChange={(e) => setPosition(e.target.value)} error={errors.position} />
-        <Button type="submit" variant="primary" className="sm:mt-6" busy={install.isPending} busyText="Installing…" disabled={Boolean(blocked)}>
+        <TextField
+          label="Position"
+          autoComplete="off"
+          placeholder="volume, neck"
+          hint="Where it goes, in the shop’s words"
+          value={position}
+          onChange={(e) => setPosition(e.target.value)}
+          error={errors.position}
+        />
+        <Button
+          type="submit"
+          variant="primary"
+          className="sm:mt-6"
+          busy={install.isPending}
+          busyText="Installing…"
+          disabled={Boolean(blocked)}
+        >
           Install
         </Button>
       </div>
@@ -141,13 +167,25 @@ export function InstallPartForm({ jobId }: { jobId: number }) {
             <Button type="submit" size="sm" variant="danger" busy={install.isPending} busyText="Installing…">
               Install anyway
             </Button>
-            <Button type="button" size="sm" variant="secondary" onClick={() => { setRefusal(null); setOverrideReason(''); }}>
+            <Button
+              type="button"
+              size="sm"
+              variant="secondary"
+              onClick={() => {
+                setRefusal(null);
+                setOverrideReason('');
+              }}
+            >
               Cancel
             </Button>
           </div>
         </div>
       )}
-      {blocked && part && <p className="text-sm text-marginal">{part.label} is {part.status}; {part.status === 'installed' ? 'remove it from its job first.' : 'it cannot be installed.'}</p>}
+      {blocked && part && (
+        <p className="text-sm text-marginal">
+          {part.label} is {part.status}; {part.status === 'installed' ? 'remove it from its job first.' : 'it cannot be installed.'}
+        </p>
+      )}
     </form>
   );
 }

@@ -31,7 +31,10 @@ function SendReportForm({ job }: { job: JobDetail }) {
   const send = useSendJobReport();
   const isAdmin = useCan('admin');
   const [sentTo, setSentTo] = useState<string | null>(null);
-  const form = useForm<z.input<typeof ReportFormFields>, unknown, z.output<typeof ReportFormSchema>>({ resolver: zodResolver(ReportFormSchema), defaultValues: { to: '', message: '' } });
+  const form = useForm<z.input<typeof ReportFormFields>, unknown, z.output<typeof ReportFormSchema>>({
+    resolver: zodResolver(ReportFormSchema),
+    defaultValues: { to: '', message: '' },
+  });
   const { errors } = form.formState;
   const onSubmit = form.handleSubmit(async (input) => {
     setSentTo(null);
@@ -72,7 +75,13 @@ function SendReportForm({ job }: { job: JobDetail }) {
         error={errors.to?.message}
         {...form.register('to')}
       />
-      <TextAreaField label="A note from the shop (optional)" rows={2} hint="Goes above the parts list" error={errors.message?.message} {...form.register('message')} />
+      <TextAreaField
+        label="A note from the shop (optional)"
+        rows={2}
+        hint="Goes above the parts list"
+        error={errors.message?.message}
+        {...form.register('message')}
+      />
       <Button type="submit" variant="primary" busy={send.isPending} busyText="Sending…">
         E-mail the report
       </Button>
@@ -92,9 +101,15 @@ export function JobReportPanel({ job, canWrite }: { job: JobDetail; canWrite: bo
           <Alert>{report.error.message}</Alert>
         ) : (
           <>
-            <pre className="num max-h-96 overflow-auto rounded-md border border-paper-edge bg-paper p-3 text-xs leading-relaxed whitespace-pre-wrap">{report.data.text}</pre>
+            <pre className="num max-h-96 overflow-auto rounded-md border border-paper-edge bg-paper p-3 text-xs leading-relaxed whitespace-pre-wrap">
+              {report.data.text}
+            </pre>
             {report.data.csv && (
-              <Button size="sm" className="mt-2" onClick={() => downloadText(report.data.csv!, `${job.code}-predicted-curves.csv`, 'text/csv')}>
+              <Button
+                size="sm"
+                className="mt-2"
+                onClick={() => downloadText(report.data.csv!, `${job.code}-predicted-curves.csv`, 'text/csv')}
+              >
                 Download the curves (CSV)
               </Button>
             )}

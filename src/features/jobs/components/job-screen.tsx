@@ -26,7 +26,12 @@ function JobControls({ job }: { job: JobDetail }) {
     <div className="flex flex-wrap items-end gap-4">
       <label className="min-w-0 max-w-full text-sm">
         <span className="mb-1 block font-medium">Status</span>
-        <select className={sel} value={job.status} disabled={update.isPending} onChange={(e) => update.mutate({ id: job.id, input: { status: e.target.value as JobDetail['status'] } })}>
+        <select
+          className={sel}
+          value={job.status}
+          disabled={update.isPending}
+          onChange={(e) => update.mutate({ id: job.id, input: { status: e.target.value as JobDetail['status'] } })}
+        >
           {JOB_STATUSES.map((s) => (
             <option key={s} value={s}>
               {JOB_STATUS_LOOK[s].label}
@@ -36,9 +41,16 @@ function JobControls({ job }: { job: JobDetail }) {
       </label>
       <label className="min-w-0 max-w-full text-sm">
         <span className="mb-1 block font-medium">Harness design</span>
-        <select className={sel} value={job.harnessId ?? ''} disabled={update.isPending || harnesses.isPending} onChange={(e) => update.mutate({ id: job.id, input: { harnessId: e.target.value === '' ? null : Number(e.target.value) } })}>
+        <select
+          className={sel}
+          value={job.harnessId ?? ''}
+          disabled={update.isPending || harnesses.isPending}
+          onChange={(e) => update.mutate({ id: job.id, input: { harnessId: e.target.value === '' ? null : Number(e.target.value) } })}
+        >
           <option value="">None</option>
-          {job.harnessId && !harnesses.data?.harnesses.some((h) => h.id === job.harnessId) && <option value={job.harnessId}>{job.harnessName ?? `Design ${job.harnessId}`}</option>}
+          {job.harnessId && !harnesses.data?.harnesses.some((h) => h.id === job.harnessId) && (
+            <option value={job.harnessId}>{job.harnessName ?? `Design ${job.harnessId}`}</option>
+          )}
           {harnesses.data?.harnesses.map((h) => (
             <option key={h.id} value={h.id}>
               {h.name}
@@ -63,12 +75,24 @@ function InstalledParts({ job, canWrite }: { job: JobDetail; canWrite: boolean }
         <caption className="sr-only">Parts installed in {job.code}</caption>
         <thead className="bg-paper-deep text-left text-ink-soft">
           <tr>
-            <th scope="col" className={th}>Position</th>
-            <th scope="col" className={th}>Part</th>
-            <th scope="col" className={th}>Kind</th>
-            <th scope="col" className={`${th} text-right`}>Nominal</th>
-            <th scope="col" className={th}>Status</th>
-            <th scope="col" className={th}>Installed</th>
+            <th scope="col" className={th}>
+              Position
+            </th>
+            <th scope="col" className={th}>
+              Part
+            </th>
+            <th scope="col" className={th}>
+              Kind
+            </th>
+            <th scope="col" className={`${th} text-right`}>
+              Nominal
+            </th>
+            <th scope="col" className={th}>
+              Status
+            </th>
+            <th scope="col" className={th}>
+              Installed
+            </th>
             {canWrite && (
               <th scope="col" className={th}>
                 <span className="sr-only">Action</span>
@@ -79,19 +103,30 @@ function InstalledParts({ job, canWrite }: { job: JobDetail; canWrite: boolean }
         <tbody>
           {job.parts.map((p) => (
             <tr key={p.partId} className="border-b border-paper-edge/70 last:border-b-0">
-              <td data-label="Position" className="px-3 py-2 font-medium">{p.position}</td>
+              <td data-label="Position" className="px-3 py-2 font-medium">
+                {p.position}
+              </td>
               <td data-label="Part" className="px-3 py-2">
-                <Link to={paths.app.part.getHref(p.partId)} className="num whitespace-nowrap text-accent underline-offset-2 hover:underline">
+                <Link
+                  to={paths.app.part.getHref(p.partId)}
+                  className="num whitespace-nowrap text-accent underline-offset-2 hover:underline"
+                >
                   {p.label}
                 </Link>
               </td>
-              <td data-label="Kind" className="px-3 py-2">{KIND_WORD[p.kind] ?? p.kind}</td>
-              <td data-label="Nominal" className="num px-3 py-2 text-right whitespace-nowrap">{formatNominal(p.kind, p.nominal)}</td>
+              <td data-label="Kind" className="px-3 py-2">
+                {KIND_WORD[p.kind] ?? p.kind}
+              </td>
+              <td data-label="Nominal" className="num px-3 py-2 text-right whitespace-nowrap">
+                {formatNominal(p.kind, p.nominal)}
+              </td>
               <td data-label="Status" className="px-3 py-2">
                 <StatusBadge status={p.status} />
                 {p.overrideReason && <p className="mt-1 text-xs text-marginal">Installed over its status: {p.overrideReason}</p>}
               </td>
-              <td data-label="Installed" className="px-3 py-2 whitespace-nowrap">{formatDateTime(p.installedAt)}</td>
+              <td data-label="Installed" className="px-3 py-2 whitespace-nowrap">
+                {formatDateTime(p.installedAt)}
+              </td>
               {canWrite && (
                 <td className="px-3 py-1 text-right">
                   <Button
@@ -100,7 +135,8 @@ function InstalledParts({ job, canWrite }: { job: JobDetail; canWrite: boolean }
                     disabled={remove.isPending}
                     aria-label={`Remove ${p.label} from ${job.code}`}
                     onClick={() => {
-                      if (window.confirm(`Remove ${p.label} (${p.position}) from ${job.code}? It goes back to the bench as incoming.`)) remove.mutate({ id: job.id, partId: p.partId });
+                      if (window.confirm(`Remove ${p.label} (${p.position}) from ${job.code}? It goes back to the bench as incoming.`))
+                        remove.mutate({ id: job.id, partId: p.partId });
                     }}
                   >
                     Remove

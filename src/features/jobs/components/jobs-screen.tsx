@@ -48,12 +48,24 @@ export function JobsScreen() {
             <caption className="sr-only">Jobs, newest first</caption>
             <thead className="bg-paper-deep text-left text-ink-soft">
               <tr>
-                <th scope="col" className={th}>Job</th>
-                <th scope="col" className={th}>Customer</th>
-                <th scope="col" className={th}>Instrument</th>
-                <th scope="col" className={th}>Status</th>
-                <th scope="col" className={`${th} text-right`}>Parts</th>
-                <th scope="col" className={th}>Opened</th>
+                <th scope="col" className={th}>
+                  Job
+                </th>
+                <th scope="col" className={th}>
+                  Customer
+                </th>
+                <th scope="col" className={th}>
+                  Instrument
+                </th>
+                <th scope="col" className={th}>
+                  Status
+                </th>
+                <th scope="col" className={`${th} text-right`}>
+                  Parts
+                </th>
+                <th scope="col" className={th}>
+                  Opened
+                </th>
               </tr>
             </thead>
             <tbody>
@@ -64,13 +76,21 @@ export function JobsScreen() {
                       {j.code}
                     </Link>
                   </td>
-                  <td data-label="Customer" className="px-3 py-2">{j.customer}</td>
-                  <td data-label="Instrument" className="px-3 py-2">{j.instrument}</td>
+                  <td data-label="Customer" className="px-3 py-2">
+                    {j.customer}
+                  </td>
+                  <td data-label="Instrument" className="px-3 py-2">
+                    {j.instrument}
+                  </td>
                   <td data-label="Status" className="px-3 py-2">
                     <JobStatusBadge status={j.status} />
                   </td>
-                  <td data-label="Parts" className="num px-3 py-2 text-right">{j.partCount}</td>
-                  <td data-label="Opened" className="px-3 py-2 whitespace-nowrap">{formatDate(j.createdAt)}</td>
+                  <td data-label="Parts" className="num px-3 py-2 text-right">
+                    {j.partCount}
+                  </td>
+                  <td data-label="Opened" className="px-3 py-2 whitespace-nowrap">
+                    {formatDate(j.createdAt)}
+                  </td>
                 </tr>
               ))}
             </tbody>

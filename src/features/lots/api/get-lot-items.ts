@@ -12,4 +12,5 @@ export const lotItemsQueryOptions = (id: number, match: MatchOptions) =>
     queryFn: ({ signal }) => getLotItems(id, match, signal),
   });
 
-export const useLotItems = (id: number, match: MatchOptions) => useQuery({ ...lotItemsQueryOptions(id, match), placeholderData: keepPreviousData });
+export const useLotItems = (id: number, match: MatchOptions) =>
+  useQuery({ ...lotItemsQueryOptions(id, match), placeholderData: keepPreviousData });

@@ -18,5 +18,6 @@ export const membersQueryOptions = () =>
 
 export const useMembers = (enabled: boolean) => useQuery({ ...membersQueryOptions(), enabled });
 
-export const setWatchers = ({ id, userIds }: { id: number; userIds: string[] }) => api.put<{ watchers: LotWatcher[] }>(`/api/lots/${id}/watchers`, { userIds });
+export const setWatchers = ({ id, userIds }: { id: number; userIds: string[] }) =>
+  api.put<{ watchers: LotWatcher[] }>(`/api/lots/${id}/watchers`, { userIds });
 export const useSetWatchers = () => useMutation({ mutationFn: setWatchers, meta: { invalidates: [['lots']] } });

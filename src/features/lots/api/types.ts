@@ -41,7 +41,11 @@ export type LotListRow = Lot & { count: number };
 export type LotBin = Omit<DeviationBin, 'fromPct' | 'toPct' | 'indices'> & { fromPct: number | null; toPct: number | null };
 
 /** The server lists the first 200 matched sets and counts them all in `matchedSetCount`. */
-export type LotStats = Omit<LotStatistics, 'deviationsPct' | 'bins' | 'matchedSets'> & { bins: LotBin[]; matchedSets: MatchedSet[]; matchedSetCount: number };
+export type LotStats = Omit<LotStatistics, 'deviationsPct' | 'bins' | 'matchedSets'> & {
+  bins: LotBin[];
+  matchedSets: MatchedSet[];
+  matchedSetCount: number;
+};
 
 export interface LotWatcher {
   id: string;
@@ -63,7 +67,12 @@ export interface LotHistoryEvent {
   parts?: number;
 }
 
-export type LotDetail = LotListRow & { watchers: LotWatcher[]; history: LotHistoryEvent[]; stats: LotStats | null; disposedByName: string | null };
+export type LotDetail = LotListRow & {
+  watchers: LotWatcher[];
+  history: LotHistoryEvent[];
+  stats: LotStats | null;
+  disposedByName: string | null;
+};
 
 /** Every item of a lot as columns (GET /api/lots/:id/items); -1 in bin/set means none. */
 export interface LotItems {

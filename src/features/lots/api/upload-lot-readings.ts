@@ -25,7 +25,8 @@ export interface UploadResult {
 }
 
 /** Total server time of an upload, when the server reports it. */
-export const uploadMs = (r: UploadResult): number | null => (r.timings ? Math.round(r.timings.parseMs + r.timings.storeMs + r.timings.statsMs) : null);
+export const uploadMs = (r: UploadResult): number | null =>
+  r.timings ? Math.round(r.timings.parseMs + r.timings.storeMs + r.timings.statsMs) : null;
 
 export interface UploadInput {
   id: number;

@@ -45,7 +45,10 @@ function DispositionForm({ lot, onNotified }: { lot: LotDetail; onNotified: (n: 
         <legend className="mb-1 text-sm font-medium">Decision</legend>
         <div className="grid gap-2 sm:grid-cols-3">
           {DISPOSITIONS.map((d) => (
-            <label key={d} className="flex cursor-pointer gap-2 rounded-md border border-paper-edge bg-paper-bright p-2.5 text-sm has-[:checked]:border-accent has-[:checked]:bg-accent-tint">
+            <label
+              key={d}
+              className="flex cursor-pointer gap-2 rounded-md border border-paper-edge bg-paper-bright p-2.5 text-sm has-[:checked]:border-accent has-[:checked]:bg-accent-tint"
+            >
               <input type="radio" value={d} className="mt-0.5 size-4 accent-accent" disabled={noReadings} {...form.register('status')} />
               <span>
                 <LotStatusBadge status={d} />
@@ -60,7 +63,14 @@ function DispositionForm({ lot, onNotified }: { lot: LotDetail; onNotified: (n: 
           </p>
         )}
       </fieldset>
-      <TextAreaField label="Reason" hint="Required. Sent to the watchers and kept with the lot." rows={2} disabled={noReadings} error={errors.reason?.message} {...form.register('reason')} />
+      <TextAreaField
+        label="Reason"
+        hint="Required. Sent to the watchers and kept with the lot."
+        rows={2}
+        disabled={noReadings}
+        error={errors.reason?.message}
+        {...form.register('reason')}
+      />
       <Button type="submit" variant="primary" busy={dispose.isPending} busyText="Recording…" disabled={noReadings}>
         Record the disposition
       </Button>
@@ -71,7 +81,10 @@ function DispositionForm({ lot, onNotified }: { lot: LotDetail; onNotified: (n: 
 function ReopenForm({ lot }: { lot: LotDetail }) {
   const reopen = useReopenLot();
   const [open, setOpen] = useState(false);
-  const form = useForm<z.input<typeof ReopenInputSchema>, unknown, z.output<typeof ReopenInputSchema>>({ resolver: zodResolver(ReopenInputSchema), defaultValues: { reason: '' } });
+  const form = useForm<z.input<typeof ReopenInputSchema>, unknown, z.output<typeof ReopenInputSchema>>({
+    resolver: zodResolver(ReopenInputSchema),
+    defaultValues: { reason: '' },
+  });
   const { errors } = form.formState;
   if (!open)
     return (
@@ -107,7 +120,11 @@ export function LotDisposition({ lot }: { lot: LotDetail }) {
   // The form goes away once the lot is decided; the number of e-mails sent stays in view here.
   const [notified, setNotified] = useState<number | null>(null);
   if (lot.status === 'open') {
-    return canDecide ? <DispositionForm lot={lot} onNotified={setNotified} /> : <p className="text-sm text-ink-soft">Open: no disposition yet. A QA lead records it.</p>;
+    return canDecide ? (
+      <DispositionForm lot={lot} onNotified={setNotified} />
+    ) : (
+      <p className="text-sm text-ink-soft">Open: no disposition yet. A QA lead records it.</p>
+    );
   }
   // The lot answer gives the member's id; the name is known when it is a watcher or oneself.
   const who = lot.disposedBy === user?.id ? `${user.name} (you)` : (lot.disposedByName ?? 'a member who has left');
@@ -120,11 +137,16 @@ export function LotDisposition({ lot }: { lot: LotDetail }) {
       {notified !== null && (
         <div className="mt-3">
           <Alert tone="success">
-            Recorded. {notified === 0 ? 'The lot has no watchers, so no e-mail was sent.' : `${notified} watcher${notified === 1 ? '' : 's'} notified by e-mail.`}
+            Recorded.{' '}
+            {notified === 0
+              ? 'The lot has no watchers, so no e-mail was sent.'
+              : `${notified} watcher${notified === 1 ? '' : 's'} notified by e-mail.`}
           </Alert>
         </div>
       )}
-      <p className="mt-2 text-xs text-ink-soft">{LOT_STATUS_LOOK[lot.status].label} is final: no new readings until an admin reopens the lot.</p>
+      <p className="mt-2 text-xs text-ink-soft">
+        {LOT_STATUS_LOOK[lot.status].label} is final: no new readings until an admin reopens the lot.
+      </p>
       {isAdmin && (
         <div className="mt-3">
           <ReopenForm lot={lot} />

@@ -24,7 +24,21 @@ export const LotFormFields = z.object({
   notes: z.string(),
 });
 export type LotFormValues = z.input<typeof LotFormFields>;
-export const LOT_FORM_FIELDS = ['code', 'kind', 'nominal', 'tolerancePct', 'supplier', 'receivedOn', 'expectedCount', 'secondQuantity', 'secondLimit', 'instrumentId', 'testFrequency', 'watcherIds', 'notes'] as const;
+export const LOT_FORM_FIELDS = [
+  'code',
+  'kind',
+  'nominal',
+  'tolerancePct',
+  'supplier',
+  'receivedOn',
+  'expectedCount',
+  'secondQuantity',
+  'secondLimit',
+  'instrumentId',
+  'testFrequency',
+  'watcherIds',
+  'notes',
+] as const;
 
 export const LOT_KIND_LABEL: Record<LotKind, string> = { capacitor: 'Capacitors', pot: 'Pots', resistor: 'Resistors' };
 export const LOT_UNIT: Record<LotKind, string> = { capacitor: 'F', pot: 'Ω', resistor: 'Ω' };
@@ -69,8 +83,19 @@ export function readNominal(kind: LotKind, text: string): NominalReading {
       // An ambiguous code (10K: 10 pF ±10 % or 10 kΩ) is read the way that fits this lot's kind.
       const d = all.readings.find((r) => r.kind === wantKind) ?? all;
       decoded = true;
-      if (d.kind !== wantKind) return { ok: false, error: `"${t}" is a ${d.kind} marking (${formatValue(d.nominal, d.unit)}), but this is a lot of ${LOT_KIND_LABEL[kind].toLowerCase()}.` };
-      return { ok: true, empty: false, nominal: d.nominal, tolerancePct: d.tolerancePct, marking: t, text: formatValue(d.nominal, d.unit) + (d.tolerancePct != null ? ` ±${d.tolerancePct} %` : '') };
+      if (d.kind !== wantKind)
+        return {
+          ok: false,
+          error: `"${t}" is a ${d.kind} marking (${formatValue(d.nominal, d.unit)}), but this is a lot of ${LOT_KIND_LABEL[kind].toLowerCase()}.`,
+        };
+      return {
+        ok: true,
+        empty: false,
+        nominal: d.nominal,
+        tolerancePct: d.tolerancePct,
+        marking: t,
+        text: formatValue(d.nominal, d.unit) + (d.tolerancePct != null ? ` ±${d.tolerancePct} %` : ''),
+      };
     } catch (err) {
       return { ok: false, error: err instanceof Error ? err.message : String(err) };
     }
@@ -79,7 +104,14 @@ export function readNominal(kind: LotKind, text: string): NominalReading {
   const parsed = tryParseValue(t, quantity);
   if (parsed.ok) {
     if (!(parsed.value > 0)) return { ok: false, error: 'The nominal must be above zero.' };
-    return { ok: true, empty: false, nominal: parsed.value, tolerancePct: null, marking: null, text: formatValue(parsed.value, LOT_UNIT[kind]) };
+    return {
+      ok: true,
+      empty: false,
+      nominal: parsed.value,
+      tolerancePct: null,
+      marking: null,
+      text: formatValue(parsed.value, LOT_UNIT[kind]),
+    };
   }
   const marking = asMarking();
   if (marking && (marking.ok || decoded)) return marking;
@@ -119,10 +151,15 @@ export const CreateLotFormSchema = LotFormFields.transform((v, ctx): CreateLotIn
   };
   const nominal = readNominal(v.kind, v.nominal);
   if (!nominal.ok) fail('nominal', nominal.error);
-  else if (nominal.empty) fail('nominal', `Give the nominal value (${v.kind === 'capacitor' ? '47n' : '500k'}) or a marking code such as ${v.kind === 'capacitor' ? '473J' : '4K7'}.`);
+  else if (nominal.empty)
+    fail(
+      'nominal',
+      `Give the nominal value (${v.kind === 'capacitor' ? '47n' : '500k'}) or a marking code such as ${v.kind === 'capacitor' ? '473J' : '4K7'}.`,
+    );
   const tol = readPercent(v.tolerancePct);
   if (!tol.ok) fail('tolerancePct', tol.error);
-  else if (tol.value === null && !(nominal.ok && !nominal.empty && nominal.tolerancePct != null)) fail('tolerancePct', 'Give the tolerance, or a marking with a tolerance letter (473J).');
+  else if (tol.value === null && !(nominal.ok && !nominal.empty && nominal.tolerancePct != null))
+    fail('tolerancePct', 'Give the tolerance, or a marking with a tolerance letter (473J).');
   const second = (SECOND_CHOICES[v.kind].find((c) => c.value === v.secondQuantity)?.value ?? null) as SecondQuantity | null;
   const limit = second ? readSecondLimit(second, v.secondLimit) : ({ ok: true, value: null } as const);
   if (!limit.ok) fail('secondLimit', limit.error);

@@ -12,7 +12,15 @@ import { ROLE_LABEL } from '@/lib/format';
 import { useCreateLot } from '../api/create-lot';
 import { useMembers } from '../api/get-members';
 import { useInstruments } from '@/components/readings/api';
-import { CreateLotFormSchema, LOT_FORM_FIELDS, LOT_KIND_LABEL, SECOND_CHOICES, emptyLotForm, readNominal, type LotFormValues } from './lot-form-schema';
+import {
+  CreateLotFormSchema,
+  LOT_FORM_FIELDS,
+  LOT_KIND_LABEL,
+  SECOND_CHOICES,
+  emptyLotForm,
+  readNominal,
+  type LotFormValues,
+} from './lot-form-schema';
 
 const NOMINAL_HINT = {
   capacitor: 'Value (47n, 0.047u) or the marking as printed (473J, 104K, 2n2J)',
@@ -38,16 +46,26 @@ function WatcherChoice({ value, onChange, error }: { value: string[]; onChange: 
         ) : (
           <div className="flex flex-wrap gap-x-5 gap-y-2">
             {members.data.members.map((m) => (
-                <label key={m.id} className="inline-flex min-h-8 items-center gap-2 text-sm">
-                  <input type="checkbox" className="size-4 accent-accent" checked={value.includes(m.id)} onChange={(e) => toggle(m.id, e.target.checked)} />
-                  {m.name} <span className="text-xs text-ink-soft">({ROLE_LABEL[m.role]})</span>
-                </label>
+              <label key={m.id} className="inline-flex min-h-8 items-center gap-2 text-sm">
+                <input
+                  type="checkbox"
+                  className="size-4 accent-accent"
+                  checked={value.includes(m.id)}
+                  onChange={(e) => toggle(m.id, e.target.checked)}
+                />
+                {m.name} <span className="text-xs text-ink-soft">({ROLE_LABEL[m.role]})</span>
+              </label>
             ))}
           </div>
         )
       ) : user ? (
         <label className="inline-flex min-h-8 items-center gap-2 text-sm">
-          <input type="checkbox" className="size-4 accent-accent" checked={value.includes(user.id)} onChange={(e) => toggle(user.id, e.target.checked)} />
+          <input
+            type="checkbox"
+            className="size-4 accent-accent"
+            checked={value.includes(user.id)}
+            onChange={(e) => toggle(user.id, e.target.checked)}
+          />
           Watch this lot myself ({user.email})
         </label>
       ) : null}
@@ -142,10 +160,24 @@ export function CreateLotForm({ onClose }: { onClose: () => void }) {
           error={errors.tolerancePct?.message}
           {...form.register('tolerancePct')}
         />
-        <TextField label="Lot code" autoComplete="off" hint="Optional; made from the date if blank" error={errors.code?.message} {...form.register('code')} />
+        <TextField
+          label="Lot code"
+          autoComplete="off"
+          hint="Optional; made from the date if blank"
+          error={errors.code?.message}
+          {...form.register('code')}
+        />
         <TextField label="Supplier" autoComplete="off" error={errors.supplier?.message} {...form.register('supplier')} />
         <TextField label="Received on" type="date" error={errors.receivedOn?.message} {...form.register('receivedOn')} />
-        <TextField label="Expected count" inputMode="numeric" autoComplete="off" inputClassName="num" placeholder="500" error={errors.expectedCount?.message} {...form.register('expectedCount')} />
+        <TextField
+          label="Expected count"
+          inputMode="numeric"
+          autoComplete="off"
+          inputClassName="num"
+          placeholder="500"
+          error={errors.expectedCount?.message}
+          {...form.register('expectedCount')}
+        />
         {secondChoices.length > 0 ? (
           <div className="grid grid-cols-2 gap-4 sm:col-span-2">
             <SelectField label="Second quantity" error={errors.secondQuantity?.message} {...form.register('secondQuantity')}>
@@ -169,8 +201,17 @@ export function CreateLotForm({ onClose }: { onClose: () => void }) {
         ) : (
           <div className="sm:col-span-2" />
         )}
-        <WatcherChoice value={watcherIds} onChange={(ids) => form.setValue('watcherIds', ids, { shouldDirty: true })} error={errors.watcherIds?.message} />
-        <SelectField label="Instrument" hint="The meter the lot is measured with; its readings carry it when items become parts." error={errors.instrumentId?.message} {...form.register('instrumentId')}>
+        <WatcherChoice
+          value={watcherIds}
+          onChange={(ids) => form.setValue('watcherIds', ids, { shouldDirty: true })}
+          error={errors.watcherIds?.message}
+        />
+        <SelectField
+          label="Instrument"
+          hint="The meter the lot is measured with; its readings carry it when items become parts."
+          error={errors.instrumentId?.message}
+          {...form.register('instrumentId')}
+        >
           <option value="">Not recorded</option>
           {instruments.data?.instruments.map((i) => (
             <option key={i.id} value={i.id}>
@@ -178,8 +219,22 @@ export function CreateLotForm({ onClose }: { onClose: () => void }) {
             </option>
           ))}
         </SelectField>
-        <TextField label="Test frequency" placeholder="1k" hint="The LCR meter's test frequency in Hz (100, 1k …); blank if not recorded." autoComplete="off" inputClassName="num" error={errors.testFrequency?.message} {...form.register('testFrequency')} />
-        <TextAreaField label="Notes" className="sm:col-span-2 lg:col-span-4" rows={2} error={errors.notes?.message} {...form.register('notes')} />
+        <TextField
+          label="Test frequency"
+          placeholder="1k"
+          hint="The LCR meter's test frequency in Hz (100, 1k …); blank if not recorded."
+          autoComplete="off"
+          inputClassName="num"
+          error={errors.testFrequency?.message}
+          {...form.register('testFrequency')}
+        />
+        <TextAreaField
+          label="Notes"
+          className="sm:col-span-2 lg:col-span-4"
+          rows={2}
+          error={errors.notes?.message}
+          {...form.register('notes')}
+        />
       </div>
       <div className="flex flex-wrap gap-2">
         <Button type="submit" variant="primary" busy={create.isPending} busyText="Saving…">

@@ -13,7 +13,8 @@ export function displayScale(nominal: number, unit: string): { factor: number; u
 }
 
 /** A lot value with four significant digits: spreads of a few tenths of a percent stay visible. */
-export const fmtLotValue = (v: number | null | undefined, unit: string, digits = 4) => (v == null || !Number.isFinite(v) ? '—' : formatValue(v, unit, { digits }));
+export const fmtLotValue = (v: number | null | undefined, unit: string, digits = 4) =>
+  v == null || !Number.isFinite(v) ? '—' : formatValue(v, unit, { digits });
 
 /** Signed percent with a proper minus: +1.25 %, −0.40 %. */
 export function fmtPct(v: number | null | undefined, decimals = 2): string {
@@ -23,4 +24,5 @@ export function fmtPct(v: number | null | undefined, decimals = 2): string {
 }
 
 /** D is a fraction shown as such (0.0012); ESR and end resistance in Ω. */
-export const fmtSecond = (v: number | null | undefined, unit: string) => (v == null ? '—' : unit === '' ? formatValue(v, '', { digits: 3 }) : formatValue(v, unit, { digits: 3 }));
+export const fmtSecond = (v: number | null | undefined, unit: string) =>
+  v == null ? '—' : unit === '' ? formatValue(v, '', { digits: 3 }) : formatValue(v, unit, { digits: 3 });

@@ -47,11 +47,11 @@ export function LotHistogram({ stats, nominal, unit, quantity, code, conditions 
       height: 300,
       legend: { show: false },
       cursor: { drag: { x: false, y: false }, points: { show: false } },
-      scales: { x: { time: false, range: [lo - pad, hi + pad] as [number, number] }, y: { range: (_u: uPlot, _min: number, max: number) => [0, Math.max(1, max * 1.12)] as [number, number] } },
-      axes: [
-        axis(`${QUANTITY_NAME[quantity] ?? 'Value'} (${scale.unit})`),
-        axis('Parts (count)', { size: 56 }),
-      ],
+      scales: {
+        x: { time: false, range: [lo - pad, hi + pad] as [number, number] },
+        y: { range: (_u: uPlot, _min: number, max: number) => [0, Math.max(1, max * 1.12)] as [number, number] },
+      },
+      axes: [axis(`${QUANTITY_NAME[quantity] ?? 'Value'} (${scale.unit})`), axis('Parts (count)', { size: 56 })],
       series: [{}, { label: 'Parts', stroke: BAR, fill: `${BAR}bb`, width: 1, paths: bars, points: { show: false } }],
       hooks: {
         // The limits and the nominal over the bars, each with its name at the top.
@@ -99,18 +99,34 @@ export function LotHistogram({ stats, nominal, unit, quantity, code, conditions 
       <div className="mt-2 flex flex-wrap items-center justify-between gap-2 text-xs text-ink-soft">
         <p>
           <span className="inline-block h-0.5 w-4 align-middle" style={{ background: NOMINAL }} /> nominal ·{' '}
-          <span className="inline-block w-4 border-t-2 border-dashed align-middle" style={{ borderColor: LIMIT }} /> tolerance limits · bin width{' '}
-          <span className="num">{(stats.histogram.binWidth * scale.factor).toPrecision(3)} {scale.unit}</span> (Freedman–Diaconis)
+          <span className="inline-block w-4 border-t-2 border-dashed align-middle" style={{ borderColor: LIMIT }} /> tolerance limits · bin
+          width{' '}
+          <span className="num">
+            {(stats.histogram.binWidth * scale.factor).toPrecision(3)} {scale.unit}
+          </span>{' '}
+          (Freedman–Diaconis)
         </p>
-        <Button size="sm" onClick={() => plotRef.current && downloadPng(plotRef.current, `${code}-histogram`, {
+        <Button
+          size="sm"
+          onClick={() =>
+            plotRef.current &&
+            downloadPng(plotRef.current, `${code}-histogram`, {
               title: `Lot ${code}: histogram of ${QUANTITY_NAME[quantity]?.toLowerCase() ?? 'values'}`,
-              conditions: [...conditions, { key: 'bins', value: `${counts.length}, width ${(stats.histogram.binWidth * scale.factor).toPrecision(3)} ${scale.unit} (Freedman–Diaconis)` }],
+              conditions: [
+                ...conditions,
+                {
+                  key: 'bins',
+                  value: `${counts.length}, width ${(stats.histogram.binWidth * scale.factor).toPrecision(3)} ${scale.unit} (Freedman–Diaconis)`,
+                },
+              ],
               legend: [
                 { label: 'Parts per bin', colour: BAR },
                 { label: 'Nominal', colour: NOMINAL },
                 { label: 'Tolerance limits', colour: LIMIT },
               ],
-            })}>
+            })
+          }
+        >
           Save PNG
         </Button>
       </div>

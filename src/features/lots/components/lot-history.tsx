@@ -26,7 +26,10 @@ export function LotHistory({ history }: { history: LotHistoryEvent[] }) {
     <ol className="relative space-y-3 border-l border-paper-edge pl-4" aria-label="Lot history, oldest first">
       {history.map((e, i) => (
         <li key={i} className="relative">
-          <span className={`absolute top-1.5 -left-[1.3rem] size-2.5 rounded-full ${e.kind === 'reopen' ? 'bg-marginal' : e.kind === 'disposition' ? 'bg-accent' : 'bg-ink-faint'}`} aria-hidden />
+          <span
+            className={`absolute top-1.5 -left-[1.3rem] size-2.5 rounded-full ${e.kind === 'reopen' ? 'bg-marginal' : e.kind === 'disposition' ? 'bg-accent' : 'bg-ink-faint'}`}
+            aria-hidden
+          />
           <p className="text-sm font-medium break-words">{describe(e)}</p>
           <p className="text-xs text-ink-soft">
             {formatDateTime(e.at)}

@@ -6,7 +6,15 @@ import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';
 import type { LotItems } from '../api/types';
 
-export function LotItemScan({ items, selected, onSelectedChange }: { items: LotItems; selected: Set<number>; onSelectedChange: (ids: Set<number>) => void }) {
+export function LotItemScan({
+  items,
+  selected,
+  onSelectedChange,
+}: {
+  items: LotItems;
+  selected: Set<number>;
+  onSelectedChange: (ids: Set<number>) => void;
+}) {
   const field = useRef<HTMLInputElement>(null);
   const [note, setNote] = useState<{ ok: boolean; text: string } | null>(null);
   const submit = (e: FormEvent) => {
@@ -32,7 +40,15 @@ export function LotItemScan({ items, selected, onSelectedChange }: { items: LotI
         spellCheck={false}
         inputClassName="num"
         placeholder="A-0007"
-        hint={note ? <span className={note.ok ? 'text-pass' : 'text-fail'} aria-live="polite">{note.text}</span> : 'Type or scan, then Enter: the item joins the selection to promote.'}
+        hint={
+          note ? (
+            <span className={note.ok ? 'text-pass' : 'text-fail'} aria-live="polite">
+              {note.text}
+            </span>
+          ) : (
+            'Type or scan, then Enter: the item joins the selection to promote.'
+          )
+        }
       />
       <Button type="submit" size="sm" variant="secondary" className="mb-6">
         Select

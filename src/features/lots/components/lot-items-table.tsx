@@ -94,20 +94,31 @@ export function LotItemsTable({ items, stats, nominal, unit, secondQuantity, fil
             }),
           ]
         : []),
-      col.accessor((i) => i, { id: 'item', header: 'Item', enableSorting: true, cell: (c) => {
+      col.accessor((i) => i, {
+        id: 'item',
+        header: 'Item',
+        enableSorting: true,
+        cell: (c) => {
           const i = c.row.original;
           const partId = items.partIds?.[i];
           return (
             <span className="flex flex-nowrap items-center gap-1.5">
               {items.items[i]}
               {partId != null && (
-                <Link to={paths.app.part.getHref(partId)} className="rounded-full border border-accent/40 px-1.5 text-xs whitespace-nowrap text-accent hover:underline" title="Promoted to a part: open it" aria-label={`Item ${items.items[i]} was promoted: open its part`}>
+                <Link
+                  to={paths.app.part.getHref(partId)}
+                  className="rounded-full border border-accent/40 px-1.5 text-xs whitespace-nowrap text-accent hover:underline"
+                  title="Promoted to a part: open it"
+                  aria-label={`Item ${items.items[i]} was promoted: open its part`}
+                >
                   part
                 </Link>
               )}
             </span>
           );
-        }, meta: { width: '9rem' } }),
+        },
+        meta: { width: '9rem' },
+      }),
       col.accessor((i) => i, {
         id: 'value',
         header: `Value (${scale.unit})`,
@@ -115,7 +126,13 @@ export function LotItemsTable({ items, stats, nominal, unit, secondQuantity, fil
         cell: (c) => Number((items.values[c.row.original]! * scale.factor).toPrecision(digits + 1)).toString(),
         meta: { numeric: true, width: '7.5rem' },
       }),
-      col.accessor((i) => i, { id: 'deviation', header: 'Deviation', enableSorting: true, cell: (c) => fmtPct(items.deviationsPct[c.row.original], 2), meta: { numeric: true, width: '7rem', wideOnly: true } }),
+      col.accessor((i) => i, {
+        id: 'deviation',
+        header: 'Deviation',
+        enableSorting: true,
+        cell: (c) => fmtPct(items.deviationsPct[c.row.original], 2),
+        meta: { numeric: true, width: '7rem', wideOnly: true },
+      }),
       ...(hasSecond && secondQuantity
         ? [
             col.accessor((i) => i, {
@@ -127,7 +144,13 @@ export function LotItemsTable({ items, stats, nominal, unit, secondQuantity, fil
             }),
           ]
         : []),
-      col.accessor((i) => i, { id: 'bin', header: 'Bin', enableSorting: true, cell: (c) => stats.bins[items.bin[c.row.original]!]?.label ?? '—', meta: { numeric: true, width: '9rem', wideOnly: true } }),
+      col.accessor((i) => i, {
+        id: 'bin',
+        header: 'Bin',
+        enableSorting: true,
+        cell: (c) => stats.bins[items.bin[c.row.original]!]?.label ?? '—',
+        meta: { numeric: true, width: '9rem', wideOnly: true },
+      }),
       col.accessor((i) => i, {
         id: 'set',
         header: 'Set',
@@ -149,10 +172,15 @@ export function LotItemsTable({ items, stats, nominal, unit, secondQuantity, fil
           const out = v < stats.lower || v > stats.upper;
           return (
             <span className="flex flex-nowrap gap-1">
-              {out ? <Badge tone="fail" icon="cross" label={v < stats.lower ? 'Below limit' : 'Above limit'} /> : <Badge tone="pass" icon="check" label="In tolerance" />}
+              {out ? (
+                <Badge tone="fail" icon="cross" label={v < stats.lower ? 'Below limit' : 'Above limit'} />
+              ) : (
+                <Badge tone="pass" icon="check" label="In tolerance" />
+              )}
               {items.outlier[i] ? <Badge tone="marginal" icon="edge" label="Outlier" /> : null}
-              {items.secondFail[i] && secondQuantity ? <Badge tone="fail" icon="flag" label={`${SECOND_LABEL[secondQuantity]} high`} /> : null}
-
+              {items.secondFail[i] && secondQuantity ? (
+                <Badge tone="fail" icon="flag" label={`${SECOND_LABEL[secondQuantity]} high`} />
+              ) : null}
             </span>
           );
         },
@@ -203,7 +231,8 @@ export function LotItemsTable({ items, stats, nominal, unit, secondQuantity, fil
     <div>
       <div className="mb-2 flex flex-wrap items-center gap-x-4 gap-y-1 text-sm text-ink-soft" aria-live="polite">
         <span>
-          <span className="num text-ink">{rows.length.toLocaleString()}</span> of <span className="num">{items.values.length.toLocaleString()}</span> items shown
+          <span className="num text-ink">{rows.length.toLocaleString()}</span> of{' '}
+          <span className="num">{items.values.length.toLocaleString()}</span> items shown
         </span>
         {canSelect && (
           <>
@@ -221,7 +250,9 @@ export function LotItemsTable({ items, stats, nominal, unit, secondQuantity, fil
           </>
         )}
       </div>
-      <p className="mb-2 text-xs text-ink-soft sm:hidden">On a narrow screen the list shows each item and its value; deviation, bin, set and check appear on a wider screen.</p>
+      <p className="mb-2 text-xs text-ink-soft sm:hidden">
+        On a narrow screen the list shows each item and its value; deviation, bin, set and check appear on a wider screen.
+      </p>
       <div
         ref={scrollRef}
         // Containment keeps each scroll step's layout and paint inside the table's box, away from
@@ -278,9 +309,17 @@ export function LotItemsTable({ items, stats, nominal, unit, secondQuantity, fil
               const row = tableRows[k];
               if (!row) return null;
               return (
-                <tr key={row.id} aria-rowindex={vr.index + 2} style={{ height: ROW_HEIGHT }} className="border-b border-paper-edge/60 hover:bg-paper">
+                <tr
+                  key={row.id}
+                  aria-rowindex={vr.index + 2}
+                  style={{ height: ROW_HEIGHT }}
+                  className="border-b border-paper-edge/60 hover:bg-paper"
+                >
                   {row.getVisibleCells().map((cell) => (
-                    <td key={cell.id} className={`overflow-hidden px-3 py-1 align-middle whitespace-nowrap ${cell.column.columnDef.meta?.numeric ? 'num text-right' : ''} ${cell.column.columnDef.meta?.wideOnly ? 'max-sm:hidden' : ''}`}>
+                    <td
+                      key={cell.id}
+                      className={`overflow-hidden px-3 py-1 align-middle whitespace-nowrap ${cell.column.columnDef.meta?.numeric ? 'num text-right' : ''} ${cell.column.columnDef.meta?.wideOnly ? 'max-sm:hidden' : ''}`}
+                    >
                       {flexRender(cell.column.columnDef.cell, cell.getContext())}
                     </td>
                   ))}

@@ -50,7 +50,10 @@ function LotFacts({ lot }: { lot: LotDetail }) {
       <Fact term="Readings">
         <span className="num">{lot.count.toLocaleString()}</span>
         {lot.expectedCount != null && (
-          <span className={`num ${lot.count > 0 && lot.count !== lot.expectedCount ? 'text-marginal' : 'text-ink-soft'}`}> of {lot.expectedCount.toLocaleString()} expected</span>
+          <span className={`num ${lot.count > 0 && lot.count !== lot.expectedCount ? 'text-marginal' : 'text-ink-soft'}`}>
+            {' '}
+            of {lot.expectedCount.toLocaleString()} expected
+          </span>
         )}
       </Fact>
       <Fact term="Second quantity">
@@ -63,7 +66,9 @@ function LotFacts({ lot }: { lot: LotDetail }) {
         )}
       </Fact>
       <Fact term="Watchers">{lot.watchers.length ? lot.watchers.map((w) => w.name).join(', ') : 'none'}</Fact>
-      <Fact term="Test frequency">{lot.testFrequency != null ? <span className="num">{formatValue(lot.testFrequency, 'Hz')}</span> : 'not recorded'}</Fact>
+      <Fact term="Test frequency">
+        {lot.testFrequency != null ? <span className="num">{formatValue(lot.testFrequency, 'Hz')}</span> : 'not recorded'}
+      </Fact>
       <Fact term="Instrument">{lot.instrumentId != null ? (instrumentName ?? `instrument ${lot.instrumentId}`) : 'not recorded'}</Fact>
       <Fact term="Created">{formatDate(lot.createdAt)}</Fact>
       {lot.notes && <Fact term="Notes">{lot.notes}</Fact>}
@@ -71,15 +76,34 @@ function LotFacts({ lot }: { lot: LotDetail }) {
   );
 }
 
-function FilterBar({ lot, filters, onChange, setCount }: { lot: LotDetail; filters: ItemFilters; onChange: (f: ItemFilters) => void; setCount: number }) {
+function FilterBar({
+  lot,
+  filters,
+  onChange,
+  setCount,
+}: {
+  lot: LotDetail;
+  filters: ItemFilters;
+  onChange: (f: ItemFilters) => void;
+  setCount: number;
+}) {
   const stats = lot.stats!;
   const sel = 'rounded-md border border-paper-edge bg-paper-bright px-2 py-1.5 text-sm';
   const check = 'inline-flex min-h-9 items-center gap-2 text-sm';
   return (
-    <form role="search" aria-label="Filter the items" className="mb-3 flex flex-wrap items-end gap-x-4 gap-y-2" onSubmit={(e) => e.preventDefault()}>
+    <form
+      role="search"
+      aria-label="Filter the items"
+      className="mb-3 flex flex-wrap items-end gap-x-4 gap-y-2"
+      onSubmit={(e) => e.preventDefault()}
+    >
       <label className="text-sm">
         <span className="mb-1 block font-medium">Tolerance</span>
-        <select className={sel} value={filters.tolerance} onChange={(e) => onChange({ ...filters, tolerance: e.target.value as ItemFilters['tolerance'] })}>
+        <select
+          className={sel}
+          value={filters.tolerance}
+          onChange={(e) => onChange({ ...filters, tolerance: e.target.value as ItemFilters['tolerance'] })}
+        >
           <option value="all">All items</option>
           <option value="out">Out of tolerance</option>
           <option value="in">In tolerance</option>
@@ -117,12 +141,22 @@ function FilterBar({ lot, filters, onChange, setCount }: { lot: LotDetail; filte
         </select>
       </label>
       <label className={check}>
-        <input type="checkbox" className="size-4 accent-accent" checked={filters.outlier} onChange={(e) => onChange({ ...filters, outlier: e.target.checked })} />
+        <input
+          type="checkbox"
+          className="size-4 accent-accent"
+          checked={filters.outlier}
+          onChange={(e) => onChange({ ...filters, outlier: e.target.checked })}
+        />
         Outliers only
       </label>
       {lot.secondQuantity && stats.secondFailures && (
         <label className={check}>
-          <input type="checkbox" className="size-4 accent-accent" checked={filters.secondFail} onChange={(e) => onChange({ ...filters, secondFail: e.target.checked })} />
+          <input
+            type="checkbox"
+            className="size-4 accent-accent"
+            checked={filters.secondFail}
+            onChange={(e) => onChange({ ...filters, secondFail: e.target.checked })}
+          />
           {SECOND_LABEL[lot.secondQuantity]} over its limit only
         </label>
       )}
@@ -154,7 +188,11 @@ export function LotScreen({ id }: { id: number }) {
     setPromoted(null);
     try {
       const r = await promote.mutateAsync({ id, input: 'set' in input ? { ...input, ...match } : input });
-      setPromoted({ tone: 'success', text: `${r.created.toLocaleString()} part${r.created === 1 ? '' : 's'} made from ${what}.`, firstId: r.partIds[0] });
+      setPromoted({
+        tone: 'success',
+        text: `${r.created.toLocaleString()} part${r.created === 1 ? '' : 's'} made from ${what}.`,
+        firstId: r.partIds[0],
+      });
       if ('readingIds' in input) setSelected(new Set());
     } catch (err) {
       setPromoted({ tone: 'error', text: err instanceof Error ? err.message : 'The promotion failed.' });
@@ -201,7 +239,10 @@ export function LotScreen({ id }: { id: number }) {
 
         {!stats ? (
           <p className="rounded-lg border border-dashed border-paper-edge bg-paper-bright p-6 text-sm text-ink-soft">
-            No readings yet. {canWrite ? 'Upload the LCR meter’s export above to see the statistics.' : 'A bench tech or QA lead uploads the meter’s export.'}
+            No readings yet.{' '}
+            {canWrite
+              ? 'Upload the LCR meter’s export above to see the statistics.'
+              : 'A bench tech or QA lead uploads the meter’s export.'}
           </p>
         ) : (
           <>
@@ -216,7 +257,7 @@ export function LotScreen({ id }: { id: number }) {
                   unit={lot.unit}
                   quantity={lot.quantity}
                   code={lot.code}
-                  conditions={lotConditions(lot, { readings: stats.n, matchPct: match.matchPct ?? 1, setSize: match.setSize ?? 2})}
+                  conditions={lotConditions(lot, { readings: stats.n, matchPct: match.matchPct ?? 1, setSize: match.setSize ?? 2 })}
                 />
               </Panel>
             </div>
@@ -234,7 +275,12 @@ export function LotScreen({ id }: { id: number }) {
 
             <div className="grid gap-6 lg:grid-cols-2">
               <Panel title="Deviation bins" id="lot-bins">
-                <LotBins stats={stats} canWrite={canWrite} busy={promote.isPending} onPromote={(what, label) => void doPromote(what, label)} />
+                <LotBins
+                  stats={stats}
+                  canWrite={canWrite}
+                  busy={promote.isPending}
+                  onPromote={(what, label) => void doPromote(what, label)}
+                />
               </Panel>
               <Panel title="Matched sets" id="lot-sets">
                 <LotSets
@@ -259,13 +305,21 @@ export function LotScreen({ id }: { id: number }) {
               id="lot-items"
               actions={
                 canWrite && selected.size > 0 ? (
-                  <Button variant="primary" size="sm" busy={promote.isPending} busyText="Promoting…" onClick={() => void doPromote({ readingIds: [...selected] }, `the ${selected.size} selected items`)}>
+                  <Button
+                    variant="primary"
+                    size="sm"
+                    busy={promote.isPending}
+                    busyText="Promoting…"
+                    onClick={() => void doPromote({ readingIds: [...selected] }, `the ${selected.size} selected items`)}
+                  >
                     Promote {selected.size.toLocaleString()} selected to parts
                   </Button>
                 ) : null
               }
             >
-              {canWrite && itemsQuery.data && <LotItemScan items={itemsQuery.data} selected={selected} onSelectedChange={onSelectedChange} />}
+              {canWrite && itemsQuery.data && (
+                <LotItemScan items={itemsQuery.data} selected={selected} onSelectedChange={onSelectedChange} />
+              )}
               <FilterBar lot={lot} filters={filters} onChange={setFilters} setCount={stats.matchedSets.length} />
               {itemsQuery.isPending ? (
                 <Loading what={`Loading ${lot.count.toLocaleString()} items`} />

@@ -52,7 +52,15 @@ export function LotStatsPanel({ lot, stats }: { lot: Lot; stats: LotStats }) {
       </dl>
       <dl>
         <Row term="Cp">{stats.cp === null ? '—' : stats.cp.toFixed(2)}</Row>
-        <Row term={<span className="inline-flex items-center gap-2">Cpk <CapabilityBadge cpk={stats.cpk} /></span>}>{stats.cpk === null ? '—' : stats.cpk.toFixed(2)}</Row>
+        <Row
+          term={
+            <span className="inline-flex items-center gap-2">
+              Cpk <CapabilityBadge cpk={stats.cpk} />
+            </span>
+          }
+        >
+          {stats.cpk === null ? '—' : stats.cpk.toFixed(2)}
+        </Row>
         <Row term="Below the lower limit">
           <span className={stats.countBelow ? 'text-fail' : undefined}>{stats.countBelow.toLocaleString()}</span>
         </Row>
@@ -68,7 +76,11 @@ export function LotStatsPanel({ lot, stats }: { lot: Lot; stats: LotStats }) {
         </Row>
         {second && lot.secondLimit != null && (
           <Row term={`${SECOND_LABEL[second]} over ${fmtSecond(lot.secondLimit, SECOND_UNIT[second])}`}>
-            {stats.secondFailures ? <span className={stats.secondFailures.length ? 'text-fail' : undefined}>{stats.secondFailures.length.toLocaleString()}</span> : <span className="text-ink-soft">not in the file</span>}
+            {stats.secondFailures ? (
+              <span className={stats.secondFailures.length ? 'text-fail' : undefined}>{stats.secondFailures.length.toLocaleString()}</span>
+            ) : (
+              <span className="text-ink-soft">not in the file</span>
+            )}
           </Row>
         )}
       </dl>

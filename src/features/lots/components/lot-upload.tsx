@@ -19,7 +19,19 @@ const ROLES: { role: Role; label: string; required: boolean; units: (kind: Lot['
 ];
 const UNIT_WORD: Record<string, string> = { '': 'none (D)', '%': '% (D)' };
 
-function MappingStep({ needs, lot, onSend, busy, onCancel }: { needs: NeedsMapping; lot: Lot; onSend: (m: ExplicitMapping) => void; busy: boolean; onCancel: () => void }) {
+function MappingStep({
+  needs,
+  lot,
+  onSend,
+  busy,
+  onCancel,
+}: {
+  needs: NeedsMapping;
+  lot: Lot;
+  onSend: (m: ExplicitMapping) => void;
+  busy: boolean;
+  onCancel: () => void;
+}) {
   const initial = Object.fromEntries(
     ROLES.map((r) => {
       const d = needs.detected[r.role];
@@ -28,7 +40,8 @@ function MappingStep({ needs, lot, onSend, busy, onCancel }: { needs: NeedsMappi
   ) as Record<Role, { column: string; unit: string }>;
   const [choice, setChoice] = useState(initial);
   const [error, setError] = useState<string | null>(null);
-  const set = (role: Role, patch: Partial<{ column: string; unit: string }>) => setChoice((c) => ({ ...c, [role]: { ...c[role], ...patch } }));
+  const set = (role: Role, patch: Partial<{ column: string; unit: string }>) =>
+    setChoice((c) => ({ ...c, [role]: { ...c[role], ...patch } }));
 
   const send = () => {
     const missing = ROLES.filter((r) => r.required && choice[r.role].column === '');
@@ -49,7 +62,8 @@ function MappingStep({ needs, lot, onSend, busy, onCancel }: { needs: NeedsMappi
     <fieldset className="mt-4 rounded-md border border-accent/30 bg-accent-tint/40 p-4">
       <legend className="px-1 text-sm font-semibold">Which column holds what?</legend>
       <p className="mb-3 text-sm text-ink-soft">
-        The file’s header is <span className="num">{needs.header.map((h) => `“${h}”`).join(', ')}</span>. Choose the columns, and the unit each is written in.
+        The file’s header is <span className="num">{needs.header.map((h) => `“${h}”`).join(', ')}</span>. Choose the columns, and the unit
+        each is written in.
       </p>
       {error && (
         <div className="mb-3">
@@ -67,7 +81,12 @@ function MappingStep({ needs, lot, onSend, busy, onCancel }: { needs: NeedsMappi
                   {r.label}
                   {!r.required && <span className="font-normal text-ink-soft"> (optional)</span>}
                 </span>
-                <select id={id} className="w-full rounded-md border border-paper-edge bg-paper-bright px-2 py-1.5" value={choice[r.role].column} onChange={(e) => set(r.role, { column: e.target.value })}>
+                <select
+                  id={id}
+                  className="w-full rounded-md border border-paper-edge bg-paper-bright px-2 py-1.5"
+                  value={choice[r.role].column}
+                  onChange={(e) => set(r.role, { column: e.target.value })}
+                >
                   <option value="">{r.required ? 'Choose a column' : 'Not in this file'}</option>
                   {needs.header.map((h, i) => (
                     <option key={i} value={String(i)}>
@@ -79,7 +98,12 @@ function MappingStep({ needs, lot, onSend, busy, onCancel }: { needs: NeedsMappi
               {units.length > 0 && (
                 <label className="w-40 text-sm">
                   <span className="mb-1 block font-medium">Unit</span>
-                  <select className="w-full rounded-md border border-paper-edge bg-paper-bright px-2 py-1.5" value={choice[r.role].unit} disabled={choice[r.role].column === ''} onChange={(e) => set(r.role, { unit: e.target.value })}>
+                  <select
+                    className="w-full rounded-md border border-paper-edge bg-paper-bright px-2 py-1.5"
+                    value={choice[r.role].unit}
+                    disabled={choice[r.role].column === ''}
+                    onChange={(e) => set(r.role, { unit: e.target.value })}
+                  >
                     {units.map((u) => (
                       <option key={u} value={u}>
                         {UNIT_WORD[u] ?? u}
@@ -161,7 +185,8 @@ export function LotUpload({ lot, count }: { lot: Lot; count: number }) {
             }}
           />
           <p id={`${inputId}-hint`} className="mt-1 text-xs text-ink-soft">
-            One row per part: item, value with its unit in the header (“C (nF)”), optionally D or ESR and the test frequency. Up to 100,000 rows.
+            One row per part: item, value with its unit in the header (“C (nF)”), optionally D or ESR and the test frequency. Up to 100,000
+            rows.
           </p>
         </div>
         {count > 0 && (
@@ -170,7 +195,13 @@ export function LotUpload({ lot, count }: { lot: Lot; count: number }) {
             Replace the {count.toLocaleString()} stored readings
           </label>
         )}
-        <Button type="submit" variant="primary" busy={upload.isPending && !needs} busyText="Uploading…" disabled={!file || (count > 0 && !replace)}>
+        <Button
+          type="submit"
+          variant="primary"
+          busy={upload.isPending && !needs}
+          busyText="Uploading…"
+          disabled={!file || (count > 0 && !replace)}
+        >
           Upload
         </Button>
       </form>
@@ -194,12 +225,31 @@ export function LotUpload({ lot, count }: { lot: Lot; count: number }) {
           </Alert>
         </div>
       )}
-      {needs && <MappingStep needs={needs} lot={lot} busy={upload.isPending} onSend={(m) => void send(m)} onCancel={() => { setNeeds(null); setProblem(null); }} />}
+      {needs && (
+        <MappingStep
+          needs={needs}
+          lot={lot}
+          busy={upload.isPending}
+          onSend={(m) => void send(m)}
+          onCancel={() => {
+            setNeeds(null);
+            setProblem(null);
+          }}
+        />
+      )}
       {result && (
         <div className="mt-3">
-          <Alert tone="success" title={`Stored ${result.rows.toLocaleString()} readings${uploadMs(result) !== null ? ` in ${uploadMs(result)!.toLocaleString()} ms` : ''}`}>
-            Columns used: {Object.entries(result.columns).map(([role, header]) => `${role} ← “${header}”`).join(', ')}.
-            {result.stats && ` Mean ${fmtLotValue(result.stats.mean, lot.unit)}, ${result.stats.countBelow + result.stats.countAbove} out of tolerance.`}
+          <Alert
+            tone="success"
+            title={`Stored ${result.rows.toLocaleString()} readings${uploadMs(result) !== null ? ` in ${uploadMs(result)!.toLocaleString()} ms` : ''}`}
+          >
+            Columns used:{' '}
+            {Object.entries(result.columns)
+              .map(([role, header]) => `${role} ← “${header}”`)
+              .join(', ')}
+            .
+            {result.stats &&
+              ` Mean ${fmtLotValue(result.stats.mean, lot.unit)}, ${result.stats.countBelow + result.stats.countAbove} out of tolerance.`}
           </Alert>
         </div>
       )}

@@ -29,7 +29,13 @@ export function LotWatchers({ lot }: { lot: LotDetail }) {
               <span>{w.name}</span>
               <span className="text-xs break-all text-ink-soft">{w.email}</span>
               {(canChoose || w.id === user?.id) && (
-                <Button size="sm" variant="secondary" disabled={save.isPending} aria-label={`Remove ${w.name} as a watcher`} onClick={() => set(ids.filter((id) => id !== w.id))}>
+                <Button
+                  size="sm"
+                  variant="secondary"
+                  disabled={save.isPending}
+                  aria-label={`Remove ${w.name} as a watcher`}
+                  onClick={() => set(ids.filter((id) => id !== w.id))}
+                >
                   Remove
                 </Button>
               )}
@@ -48,7 +54,12 @@ export function LotWatchers({ lot }: { lot: LotDetail }) {
         >
           <label className="text-sm">
             <span className="mb-1 block font-medium">Add a watcher</span>
-            <select className="rounded-md border border-paper-edge bg-paper-bright px-2 py-1.5 text-sm" value={adding} onChange={(e) => setAdding(e.target.value)} disabled={members.isPending}>
+            <select
+              className="rounded-md border border-paper-edge bg-paper-bright px-2 py-1.5 text-sm"
+              value={adding}
+              onChange={(e) => setAdding(e.target.value)}
+              disabled={members.isPending}
+            >
               <option value="">Choose a member…</option>
               {others.map((m) => (
                 <option key={m.id} value={m.id}>

@@ -58,14 +58,30 @@ export function LotsScreen() {
             <caption className="sr-only">Lots, newest first</caption>
             <thead className="bg-paper-deep text-left text-ink-soft">
               <tr>
-                <th scope="col" className="border-b border-paper-edge px-3 py-2 font-medium">Lot</th>
-                <th scope="col" className="border-b border-paper-edge px-3 py-2 font-medium">Kind</th>
-                <th scope="col" className="border-b border-paper-edge px-3 py-2 text-right font-medium">Nominal</th>
-                <th scope="col" className="border-b border-paper-edge px-3 py-2 text-right font-medium">Tolerance</th>
-                <th scope="col" className="border-b border-paper-edge px-3 py-2 font-medium">Supplier</th>
-                <th scope="col" className="border-b border-paper-edge px-3 py-2 font-medium">Received</th>
-                <th scope="col" className="border-b border-paper-edge px-3 py-2 text-right font-medium">Count</th>
-                <th scope="col" className="border-b border-paper-edge px-3 py-2 font-medium">Status</th>
+                <th scope="col" className="border-b border-paper-edge px-3 py-2 font-medium">
+                  Lot
+                </th>
+                <th scope="col" className="border-b border-paper-edge px-3 py-2 font-medium">
+                  Kind
+                </th>
+                <th scope="col" className="border-b border-paper-edge px-3 py-2 text-right font-medium">
+                  Nominal
+                </th>
+                <th scope="col" className="border-b border-paper-edge px-3 py-2 text-right font-medium">
+                  Tolerance
+                </th>
+                <th scope="col" className="border-b border-paper-edge px-3 py-2 font-medium">
+                  Supplier
+                </th>
+                <th scope="col" className="border-b border-paper-edge px-3 py-2 font-medium">
+                  Received
+                </th>
+                <th scope="col" className="border-b border-paper-edge px-3 py-2 text-right font-medium">
+                  Count
+                </th>
+                <th scope="col" className="border-b border-paper-edge px-3 py-2 font-medium">
+                  Status
+                </th>
               </tr>
             </thead>
             <tbody>
@@ -77,11 +93,21 @@ export function LotsScreen() {
                     </Link>
                     {lot.marking && <span className="num ml-2 text-xs text-ink-soft">{lot.marking}</span>}
                   </td>
-                  <td data-label="Kind" className="px-3 py-2">{LOT_KIND_LABEL[lot.kind]}</td>
-                  <td data-label="Nominal" className="num px-3 py-2 text-right whitespace-nowrap">{formatValue(lot.nominal, lot.unit)}</td>
-                  <td data-label="Tolerance" className="num px-3 py-2 text-right whitespace-nowrap">{formatTolerance(lot.tolerancePct)}</td>
-                  <td data-label="Supplier" className="px-3 py-2">{lot.supplier ?? <span className="text-ink-faint">—</span>}</td>
-                  <td data-label="Received" className="px-3 py-2 whitespace-nowrap">{formatDay(lot.receivedOn)}</td>
+                  <td data-label="Kind" className="px-3 py-2">
+                    {LOT_KIND_LABEL[lot.kind]}
+                  </td>
+                  <td data-label="Nominal" className="num px-3 py-2 text-right whitespace-nowrap">
+                    {formatValue(lot.nominal, lot.unit)}
+                  </td>
+                  <td data-label="Tolerance" className="num px-3 py-2 text-right whitespace-nowrap">
+                    {formatTolerance(lot.tolerancePct)}
+                  </td>
+                  <td data-label="Supplier" className="px-3 py-2">
+                    {lot.supplier ?? <span className="text-ink-faint">—</span>}
+                  </td>
+                  <td data-label="Received" className="px-3 py-2 whitespace-nowrap">
+                    {formatDay(lot.receivedOn)}
+                  </td>
                   <td data-label="Count" className="num px-3 py-2 text-right whitespace-nowrap">
                     {lot.count.toLocaleString()}
                     {lot.expectedCount != null && <span className="text-ink-soft"> / {lot.expectedCount.toLocaleString()}</span>}

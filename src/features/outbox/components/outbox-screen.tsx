@@ -16,7 +16,8 @@ const TOPIC_LABEL: Record<string, string> = {
 
 function Delivery({ m }: { m: OutboxMessage }) {
   if (m.error) return <Badge tone="fail" icon="cross" label="Not sent" title={m.error} />;
-  if (m.transport === 'smtp') return m.sentAt ? <Badge tone="pass" icon="check" label="Mailed" /> : <Badge tone="marginal" icon="edge" label="Queued" />;
+  if (m.transport === 'smtp')
+    return m.sentAt ? <Badge tone="pass" icon="check" label="Mailed" /> : <Badge tone="marginal" icon="edge" label="Queued" />;
   return <Badge tone="neutral" icon="shelf" label="Kept here" />;
 }
 
@@ -87,7 +88,10 @@ export function OutboxScreen() {
         <p className="rounded-lg border border-dashed border-paper-edge bg-paper-bright p-6 text-sm text-ink-soft">No messages yet.</p>
       ) : (
         <div className="grid gap-6 lg:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
-          <ul aria-label="Messages, newest first" className="divide-y divide-paper-edge/70 self-start rounded-lg border border-paper-edge bg-paper-bright">
+          <ul
+            aria-label="Messages, newest first"
+            className="divide-y divide-paper-edge/70 self-start rounded-lg border border-paper-edge bg-paper-bright"
+          >
             {messages.map((m) => (
               <li key={m.id}>
                 <button
@@ -112,7 +116,9 @@ export function OutboxScreen() {
             {current ? (
               <MessageView m={current} onClose={() => open(null)} />
             ) : (
-              <p className="hidden rounded-lg border border-dashed border-paper-edge p-6 text-sm text-ink-soft lg:block">Choose a message to read it.</p>
+              <p className="hidden rounded-lg border border-dashed border-paper-edge p-6 text-sm text-ink-soft lg:block">
+                Choose a message to read it.
+              </p>
             )}
           </div>
         </div>

@@ -27,5 +27,4 @@ export function uploadAttachment({ partId, file, purpose }: { partId: number; fi
   form.set('file', file);
   return api.post<Attachment>(`/api/parts/${partId}/attachments`, form);
 }
-export const useUploadAttachment = () =>
-  useMutation({ mutationFn: uploadAttachment, meta: { invalidates: [['parts', 'detail']] } });
+export const useUploadAttachment = () => useMutation({ mutationFn: uploadAttachment, meta: { invalidates: [['parts', 'detail']] } });

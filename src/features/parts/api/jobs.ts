@@ -2,9 +2,17 @@
 import { queryOptions, useMutation, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 
-export type JobSummary = { id: number; code: string; customer: string; instrument: string; status: 'open' | 'done' | 'delivered'; partCount: number };
+export type JobSummary = {
+  id: number;
+  code: string;
+  customer: string;
+  instrument: string;
+  status: 'open' | 'done' | 'delivered';
+  partCount: number;
+};
 
-export const jobsQueryOptions = () => queryOptions({ queryKey: ['jobs', 'list'], queryFn: ({ signal }) => api.get<{ jobs: JobSummary[] }>('/api/jobs', { signal }) });
+export const jobsQueryOptions = () =>
+  queryOptions({ queryKey: ['jobs', 'list'], queryFn: ({ signal }) => api.get<{ jobs: JobSummary[] }>('/api/jobs', { signal }) });
 export const useJobs = (enabled: boolean) => useQuery({ ...jobsQueryOptions(), enabled });
 
 export const installPart = ({ jobId, partId, position }: { jobId: number; partId: number; position: string }) =>

@@ -5,10 +5,19 @@ import type { ColumnRole } from '@shared/csv/columns';
 import type { Fit, RefitInput, SweepKind } from '@shared/schemas/sweeps';
 import { api } from '@/lib/api-client';
 
-type SweepBase = { id: number; partId: number; attachmentId: number | null; columns: Record<string, string> | null; pointCount: number; createdAt: number; fit: Fit | null };
+type SweepBase = {
+  id: number;
+  partId: number;
+  attachmentId: number | null;
+  columns: Record<string, string> | null;
+  pointCount: number;
+  createdAt: number;
+  fit: Fit | null;
+};
 
 /** Points come back in the engines' input shape: taper rotation in percent, impedance as re/im. */
-export type Sweep = SweepBase & ({ kind: 'taper'; points: TaperPoint[] } | { kind: 'impedance'; points: Extract<CoilPoint, { re: number }>[] });
+export type Sweep = SweepBase &
+  ({ kind: 'taper'; points: TaperPoint[] } | { kind: 'impedance'; points: Extract<CoilPoint, { re: number }>[] });
 
 export const sweepsQueryOptions = (partId: number) =>
   queryOptions({

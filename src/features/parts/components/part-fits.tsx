@@ -15,7 +15,6 @@ import { formatDateTime } from '@/lib/format';
 import type { PartDetail } from '../api/get-part';
 import { useFits, useRefitSweep, useSweeps } from '../api/sweeps';
 
-
 const pct = (x: number, digits = 1) => `${x.toFixed(digits)} %`;
 const withErr = (v: number, se: number | null | undefined, unit: string) => (
   <>
@@ -48,11 +47,19 @@ function TaperFacts({ r }: { r: TaperFit }) {
       <Row term="Deviation RMS / max">{`${pct(r.rmsPct, 2)} / ${pct(r.maxPct, 2)}`}</Row>
       <Row term={`Total R13 (${totalWord})`}>
         {formatValue(r.total, 'Ω', { digits: 4 })}
-        {r.totalDeviationPct != null && <span className="text-ink-soft"> ({r.totalDeviationPct >= 0 ? '+' : ''}{r.totalDeviationPct.toFixed(1)} % from nominal)</span>}
+        {r.totalDeviationPct != null && (
+          <span className="text-ink-soft">
+            {' '}
+            ({r.totalDeviationPct >= 0 ? '+' : ''}
+            {r.totalDeviationPct.toFixed(1)} % from nominal)
+          </span>
+        )}
       </Row>
       <Row term="End resistance start / end">{`${formatValue(r.endResistance.start, 'Ω')} / ${r.endResistance.end != null ? formatValue(r.endResistance.end, 'Ω') : 'not measured'}`}</Row>
       <Row term="Half-sum mismatch">{r.halfSumMismatch != null ? formatValue(r.halfSumMismatch, 'Ω') : 'not measured'}</Row>
-      <Row term="Monotonic breaks">{r.monotonicBreaks.length === 0 ? 'none' : r.monotonicBreaks.map((b) => `${b.rotation.toFixed(0)} %`).join(', ')}</Row>
+      <Row term="Monotonic breaks">
+        {r.monotonicBreaks.length === 0 ? 'none' : r.monotonicBreaks.map((b) => `${b.rotation.toFixed(0)} %`).join(', ')}
+      </Row>
     </dl>
   );
 }
@@ -78,11 +85,18 @@ function FitAgain({ kind, busy, onFit }: { kind: 'taper' | 'coil'; busy: boolean
   const [choice, setChoice] = useState('');
   const choices = (): RefitInput =>
     kind === 'taper'
-      ? choice === '' ? {} : { law: choice as NonNullable<RefitInput['law']> }
+      ? choice === ''
+        ? {}
+        : { law: choice as NonNullable<RefitInput['law']> }
       : { withRp: choice === 'on' ? true : choice === 'off' ? false : 'auto' };
   return (
     <div className="flex items-center gap-2">
-      <select aria-label={kind === 'taper' ? 'Law to fit' : 'Loss resistance'} className="rounded border border-paper-edge bg-paper px-2 py-1 text-sm" value={choice} onChange={(e) => setChoice(e.target.value)}>
+      <select
+        aria-label={kind === 'taper' ? 'Law to fit' : 'Loss resistance'}
+        className="rounded border border-paper-edge bg-paper px-2 py-1 text-sm"
+        value={choice}
+        onChange={(e) => setChoice(e.target.value)}
+      >
         {kind === 'taper' ? (
           <>
             <option value="">Best law (F test)</option>
@@ -115,7 +129,10 @@ function LoadedResonance({ r }: { r: CoilFit }) {
   const pf = Number(pfText);
   const valid = Number.isFinite(lengthM) && lengthM >= 0 && lengthM <= 100 && Number.isFinite(pf) && pf >= 0 && pf <= 1000;
   const m = useMemo(
-    () => (valid ? loadedResponse({ R: r.R, L: r.L, C: r.C, Rp: r.Rp }, { load: LOADS[load], cable: { lengthM, capPerMetre: pf * 1e-12 } }) : null),
+    () =>
+      valid
+        ? loadedResponse({ R: r.R, L: r.L, C: r.C, Rp: r.Rp }, { load: LOADS[load], cable: { lengthM, capPerMetre: pf * 1e-12 } })
+        : null,
     [valid, r.R, r.L, r.C, r.Rp, load, lengthM, pf],
   );
   return (
@@ -124,7 +141,11 @@ function LoadedResonance({ r }: { r: CoilFit }) {
       <div className="grid gap-2 sm:grid-cols-3">
         <label className="text-xs text-ink-soft">
           Load
-          <select className="mt-0.5 block w-full rounded border border-paper-edge bg-paper px-2 py-1 text-sm text-ink" value={load} onChange={(e) => setLoad(e.target.value as LoadId)}>
+          <select
+            className="mt-0.5 block w-full rounded border border-paper-edge bg-paper px-2 py-1 text-sm text-ink"
+            value={load}
+            onChange={(e) => setLoad(e.target.value as LoadId)}
+          >
             {LOAD_IDS.map((id) => (
               <option key={id} value={id}>
                 {LOADS[id].name}
@@ -134,21 +155,39 @@ function LoadedResonance({ r }: { r: CoilFit }) {
         </label>
         <label className="text-xs text-ink-soft">
           Cable length (m)
-          <input className="num mt-0.5 block w-full rounded border border-paper-edge bg-paper px-2 py-1 text-sm text-ink" inputMode="decimal" value={lengthText} onChange={(e) => setLengthText(e.target.value)} />
+          <input
+            className="num mt-0.5 block w-full rounded border border-paper-edge bg-paper px-2 py-1 text-sm text-ink"
+            inputMode="decimal"
+            value={lengthText}
+            onChange={(e) => setLengthText(e.target.value)}
+          />
         </label>
         <label className="text-xs text-ink-soft">
           Cable pF per metre
-          <input className="num mt-0.5 block w-full rounded border border-paper-edge bg-paper px-2 py-1 text-sm text-ink" inputMode="decimal" value={pfText} onChange={(e) => setPfText(e.target.value)} />
+          <input
+            className="num mt-0.5 block w-full rounded border border-paper-edge bg-paper px-2 py-1 text-sm text-ink"
+            inputMode="decimal"
+            value={pfText}
+            onChange={(e) => setPfText(e.target.value)}
+          />
         </label>
       </div>
       {!valid ? (
         <p className="text-sm text-fail">Cable length 0–100 m and 0–1000 pF per metre.</p>
-      ) : m && (
-        <dl>
-          <Row term="Loaded resonance">{m.noSignal ? 'no signal' : m.peak.interior ? formatValue(m.peak.frequency, 'Hz', { digits: 3 }) : 'no peak in 20 Hz – 20 kHz'}</Row>
-          <Row term="Peak above the bass">{m.peak.interior ? `${m.peakRiseDb.toFixed(1)} dB` : '—'}</Row>
-          <Row term="−3 dB corner">{m.cornerHz != null ? formatValue(m.cornerHz, 'Hz', { digits: 3 }) : 'none in range'}</Row>
-        </dl>
+      ) : (
+        m && (
+          <dl>
+            <Row term="Loaded resonance">
+              {m.noSignal
+                ? 'no signal'
+                : m.peak.interior
+                  ? formatValue(m.peak.frequency, 'Hz', { digits: 3 })
+                  : 'no peak in 20 Hz – 20 kHz'}
+            </Row>
+            <Row term="Peak above the bass">{m.peak.interior ? `${m.peakRiseDb.toFixed(1)} dB` : '—'}</Row>
+            <Row term="−3 dB corner">{m.cornerHz != null ? formatValue(m.cornerHz, 'Hz', { digits: 3 }) : 'none in range'}</Row>
+          </dl>
+        )
       )}
     </div>
   );
@@ -184,7 +223,8 @@ export function PartFits({ part }: { part: PartDetail }) {
   if (sweeps.isError || fits.isError) return <Alert>{(sweeps.error ?? fits.error)?.message}</Alert>;
   const current = sweeps.data.sweeps.filter((s) => s.fit);
   const older = fits.data.fits.filter((f) => f.supersededAt != null);
-  if (current.length === 0 && older.length === 0) return <p className="text-sm text-ink-soft">No fits yet: upload a sweep and it is fitted at once.</p>;
+  if (current.length === 0 && older.length === 0)
+    return <p className="text-sm text-ink-soft">No fits yet: upload a sweep and it is fitted at once.</p>;
 
   return (
     <div className="space-y-5">
@@ -197,16 +237,33 @@ export function PartFits({ part }: { part: PartDetail }) {
               <h3 id={`fit-${fit.id}`} className="text-sm font-semibold">
                 {fit.kind === 'taper' ? 'Taper fit' : 'Coil fit'} of sweep #{s.id}
               </h3>
-              {canWrite && s.id && <FitAgain kind={fit.kind} busy={refit.isPending && refit.variables?.sweepId === s.id} onFit={(choices) => refit.mutate({ partId: part.id, sweepId: s.id, choices })} />}
+              {canWrite && s.id && (
+                <FitAgain
+                  kind={fit.kind}
+                  busy={refit.isPending && refit.variables?.sweepId === s.id}
+                  onFit={(choices) => refit.mutate({ partId: part.id, sweepId: s.id, choices })}
+                />
+              )}
             </header>
             <div className="space-y-3">
               {refit.isSuccess && refit.variables?.sweepId === s.id && (
                 <p role="status" className="text-sm text-ink-soft">
-                  Fitted again: {refit.data.fit.kind === 'taper' ? `${TAPER_LAW_LABEL[refit.data.fit.result.law]}, m ${pct(refit.data.fit.result.m * 100)}` : `R ${formatValue(refit.data.fit.result.R, 'Ω')}, L ${formatValue(refit.data.fit.result.L, 'H')}, loss resistance ${refit.data.fit.result.Rp != null ? formatValue(refit.data.fit.result.Rp, 'Ω') : 'not used'}`}; the earlier fit is kept below.
+                  Fitted again:{' '}
+                  {refit.data.fit.kind === 'taper'
+                    ? `${TAPER_LAW_LABEL[refit.data.fit.result.law]}, m ${pct(refit.data.fit.result.m * 100)}`
+                    : `R ${formatValue(refit.data.fit.result.R, 'Ω')}, L ${formatValue(refit.data.fit.result.L, 'H')}, loss resistance ${refit.data.fit.result.Rp != null ? formatValue(refit.data.fit.result.Rp, 'Ω') : 'not used'}`}
+                  ; the earlier fit is kept below.
                 </p>
               )}
               <FitFlags fit={fit} />
-              {fit.kind === 'taper' ? <TaperFacts r={fit.result} /> : <><CoilFacts r={fit.result} /><LoadedResonance r={fit.result} /></>}
+              {fit.kind === 'taper' ? (
+                <TaperFacts r={fit.result} />
+              ) : (
+                <>
+                  <CoilFacts r={fit.result} />
+                  <LoadedResonance r={fit.result} />
+                </>
+              )}
               <p className="text-xs text-ink-soft">
                 Engine <span className="font-mono">{fit.engineVersion}</span> · fitted {formatDateTime(fit.createdAt)}
               </p>
@@ -221,11 +278,17 @@ export function PartFits({ part }: { part: PartDetail }) {
             {older.map((f) => (
               <li key={f.id} className="border-l-2 border-paper-edge pl-3">
                 <p>
-                  <span className="font-medium">{f.kind === 'taper' ? 'Taper' : 'Coil'} fit of sweep #{f.sweepId}</span> — <span className="num">{summary(f)}</span>
+                  <span className="font-medium">
+                    {f.kind === 'taper' ? 'Taper' : 'Coil'} fit of sweep #{f.sweepId}
+                  </span>{' '}
+                  — <span className="num">{summary(f)}</span>
                 </p>
                 <p className="text-xs text-ink-soft">
-                  {f.result.flags.length === 0 ? 'no flags' : `${f.result.flags.length} flag(s): ${f.result.flags.map((x) => x.code).join(', ')}`} · engine{' '}
-                  <span className="font-mono">{f.engineVersion}</span> · made {formatDateTime(f.createdAt)} · replaced {formatDateTime(f.supersededAt)}
+                  {f.result.flags.length === 0
+                    ? 'no flags'
+                    : `${f.result.flags.length} flag(s): ${f.result.flags.map((x) => x.code).join(', ')}`}{' '}
+                  · engine <span className="font-mono">{f.engineVersion}</span> · made {formatDateTime(f.createdAt)} · replaced{' '}
+                  {formatDateTime(f.supersededAt)}
                 </p>
               </li>
             ))}

@@ -23,7 +23,13 @@ import {
   type PartFormValues,
 } from './part-form-schema';
 
-export const KIND_LABEL: Record<PartKind, string> = { pot: 'Pot', capacitor: 'Capacitor', resistor: 'Resistor', pickup: 'Pickup', other: 'Other' };
+export const KIND_LABEL: Record<PartKind, string> = {
+  pot: 'Pot',
+  capacitor: 'Capacitor',
+  resistor: 'Resistor',
+  pickup: 'Pickup',
+  other: 'Other',
+};
 
 const NOMINAL_EXAMPLES: Record<(typeof NOMINAL_QUANTITY)[PartKind], string> = {
   resistance: 'Engineering notation: 500k, 4k7, 1meg, 250 kΩ',
@@ -66,7 +72,13 @@ function PartFields({ register, errors, kind, nominalText, kindLocked, wide }: F
           ))}
         </SelectField>
       )}
-      <TextField label="Label" autoComplete="off" hint="Printable and unique, e.g. P-0142" error={errors.label?.message} {...register('label')} />
+      <TextField
+        label="Label"
+        autoComplete="off"
+        hint="Printable and unique, e.g. P-0142"
+        error={errors.label?.message}
+        {...register('label')}
+      />
       <TextField
         label="Nominal"
         autoComplete="off"
@@ -84,7 +96,14 @@ function PartFields({ register, errors, kind, nominalText, kindLocked, wide }: F
         error={errors.tolerancePct?.message}
         {...register('tolerancePct')}
       />
-      <TextField label="Marking" autoComplete="off" spellCheck={false} hint="As printed, e.g. 223J or A500K" error={errors.marking?.message} {...register('marking')} />
+      <TextField
+        label="Marking"
+        autoComplete="off"
+        spellCheck={false}
+        hint="As printed, e.g. 223J or A500K"
+        error={errors.marking?.message}
+        {...register('marking')}
+      />
       {kind === 'pot' && (
         <SelectField label="Taper class" error={errors.taperClass?.message} {...register('taperClass')}>
           <option value="">Not given</option>
@@ -96,7 +115,13 @@ function PartFields({ register, errors, kind, nominalText, kindLocked, wide }: F
         </SelectField>
       )}
       <TextField label="Supplier" autoComplete="off" error={errors.supplier?.message} {...register('supplier')} />
-      <TextAreaField label="Notes" className={`sm:col-span-2 ${wide ? 'lg:col-span-4' : 'xl:col-span-3'}`} rows={2} error={errors.notes?.message} {...register('notes')} />
+      <TextAreaField
+        label="Notes"
+        className={`sm:col-span-2 ${wide ? 'lg:col-span-4' : 'xl:col-span-3'}`}
+        rows={2}
+        error={errors.notes?.message}
+        {...register('notes')}
+      />
     </div>
   );
 }

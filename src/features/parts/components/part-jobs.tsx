@@ -20,7 +20,10 @@ type Values = z.input<typeof Schema>;
 function InstallForm({ part, onDone }: { part: PartDetail; onDone: () => void }) {
   const jobs = useJobs(true);
   const install = useInstallPart();
-  const form = useForm<Values, unknown, z.output<typeof Schema>>({ resolver: zodResolver(Schema), defaultValues: { jobId: '', position: '' } });
+  const form = useForm<Values, unknown, z.output<typeof Schema>>({
+    resolver: zodResolver(Schema),
+    defaultValues: { jobId: '', position: '' },
+  });
   const { errors } = form.formState;
   const open = jobs.data?.jobs.filter((j) => j.status === 'open') ?? [];
 
@@ -34,7 +37,8 @@ function InstallForm({ part, onDone }: { part: PartDetail; onDone: () => void })
   });
 
   if (jobs.isError) return <Alert>{jobs.error.message}</Alert>;
-  if (jobs.isSuccess && open.length === 0) return <p className="text-sm text-ink-soft">There is no open job to install into. Open one on the Jobs screen.</p>;
+  if (jobs.isSuccess && open.length === 0)
+    return <p className="text-sm text-ink-soft">There is no open job to install into. Open one on the Jobs screen.</p>;
   return (
     <form onSubmit={onSubmit} noValidate aria-label={`Install ${part.label} in a job`} className="space-y-3">
       {errors.root?.server && <Alert>{errors.root.server.message}</Alert>}
@@ -46,7 +50,13 @@ function InstallForm({ part, onDone }: { part: PartDetail; onDone: () => void })
           </option>
         ))}
       </SelectField>
-      <TextField label="Position" autoComplete="off" hint="Where it goes, e.g. volume, neck" error={errors.position?.message} {...form.register('position')} />
+      <TextField
+        label="Position"
+        autoComplete="off"
+        hint="Where it goes, e.g. volume, neck"
+        error={errors.position?.message}
+        {...form.register('position')}
+      />
       <div className="flex gap-2">
         <Button type="submit" variant="primary" busy={install.isPending} busyText="Installing…">
           Install
@@ -78,7 +88,13 @@ export function PartJobs({ part }: { part: PartDetail }) {
           ))}
         </ul>
       )}
-      {canWrite && installable && (installing ? <InstallForm part={part} onDone={() => setInstalling(false)} /> : <Button onClick={() => setInstalling(true)}>Install in a job…</Button>)}
+      {canWrite &&
+        installable &&
+        (installing ? (
+          <InstallForm part={part} onDone={() => setInstalling(false)} />
+        ) : (
+          <Button onClick={() => setInstalling(true)}>Install in a job…</Button>
+        ))}
     </div>
   );
 }

@@ -19,12 +19,24 @@ function ReadingRows({ readings }: { readings: Reading[] }) {
         <caption className="sr-only">Readings of this part, newest first</caption>
         <thead>
           <tr className="border-b border-paper-edge text-left text-xs uppercase tracking-wide text-ink-soft">
-            <th scope="col" className="py-2 pr-3 font-medium">Quantity</th>
-            <th scope="col" className="py-2 pr-3 text-right font-medium">Value</th>
-            <th scope="col" className="py-2 pr-3 text-right font-medium">Test freq.</th>
-            <th scope="col" className="py-2 pr-3 font-medium">Verdict and reason</th>
-            <th scope="col" className="py-2 pr-3 font-medium">Instrument</th>
-            <th scope="col" className="py-2 font-medium">Who, when</th>
+            <th scope="col" className="py-2 pr-3 font-medium">
+              Quantity
+            </th>
+            <th scope="col" className="py-2 pr-3 text-right font-medium">
+              Value
+            </th>
+            <th scope="col" className="py-2 pr-3 text-right font-medium">
+              Test freq.
+            </th>
+            <th scope="col" className="py-2 pr-3 font-medium">
+              Verdict and reason
+            </th>
+            <th scope="col" className="py-2 pr-3 font-medium">
+              Instrument
+            </th>
+            <th scope="col" className="py-2 font-medium">
+              Who, when
+            </th>
           </tr>
         </thead>
         <tbody>
@@ -32,13 +44,17 @@ function ReadingRows({ readings }: { readings: Reading[] }) {
             <tr key={r.id} className="border-b border-paper-edge/70 align-top last:border-0">
               <td className="py-2 pr-3">
                 {QUANTITY_NAME[r.quantity]}
-                {r.entry !== 'typed' && <span className="ml-1 text-xs text-ink-soft">({r.entry === 'lot' ? 'from lot' : 'from file'})</span>}
+                {r.entry !== 'typed' && (
+                  <span className="ml-1 text-xs text-ink-soft">({r.entry === 'lot' ? 'from lot' : 'from file'})</span>
+                )}
               </td>
               <td className="num py-2 pr-3 text-right whitespace-nowrap">
                 {formatReading(r.quantity, r.value)}
                 {r.uncertainty != null && <span className="block text-xs text-ink-soft">±{formatReading(r.quantity, r.uncertainty)}</span>}
               </td>
-              <td className="num py-2 pr-3 text-right whitespace-nowrap">{r.frequency != null ? formatValue(r.frequency, 'Hz') : <span className="text-ink-faint">—</span>}</td>
+              <td className="num py-2 pr-3 text-right whitespace-nowrap">
+                {r.frequency != null ? formatValue(r.frequency, 'Hz') : <span className="text-ink-faint">—</span>}
+              </td>
               <td className="max-w-md py-2 pr-3">
                 {r.verdict ? (
                   <>

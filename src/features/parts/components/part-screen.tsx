@@ -133,14 +133,14 @@ export function PartScreen({ id }: { id: number }) {
               Printable label
             </a>
             {canWrite && mode === 'view' && (
-            <>
-              <Button onClick={() => setMode('edit')}>Edit</Button>
-              {!retired && (
-                <Button variant="danger" onClick={() => setMode('retire')}>
-                  Retire…
-                </Button>
-              )}
-            </>
+              <>
+                <Button onClick={() => setMode('edit')}>Edit</Button>
+                {!retired && (
+                  <Button variant="danger" onClick={() => setMode('retire')}>
+                    Retire…
+                  </Button>
+                )}
+              </>
             )}
           </>
         }

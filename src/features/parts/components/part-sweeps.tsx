@@ -18,7 +18,14 @@ function SweepBlock({ sweep, part }: { sweep: Sweep; part: PartDetail }) {
   const conditions: Condition[] = [
     { key: 'part', value: `${part.label} (${part.kind})` },
     { key: 'sweep', value: `#${sweep.id}, ${sweep.pointCount} points, uploaded ${formatDateTime(sweep.createdAt)}` },
-    { key: 'columns read', value: sweep.columns ? Object.entries(sweep.columns).map(([role, header]) => `${role} = ${header}`).join('; ') : null },
+    {
+      key: 'columns read',
+      value: sweep.columns
+        ? Object.entries(sweep.columns)
+            .map(([role, header]) => `${role} = ${header}`)
+            .join('; ')
+        : null,
+    },
     { key: 'fit', value: sweep.fit ? `#${sweep.fit.id}` : null },
     ...(sweep.kind === 'taper' ? [{ key: 'profile envelope', value: profile ? profile.name : 'none' }] : []),
   ];
@@ -53,7 +60,13 @@ function SweepBlock({ sweep, part }: { sweep: Sweep; part: PartDetail }) {
       {!sweep.fit ? (
         <p className="text-sm text-ink-soft">No current fit for this sweep.</p>
       ) : sweep.kind === 'taper' && sweep.fit.kind === 'taper' ? (
-        <TaperPlots points={sweep.points} fit={sweep.fit.result} envelope={profile ? { law: profile.rules.law, mMin: profile.rules.mMin, mMax: profile.rules.mMax } : null} fileName={name} conditions={conditions} />
+        <TaperPlots
+          points={sweep.points}
+          fit={sweep.fit.result}
+          envelope={profile ? { law: profile.rules.law, mMin: profile.rules.mMin, mMax: profile.rules.mMax } : null}
+          fileName={name}
+          conditions={conditions}
+        />
       ) : sweep.kind === 'impedance' && sweep.fit.kind === 'coil' ? (
         <ImpedancePlots points={sweep.points} fit={sweep.fit.result} fileName={name} conditions={conditions} />
       ) : null}
@@ -72,7 +85,14 @@ export function PartSweeps({ part }: { part: PartDetail }) {
       ) : sweeps.isError ? (
         <Alert>{sweeps.error.message}</Alert>
       ) : sweeps.data.sweeps.length === 0 ? (
-        <p className="text-sm text-ink-soft">No sweeps yet.{part.kind === 'pot' ? ' A rotation sweep gives the taper law and its mid-rotation value.' : part.kind === 'pickup' ? ' An impedance sweep gives the coil model and its resonance.' : ''}</p>
+        <p className="text-sm text-ink-soft">
+          No sweeps yet.
+          {part.kind === 'pot'
+            ? ' A rotation sweep gives the taper law and its mid-rotation value.'
+            : part.kind === 'pickup'
+              ? ' An impedance sweep gives the coil model and its resonance.'
+              : ''}
+        </p>
       ) : (
         <div className="space-y-6">
           <SweepBlock sweep={sweeps.data.sweeps[0]!} part={part} />

@@ -71,8 +71,19 @@ export function PartsScreen() {
         </div>
       )}
 
-      <form role="search" aria-label="Filter parts" className="mb-4 grid gap-3 sm:grid-cols-[1fr_10rem_10rem]" onSubmit={(e) => e.preventDefault()}>
-        <TextField label="Search" type="search" placeholder="Label, supplier, marking or tag" value={text} onChange={(e) => setText(e.target.value)} />
+      <form
+        role="search"
+        aria-label="Filter parts"
+        className="mb-4 grid gap-3 sm:grid-cols-[1fr_10rem_10rem]"
+        onSubmit={(e) => e.preventDefault()}
+      >
+        <TextField
+          label="Search"
+          type="search"
+          placeholder="Label, supplier, marking or tag"
+          value={text}
+          onChange={(e) => setText(e.target.value)}
+        />
         <SelectField label="Kind" value={filters.kind ?? ''} onChange={(e) => setFilter('kind', e.target.value)}>
           <option value="">All kinds</option>
           {PART_KINDS.map((k) => (
@@ -102,7 +113,9 @@ export function PartsScreen() {
       ) : (
         <>
           <p className="mb-2 text-sm text-ink-soft" aria-live="polite">
-            {rows.length === PARTS_LIST_LIMIT ? `Showing the newest ${PARTS_LIST_LIMIT} parts; narrow the filters to see others.` : `${rows.length} ${rows.length === 1 ? 'part' : 'parts'}`}
+            {rows.length === PARTS_LIST_LIMIT
+              ? `Showing the newest ${PARTS_LIST_LIMIT} parts; narrow the filters to see others.`
+              : `${rows.length} ${rows.length === 1 ? 'part' : 'parts'}`}
             {parts.isFetching && ' · updating…'}
           </p>
           <PartsTable parts={rows} caption="Parts, filtered as above. Column headers sort." />

@@ -110,7 +110,15 @@ export function PartsTable({ parts, caption }: { parts: Part[]; caption: string 
           {table.getRowModel().rows.map((row) => (
             <tr key={row.id} className="border-b border-paper-edge/70 last:border-b-0 hover:bg-paper">
               {row.getVisibleCells().map((cell) => (
-                <td key={cell.id} data-label={cell.column.id === 'label' || typeof cell.column.columnDef.header !== 'string' ? undefined : cell.column.columnDef.header} className={`px-3 py-2 align-middle ${cell.column.columnDef.meta?.numeric ? 'num text-right whitespace-nowrap' : ''}`}>
+                <td
+                  key={cell.id}
+                  data-label={
+                    cell.column.id === 'label' || typeof cell.column.columnDef.header !== 'string'
+                      ? undefined
+                      : cell.column.columnDef.header
+                  }
+                  className={`px-3 py-2 align-middle ${cell.column.columnDef.meta?.numeric ? 'num text-right whitespace-nowrap' : ''}`}
+                >
                   {flexRender(cell.column.columnDef.cell, cell.getContext())}
                 </td>
               ))}

@@ -31,7 +31,14 @@ export function RetirePartForm({ part, onDone }: { part: Part; onDone: () => voi
     <form onSubmit={onSubmit} noValidate aria-label={`Retire ${part.label}`} className="space-y-3">
       <p className="text-sm text-ink-soft">A retired part stays in the notebook with its history; it just leaves the working stock.</p>
       {errors.root?.server && <Alert>{errors.root.server.message}</Alert>}
-      <TextAreaField label="Reason" rows={2} autoFocus placeholder="e.g. wiper worn, scratchy at mid-rotation" error={errors.statusReason?.message} {...form.register('statusReason')} />
+      <TextAreaField
+        label="Reason"
+        rows={2}
+        autoFocus
+        placeholder="e.g. wiper worn, scratchy at mid-rotation"
+        error={errors.statusReason?.message}
+        {...form.register('statusReason')}
+      />
       <div className="flex flex-wrap gap-2">
         <Button type="submit" variant="danger" busy={update.isPending} busyText="Retiring…">
           Retire part

@@ -24,10 +24,38 @@ const pointsOnly = (stroke: string, label: string, size = 6): uPlot.Series => ({
 /** 10000 → "10k", 1e6 → "1M": tick labels of an ohm axis (the unit is in the axis name). */
 const ohmTicks = (_u: uPlot, splits: (number | null)[]) =>
   // uPlot's log axis blanks the ticks it does not label (null).
-  splits.map((v) => (v == null ? '' : v >= 1e6 ? `${Number((v / 1e6).toPrecision(3))}M` : v >= 1e3 ? `${Number((v / 1e3).toPrecision(3))}k` : String(Number(v.toPrecision(3)))));
-const line = (stroke: string, label: string, dash?: number[]): uPlot.Series => ({ label, stroke, width: 2, points: { show: false }, ...(dash ? { dash } : {}) });
+  splits.map((v) =>
+    v == null
+      ? ''
+      : v >= 1e6
+        ? `${Number((v / 1e6).toPrecision(3))}M`
+        : v >= 1e3
+          ? `${Number((v / 1e3).toPrecision(3))}k`
+          : String(Number(v.toPrecision(3))),
+  );
+const line = (stroke: string, label: string, dash?: number[]): uPlot.Series => ({
+  label,
+  stroke,
+  width: 2,
+  points: { show: false },
+  ...(dash ? { dash } : {}),
+});
 
-function PlotFigure({ title, name, options, data, label, conditions }: { title: string; name: string; options: PlotOptions; data: AlignedData; label: string; conditions: Condition[] }) {
+function PlotFigure({
+  title,
+  name,
+  options,
+  data,
+  label,
+  conditions,
+}: {
+  title: string;
+  name: string;
+  options: PlotOptions;
+  data: AlignedData;
+  label: string;
+  conditions: Condition[];
+}) {
   const ref = useRef<uPlot | null>(null);
   return (
     <figure className="min-w-0">
@@ -71,15 +99,21 @@ export function TaperPlots({
     const at = new Map(measured.map((p) => [p.rotation, p.resistance / fit.total]));
     const law = envelopeLaw(envelope?.law, fit.law);
     const showEnvelope = envelope?.mMin != null && envelope?.mMax != null && law !== null;
-    const mainData: (number | null)[][] = [
-      xs,
-      xs.map((x) => at.get(x) ?? null),
-      xs.map((x) => taperLawValue(fit.law, fit.m, x / 100)),
+    const mainData: (number | null)[][] = [xs, xs.map((x) => at.get(x) ?? null), xs.map((x) => taperLawValue(fit.law, fit.m, x / 100))];
+    const series: uPlot.Series[] = [
+      { label: 'Rotation (%)' },
+      pointsOnly(SERIES_COLOURS[0]!, 'Measured'),
+      line(SERIES_COLOURS[1]!, `Fitted ${fit.law}, m ${(fit.m * 100).toFixed(1)} %`),
     ];
-    const series: uPlot.Series[] = [{ label: 'Rotation (%)' }, pointsOnly(SERIES_COLOURS[0]!, 'Measured'), line(SERIES_COLOURS[1]!, `Fitted ${fit.law}, m ${(fit.m * 100).toFixed(1)} %`)];
     if (showEnvelope) {
-      mainData.push(xs.map((x) => taperLawValue(law, envelope.mMin!, x / 100)), xs.map((x) => taperLawValue(law, envelope.mMax!, x / 100)));
-      series.push(line(SERIES_COLOURS[2]!, `Profile, m ${(envelope.mMin! * 100).toFixed(0)} %`, [6, 4]), line(SERIES_COLOURS[2]!, `Profile, m ${(envelope.mMax! * 100).toFixed(0)} %`, [6, 4]));
+      mainData.push(
+        xs.map((x) => taperLawValue(law, envelope.mMin!, x / 100)),
+        xs.map((x) => taperLawValue(law, envelope.mMax!, x / 100)),
+      );
+      series.push(
+        line(SERIES_COLOURS[2]!, `Profile, m ${(envelope.mMin! * 100).toFixed(0)} %`, [6, 4]),
+        line(SERIES_COLOURS[2]!, `Profile, m ${(envelope.mMax! * 100).toFixed(0)} %`, [6, 4]),
+      );
     }
     const mainOptions: PlotOptions = {
       height: 300,
@@ -89,7 +123,11 @@ export function TaperPlots({
       cursor: { drag: { x: false, y: false } },
     };
     const rx = measured.map((p) => p.rotation);
-    const residualData: (number | null)[][] = [rx, measured.map((p) => (p.resistance / fit.total - taperLawValue(fit.law, fit.m, p.rotation / 100)) * 100), rx.map(() => 0)];
+    const residualData: (number | null)[][] = [
+      rx,
+      measured.map((p) => (p.resistance / fit.total - taperLawValue(fit.law, fit.m, p.rotation / 100)) * 100),
+      rx.map(() => 0),
+    ];
     const residualOptions: PlotOptions = {
       height: 170,
       scales: { x: { time: false, range: [0, 100] } },
@@ -102,8 +140,22 @@ export function TaperPlots({
 
   return (
     <div className="grid gap-4">
-      <PlotFigure title="Taper: R1W / R13 against rotation" name={`${fileName}-taper`} options={mainOptions} data={main} conditions={conditions} label="Measured taper points, the fitted law and the profile's envelope, as a fraction of the total resistance against rotation in percent" />
-      <PlotFigure title="Residuals" name={`${fileName}-taper-residuals`} options={residualOptions} data={residuals} conditions={conditions} label="Difference between measured and fitted taper, percent of total resistance, against rotation" />
+      <PlotFigure
+        title="Taper: R1W / R13 against rotation"
+        name={`${fileName}-taper`}
+        options={mainOptions}
+        data={main}
+        conditions={conditions}
+        label="Measured taper points, the fitted law and the profile's envelope, as a fraction of the total resistance against rotation in percent"
+      />
+      <PlotFigure
+        title="Residuals"
+        name={`${fileName}-taper-residuals`}
+        options={residualOptions}
+        data={residuals}
+        conditions={conditions}
+        label="Difference between measured and fitted taper, percent of total resistance, against rotation"
+      />
     </div>
   );
 }
@@ -111,7 +163,17 @@ export function TaperPlots({
 const magnitude = (p: { re: number; im: number }) => Math.hypot(p.re, p.im);
 const phaseDeg = (p: { re: number; im: number }) => (Math.atan2(p.im, p.re) * 180) / Math.PI;
 
-export function ImpedancePlots({ points, fit, fileName, conditions }: { points: { frequency: number; re: number; im: number }[]; fit: CoilFit; fileName: string; conditions: Condition[] }) {
+export function ImpedancePlots({
+  points,
+  fit,
+  fileName,
+  conditions,
+}: {
+  points: { frequency: number; re: number; im: number }[];
+  fit: CoilFit;
+  fileName: string;
+  conditions: Condition[];
+}) {
   const plots = useMemo(() => {
     const measured = [...points].sort((a, b) => a.frequency - b.frequency);
     const f = measured.map((p) => p.frequency);
@@ -132,28 +194,65 @@ export function ImpedancePlots({ points, fit, fileName, conditions }: { points: 
       height: 220,
       scales: { x: xScale, y: { range: [-90, 90] } },
       axes: [frequencyX.axis, axis('Phase (°)', { size: 60 })],
-      series: [{ label: 'Frequency (Hz)' }, pointsOnly(SERIES_COLOURS[0]!, 'Measured phase', dot), line(SERIES_COLOURS[1]!, 'Fitted model')],
+      series: [
+        { label: 'Frequency (Hz)' },
+        pointsOnly(SERIES_COLOURS[0]!, 'Measured phase', dot),
+        line(SERIES_COLOURS[1]!, 'Fitted model'),
+      ],
     };
     const rf = fit.residuals.map((r) => r.frequency);
     const residualOptions: PlotOptions = {
       ...common,
       height: 190,
       scales: { x: xScale, y: { auto: true }, deg: { auto: true } },
-      axes: [frequencyX.axis, axis('ln|Z| residual (Np)', { size: 60, space: 24, values: (_u, s) => s.map((v) => (v == null ? '' : String(Number(v.toPrecision(2))))) }), axis('Phase residual (°)', { side: 1, scale: 'deg', size: 60, grid: { show: false } })],
-      series: [{ label: 'Frequency (Hz)' }, pointsOnly(SERIES_COLOURS[0]!, 'ln|Z| measured − fitted', dot), { ...pointsOnly(SERIES_COLOURS[3]!, 'Phase measured − fitted (°)', dot), scale: 'deg' }],
+      axes: [
+        frequencyX.axis,
+        axis('ln|Z| residual (Np)', {
+          size: 60,
+          space: 24,
+          values: (_u, s) => s.map((v) => (v == null ? '' : String(Number(v.toPrecision(2))))),
+        }),
+        axis('Phase residual (°)', { side: 1, scale: 'deg', size: 60, grid: { show: false } }),
+      ],
+      series: [
+        { label: 'Frequency (Hz)' },
+        pointsOnly(SERIES_COLOURS[0]!, 'ln|Z| measured − fitted', dot),
+        { ...pointsOnly(SERIES_COLOURS[3]!, 'Phase measured − fitted (°)', dot), scale: 'deg' },
+      ],
     };
     return {
       mag: { options: magOptions, data: [f, measured.map(magnitude), model.map(magnitude)] as AlignedData },
       phase: { options: phaseOptions, data: [f, measured.map(phaseDeg), model.map(phaseDeg)] as AlignedData },
-      residuals: { options: residualOptions, data: [rf, fit.residuals.map((r) => r.logMag), fit.residuals.map((r) => r.phaseDeg)] as AlignedData },
+      residuals: {
+        options: residualOptions,
+        data: [rf, fit.residuals.map((r) => r.logMag), fit.residuals.map((r) => r.phaseDeg)] as AlignedData,
+      },
     };
   }, [points, fit]);
 
   return (
     <div className="grid gap-4">
-      <PlotFigure title="Impedance magnitude" name={`${fileName}-impedance`} {...plots.mag} conditions={conditions} label="Measured impedance magnitude and the fitted coil model, ohms on a log scale, against log frequency" />
-      <PlotFigure title="Phase" name={`${fileName}-phase`} {...plots.phase} conditions={conditions} label="Measured phase and the fitted coil model, degrees, against log frequency" />
-      <PlotFigure title="Residuals" name={`${fileName}-impedance-residuals`} {...plots.residuals} conditions={conditions} label="Residuals of the coil fit: ln|Z| in nepers and phase in degrees against log frequency" />
+      <PlotFigure
+        title="Impedance magnitude"
+        name={`${fileName}-impedance`}
+        {...plots.mag}
+        conditions={conditions}
+        label="Measured impedance magnitude and the fitted coil model, ohms on a log scale, against log frequency"
+      />
+      <PlotFigure
+        title="Phase"
+        name={`${fileName}-phase`}
+        {...plots.phase}
+        conditions={conditions}
+        label="Measured phase and the fitted coil model, degrees, against log frequency"
+      />
+      <PlotFigure
+        title="Residuals"
+        name={`${fileName}-impedance-residuals`}
+        {...plots.residuals}
+        conditions={conditions}
+        label="Residuals of the coil fit: ln|Z| in nepers and phase in degrees against log frequency"
+      />
     </div>
   );
 }

@@ -14,7 +14,10 @@ import { useUploadSweep, type SweepUpload } from '../api/sweeps';
 
 const UploadSchema = z.object({
   kind: SweepKindSchema,
-  fullRotationDeg: z.coerce.number({ message: 'Type the full rotation in degrees, e.g. 300.' }).positive('Must be more than 0°.').max(3600, 'At most 3600°.'),
+  fullRotationDeg: z.coerce
+    .number({ message: 'Type the full rotation in degrees, e.g. 300.' })
+    .positive('Must be more than 0°.')
+    .max(3600, 'At most 3600°.'),
   file: z.custom<FileList>((v) => typeof FileList !== 'undefined' && v instanceof FileList && v.length === 1, 'Choose a CSV file.'),
 });
 type UploadValues = z.input<typeof UploadSchema>;
@@ -27,9 +30,15 @@ export function IssueList({ issues }: { issues: FileIssue[] }) {
         <caption className="sr-only">Problems found in the file</caption>
         <thead>
           <tr className="border-b border-fail/30 text-left text-xs uppercase tracking-wide text-ink-soft">
-            <th scope="col" className="py-1.5 pr-3 text-right font-medium">Line</th>
-            <th scope="col" className="py-1.5 pr-3 font-medium">Column</th>
-            <th scope="col" className="py-1.5 font-medium">Problem</th>
+            <th scope="col" className="py-1.5 pr-3 text-right font-medium">
+              Line
+            </th>
+            <th scope="col" className="py-1.5 pr-3 font-medium">
+              Column
+            </th>
+            <th scope="col" className="py-1.5 font-medium">
+              Problem
+            </th>
           </tr>
         </thead>
         <tbody>
@@ -101,7 +110,12 @@ function MappingStep({
   onCancel: () => void;
 }) {
   const [form, setForm] = useState<'polar' | 'rect'>(needs.detected.re || needs.detected.im ? 'rect' : 'polar');
-  const roles: ColumnRole[] = kind === 'taper' ? ['rotation', 'resistance', 'resistanceW3', 'total'] : form === 'polar' ? ['frequency', 'magnitude', 'phase'] : ['frequency', 're', 'im'];
+  const roles: ColumnRole[] =
+    kind === 'taper'
+      ? ['rotation', 'resistance', 'resistanceW3', 'total']
+      : form === 'polar'
+        ? ['frequency', 'magnitude', 'phase']
+        : ['frequency', 're', 'im'];
   const initial = (role: ColumnRole, i: number): Choice => {
     const d = needs.detected[role];
     const units = ROLE_UNITS[role]!;
@@ -112,10 +126,17 @@ function MappingStep({
     return { column: i < needs.header.length ? String(i) : '', unit: unitFromHeader };
   };
   const [choices, setChoices] = useState<Record<string, Choice>>(() =>
-    Object.fromEntries((['rotation', 'resistance', 'resistanceW3', 'total', 'frequency', 'magnitude', 'phase', 're', 'im'] as ColumnRole[]).map((r) => {
-      const list = kind === 'taper' ? ['rotation', 'resistance', 'resistanceW3', 'total'] : r === 're' || r === 'im' ? ['frequency', 're', 'im'] : ['frequency', 'magnitude', 'phase'];
-      return [r, initial(r, Math.max(0, list.indexOf(r)))];
-    })),
+    Object.fromEntries(
+      (['rotation', 'resistance', 'resistanceW3', 'total', 'frequency', 'magnitude', 'phase', 're', 'im'] as ColumnRole[]).map((r) => {
+        const list =
+          kind === 'taper'
+            ? ['rotation', 'resistance', 'resistanceW3', 'total']
+            : r === 're' || r === 'im'
+              ? ['frequency', 're', 'im']
+              : ['frequency', 'magnitude', 'phase'];
+        return [r, initial(r, Math.max(0, list.indexOf(r)))];
+      }),
+    ),
   );
   const [error, setError] = useState<string | null>(null);
 
@@ -128,7 +149,10 @@ function MappingStep({
         if (role === 'resistanceW3' || role === 'total') continue;
         return setError(`Choose the column that holds the ${ROLE_LABEL[role]!.toLowerCase()}.`);
       }
-      if (used.has(c.column)) return setError(`One column cannot hold both the ${ROLE_LABEL[used.get(c.column)!]!.toLowerCase()} and the ${ROLE_LABEL[role]!.toLowerCase()}.`);
+      if (used.has(c.column))
+        return setError(
+          `One column cannot hold both the ${ROLE_LABEL[used.get(c.column)!]!.toLowerCase()} and the ${ROLE_LABEL[role]!.toLowerCase()}.`,
+        );
       used.set(c.column, role);
       mapping[role] = { column: Number(c.column), unit: c.unit };
     }
@@ -171,7 +195,12 @@ function MappingStep({
                   </option>
                 ))}
               </SelectField>
-              <SelectField label={`Unit of ${ROLE_LABEL[role]!.replace(' (optional)', '').toLowerCase()}`} value={c.unit} onChange={(e) => set({ unit: e.target.value })} disabled={c.column === ''}>
+              <SelectField
+                label={`Unit of ${ROLE_LABEL[role]!.replace(' (optional)', '').toLowerCase()}`}
+                value={c.unit}
+                onChange={(e) => set({ unit: e.target.value })}
+                disabled={c.column === ''}
+              >
                 {ROLE_UNITS[role]!.map((u) => (
                   <option key={u.value} value={u.value}>
                     {u.label}
@@ -230,7 +259,12 @@ export function SweepUploadForm({ partId, partKind, onDone }: { partId: number; 
       }
       const issues = isApiError(err) ? err.issues : [];
       // With a list of problems the table says where; the heading only says how many.
-      const message = issues.length > 0 ? `The file was refused: ${issues.length === 1 ? 'one problem' : `${issues.length} problems`}. Fix the file and upload it again.` : err instanceof Error ? err.message : 'The upload failed.';
+      const message =
+        issues.length > 0
+          ? `The file was refused: ${issues.length === 1 ? 'one problem' : `${issues.length} problems`}. Fix the file and upload it again.`
+          : err instanceof Error
+            ? err.message
+            : 'The upload failed.';
       setRefused({ message, issues });
     }
   };
@@ -242,8 +276,21 @@ export function SweepUploadForm({ partId, partKind, onDone }: { partId: number; 
 
   return (
     <div className="space-y-3">
-      <form onSubmit={onSubmit} noValidate aria-label="Upload a sweep" className="grid items-start gap-3 sm:grid-cols-[minmax(0,2fr)_minmax(8.5rem,1fr)_minmax(7rem,1fr)_auto]">
-        <TextField key={fileKey} label="Sweep file (CSV)" type="file" accept=".csv,.txt,.tsv,text/csv,text/plain" error={errors.file?.message} inputClassName="py-1.5" {...form.register('file')} />
+      <form
+        onSubmit={onSubmit}
+        noValidate
+        aria-label="Upload a sweep"
+        className="grid items-start gap-3 sm:grid-cols-[minmax(0,2fr)_minmax(8.5rem,1fr)_minmax(7rem,1fr)_auto]"
+      >
+        <TextField
+          key={fileKey}
+          label="Sweep file (CSV)"
+          type="file"
+          accept=".csv,.txt,.tsv,text/csv,text/plain"
+          error={errors.file?.message}
+          inputClassName="py-1.5"
+          {...form.register('file')}
+        />
         <SelectField label="Sweep of" error={errors.kind?.message} {...form.register('kind')}>
           <option value="taper" disabled={partKind !== 'pot'}>
             Rotation
@@ -251,7 +298,14 @@ export function SweepUploadForm({ partId, partKind, onDone }: { partId: number; 
           <option value="impedance">Impedance</option>
         </SelectField>
         {kind === 'taper' ? (
-          <TextField label="Full rotation (°)" inputMode="decimal" inputClassName="num" hint="Used when the file gives degrees" error={errors.fullRotationDeg?.message} {...form.register('fullRotationDeg')} />
+          <TextField
+            label="Full rotation (°)"
+            inputMode="decimal"
+            inputClassName="num"
+            hint="Used when the file gives degrees"
+            error={errors.fullRotationDeg?.message}
+            {...form.register('fullRotationDeg')}
+          />
         ) : (
           <div className="hidden sm:block" />
         )}

@@ -7,4 +7,5 @@ export const createInvitation = (input: InviteInput) =>
   api.post<{ id: string; email: string; role: Role; expiresAt: number }>('/api/team/invitations', input);
 
 // The invitation e-mail lands in the outbox too.
-export const useCreateInvitation = () => useMutation({ mutationFn: createInvitation, meta: { invalidates: [['team', 'invitations'], ['outbox']] } });
+export const useCreateInvitation = () =>
+  useMutation({ mutationFn: createInvitation, meta: { invalidates: [['team', 'invitations'], ['outbox']] } });

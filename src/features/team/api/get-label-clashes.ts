@@ -9,6 +9,7 @@ export interface LabelClash {
 
 export const getLabelClashes = (signal?: AbortSignal) => api.get<{ clashes: LabelClash[] }>('/api/team/label-clashes', { signal });
 
-export const labelClashesQueryOptions = () => queryOptions({ queryKey: ['team', 'label-clashes'], queryFn: ({ signal }) => getLabelClashes(signal) });
+export const labelClashesQueryOptions = () =>
+  queryOptions({ queryKey: ['team', 'label-clashes'], queryFn: ({ signal }) => getLabelClashes(signal) });
 
 export const useLabelClashes = () => useQuery(labelClashesQueryOptions());

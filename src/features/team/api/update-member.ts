@@ -4,6 +4,7 @@ import { api } from '@/lib/api-client';
 
 export type MemberChange = { role?: Role; disabled?: boolean };
 
-export const updateMember = ({ id, change }: { id: string; change: MemberChange }) => api.patch<{ ok: true }>(`/api/team/members/${encodeURIComponent(id)}`, change);
+export const updateMember = ({ id, change }: { id: string; change: MemberChange }) =>
+  api.patch<{ ok: true }>(`/api/team/members/${encodeURIComponent(id)}`, change);
 
 export const useUpdateMember = () => useMutation({ mutationFn: updateMember, meta: { invalidates: [['team', 'members']] } });

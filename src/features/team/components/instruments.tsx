@@ -4,7 +4,13 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
-import { INSTRUMENT_KINDS, InstrumentInputSchema, READING_QUANTITIES, type InstrumentInput, type ReadingQuantity } from '@shared/schemas/bench';
+import {
+  INSTRUMENT_KINDS,
+  InstrumentInputSchema,
+  READING_QUANTITIES,
+  type InstrumentInput,
+  type ReadingQuantity,
+} from '@shared/schemas/bench';
 import { formatValue } from '@shared/units/format';
 import { QUANTITY_UNIT } from '@shared/units/quantities';
 import { useInstruments, type Instrument } from '@/components/readings/api';
@@ -27,7 +33,12 @@ const RESOLUTION_EXAMPLE: Record<ReadingQuantity, string> = {
   q: 'e.g. 0.1',
 };
 
-const KIND_LABEL: Record<(typeof INSTRUMENT_KINDS)[number], string> = { multimeter: 'Multimeter', 'lcr-meter': 'LCR meter', analyser: 'Impedance analyser', other: 'Other' };
+const KIND_LABEL: Record<(typeof INSTRUMENT_KINDS)[number], string> = {
+  multimeter: 'Multimeter',
+  'lcr-meter': 'LCR meter',
+  analyser: 'Impedance analyser',
+  other: 'Other',
+};
 
 const Acc = z.object({ pct: z.string(), counts: z.string(), resolution: z.string() });
 const Fields = z.object({
@@ -75,7 +86,10 @@ const Schema = Fields.transform((v, ctx): InstrumentInput => {
   if (!checked.success) {
     for (const issue of checked.error.issues) {
       const path = issue.path.map(String);
-      const target = path[0] === 'accuracy' ? ['accuracy', path[1] ?? 'resistance', path[2] === 'counts' ? 'counts' : path[2] === 'resolution' ? 'resolution' : 'pct'] : [path[0] ?? 'name'];
+      const target =
+        path[0] === 'accuracy'
+          ? ['accuracy', path[1] ?? 'resistance', path[2] === 'counts' ? 'counts' : path[2] === 'resolution' ? 'resolution' : 'pct']
+          : [path[0] ?? 'name'];
       ctx.addIssue({ code: 'custom', path: target, message: issue.message });
     }
     return z.NEVER;
@@ -112,7 +126,12 @@ function InstrumentForm({ instrument, onDone }: { instrument?: Instrument; onDon
     }
   });
   return (
-    <form onSubmit={onSubmit} noValidate aria-label={instrument ? `Edit ${instrument.name}` : 'New instrument'} className="space-y-4 rounded-md border border-paper-edge bg-paper p-3 sm:p-4">
+    <form
+      onSubmit={onSubmit}
+      noValidate
+      aria-label={instrument ? `Edit ${instrument.name}` : 'New instrument'}
+      className="space-y-4 rounded-md border border-paper-edge bg-paper p-3 sm:p-4"
+    >
       <h3 className="text-sm font-semibold">{instrument ? `Edit “${instrument.name}”` : 'New instrument'}</h3>
       {errors.root?.server && <Alert>{errors.root.server.message}</Alert>}
       <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
@@ -136,15 +155,25 @@ function InstrumentForm({ instrument, onDone }: { instrument?: Instrument; onDon
         />
       </div>
       <fieldset>
-        <legend className="mb-1 text-xs font-medium uppercase tracking-wide text-ink-soft">Accuracy: ±(% of reading + counts × resolution); leave a row blank when the meter does not measure it</legend>
+        <legend className="mb-1 text-xs font-medium uppercase tracking-wide text-ink-soft">
+          Accuracy: ±(% of reading + counts × resolution); leave a row blank when the meter does not measure it
+        </legend>
         <div className="overflow-x-auto">
           <table className="w-full min-w-[560px] border-collapse text-sm">
             <thead>
               <tr className="text-left text-xs text-ink-soft">
-                <th scope="col" className="py-1 pr-3 font-medium">Quantity</th>
-                <th scope="col" className="py-1 pr-3 font-medium">% of reading</th>
-                <th scope="col" className="py-1 pr-3 font-medium">Counts</th>
-                <th scope="col" className="py-1 font-medium">Resolution (one count)</th>
+                <th scope="col" className="py-1 pr-3 font-medium">
+                  Quantity
+                </th>
+                <th scope="col" className="py-1 pr-3 font-medium">
+                  % of reading
+                </th>
+                <th scope="col" className="py-1 pr-3 font-medium">
+                  Counts
+                </th>
+                <th scope="col" className="py-1 font-medium">
+                  Resolution (one count)
+                </th>
               </tr>
             </thead>
             <tbody>
@@ -153,15 +182,43 @@ function InstrumentForm({ instrument, onDone }: { instrument?: Instrument; onDon
                 const unit = QUANTITY_UNIT[q];
                 return (
                   <tr key={q} className="align-top">
-                    <th scope="row" className="py-1 pr-3 pt-3 text-left font-normal">{QUANTITY_NAME[q]}</th>
+                    <th scope="row" className="py-1 pr-3 pt-3 text-left font-normal">
+                      {QUANTITY_NAME[q]}
+                    </th>
                     <td className="py-1 pr-3">
-                      <TextField label={<span className="sr-only">{QUANTITY_NAME[q]}: % of reading</span>} inputMode="decimal" inputClassName="num" autoComplete="off" error={e?.pct?.message} {...form.register(`accuracy.${q}.pct`)} />
+                      <TextField
+                        label={<span className="sr-only">{QUANTITY_NAME[q]}: % of reading</span>}
+                        inputMode="decimal"
+                        inputClassName="num"
+                        autoComplete="off"
+                        error={e?.pct?.message}
+                        {...form.register(`accuracy.${q}.pct`)}
+                      />
                     </td>
                     <td className="py-1 pr-3">
-                      <TextField label={<span className="sr-only">{QUANTITY_NAME[q]}: counts</span>} inputMode="numeric" inputClassName="num" autoComplete="off" error={e?.counts?.message} {...form.register(`accuracy.${q}.counts`)} />
+                      <TextField
+                        label={<span className="sr-only">{QUANTITY_NAME[q]}: counts</span>}
+                        inputMode="numeric"
+                        inputClassName="num"
+                        autoComplete="off"
+                        error={e?.counts?.message}
+                        {...form.register(`accuracy.${q}.counts`)}
+                      />
                     </td>
                     <td className="py-1">
-                      <TextField label={<span className="sr-only">{QUANTITY_NAME[q]}: resolution{unit ? ` in ${unit}` : ''}</span>} inputClassName="num" autoComplete="off" placeholder={RESOLUTION_EXAMPLE[q]} spellCheck={false} error={e?.resolution?.message} {...form.register(`accuracy.${q}.resolution`)} />
+                      <TextField
+                        label={
+                          <span className="sr-only">
+                            {QUANTITY_NAME[q]}: resolution{unit ? ` in ${unit}` : ''}
+                          </span>
+                        }
+                        inputClassName="num"
+                        autoComplete="off"
+                        placeholder={RESOLUTION_EXAMPLE[q]}
+                        spellCheck={false}
+                        error={e?.resolution?.message}
+                        {...form.register(`accuracy.${q}.resolution`)}
+                      />
                     </td>
                   </tr>
                 );
@@ -200,12 +257,26 @@ export function InstrumentsBlock() {
           <caption className="sr-only">Instruments and their calibration</caption>
           <thead>
             <tr className="border-b border-paper-edge text-left text-xs uppercase tracking-wide text-ink-soft">
-              <th scope="col" className="py-2 pr-3 font-medium">Name</th>
-              <th scope="col" className="py-2 pr-3 font-medium">Kind</th>
-              <th scope="col" className="py-2 pr-3 font-medium">Serial</th>
-              <th scope="col" className="py-2 pr-3 font-medium">Accuracy</th>
-              <th scope="col" className="py-2 pr-3 font-medium">Calibration due</th>
-              {canWrite && <th scope="col" className="py-2 font-medium"><span className="sr-only">Actions</span></th>}
+              <th scope="col" className="py-2 pr-3 font-medium">
+                Name
+              </th>
+              <th scope="col" className="py-2 pr-3 font-medium">
+                Kind
+              </th>
+              <th scope="col" className="py-2 pr-3 font-medium">
+                Serial
+              </th>
+              <th scope="col" className="py-2 pr-3 font-medium">
+                Accuracy
+              </th>
+              <th scope="col" className="py-2 pr-3 font-medium">
+                Calibration due
+              </th>
+              {canWrite && (
+                <th scope="col" className="py-2 font-medium">
+                  <span className="sr-only">Actions</span>
+                </th>
+              )}
             </tr>
           </thead>
           <tbody>
@@ -223,7 +294,9 @@ export function InstrumentsBlock() {
                 </td>
                 <td className="num py-2 pr-3 whitespace-nowrap">
                   {i.calibrationDue ?? '—'}
-                  {i.calibrationOverdue && <OverdueMark title="The calibration date has passed: readings taken with this instrument are marked" />}
+                  {i.calibrationOverdue && (
+                    <OverdueMark title="The calibration date has passed: readings taken with this instrument are marked" />
+                  )}
                 </td>
                 {canWrite && (
                   <td className="py-1 text-right">
@@ -237,7 +310,16 @@ export function InstrumentsBlock() {
           </tbody>
         </table>
       </div>
-      {canWrite && (editing ? <InstrumentForm key={editing === 'new' ? 'new' : editing.id} instrument={editing === 'new' ? undefined : editing} onDone={() => setEditing(null)} /> : <Button onClick={() => setEditing('new')}>New instrument…</Button>)}
+      {canWrite &&
+        (editing ? (
+          <InstrumentForm
+            key={editing === 'new' ? 'new' : editing.id}
+            instrument={editing === 'new' ? undefined : editing}
+            onDone={() => setEditing(null)}
+          />
+        ) : (
+          <Button onClick={() => setEditing('new')}>New instrument…</Button>
+        ))}
     </div>
   );
 }

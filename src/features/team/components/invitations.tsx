@@ -78,7 +78,14 @@ export function InvitationsList() {
                 {state === 'open' ? `until ${formatDate(inv.expiresAt)}` : `sent ${formatDate(inv.createdAt)}`}
               </span>
               {state === 'open' && (
-                <Button size="sm" variant="danger" busy={revoke.isPending && revoke.variables === inv.id} busyText="Revoking…" onClick={() => revoke.mutate(inv.id)} aria-label={`Revoke the invitation of ${inv.email}`}>
+                <Button
+                  size="sm"
+                  variant="danger"
+                  busy={revoke.isPending && revoke.variables === inv.id}
+                  busyText="Revoking…"
+                  onClick={() => revoke.mutate(inv.id)}
+                  aria-label={`Revoke the invitation of ${inv.email}`}
+                >
                   Revoke
                 </Button>
               )}

@@ -10,7 +10,9 @@ export function LabelClashes() {
   if (!clashes.data || clashes.data.clashes.length === 0) return null;
   return (
     <Alert tone="info" title={`Part labels that differ only in case (${clashes.data.clashes.length})`}>
-      <p>Labels are looked up in any case, so each group below answers as a clash until one part is renamed. Nothing was renamed for you.</p>
+      <p>
+        Labels are looked up in any case, so each group below answers as a clash until one part is renamed. Nothing was renamed for you.
+      </p>
       <ul className="mt-1 list-disc pl-5">
         {clashes.data.clashes.map((c) => (
           <li key={c.key}>

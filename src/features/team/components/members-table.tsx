@@ -27,11 +27,21 @@ export function MembersTable() {
           <caption className="sr-only">Members of the workshop</caption>
           <thead className="text-left text-ink-soft">
             <tr className="border-b border-paper-edge">
-              <th scope="col" className="px-2 py-2 font-medium">Name</th>
-              <th scope="col" className="px-2 py-2 font-medium">E-mail</th>
-              <th scope="col" className="px-2 py-2 font-medium">Role</th>
-              <th scope="col" className="px-2 py-2 font-medium">Account</th>
-              <th scope="col" className="px-2 py-2 font-medium">Since</th>
+              <th scope="col" className="px-2 py-2 font-medium">
+                Name
+              </th>
+              <th scope="col" className="px-2 py-2 font-medium">
+                E-mail
+              </th>
+              <th scope="col" className="px-2 py-2 font-medium">
+                Role
+              </th>
+              <th scope="col" className="px-2 py-2 font-medium">
+                Account
+              </th>
+              <th scope="col" className="px-2 py-2 font-medium">
+                Since
+              </th>
             </tr>
           </thead>
           <tbody>
@@ -66,9 +76,19 @@ export function MembersTable() {
                   </td>
                   <td className="px-2 py-2">
                     <div className="flex flex-wrap items-center gap-2">
-                      {m.disabledAt ? <Badge tone="fail" icon="cross" label="Disabled" /> : <Badge tone="pass" icon="check" label="Active" />}
+                      {m.disabledAt ? (
+                        <Badge tone="fail" icon="cross" label="Disabled" />
+                      ) : (
+                        <Badge tone="pass" icon="check" label="Active" />
+                      )}
                       {!self && (
-                        <Button size="sm" variant={m.disabledAt ? 'secondary' : 'danger'} disabled={busy} onClick={() => change(m, undefined, !m.disabledAt)} aria-label={`${m.disabledAt ? 'Enable' : 'Disable'} ${m.name}`}>
+                        <Button
+                          size="sm"
+                          variant={m.disabledAt ? 'secondary' : 'danger'}
+                          disabled={busy}
+                          onClick={() => change(m, undefined, !m.disabledAt)}
+                          aria-label={`${m.disabledAt ? 'Enable' : 'Disable'} ${m.name}`}
+                        >
                           {m.disabledAt ? 'Enable' : 'Disable'}
                         </Button>
                       )}

@@ -91,7 +91,11 @@ const Schema = Fields.transform((v, ctx): ProfileInput => {
     for (const issue of checked.error.issues) {
       const [first, second] = issue.path.map(String);
       const field = first === 'rules' ? (RULE_FIELD[second ?? ''] ?? (second as FieldName)) : (first as FieldName);
-      ctx.addIssue({ code: 'custom', path: [FIELD_NAMES.includes(field) ? field : 'name'], message: first === 'tolerancePct' && candidate.tolerancePct === undefined ? 'Give the tolerance in percent.' : issue.message });
+      ctx.addIssue({
+        code: 'custom',
+        path: [FIELD_NAMES.includes(field) ? field : 'name'],
+        message: first === 'tolerancePct' && candidate.tolerancePct === undefined ? 'Give the tolerance in percent.' : issue.message,
+      });
     }
     return z.NEVER;
   }
@@ -135,7 +139,12 @@ function ProfileForm({ profile, onDone }: { profile?: Profile; onDone: () => voi
   });
 
   return (
-    <form onSubmit={onSubmit} noValidate aria-label={profile ? `Edit profile ${profile.name}` : 'New tolerance profile'} className="space-y-4 rounded-md border border-paper-edge bg-paper p-3 sm:p-4">
+    <form
+      onSubmit={onSubmit}
+      noValidate
+      aria-label={profile ? `Edit profile ${profile.name}` : 'New tolerance profile'}
+      className="space-y-4 rounded-md border border-paper-edge bg-paper p-3 sm:p-4"
+    >
       <h3 className="text-sm font-semibold">{profile ? `Edit “${profile.name}”` : 'New tolerance profile'}</h3>
       {errors.root?.server && <Alert>{errors.root.server.message}</Alert>}
       <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-5">
@@ -197,11 +206,14 @@ function rulesWords(p: Profile): string[] {
   const r = p.rules;
   const out: string[] = [];
   if (r.law) out.push(`law ${LAWS.find(([v]) => v === r.law)?.[1].toLowerCase() ?? r.law}`);
-  if (r.mMin != null || r.mMax != null) out.push(`m ${r.mMin != null ? (r.mMin * 100).toFixed(0) : '…'}–${r.mMax != null ? (r.mMax * 100).toFixed(0) : '…'} %`);
+  if (r.mMin != null || r.mMax != null)
+    out.push(`m ${r.mMin != null ? (r.mMin * 100).toFixed(0) : '…'}–${r.mMax != null ? (r.mMax * 100).toFixed(0) : '…'} %`);
   if (r.maxEndResistance != null) out.push(`end ≤ ${formatValue(r.maxEndResistance, 'Ω')}`);
-  if (r.dissipationMax != null) out.push(`D ≤ ${r.dissipationMax}${r.dissipationFrequency ? ` at ${formatValue(r.dissipationFrequency, 'Hz')}` : ''}`);
+  if (r.dissipationMax != null)
+    out.push(`D ≤ ${r.dissipationMax}${r.dissipationFrequency ? ` at ${formatValue(r.dissipationFrequency, 'Hz')}` : ''}`);
   if (r.esrMax != null) out.push(`ESR ≤ ${formatValue(r.esrMax, 'Ω')}`);
-  if (r.inductanceNominal != null) out.push(`L ${formatValue(r.inductanceNominal, 'H')}${r.inductanceTolerancePct ? ` ±${r.inductanceTolerancePct} %` : ''}`);
+  if (r.inductanceNominal != null)
+    out.push(`L ${formatValue(r.inductanceNominal, 'H')}${r.inductanceTolerancePct ? ` ±${r.inductanceTolerancePct} %` : ''}`);
   else if (r.inductanceTolerancePct != null) out.push(`L ±${r.inductanceTolerancePct} %`);
   if (r.minQ != null) out.push(`Q ≥ ${r.minQ}`);
   return out;
@@ -220,18 +232,35 @@ export function ProfilesBlock() {
   };
   return (
     <div className="space-y-4">
-      <p className="text-sm text-ink-soft">A part follows the profile it names, else the most specific profile of its kind whose nominal range (and, for pots, law) fits it. A part’s own tolerance wins for its nominal value.</p>
+      <p className="text-sm text-ink-soft">
+        A part follows the profile it names, else the most specific profile of its kind whose nominal range (and, for pots, law) fits it. A
+        part’s own tolerance wins for its nominal value.
+      </p>
       <div className="overflow-x-auto">
         <table className="w-full min-w-[680px] border-collapse text-sm">
           <caption className="sr-only">Tolerance profiles</caption>
           <thead>
             <tr className="border-b border-paper-edge text-left text-xs uppercase tracking-wide text-ink-soft">
-              <th scope="col" className="py-2 pr-3 font-medium">Name</th>
-              <th scope="col" className="py-2 pr-3 font-medium">Kind</th>
-              <th scope="col" className="py-2 pr-3 text-right font-medium">Nominal range</th>
-              <th scope="col" className="py-2 pr-3 text-right font-medium">Tolerance</th>
-              <th scope="col" className="py-2 pr-3 font-medium">Rules</th>
-              {canWrite && <th scope="col" className="py-2 font-medium"><span className="sr-only">Actions</span></th>}
+              <th scope="col" className="py-2 pr-3 font-medium">
+                Name
+              </th>
+              <th scope="col" className="py-2 pr-3 font-medium">
+                Kind
+              </th>
+              <th scope="col" className="py-2 pr-3 text-right font-medium">
+                Nominal range
+              </th>
+              <th scope="col" className="py-2 pr-3 text-right font-medium">
+                Tolerance
+              </th>
+              <th scope="col" className="py-2 pr-3 font-medium">
+                Rules
+              </th>
+              {canWrite && (
+                <th scope="col" className="py-2 font-medium">
+                  <span className="sr-only">Actions</span>
+                </th>
+              )}
             </tr>
           </thead>
           <tbody>
@@ -254,7 +283,16 @@ export function ProfilesBlock() {
           </tbody>
         </table>
       </div>
-      {canWrite && (editing ? <ProfileForm key={editing === 'new' ? 'new' : editing.id} profile={editing === 'new' ? undefined : editing} onDone={() => setEditing(null)} /> : <Button onClick={() => setEditing('new')}>New profile…</Button>)}
+      {canWrite &&
+        (editing ? (
+          <ProfileForm
+            key={editing === 'new' ? 'new' : editing.id}
+            profile={editing === 'new' ? undefined : editing}
+            onDone={() => setEditing(null)}
+          />
+        ) : (
+          <Button onClick={() => setEditing('new')}>New profile…</Button>
+        ))}
     </div>
   );
 }

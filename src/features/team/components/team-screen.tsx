@@ -14,7 +14,11 @@ export function TeamScreen() {
       <PageHeader
         title={isAdmin ? 'Team & settings' : 'Profiles & instruments'}
         documentTitle="Team"
-        description={isAdmin ? 'Members and their roles, invitations, tolerance profiles and the instrument register.' : 'Tolerance profiles and the instrument register with calibration dates.'}
+        description={
+          isAdmin
+            ? 'Members and their roles, invitations, tolerance profiles and the instrument register.'
+            : 'Tolerance profiles and the instrument register with calibration dates.'
+        }
       />
       <div className="space-y-6">
         {isAdmin && (
