@@ -38,6 +38,24 @@ describe('jobs', () => {
     expect((await tech.get(`/api/parts/${pot.id}`)).body.status).toBe('incoming');
   });
 
+  test('a design that took values from measured parts says so in the report, and calls the rest typical', async () => {
+    const tech = await t.as('tech');
+    const pot = (await tech.post('/api/parts').send({ kind: 'pot', label: 'POT-REF-1', nominal: 250e3, tolerancePct: 20 }).expect(201))
+      .body;
+    const harness = (
+      await tech
+        .post('/api/harnesses')
+        .send({ name: 'With a measured pot', preset: 'independent-tone', values: { volumeR: 247e3 }, partRefs: { volumeR: pot.id } })
+        .expect(201)
+    ).body;
+    const job = (
+      await tech.post('/api/jobs').send({ customer: 'S. Example', instrument: 'Solid-body four-string', harnessId: harness.id }).expect(201)
+    ).body;
+    const text = (await tech.get(`/api/jobs/${job.id}/report`)).body.text as string;
+    expect(text).toMatch(/volumeR from POT-REF-1 taken from measured parts when the design was saved, the rest typical values/);
+    expect(text).not.toMatch(/with the design's typical part values/);
+  });
+
   test('the customer report lists the measured parts and the predicted wiring, and goes out by e-mail', async () => {
     const tech = await t.as('tech');
     const harness = (

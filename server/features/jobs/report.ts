@@ -123,6 +123,26 @@ export function partLine(db: DbLike, p: JobDetail['parts'][number]): string {
   return lines.join('\n');
 }
 
+/**
+ * Where the prediction's part values come from, in words: a design may hold values taken from measured
+ * parts when it was saved (its partRefs); the rest are typical values. Neither is necessarily a part
+ * installed in this job.
+ */
+function predictionSource(db: DbLike, harnessId: number | null): string {
+  const refs = harnessId
+    ? (db.select({ partRefs: harnesses.partRefs }).from(harnesses).where(eq(harnesses.id, harnessId)).get()?.partRefs ?? {})
+    : {};
+  const measured = Object.entries(refs).map(([key, partId]) => {
+    const part = findPart(db, partId);
+    return `${key} from ${part ? part.label : `part ${partId}`}`;
+  });
+  const amp = 'your amplifier and cable change the exact figures.';
+  if (measured.length === 0) {
+    return `Predictions come from a circuit model of the wiring design with the design's typical part values, not the measured parts above; ${amp}`;
+  }
+  return `Predictions come from a circuit model of the wiring design with the values saved in it: ${measured.join(', ')} taken from measured parts when the design was saved, the rest typical values, not necessarily the parts installed above; ${amp}`;
+}
+
 export function reportText(db: DbLike, job: JobDetail, shopMessage?: string): { text: string; csv: string | null } {
   const partLines = job.parts.map((p) => partLine(db, p));
   const harness = harnessSummary(db, job.harnessId);
@@ -138,11 +158,7 @@ export function reportText(db: DbLike, job: JobDetail, shopMessage?: string): { 
       ? ['', harness.text, ...(harness.csv ? ['', 'The predicted curves are attached as CSV (level in dB against frequency).'] : [])]
       : []),
     '',
-    ...(harness
-      ? [
-          "Predictions come from a circuit model of the wiring design with the design's typical part values, not the measured parts above; your amplifier and cable change the exact figures.",
-        ]
-      : []),
+    ...(harness ? [predictionSource(db, job.harnessId)] : []),
   ]
     .join('\n')
     .trimEnd();
