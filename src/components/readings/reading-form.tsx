@@ -202,7 +202,10 @@ export const ReadingForm = forwardRef<ReadingFormHandle, ReadingFormProps>(funct
             instrument?.calibrationOverdue
               ? `Calibration was due ${instrument.calibrationDue}: the reading will be marked.`
               : accuracy
-                ? `±(${accuracy.pctOfReading} % + ${accuracy.counts} × ${formatValue(accuracy.resolution, QUANTITY_UNIT[quantity])})`
+                ? instrument?.displayCounts
+                  ? // The verdict sizes one count by the reading's range (range ÷ display counts), so the hint does too.
+                    `±(${accuracy.pctOfReading} % + ${accuracy.counts} counts; one count is the range ÷ ${instrument.displayCounts})`
+                  : `±(${accuracy.pctOfReading} % + ${accuracy.counts} × ${formatValue(accuracy.resolution, QUANTITY_UNIT[quantity])})`
                 : instrument
                   ? 'No accuracy given for this quantity: simple acceptance.'
                   : 'Without an instrument the verdict uses no guard band.'
