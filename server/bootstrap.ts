@@ -6,6 +6,7 @@ import { DEFAULT_SIGN_IN_LIMITS, type SignInLimits } from '@server/features/auth
 import { labelClashes } from '@server/features/parts/repository';
 import { createMailer } from '@server/mail/mailer';
 import { allowedHostNames } from '@server/http/hosts';
+import { createJobPool, poolOptionsFromEnv, type PoolOptions } from '@server/pool';
 
 export interface ContextOptions {
   dbFile: string;
@@ -20,6 +21,8 @@ export interface ContextOptions {
   allowedHosts?: string[];
   requestLog?: NodeJS.WritableStream;
   log?: AppContext['log'];
+  /** The job pool's threads, queue and time budget; default from the environment (server/pool). */
+  pool?: PoolOptions;
 }
 
 /** Opens the database (migrating it) and wires the services the app needs. */
@@ -36,6 +39,7 @@ export function createContext(opts: ContextOptions): AppContext {
     db,
     sqlite,
     lucia: createLucia(db, { production: opts.production ?? false }),
+    pool: createJobPool(opts.pool ?? poolOptionsFromEnv()),
     mailer: createMailer(db, { smtpUrl: opts.smtpUrl, from: opts.mailFrom ?? 'Lugbook <no-reply@lugbook.test>' }),
     config: {
       production: opts.production ?? false,

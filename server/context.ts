@@ -3,6 +3,7 @@ import type { AppLucia } from '@server/auth/session';
 import type { Db } from '@server/db/client';
 import type { SignInLimits } from '@server/features/auth/sign-in-limiter';
 import type { Mailer } from '@server/mail/mailer';
+import type { JobPool } from '@server/pool';
 
 /** What the features need from the outside world; built in server/index.ts or by a test. */
 export interface AppContext {
@@ -10,6 +11,8 @@ export interface AppContext {
   sqlite: Database.Database;
   lucia: AppLucia;
   mailer: Mailer;
+  /** Worker threads for heavy computation (server/pool). */
+  pool: JobPool;
   config: {
     production: boolean;
     publicUrl: string;

@@ -5,6 +5,7 @@ import { seedDemo } from '@server/demo/seed';
 import { refitOutdatedTaperFits } from '@server/features/sweeps/refit-on-start';
 import { readEnv, startupWarnings } from '@server/env';
 import { sweepUploads } from '@server/uploads/sweep';
+import { poolOptionsFromEnv } from '@server/pool';
 
 const env = readEnv();
 for (const warning of startupWarnings()) console.warn(`Warning: ${warning}`);
@@ -18,6 +19,8 @@ const ctx = createContext({
   allowedHosts: env.LUGBOOK_ALLOWED_HOSTS,
   ...(env.LUGBOOK_REQUEST_LOG ? { requestLog: process.stdout } : {}),
   clientDir: env.LUGBOOK_CLIENT_DIR ?? fileURLToPath(new URL('../dist/client', import.meta.url)),
+  // Workers started now, so the first heavy request does not wait for one to load.
+  pool: { ...poolOptionsFromEnv(), warm: true },
 });
 
 if (env.LUGBOOK_SEED_DEMO) {
@@ -40,8 +43,10 @@ const server = createApp(ctx).listen(env.PORT, () => {
 function shutdown(signal: string) {
   console.log(`${signal}: closing`);
   server.close(() => {
-    ctx.sqlite.close();
-    process.exit(0);
+    void ctx.pool.close().finally(() => {
+      ctx.sqlite.close();
+      process.exit(0);
+    });
   });
   setTimeout(() => process.exit(1), 5000).unref();
 }

@@ -11,6 +11,8 @@ export class HttpError extends Error {
     message: string,
     readonly fields?: Record<string, string>,
     readonly extra?: Pick<ApiErrorBody['error'], 'issues' | 'details'>,
+    /** Response headers the refusal carries (Retry-After on a 503 from the job pool). */
+    readonly headers?: Record<string, string>,
   ) {
     super(message);
   }
@@ -42,6 +44,7 @@ export function errorHandler(log: (message: string, err: unknown) => void): Erro
     let body: ApiErrorBody = { error: { code: 'internal', message: 'Something went wrong on the server.' } };
     if (err instanceof HttpError) {
       status = err.status;
+      for (const [name, value] of Object.entries(err.headers ?? {})) res.setHeader(name, value);
       body = { error: { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}), ...(err.extra ?? {}) } };
     } else if (err instanceof multer.MulterError) {
       const [s, message] = MULTER_STATUS[err.code] ?? [400, err.message];

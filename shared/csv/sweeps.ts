@@ -29,17 +29,16 @@ import {
   type ExplicitMapping,
   type NeedsMapping,
 } from './columns';
-import type { SweepKind } from '@shared/schemas/sweeps';
+import { MAX_SWEEP_POINTS, type SweepKind } from '@shared/schemas/sweeps';
 import { capIssues, csvIssue, type CsvIssue } from './issues';
 import { scanTable, type TableRow } from './read-table';
 
 export const MIN_POINTS: Record<SweepKind, number> = { taper: 3, impedance: 5 };
-export const DEFAULT_MAX_ROWS = 20_000;
 const MAX_ROTATION: Record<'deg' | 'percent', number> = { deg: 360, percent: 100 };
 
 export interface SweepOptions {
   mapping?: ExplicitMapping;
-  /** Most data rows accepted; default 20,000. */
+  /** Most data rows accepted; default MAX_SWEEP_POINTS of the kind (20,000 taper, 5,000 impedance). */
   maxRows?: number;
 }
 
@@ -136,7 +135,7 @@ export function parseSweepCsv(text: string, kind: 'taper', opts?: SweepOptions):
 export function parseSweepCsv(text: string, kind: 'impedance', opts?: SweepOptions): ImpedanceSweepResult;
 export function parseSweepCsv(text: string, kind: SweepKind, opts?: SweepOptions): SweepResult;
 export function parseSweepCsv(text: string, kind: SweepKind, opts: SweepOptions = {}): SweepResult {
-  const maxRows = opts.maxRows ?? DEFAULT_MAX_ROWS;
+  const maxRows = opts.maxRows ?? MAX_SWEEP_POINTS[kind];
   // Ragged rows are reported together with the value problems of the other rows.
   const table = scanTable(text, { minRows: MIN_POINTS[kind] });
   if (!table.ok) return table;
@@ -147,7 +146,7 @@ export function parseSweepCsv(text: string, kind: SweepKind, opts: SweepOptions 
         csvIssue(
           null,
           null,
-          `The file has ${table.rows.length.toLocaleString('en')} data rows; a sweep may have at most ${maxRows.toLocaleString('en')}.`,
+          `The file has ${table.rows.length.toLocaleString('en')} data rows; ${kind === 'impedance' ? 'an impedance' : 'a rotation'} sweep may have at most ${maxRows.toLocaleString('en')}.`,
         ),
       ],
     };

@@ -3,6 +3,7 @@ import { z } from 'zod';
 import { PROFILE_LAWS } from '@shared/taper/law';
 import { QUANTITIES } from '@shared/units/quantities';
 import { rangeNumber } from './ranges';
+import { MAX_SWEEP_POINTS } from './sweeps';
 
 const finite = z.number().finite();
 const nonNegative = finite.min(0, 'Must be zero or more.');
@@ -26,7 +27,10 @@ export const TaperRequestSchema = z.object({
   points: z
     .array(z.object({ rotation: nonNegative, resistance: nonNegative, resistanceW3: nonNegative.optional() }))
     .min(3, 'A taper fit needs at least three readings.')
-    .max(20_000),
+    .max(
+      MAX_SWEEP_POINTS.taper,
+      `A taper fit takes at most ${MAX_SWEEP_POINTS.taper.toLocaleString('en')} readings, as many as a sweep upload.`,
+    ),
   rotationUnit: z.enum(['deg', 'percent']),
   fullRotationDeg: rangeNumber('fullRotation').optional(),
   total: rangeNumber('resistance').optional(),
@@ -40,10 +44,14 @@ const MagPhasePoint = z.object({ frequency: rangeNumber('frequency'), magnitude:
 const ReImPoint = z.object({ frequency: rangeNumber('frequency'), re: finite, im: finite });
 
 export const CoilRequestSchema = z.object({
+  // The count is checked before any point is read (a 5 MB body holds some 100,000 of them).
   points: z
-    .union([z.array(MagPhasePoint), z.array(ReImPoint)])
-    .refine((p) => p.length >= 5, 'A coil fit needs at least five points.')
-    .refine((p) => p.length <= 20_000, 'At most 20,000 points.'),
+    .array(z.unknown())
+    .max(MAX_SWEEP_POINTS.impedance, {
+      error: (issue) =>
+        `A coil fit takes at most ${MAX_SWEEP_POINTS.impedance.toLocaleString('en')} points, as many as an impedance sweep upload; this one has ${(issue.input as unknown[]).length.toLocaleString('en')}.`,
+    })
+    .pipe(z.union([z.array(MagPhasePoint), z.array(ReImPoint)]).refine((p) => p.length >= 5, 'A coil fit needs at least five points.')),
   withRp: z.union([z.boolean(), z.literal('auto')]).optional(),
 });
 export type CoilRequest = z.infer<typeof CoilRequestSchema>;

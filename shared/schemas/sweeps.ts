@@ -8,6 +8,14 @@ export const SWEEP_KINDS = ['taper', 'impedance'] as const;
 export const SweepKindSchema = z.enum(SWEEP_KINDS);
 export type SweepKind = z.infer<typeof SweepKindSchema>;
 
+/**
+ * The most points one sweep may hold, by kind: the same bound for an upload and for the stateless
+ * fit routes. A coil fit costs about 0.2 ms per point (two fits with the loss resistance on "auto"),
+ * so 5,000 points stay well inside the job pool's 5 s budget; analyser files hold hundreds to a few
+ * thousand points. A taper fit is a one-parameter search and takes 20,000.
+ */
+export const MAX_SWEEP_POINTS: Record<SweepKind, number> = { taper: 20_000, impedance: 5_000 };
+
 /** What a stored fit is of: a taper sweep gives a taper fit, an impedance sweep a coil fit. */
 export const FIT_KINDS = ['taper', 'coil'] as const;
 

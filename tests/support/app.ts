@@ -10,6 +10,7 @@ import type { AppContext } from '@server/context';
 import { DEMO_USERS, seedDemo } from '@server/demo/seed';
 import type { SignInLimits } from '@server/features/auth/sign-in-limiter';
 import type { Role } from '@shared/schemas/common';
+import { poolOptionsFromEnv, type PoolOptions } from '@server/pool';
 import { recordServerError } from './server-errors';
 
 export const TEST_PASSWORD = 'correct-horse-bench-staple';
@@ -38,6 +39,8 @@ export async function createTestApp(
     production?: boolean;
     requestLog?: NodeJS.WritableStream;
     clientDir?: string;
+    /** The job pool's settings (a tiny budget or queue for the pool's own tests); one thread by default. */
+    pool?: Partial<PoolOptions>;
   } = {},
 ): Promise<TestApp> {
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'lugbook-test-'));
@@ -50,6 +53,7 @@ export async function createTestApp(
     ...(opts.production ? { production: true } : {}),
     ...(opts.requestLog ? { requestLog: opts.requestLog } : {}),
     ...(opts.clientDir ? { clientDir: opts.clientDir } : {}),
+    pool: { ...poolOptionsFromEnv(), threads: 1, ...opts.pool },
     // A message with a detail is the error handler's "Unhandled error" (a 500): recorded so the
     // test after which it was logged fails (tests/setup/server-errors.ts).
     log: (m, detail) => {
@@ -76,6 +80,7 @@ export async function createTestApp(
       return agent;
     },
     close() {
+      void ctx.pool.close();
       ctx.sqlite.close();
       fs.rmSync(dataDir, { recursive: true, force: true });
     },

@@ -2,7 +2,6 @@
 import type { AppContext } from '@server/context';
 import { unprocessable } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
-import { fitCoil } from '@shared/analysis/coil';
 import { lotStatistics } from '@shared/analysis/lot-stats';
 import { fitTaper } from '@shared/analysis/taper';
 import { decodeMarking } from '@shared/markings/decode';
@@ -29,7 +28,7 @@ function asUnprocessable<T>(field: string, run: () => T): T {
   }
 }
 
-export function analysisRoutes(_ctx: AppContext) {
+export function analysisRoutes({ pool }: AppContext) {
   const api = new ApiRouter('/api/analysis');
 
   api.post('/value', {
@@ -47,9 +46,17 @@ export function analysisRoutes(_ctx: AppContext) {
     handle: ({ body }) => asUnprocessable('points', () => fitTaper(body)),
   });
 
+  // In the job pool (server/pool): up to 20,000 points.
   api.post('/coil', {
     schemas: { body: CoilRequestSchema },
-    handle: ({ body }) => asUnprocessable('points', () => fitCoil(body)),
+    handle: async ({ body }) => {
+      try {
+        return await pool.run('coilFit', body);
+      } catch (err) {
+        if (err instanceof RangeError) throw unprocessable(err.message, { points: err.message });
+        throw err;
+      }
+    },
   });
 
   api.post('/lot', {

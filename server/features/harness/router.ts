@@ -5,7 +5,6 @@ import type { AppContext } from '@server/context';
 import { harnesses } from '@server/db/schema';
 import { forbidden, notFound, unprocessable } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
-import { findBleed } from '@shared/circuit/bleed-finder';
 import {
   buildLayoutNetlist,
   getLayout,
@@ -17,7 +16,7 @@ import {
   volumeKnobs,
   type LayoutDef,
 } from '@shared/circuit/layouts';
-import { DEFAULT_FREQUENCIES, simulateInstrument, sweepKnobs } from '@shared/circuit/metrics';
+import { DEFAULT_FREQUENCIES, simulateInstrument } from '@shared/circuit/metrics';
 import { validateNetlist, type Netlist } from '@shared/circuit/netlist';
 import {
   DEFAULT_HARNESS_VALUES,
@@ -167,8 +166,18 @@ function solved<T>(what: 'preset' | 'netlist', run: () => T): T {
   }
 }
 
+/** `solved` for a job run in the pool. */
+async function solvedAsync<T>(what: 'preset' | 'netlist', run: () => Promise<T>): Promise<T> {
+  try {
+    return await run();
+  } catch (err) {
+    if (err instanceof HarnessUnsolvableError) throw unprocessable(err.message, { [what]: err.message });
+    throw err;
+  }
+}
+
 export function harnessRoutes(ctx: AppContext) {
-  const { db } = ctx;
+  const { db, pool } = ctx;
   const engine = new ApiRouter('/api/harness');
 
   engine.get('/presets', {
@@ -228,7 +237,7 @@ export function harnessRoutes(ctx: AppContext) {
 
   engine.post('/sweep', {
     schemas: { body: SweepRequestSchema },
-    handle: ({ body }) => {
+    handle: async ({ body }) => {
       const { netlist, layout } = sourceOf(body);
       const volumeKnob = body.volumeKnob ?? (layout ? volumeKnobs(layout)[0]! : 'volume');
       const toneKnob = body.toneKnob ?? (layout ? toneKnobs(layout)[0]! : 'tone');
@@ -239,25 +248,18 @@ export function harnessRoutes(ctx: AppContext) {
         (body.volume ?? DIAL).length * (body.tone ?? DIAL).length,
         body.frequencies?.length ?? DEFAULT_FREQUENCIES.length,
       );
-      const grid = solved(body.netlist ? 'netlist' : 'preset', () =>
-        sweepKnobs(netlist, { volume: body.volume ?? DIAL, tone: body.tone ?? DIAL }, body.frequencies ?? DEFAULT_FREQUENCIES, {
+      // In a worker (server/pool): a grid at the limit takes seconds on a busy machine.
+      return solvedAsync(body.netlist ? 'netlist' : 'preset', () =>
+        pool.run('harnessSweep', {
+          netlist,
+          volume: body.volume ?? DIAL,
+          tone: body.tone ?? DIAL,
+          frequencies: body.frequencies ?? Array.from(DEFAULT_FREQUENCIES),
           volumeKnob,
           toneKnob,
           knobs: knobsOf(layout, body.knobs),
         }),
       );
-      return {
-        frequencies: Array.from(grid.frequencies),
-        volumeKnob,
-        toneKnob,
-        volume: grid.volume,
-        tone: grid.tone,
-        magnitudeDb: Array.from(grid.magnitudeDb),
-        level1kDb: Array.from(grid.level1kDb),
-        volumeTaperDb: Array.from(grid.volumeTaperDb),
-        trebleRetentionDb: Array.from(grid.trebleRetentionDb),
-        interactionIndexDb: grid.interactionIndexDb,
-      };
     },
   });
 
@@ -283,10 +285,14 @@ export function harnessRoutes(ctx: AppContext) {
 
   engine.post('/bleed-finder', {
     schemas: { body: BleedFinderRequestSchema },
-    handle: ({ body }) => {
+    handle: async ({ body }) => {
       const layout = getLayout(body.layout)!;
       const config = layoutConfig(layout, body);
-      const { candidates, evaluated } = findBleed(layout, config, layoutKnobs(layout, body.knobs), {
+      // Hundreds of candidate networks, each swept: in a worker (server/pool).
+      const { candidates, evaluated } = await pool.run('bleedFinder', {
+        layoutId: layout.id,
+        config,
+        knobs: layoutKnobs(layout, body.knobs),
         series: body.series ?? 'E12',
         weight: body.weight ?? 0.7,
       });

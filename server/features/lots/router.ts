@@ -16,8 +16,9 @@ import { CreateLotInputSchema, LotStatsQuerySchema, PromoteInputSchema, Watchers
 import { lotFinder, lotSummary, QUANTITY } from './common';
 import { lotDispositionRoutes } from './disposition';
 import { lotExportRoutes } from './export';
-import { listLots, lotValues, lotWatcherRows, type LotRow } from './repository';
-import { isDefaultMatching, lotResults, storedLotStats, type StoredLotResults } from './stored-stats';
+import { listLots, lotWatcherRows } from './repository';
+import { lotStatsJobs } from './stats-jobs';
+import { isDefaultMatching } from './stored-stats';
 import { promoteToParts } from './promote';
 import { lotUploadRoutes } from './upload';
 
@@ -37,11 +38,7 @@ export function lotRoutes(ctx: AppContext) {
     if (stranger) throw unprocessable('A watcher is not a member.', { [field]: `Unknown member ${stranger}.` });
   };
   const mustFind = lotFinder(ctx);
-  /** Results for a matching other than the stored one, computed for this request only. */
-  const freshResults = (lot: LotRow, matching: { matchPct?: number; setSize?: number }): StoredLotResults => {
-    const r = lotResults(lot, lotValues(sqlite, lot.id), matching);
-    return { count: r.count, statsJson: JSON.stringify(r.stats), columnsJson: JSON.stringify(r.columns) };
-  };
+  const statsJobs = lotStatsJobs(ctx);
 
   registerWatcherRoutes(api, ctx);
   api.get('/', { handle: () => ({ lots: listLots(db).map((l) => ({ ...lotSummary(l), count: l.count })) }) });
@@ -113,10 +110,10 @@ export function lotRoutes(ctx: AppContext) {
 
   api.get('/:id', {
     schemas: { params: IdParamsSchema, query: LotStatsQuerySchema },
-    handle: ({ params, query, res }) => {
+    handle: async ({ params, query, res }) => {
       const lot = mustFind(params.id);
       // The default matching is stored (stored-stats.ts); another matching is computed for this request.
-      const results = isDefaultMatching(query) ? storedLotStats(sqlite, lot, 'detail') : freshResults(lot, query);
+      const results = isDefaultMatching(query) ? await statsJobs.stored(lot, 'detail') : await statsJobs.fresh(lot, query);
       const disposedByName = lot.disposedBy
         ? (db.select({ name: users.name }).from(users).where(eq(users.id, lot.disposedBy)).get()?.name ?? null)
         : null;
@@ -135,13 +132,26 @@ export function lotRoutes(ctx: AppContext) {
   // Every item with what the table needs, as columns (compact for 100,000 rows).
   api.get('/:id/items', {
     schemas: { params: IdParamsSchema, query: LotStatsQuerySchema },
-    handle: ({ params, query, res }) => {
+    handle: async ({ params, query, res }) => {
       const lot = mustFind(params.id);
-      const results = isDefaultMatching(query) ? storedLotStats(sqlite, lot, 'columns') : freshResults(lot, query);
+      // The stored columns' bytes go out as they are kept (no 9 MB string parsed, built or hashed for an ETag).
+      const { count, bytes: columns } = isDefaultMatching(query)
+        ? await statsJobs.columnBytes(lot)
+        : await statsJobs.fresh(lot, query).then((r) => ({ count: r.count, bytes: Buffer.from(r.columnsJson) }));
       // Which items became parts is read on every request: a promotion changes it, not the readings.
-      const partIds = lotItemPartIds(db, sqlite, lot.id, results.count);
-      // The stored columns object, with partIds put in front of its first key.
-      res.type('json').send(`{"partIds":${JSON.stringify(partIds)},${results.columnsJson.slice(1)}`);
+      const partIds = lotItemPartIds(db, sqlite, lot.id, count);
+      const partIdsJson = partIds.every((id) => id === null)
+        ? `[${'null,'.repeat(Math.max(count - 1, 0))}${count > 0 ? 'null' : ''}]`
+        : JSON.stringify(partIds);
+      // The columns object, with partIds put in front of its first key.
+      const head = Buffer.from(`{"partIds":${partIdsJson},`);
+      const rest = columns.subarray(1);
+      res
+        .status(200)
+        .type('json')
+        .setHeader('Content-Length', head.length + rest.length);
+      res.write(head);
+      res.end(rest);
     },
   });
 
@@ -164,7 +174,7 @@ export function lotRoutes(ctx: AppContext) {
     },
   });
 
-  lotUploadRoutes(api, ctx);
+  lotUploadRoutes(api, ctx, statsJobs);
   lotDispositionRoutes(api, ctx);
   lotExportRoutes(api, ctx);
 

@@ -80,38 +80,59 @@ export function invalidateLotStats(sqlite: Database.Database, lotId: number): vo
   sqlite.prepare('delete from lot_stats where lot_id = ?').run(lotId);
 }
 
-/** Compute a lot's results with the default matching from its stored readings and keep them. */
-export function refreshLotStats(sqlite: Database.Database, lot: LotRow): StoredLotResults {
-  const results = lotResults(lot, lotValues(sqlite, lot.id), DEFAULT_MATCHING);
+/** What identifies a lot's readings: an upload or a replace changes the count or the last row id. */
+function readingsMark(sqlite: Database.Database, lotId: number): string {
+  const r = sqlite.prepare('select count(*) as n, coalesce(max(id), 0) as last from lot_readings where lot_id = ?').get(lotId) as {
+    n: number;
+    last: number;
+  };
+  return `${r.n}:${r.last}`;
+}
+
+/**
+ * Compute a lot's results with the default matching from its stored readings and keep them. This runs
+ * in a pool worker (server/pool/tasks.ts) on the worker's own connection, beside the main thread's
+ * writes: the results are kept only when the readings are still those they were computed from
+ * (`kept: false` when an upload or a replace committed meanwhile; its own refresh follows).
+ */
+export function refreshLotStats(sqlite: Database.Database, lot: LotRow): StoredLotResults & { kept: boolean } {
+  const read = sqlite.transaction(() => ({ mark: readingsMark(sqlite, lot.id), data: lotValues(sqlite, lot.id) }))();
+  const results = lotResults(lot, read.data, DEFAULT_MATCHING);
   const stored = { count: results.count, statsJson: JSON.stringify(results.stats), columnsJson: JSON.stringify(results.columns) };
-  sqlite
-    .prepare(
-      `insert into lot_stats (lot_id, engine_version, nominal, tolerance_pct, second_limit, count, detail, columns, computed_at)
+  const kept = sqlite
+    .transaction(() => {
+      if (readingsMark(sqlite, lot.id) !== read.mark) return false;
+      sqlite
+        .prepare(
+          `insert into lot_stats (lot_id, engine_version, nominal, tolerance_pct, second_limit, count, detail, columns, computed_at)
        values (?, ?, ?, ?, ?, ?, ?, ?, ?)
        on conflict (lot_id) do update set engine_version = excluded.engine_version, nominal = excluded.nominal,
          tolerance_pct = excluded.tolerance_pct, second_limit = excluded.second_limit, count = excluded.count,
          detail = excluded.detail, columns = excluded.columns, computed_at = excluded.computed_at`,
-    )
-    .run(
-      lot.id,
-      ANALYSIS_ENGINE_VERSION,
-      lot.nominal,
-      lot.tolerancePct,
-      lot.secondLimit,
-      stored.count,
-      stored.statsJson,
-      stored.columnsJson,
-      Date.now(),
-    );
-  return stored;
+        )
+        .run(
+          lot.id,
+          ANALYSIS_ENGINE_VERSION,
+          lot.nominal,
+          lot.tolerancePct,
+          lot.secondLimit,
+          stored.count,
+          stored.statsJson,
+          stored.columnsJson,
+          Date.now(),
+        );
+      return true;
+    })
+    .immediate();
+  return { ...stored, kept };
 }
 
 /**
- * The lot's stored results, computed first when missing or out of date (engine version or limits).
- * `part` says which JSON text to read (the columns are ~9 MB for 100,000 items; the detail needs none of them);
- * the other comes back empty unless the results were computed now.
+ * The lot's stored results when they are there and up to date (engine version and limits), else null
+ * (the caller has them computed in the pool: `refreshLotStats`). `part` says which JSON text to read
+ * (the columns are ~9 MB for 100,000 items; the detail needs none of them); the other comes back empty.
  */
-export function storedLotStats(sqlite: Database.Database, lot: LotRow, part: 'detail' | 'columns'): StoredLotResults {
+export function readStoredLotStats(sqlite: Database.Database, lot: LotRow, part: 'detail' | 'columns'): StoredLotResults | null {
   const row = sqlite
     .prepare(
       `select engine_version, nominal, tolerance_pct, second_limit, count, ${part === 'detail' ? "detail, '' as columns" : "'' as detail, columns"} from lot_stats where lot_id = ?`,
@@ -126,7 +147,29 @@ export function storedLotStats(sqlite: Database.Database, lot: LotRow, part: 'de
   ) {
     return { count: row.count, statsJson: row.detail, columnsJson: row.columns };
   }
-  return refreshLotStats(sqlite, lot);
+  return null;
+}
+
+/**
+ * The stored item columns as the bytes of their JSON text (SQLite hands them over as they are kept, with
+ * no string made of ~9 MB), when up to date; else null.
+ */
+export function readStoredColumnBytes(sqlite: Database.Database, lot: LotRow): { count: number; bytes: Buffer } | null {
+  const row = sqlite
+    .prepare(
+      'select engine_version, nominal, tolerance_pct, second_limit, count, cast(columns as blob) as columns from lot_stats where lot_id = ?',
+    )
+    .get(lot.id) as (Omit<Row, 'columns'> & { columns: Buffer }) | undefined;
+  if (
+    row &&
+    row.engine_version === ANALYSIS_ENGINE_VERSION &&
+    row.nominal === lot.nominal &&
+    row.tolerance_pct === lot.tolerancePct &&
+    row.second_limit === lot.secondLimit
+  ) {
+    return { count: row.count, bytes: row.columns };
+  }
+  return null;
 }
 
 /** True when a request asks for the default matching (so the stored results answer it). */

@@ -18,7 +18,8 @@ import { MappingFieldSchema } from '@shared/schemas/sweeps';
 import { lotFinder, lotKind, lotSummary, QUANTITY } from './common';
 import { readLotFile } from './read-upload';
 import { lotStats } from './repository';
-import { invalidateLotStats, refreshLotStats } from './stored-stats';
+import type { lotStatsJobs } from './stats-jobs';
+import { invalidateLotStats } from './stored-stats';
 
 const MAX_LOT_BYTES = 25 * 1024 * 1024;
 
@@ -50,7 +51,7 @@ function lotFileUpload(tmpDir: string): RequestHandler {
   };
 }
 
-export function lotUploadRoutes(api: ApiRouter, ctx: AppContext) {
+export function lotUploadRoutes(api: ApiRouter, ctx: AppContext, statsJobs: ReturnType<typeof lotStatsJobs>) {
   const { db, sqlite } = ctx;
   const mustFind = lotFinder(ctx);
   const tmpDir = incomingDir(ctx.config.uploadsDir);
@@ -127,8 +128,14 @@ export function lotUploadRoutes(api: ApiRouter, ctx: AppContext) {
     // From the columns already in memory (a replace leaves exactly these rows); the lot page asks for sets itself.
     const stats = lotStats(lot, data, { sets: false });
     const done = performance.now();
-    // The lot page's statistics, matched sets and item columns, kept for its reads (stored-stats.ts).
-    refreshLotStats(sqlite, lot);
+    // The lot page's statistics, matched sets and item columns, kept for its reads (stored-stats.ts), computed
+    // in the pool. The readings are committed whatever happens here: a busy pool or an overrun leaves the
+    // results to the lot's next read.
+    try {
+      await statsJobs.refresh(lot, true);
+    } catch (err) {
+      if (!(err instanceof HttpError && err.status === 503)) throw err;
+    }
     const keptAt = performance.now();
     return {
       lot: lotSummary(lot),

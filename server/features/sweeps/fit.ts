@@ -1,10 +1,11 @@
 // The server's fit of a stored sweep, with the part's nominal, tolerance and profile.
 import { and, desc, eq } from 'drizzle-orm';
 import type { DbLike } from '@server/db/client';
+import type { JobPool } from '@server/pool';
 import { fits, readings, sweepPoints, sweeps } from '@server/db/schema';
 import { setPartStatus, type PartRow } from '@server/features/parts/repository';
 import { profileForPart } from '@server/features/profiles/repository';
-import { coilFlags, fitCoil, type CoilFit, type CoilPoint } from '@shared/analysis/coil';
+import { coilFlags, fitCoil, type CoilFit, type CoilPoint, type CoilSpec } from '@shared/analysis/coil';
 import { ANALYSIS_ENGINE_VERSION } from '@shared/analysis/engine-version';
 import { fitTaper, type TaperFit, type TaperPoint } from '@shared/analysis/taper';
 import type { ProfileRules } from '@shared/schemas/bench';
@@ -73,15 +74,35 @@ export function computeFit(db: DbLike, part: PartRow, sweep: SweepRow, stored?: 
     return { kind: 'taper', result };
   }
   const fit = fitCoil({ points: points as CoilPoint[], withRp: choices.withRp ?? 'auto' });
-  const flags = coilFlags(fit, {
+  return { kind: 'coil', result: { ...fit, flags: coilFlags(fit, coilSpec(db, part)) } };
+}
+
+/** What a coil fit is judged against: the part's DC resistance limits, its profile's inductance and Q. */
+function coilSpec(db: DbLike, part: PartRow): CoilSpec {
+  const rules = (profileForPart(db, part)?.rules ?? {}) as ProfileRules;
+  return {
     dcr: part.nominal != null && part.tolerancePct != null ? { nominal: part.nominal, tolerancePct: part.tolerancePct } : undefined,
     inductance:
       rules.inductanceNominal && rules.inductanceTolerancePct
         ? { nominal: rules.inductanceNominal, tolerancePct: rules.inductanceTolerancePct }
         : undefined,
     minQ: rules.minQ,
-  });
-  return { kind: 'coil', result: { ...fit, flags } };
+  };
+}
+
+/**
+ * A coil sweep's fit, computed in the job pool (an impedance sweep may hold 20,000 points) and judged
+ * like `computeFit`; hand it to `fitAndStore` as `fit`. Taper fits (about a millisecond) stay inline: none here.
+ */
+export async function coilFitInPool(
+  pool: JobPool,
+  db: DbLike,
+  part: PartRow,
+  points: CoilPoint[],
+  choices: RefitInput = {},
+): Promise<SweepFit> {
+  const result = await pool.run('coilFit', { points, withRp: choices.withRp ?? 'auto', rules: coilSpec(db, part) });
+  return { kind: 'coil', result };
 }
 
 /**
@@ -93,9 +114,10 @@ export function fitAndStore(
   part: PartRow,
   sweep: SweepRow,
   userId: string | null,
-  opts: { points?: StoredPoint[]; reasonPrefix?: string; choices?: RefitInput } = {},
+  opts: { points?: StoredPoint[]; reasonPrefix?: string; choices?: RefitInput; fit?: SweepFit } = {},
 ): FitRow {
-  const fit = computeFit(db, part, sweep, opts.points, opts.choices);
+  // A fit computed beforehand (a coil fit from the pool) or now.
+  const fit = opts.fit ?? computeFit(db, part, sweep, opts.points, opts.choices);
   const flags = fit.result.flags;
   const now = Date.now();
   db.update(fits)

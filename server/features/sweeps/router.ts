@@ -11,7 +11,8 @@ import { checkFileType, singleFileUpload, withStoredFile, storedName } from '@se
 import { IdParamsSchema } from '@shared/schemas/common';
 import { RefitInputSchema, SweepUploadFieldsSchema } from '@shared/schemas/sweeps';
 import { parseSweepCsv } from '@shared/csv/sweeps';
-import { asFit, fitAndStore, fitInput, sweepInput, type SweepRow } from './fit';
+import { asFit, coilFitInPool, fitAndStore, fitInput, sweepInput, type SweepRow } from './fit';
+import type { CoilPoint } from '@shared/analysis/coil';
 import { insertSweep, toStoredPoints } from './store';
 
 const MAX_SWEEP_BYTES = 2 * 1024 * 1024;
@@ -52,7 +53,7 @@ export function sweepRoutes(ctx: AppContext) {
     status: 201,
     before: [singleFileUpload(MAX_SWEEP_BYTES)],
     schemas: { params: IdParamsSchema, body: SweepUploadFieldsSchema },
-    handle: ({ params, body, req, user }) => {
+    handle: async ({ params, body, req, user }) => {
       const part = findPart(db, params.id);
       if (!part) throw notFound('That part');
       if (body.kind === 'taper' && part.kind !== 'pot')
@@ -68,6 +69,9 @@ export function sweepRoutes(ctx: AppContext) {
         body.fullRotationDeg ?? DEFAULT_FULL_ROTATION_DEG,
       );
       try {
+        // A coil fit runs in the job pool before anything is stored; a taper fit (a millisecond) inside the transaction.
+        const fitted =
+          body.kind === 'impedance' ? await coilFitInPool(ctx.pool, db, part, fitInput('impedance', stored) as CoilPoint[]) : undefined;
         return withStoredFile(ctx.config.uploadsDir, file.buffer, (content) =>
           db.transaction((tx) => {
             const attachment = tx
@@ -90,7 +94,7 @@ export function sweepRoutes(ctx: AppContext) {
               { partId: part.id, kind: body.kind, attachmentId: attachment.id, columns: parsed.columns, createdBy: user.id },
               stored,
             );
-            const fit = fitAndStore(tx, part, sweep, user.id, { points: stored });
+            const fit = fitAndStore(tx, part, sweep, user.id, { points: stored, ...(fitted ? { fit: fitted } : {}) });
             audit(tx, {
               userId: user.id,
               action: 'sweep.upload',
@@ -126,7 +130,7 @@ export function sweepRoutes(ctx: AppContext) {
   // Runs the current engine again over a stored sweep; the previous fit stays in the history.
   api.post('/sweeps/:sweepId/refit', {
     schemas: { params: IdParamsSchema.extend({ sweepId: z.coerce.number().int().positive() }), body: RefitInputSchema },
-    handle: ({ params, body, user }) => {
+    handle: async ({ params, body, user }) => {
       const part = findPart(db, params.id);
       const sweep = db
         .select()
@@ -134,8 +138,10 @@ export function sweepRoutes(ctx: AppContext) {
         .where(and(eq(sweeps.id, params.sweepId), eq(sweeps.partId, params.id)))
         .get();
       if (!part || !sweep) throw notFound('That sweep');
+      const fitted =
+        sweep.kind === 'impedance' ? await coilFitInPool(ctx.pool, db, part, sweepInput(db, sweep) as CoilPoint[], body) : undefined;
       return db.transaction((tx) => {
-        const fit = fitAndStore(tx, part, sweep, user.id, { choices: body });
+        const fit = fitAndStore(tx, part, sweep, user.id, { choices: body, ...(fitted ? { fit: fitted } : {}) });
         audit(tx, {
           userId: user.id,
           action: 'fit.rerun',

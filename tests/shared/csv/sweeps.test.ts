@@ -103,7 +103,7 @@ describe('taper sweeps: values', () => {
     ]);
     const rows = Array.from({ length: 12 }, (_, i) => `${i},${i + 1},1`);
     expect(messages(issuesOf(taper(...rows), 'taper', { maxRows: 10 }))).toEqual([
-      'The file has 12 data rows; a sweep may have at most 10.',
+      'The file has 12 data rows; a rotation sweep may have at most 10.',
     ]);
   });
 

@@ -1,0 +1,156 @@
+// The jobs a pool worker runs (server/pool/worker.ts). Each takes plain data and returns plain data
+// (structured-cloneable); the computing itself is shared/ code, called as it is. A worker that needs
+// the database opens its own better-sqlite3 connection to the same file (WAL lets it read while the
+// main thread writes) and closes it when the job ends.
+import Database from 'better-sqlite3';
+import { coilFlags, fitCoil, type CoilFit, type CoilSpec, type CoilPoint } from '@shared/analysis/coil';
+import { harnessResponse, instrumentResponses } from '@shared/audio/impulse';
+import { pickupPositionOf, synthesizePhrase } from '@shared/audio/phrase';
+import { renderChannels, renderPickupTracks } from '@shared/audio/render';
+import { readWav, writeWav } from '@shared/audio/wav';
+import { findBleed } from '@shared/circuit/bleed-finder';
+import { getLayout, type LayoutConfig } from '@shared/circuit/layouts';
+import { sweepKnobs } from '@shared/circuit/metrics';
+import type { Netlist } from '@shared/circuit/netlist';
+import type { LotRow } from '@server/features/lots/repository';
+import { lotValues } from '@server/features/lots/repository';
+import { lotResults, refreshLotStats, type StoredLotResults } from '@server/features/lots/stored-stats';
+
+export interface HarnessSweepInput {
+  netlist: Netlist;
+  volume: number[];
+  tone: number[];
+  frequencies: number[];
+  volumeKnob: string;
+  toneKnob: string;
+  knobs: Record<string, number>;
+}
+
+/** POST /api/harness/sweep: the knob grid, as the route answers it. */
+export function harnessSweep(input: HarnessSweepInput) {
+  const grid = sweepKnobs(input.netlist, { volume: input.volume, tone: input.tone }, input.frequencies, {
+    volumeKnob: input.volumeKnob,
+    toneKnob: input.toneKnob,
+    knobs: input.knobs,
+  });
+  return {
+    frequencies: Array.from(grid.frequencies),
+    volumeKnob: input.volumeKnob,
+    toneKnob: input.toneKnob,
+    volume: grid.volume,
+    tone: grid.tone,
+    magnitudeDb: Array.from(grid.magnitudeDb),
+    level1kDb: Array.from(grid.level1kDb),
+    volumeTaperDb: Array.from(grid.volumeTaperDb),
+    trebleRetentionDb: Array.from(grid.trebleRetentionDb),
+    interactionIndexDb: grid.interactionIndexDb,
+  };
+}
+
+export interface BleedFinderInput {
+  layoutId: string;
+  config: LayoutConfig;
+  knobs: Record<string, number>;
+  series: 'E12' | 'E24';
+  weight: number;
+}
+
+/** POST /api/harness/bleed-finder: every preferred bleed network scored, the best first. */
+export function bleedFinder(input: BleedFinderInput) {
+  const layout = getLayout(input.layoutId);
+  if (!layout) throw new RangeError(`Unknown layout ${input.layoutId}.`);
+  return findBleed(layout, input.config, input.knobs, { series: input.series, weight: input.weight });
+}
+
+export interface RenderInput {
+  netlist: Netlist;
+  knobs: Record<string, number>;
+  /** The built-in phrase (each pickup hears the string at its own place) … */
+  phrase?: { sampleRate: number; seed?: number };
+  /** … or a WAV file through the sum of the pickups' transfers, optionally divided by a recording chain's. */
+  wav?: Uint8Array;
+  chain?: { netlist: Netlist };
+}
+
+/** POST /api/harness/render: a 32-bit float WAV file. */
+export function render(input: RenderInput): Uint8Array {
+  const instrument = instrumentResponses(input.netlist, input.knobs);
+  if (input.phrase) {
+    const { sampleRate, seed } = input.phrase;
+    const phrase = synthesizePhrase({
+      sampleRate,
+      seed,
+      pickupPositions: instrument.pickups.map((p) => pickupPositionOf(p.pickupId)),
+    });
+    const out = renderPickupTracks(
+      phrase.tracks,
+      sampleRate,
+      instrument.pickups.map((p) => p.response),
+    );
+    return writeWav([out], sampleRate, 'float32');
+  }
+  if (!input.wav) throw new RangeError('No recording to render.');
+  const chain = input.chain ? harnessResponse(input.chain.netlist, { volume: 10, tone: 10 }) : undefined;
+  const wav = readWav(input.wav);
+  return writeWav(renderChannels(wav.channels, wav.sampleRate, instrument.total, chain), wav.sampleRate, 'float32');
+}
+
+export interface CoilFitInput {
+  points: CoilPoint[];
+  withRp?: boolean | 'auto';
+  /** The part's limits, when the fit is judged (a sweep upload or a refit); none for the stateless route. */
+  rules?: CoilSpec;
+}
+
+/** A coil fit (POST /api/analysis/coil, an impedance sweep's upload or refit), with its flags when judged. */
+export function coilFit(input: CoilFitInput): CoilFit {
+  const fit = fitCoil({ points: input.points, withRp: input.withRp ?? 'auto' });
+  return input.rules ? { ...fit, flags: coilFlags(fit, input.rules) } : fit;
+}
+
+/** The database file a job reads (and, for stored statistics, writes). */
+function openDb(file: string): Database.Database {
+  const sqlite = new Database(file, { timeout: 5000, fileMustExist: true });
+  sqlite.pragma('foreign_keys = ON');
+  sqlite.pragma('synchronous = FULL');
+  return sqlite;
+}
+
+function withDb<T>(file: string, run: (sqlite: Database.Database) => T): T {
+  const sqlite = openDb(file);
+  try {
+    return run(sqlite);
+  } finally {
+    sqlite.close();
+  }
+}
+
+export interface LotStatsInput {
+  dbFile: string;
+  lot: LotRow;
+}
+
+/**
+ * Computes a lot's stored statistics (stored-stats.ts) and keeps them, unless its readings changed
+ * while they were computed (an upload or replace committed meanwhile): then nothing is kept and the
+ * next read computes them again. Answers the results as computed.
+ */
+export function lotStats(input: LotStatsInput): StoredLotResults & { kept: boolean } {
+  return withDb(input.dbFile, (sqlite) => refreshLotStats(sqlite, input.lot));
+}
+
+export interface LotResultsInput extends LotStatsInput {
+  matching: { matchPct?: number; setSize?: number };
+}
+
+/** A lot's results for another matching than the stored one, for one request (nothing kept). */
+export function lotFreshResults(input: LotResultsInput): StoredLotResults {
+  return withDb(input.dbFile, (sqlite) => {
+    const r = lotResults(input.lot, lotValues(sqlite, input.lot.id), input.matching);
+    return { count: r.count, statsJson: JSON.stringify(r.stats), columnsJson: JSON.stringify(r.columns) };
+  });
+}
+
+/** Every job by name: the pool's typed front (server/pool/index.ts) takes its types from here. */
+export const TASKS = { harnessSweep, bleedFinder, render, coilFit, lotStats, lotFreshResults } as const;
+export type TaskName = keyof typeof TASKS;

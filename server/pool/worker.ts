@@ -1,0 +1,37 @@
+// The pool worker's entry (Piscina loads it with the tsx loader: server/pool/index.ts). It tells the
+// main thread when a job starts (its time budget counts from then), runs the job, and sends the
+// engine's own refusals back as data so that the main thread can answer them as the inline code did.
+import type { MessagePort } from 'node:worker_threads';
+import { move } from 'piscina';
+import { WavError } from '@shared/audio/wav';
+import { HarnessUnsolvableError } from '@shared/circuit/solver';
+import { TASKS, type TaskName } from './tasks';
+import type { JobRefusal } from './refusal';
+
+export interface JobMessage {
+  name: TaskName;
+  input: unknown;
+  /** Gets one message as the job starts, then closes. */
+  started: MessagePort;
+}
+
+function refusal(err: unknown): JobRefusal | null {
+  if (err instanceof HarnessUnsolvableError) return { jobRefused: { kind: 'unsolvable', message: err.message } };
+  if (err instanceof WavError) return { jobRefused: { kind: 'wav', message: err.message } };
+  if (err instanceof RangeError) return { jobRefused: { kind: 'range', message: err.message } };
+  return null;
+}
+
+export default function runJob({ name, input, started }: JobMessage): unknown {
+  started.postMessage('started');
+  started.close();
+  try {
+    const value = (TASKS[name] as (input: unknown) => unknown)(input);
+    // A rendered file is moved to the main thread, not copied.
+    return value instanceof Uint8Array ? move(value) : value;
+  } catch (err) {
+    const known = refusal(err);
+    if (known) return known;
+    throw err;
+  }
+}
