@@ -15,15 +15,24 @@ export function itemPartIds(db: DbLike, lotId: number, items: readonly string[])
   return items.map((item) => byItem.get(item) ?? null);
 }
 
-/** itemPartIds for the lot's readings in upload order; reads the item names only when some item became a part. */
-export function lotItemPartIds(db: DbLike, sqlite: Database.Database, lotId: number, count: number): (number | null)[] {
-  const promoted = db
+/** lotItemPartIds as JSON text; for a lot none of whose items became parts, without building the array. */
+export function lotItemPartIdsJson(db: DbLike, sqlite: Database.Database, lotId: number, count: number): string {
+  if (!anyPromoted(db, lotId)) return count === 0 ? '[]' : `[${'null,'.repeat(count - 1)}null]`;
+  return JSON.stringify(lotItemPartIds(db, sqlite, lotId, count));
+}
+
+function anyPromoted(db: DbLike, lotId: number): boolean {
+  return !!db
     .select({ id: parts.id })
     .from(parts)
     .where(and(eq(parts.lotId, lotId), isNotNull(parts.lotItem)))
     .limit(1)
     .get();
-  if (!promoted) return new Array<null>(count).fill(null);
+}
+
+/** itemPartIds for the lot's readings in upload order; reads the item names only when some item became a part. */
+export function lotItemPartIds(db: DbLike, sqlite: Database.Database, lotId: number, count: number): (number | null)[] {
+  if (!anyPromoted(db, lotId)) return new Array<null>(count).fill(null);
   const items = sqlite.prepare('select item from lot_readings where lot_id = ? order by id').pluck().all(lotId) as string[];
   return itemPartIds(db, lotId, items);
 }

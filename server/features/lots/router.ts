@@ -7,7 +7,7 @@ import { instruments, lots, lotWatchers, users } from '@server/db/schema';
 import { conflict, unprocessable } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
 import { lotHistory } from './history';
-import { lotItemPartIds } from './promoted';
+import { lotItemPartIdsJson } from './promoted';
 import { assertWatcherChange, registerWatcherRoutes } from './watchers';
 import { decodeMarking } from '@shared/markings/decode';
 import { MarkingError } from '@shared/markings/tolerance-letters';
@@ -139,10 +139,7 @@ export function lotRoutes(ctx: AppContext) {
         ? await statsJobs.columnBytes(lot)
         : await statsJobs.fresh(lot, query).then((r) => ({ count: r.count, bytes: Buffer.from(r.columnsJson) }));
       // Which items became parts is read on every request: a promotion changes it, not the readings.
-      const partIds = lotItemPartIds(db, sqlite, lot.id, count);
-      const partIdsJson = partIds.every((id) => id === null)
-        ? `[${'null,'.repeat(Math.max(count - 1, 0))}${count > 0 ? 'null' : ''}]`
-        : JSON.stringify(partIds);
+      const partIdsJson = lotItemPartIdsJson(db, sqlite, lot.id, count);
       // The columns object, with partIds put in front of its first key.
       const head = Buffer.from(`{"partIds":${partIdsJson},`);
       const rest = columns.subarray(1);

@@ -4,12 +4,13 @@
 // results missing while one runs wait for it.
 import type { AppContext } from '@server/context';
 import type { LotRow } from './repository';
-import { readStoredColumnBytes, readStoredLotStats, type StoredLotResults } from './stored-stats';
+import { ColumnCache, readStoredColumnBytes, readStoredLotStats, type StoredLotResults } from './stored-stats';
 
 export function lotStatsJobs(ctx: AppContext) {
   const { sqlite, pool } = ctx;
   const dbFile = sqlite.name;
   const computing = new Map<number, Promise<StoredLotResults>>();
+  const columnCache = new ColumnCache();
 
   /**
    * Computes and keeps the lot's results when a read finds them missing, or (`changed`) after an upload
@@ -35,7 +36,7 @@ export function lotStatsJobs(ctx: AppContext) {
     },
     /** The default matching's item columns as the bytes of their JSON text. */
     async columnBytes(lot: LotRow): Promise<{ count: number; bytes: Buffer }> {
-      const stored = readStoredColumnBytes(sqlite, lot);
+      const stored = readStoredColumnBytes(sqlite, lot, columnCache);
       if (stored) return stored;
       const computed = await refresh(lot);
       return { count: computed.count, bytes: Buffer.from(computed.columnsJson) };

@@ -150,26 +150,65 @@ export function readStoredLotStats(sqlite: Database.Database, lot: LotRow, part:
   return null;
 }
 
-/**
- * The stored item columns as the bytes of their JSON text (SQLite hands them over as they are kept, with
- * no string made of ~9 MB), when up to date; else null.
- */
-export function readStoredColumnBytes(sqlite: Database.Database, lot: LotRow): { count: number; bytes: Buffer } | null {
-  const row = sqlite
-    .prepare(
-      'select engine_version, nominal, tolerance_pct, second_limit, count, cast(columns as blob) as columns from lot_stats where lot_id = ?',
-    )
-    .get(lot.id) as (Omit<Row, 'columns'> & { columns: Buffer }) | undefined;
-  if (
-    row &&
-    row.engine_version === ANALYSIS_ENGINE_VERSION &&
-    row.nominal === lot.nominal &&
-    row.tolerance_pct === lot.tolerancePct &&
-    row.second_limit === lot.secondLimit
-  ) {
-    return { count: row.count, bytes: row.columns };
+/** Bytes of stored item columns kept in memory by lot: reading 9 MB out of SQLite costs more than sending it. */
+export class ColumnCache {
+  private readonly entries = new Map<number, { key: string; count: number; bytes: Buffer }>();
+  private size = 0;
+  constructor(private readonly maxBytes = 64 * 1024 * 1024) {}
+
+  get(lotId: number, key: string) {
+    const hit = this.entries.get(lotId);
+    if (!hit || hit.key !== key) return undefined;
+    // most recently used last
+    this.entries.delete(lotId);
+    this.entries.set(lotId, hit);
+    return hit;
   }
-  return null;
+
+  set(lotId: number, key: string, count: number, bytes: Buffer) {
+    this.drop(lotId);
+    if (bytes.length > this.maxBytes) return;
+    this.entries.set(lotId, { key, count, bytes });
+    this.size += bytes.length;
+    for (const [id] of this.entries) {
+      if (this.size <= this.maxBytes) break;
+      this.drop(id);
+    }
+  }
+
+  private drop(lotId: number) {
+    const old = this.entries.get(lotId);
+    if (old) this.size -= old.bytes.length;
+    this.entries.delete(lotId);
+  }
+}
+
+/**
+ * The stored item columns as the bytes of their JSON text, when up to date; else null. The bytes come
+ * from `cache` while the row is the one they were read from (its computed_at), else from SQLite (as
+ * they are kept: no string made of ~9 MB) and go into the cache.
+ */
+export function readStoredColumnBytes(sqlite: Database.Database, lot: LotRow, cache: ColumnCache): { count: number; bytes: Buffer } | null {
+  const row = sqlite
+    .prepare('select engine_version, nominal, tolerance_pct, second_limit, count, computed_at from lot_stats where lot_id = ?')
+    .get(lot.id) as (Omit<Row, 'columns' | 'detail'> & { computed_at: number }) | undefined;
+  if (
+    !row ||
+    row.engine_version !== ANALYSIS_ENGINE_VERSION ||
+    row.nominal !== lot.nominal ||
+    row.tolerance_pct !== lot.tolerancePct ||
+    row.second_limit !== lot.secondLimit
+  ) {
+    return null;
+  }
+  const key = `${row.computed_at}:${row.count}`;
+  const hit = cache.get(lot.id, key);
+  if (hit) return hit;
+  const read = sqlite.prepare('select count, computed_at, cast(columns as blob) as columns from lot_stats where lot_id = ?').get(lot.id) as
+    { count: number; computed_at: number; columns: Buffer } | undefined;
+  if (!read) return null;
+  cache.set(lot.id, `${read.computed_at}:${read.count}`, read.count, read.columns);
+  return { count: read.count, bytes: read.columns };
 }
 
 /** True when a request asks for the default matching (so the stored results answer it). */
