@@ -6,6 +6,7 @@ import { refitOutdatedTaperFits } from '@server/features/sweeps/refit-on-start';
 import { readEnv, startupWarnings } from '@server/env';
 import { sweepUploads } from '@server/uploads/sweep';
 import { poolOptionsFromEnv } from '@server/pool';
+import { computeMissingLotStats } from '@server/features/lots/stats-jobs';
 
 const env = readEnv();
 for (const warning of startupWarnings()) console.warn(`Warning: ${warning}`);
@@ -34,6 +35,13 @@ for (const f of refit.failed) console.log(`Sweep ${f.sweepId} kept its old fit: 
 const swept = sweepUploads(ctx.sqlite, env.uploadsDir);
 if (swept.incoming + swept.orphans > 0)
   console.log(`Removed ${swept.incoming} interrupted upload(s) and ${swept.orphans} unreferenced stored file(s).`);
+
+// Lots whose statistics are not stored yet (the seeded demo lot, an older engine version): computed in
+// the pool in the background, so that no reader waits for them.
+void computeMissingLotStats(ctx).then(
+  (n) => n > 0 && console.log(`Computed the stored statistics of ${n} lot(s).`),
+  (err: unknown) => console.log(`Lot statistics are left to each lot's next read: ${err instanceof Error ? err.message : String(err)}`),
+);
 
 const server = createApp(ctx).listen(env.PORT, () => {
   console.log(`Lugbook is serving on http://localhost:${env.PORT} (data in ${env.LUGBOOK_DATA_DIR})`);

@@ -56,12 +56,21 @@ export function poolOptionsFromEnv(env: NodeJS.ProcessEnv = process.env): PoolOp
 }
 
 export interface JobPool {
-  /** Runs a job in a worker. Refusals: 503 `busy` (queue full) and 503 `over_budget` (cancelled), both with Retry-After. */
-  run<K extends TaskName>(name: K, input: JobInput<K>, opts?: { transfer?: ArrayBuffer[] }): Promise<JobResult<K>>;
+  /**
+   * Runs a job in a worker. Refusals: 503 `busy` (queue full) and 503 `over_budget` (cancelled), both with
+   * Retry-After. `budgetMs` replaces the pool's budget for this job.
+   */
+  run<K extends TaskName>(name: K, input: JobInput<K>, opts?: RunOptions): Promise<JobResult<K>>;
   /** Jobs submitted and not yet settled (running or waiting). */
   readonly pending: number;
   readonly options: PoolOptions;
   close(): Promise<void>;
+}
+
+export interface RunOptions {
+  /** Buffers moved to the worker (not copied). */
+  transfer?: ArrayBuffer[];
+  budgetMs?: number;
 }
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
@@ -84,9 +93,10 @@ export function createJobPool(options: PoolOptions = DEFAULT_POOL_OPTIONS): JobP
     maxQueue: Infinity,
   });
   let pending = 0;
-  const retryAfter = String(Math.max(1, Math.ceil(options.budgetMs / 1000)));
 
-  async function run<K extends TaskName>(name: K, input: JobInput<K>, opts: { transfer?: ArrayBuffer[] } = {}): Promise<JobResult<K>> {
+  async function run<K extends TaskName>(name: K, input: JobInput<K>, opts: RunOptions = {}): Promise<JobResult<K>> {
+    const budgetMs = opts.budgetMs ?? options.budgetMs;
+    const retryAfter = String(Math.max(1, Math.ceil(budgetMs / 1000)));
     if (pending >= options.threads + options.maxQueue) {
       throw new HttpError(503, 'busy', 'The server is busy with other computations; try again in a moment.', undefined, undefined, {
         'Retry-After': retryAfter,
@@ -97,7 +107,7 @@ export function createJobPool(options: PoolOptions = DEFAULT_POOL_OPTIONS): JobP
     const { port1, port2 } = new MessageChannel();
     let timer: NodeJS.Timeout | undefined;
     port1.once('message', () => {
-      timer = setTimeout(() => controller.abort(new BudgetExceeded()), options.budgetMs);
+      timer = setTimeout(() => controller.abort(new BudgetExceeded()), budgetMs);
     });
     try {
       const result = await piscina.run(
@@ -111,7 +121,7 @@ export function createJobPool(options: PoolOptions = DEFAULT_POOL_OPTIONS): JobP
         throw new HttpError(
           503,
           'over_budget',
-          `The computation took longer than ${options.budgetMs / 1000} s and was stopped; try a smaller request, or again in a moment.`,
+          `The computation took longer than ${budgetMs / 1000} s and was stopped; try a smaller request, or again in a moment.`,
           undefined,
           undefined,
           { 'Retry-After': retryAfter },

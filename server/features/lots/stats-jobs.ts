@@ -3,11 +3,49 @@
 // computed in a worker for its request only. One computation per lot at a time: reads that find the
 // results missing while one runs wait for it.
 import type { AppContext } from '@server/context';
-import type { LotRow } from './repository';
+import { findLot, type LotRow } from './repository';
 import { ColumnCache, readStoredColumnBytes, readStoredLotStats, type StoredLotResults } from './stored-stats';
 
+/**
+ * A lot's statistics are bounded by the upload's 100,000 rows, not by anything a request chooses, and a
+ * lot whose statistics were always stopped could never be read: they get six of the pool's budgets
+ * (30 s by default) instead of one.
+ */
+const STATS_BUDGETS = 6;
+
+const perContext = new WeakMap<AppContext, ReturnType<typeof makeLotStatsJobs>>();
+
+/** The lot statistics jobs of an app (one per context, so reads and the start-up pass share their computations). */
 export function lotStatsJobs(ctx: AppContext) {
+  let jobs = perContext.get(ctx);
+  if (!jobs) {
+    jobs = makeLotStatsJobs(ctx);
+    perContext.set(ctx, jobs);
+  }
+  return jobs;
+}
+
+/**
+ * At start, in the background: computes the statistics of every lot with readings whose stored results
+ * are missing or out of date (a new engine version, a lot seeded or uploaded before they were stored),
+ * one lot at a time, so that no reader waits for them. Answers how many were computed.
+ */
+export async function computeMissingLotStats(ctx: AppContext): Promise<number> {
+  const jobs = lotStatsJobs(ctx);
+  const ids = ctx.sqlite.prepare('select distinct lot_id from lot_readings').pluck().all() as number[];
+  let computed = 0;
+  for (const id of ids) {
+    const lot = findLot(ctx.db, id);
+    if (!lot || readStoredLotStats(ctx.sqlite, lot, 'detail')) continue;
+    await jobs.refresh(lot);
+    computed++;
+  }
+  return computed;
+}
+
+function makeLotStatsJobs(ctx: AppContext) {
   const { sqlite, pool } = ctx;
+  const budgetMs = pool.options.budgetMs * STATS_BUDGETS;
   const dbFile = sqlite.name;
   const computing = new Map<number, Promise<StoredLotResults>>();
   const columnCache = new ColumnCache();
@@ -19,7 +57,7 @@ export function lotStatsJobs(ctx: AppContext) {
   function refresh(lot: LotRow, changed = false): Promise<StoredLotResults> {
     let job = changed ? undefined : computing.get(lot.id);
     if (!job) {
-      const started = pool.run('lotStats', { dbFile, lot });
+      const started = pool.run('lotStats', { dbFile, lot }, { budgetMs });
       job = started.finally(() => {
         if (computing.get(lot.id) === job) computing.delete(lot.id);
       });
@@ -43,7 +81,7 @@ export function lotStatsJobs(ctx: AppContext) {
     },
     /** Another matching, computed for this request only. */
     fresh(lot: LotRow, matching: { matchPct?: number; setSize?: number }): Promise<StoredLotResults> {
-      return pool.run('lotFreshResults', { dbFile, lot, matching });
+      return pool.run('lotFreshResults', { dbFile, lot, matching }, { budgetMs });
     },
   };
 }
