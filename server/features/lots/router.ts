@@ -12,7 +12,14 @@ import { assertWatcherChange, registerWatcherRoutes } from './watchers';
 import { decodeMarking } from '@shared/markings/decode';
 import { MarkingError } from '@shared/markings/tolerance-letters';
 import { IdParamsSchema } from '@shared/schemas/common';
-import { CreateLotInputSchema, LotStatsQuerySchema, PromoteInputSchema, WatchersInputSchema } from '@shared/schemas/lots';
+import {
+  CreateLotInputSchema,
+  LotStatsQuerySchema,
+  PromoteInputSchema,
+  WatchersInputSchema,
+  type LotDetail,
+  type LotListRow,
+} from '@shared/schemas/lots';
 import { lotFinder, lotSummary, QUANTITY } from './common';
 import { lotDispositionRoutes } from './disposition';
 import { lotExportRoutes } from './export';
@@ -41,7 +48,7 @@ export function lotRoutes(ctx: AppContext) {
   const statsJobs = lotStatsJobs(ctx);
 
   registerWatcherRoutes(api, ctx);
-  api.get('/', { handle: () => ({ lots: listLots(db).map((l) => ({ ...lotSummary(l), count: l.count })) }) });
+  api.get('/', { handle: (): { lots: LotListRow[] } => ({ lots: listLots(db).map((l) => ({ ...lotSummary(l), count: l.count })) }) });
 
   api.post('/', {
     status: 201,
@@ -117,7 +124,8 @@ export function lotRoutes(ctx: AppContext) {
       const disposedByName = lot.disposedBy
         ? (db.select({ name: users.name }).from(users).where(eq(users.id, lot.disposedBy)).get()?.name ?? null)
         : null;
-      const head = {
+      // Every field of LotDetail but `stats`, which is spliced in below as stored text.
+      const head: Omit<LotDetail, 'stats'> = {
         ...lotSummary(lot),
         disposedByName,
         count: results.count,
@@ -139,6 +147,7 @@ export function lotRoutes(ctx: AppContext) {
         ? await statsJobs.columnBytes(lot)
         : await statsJobs.fresh(lot, query).then((r) => ({ count: r.count, bytes: Buffer.from(r.columnsJson) }));
       // Which items became parts is read on every request: a promotion changes it, not the readings.
+      // The answer is a LotItems (shared/schemas/lots.ts): partIds, then the stored columns.
       const partIdsJson = lotItemPartIdsJson(db, sqlite, lot.id, count);
       // The columns object, with partIds put in front of its first key.
       const head = Buffer.from(`{"partIds":${partIdsJson},`);

@@ -9,9 +9,16 @@ import { ApiRouter } from '@server/http/router';
 import { fileRefused } from '@server/uploads/refusal';
 import { checkFileType, singleFileUpload, withStoredFile, storedName } from '@server/uploads/store';
 import { IdParamsSchema } from '@shared/schemas/common';
-import { RefitInputSchema, SweepUploadFieldsSchema } from '@shared/schemas/sweeps';
+import {
+  RefitInputSchema,
+  SweepUploadFieldsSchema,
+  type Fit,
+  type RefitResult,
+  type Sweep,
+  type SweepUploadResult,
+} from '@shared/schemas/sweeps';
 import { parseSweepCsv } from '@shared/csv/sweeps';
-import { asFit, coilFitInPool, fitAndStore, fitInput, sweepInput, type SweepRow } from './fit';
+import { asFit, asSweep, coilFitInPool, fitAndStore, fitInput, sweepInput, type SweepRow } from './fit';
 import type { CoilPoint } from '@shared/analysis/coil';
 import { insertSweep, toStoredPoints } from './store';
 
@@ -22,7 +29,7 @@ export function sweepRoutes(ctx: AppContext) {
   const { db } = ctx;
   const api = new ApiRouter('/api/parts/:id');
 
-  const withFits = (list: SweepRow[]) => {
+  const withFits = (list: SweepRow[]): Sweep[] => {
     if (list.length === 0) return [];
     const current = db
       .select()
@@ -38,12 +45,12 @@ export function sweepRoutes(ctx: AppContext) {
       )
       .all()
       .map(asFit);
-    return list.map((s) => ({ ...s, points: sweepInput(db, s), fit: current.find((f) => f.sweepId === s.id) ?? null }));
+    return list.map((s) => asSweep(s, sweepInput(db, s), current.find((f) => f.sweepId === s.id) ?? null));
   };
 
   api.get('/sweeps', {
     schemas: { params: IdParamsSchema },
-    handle: ({ params }) => {
+    handle: ({ params }): { sweeps: Sweep[] } => {
       if (!findPart(db, params.id)) throw notFound('That part');
       return { sweeps: withFits(db.select().from(sweeps).where(eq(sweeps.partId, params.id)).orderBy(desc(sweeps.id)).all()) };
     },
@@ -53,7 +60,7 @@ export function sweepRoutes(ctx: AppContext) {
     status: 201,
     before: [singleFileUpload(MAX_SWEEP_BYTES)],
     schemas: { params: IdParamsSchema, body: SweepUploadFieldsSchema },
-    handle: async ({ params, body, req, user }) => {
+    handle: async ({ params, body, req, user }): Promise<SweepUploadResult> => {
       const part = findPart(db, params.id);
       if (!part) throw notFound('That part');
       if (body.kind === 'taper' && part.kind !== 'pot')
@@ -102,13 +109,13 @@ export function sweepRoutes(ctx: AppContext) {
               entityId: part.id,
               detail: { sweepId: sweep.id, kind: body.kind, points: stored.length, file: attachment.originalName, flagged: fit.flagged },
             });
+            const storedFit = asFit(fit);
             return {
-              ...sweep,
-              points: fitInput(sweep.kind, stored),
-              fit: asFit(fit),
+              ...asSweep(sweep, fitInput(sweep.kind, stored), storedFit),
+              fit: storedFit,
               ignoredColumns: parsed.ignored,
               notes: parsed.notes,
-              part: findPart(tx, part.id),
+              part: findPart(tx, part.id)!,
             };
           }),
         );
@@ -121,7 +128,7 @@ export function sweepRoutes(ctx: AppContext) {
 
   api.get('/fits', {
     schemas: { params: IdParamsSchema },
-    handle: ({ params }) => {
+    handle: ({ params }): { fits: Fit[] } => {
       if (!findPart(db, params.id)) throw notFound('That part');
       return { fits: db.select().from(fits).where(eq(fits.partId, params.id)).orderBy(desc(fits.id)).all().map(asFit) };
     },
@@ -130,7 +137,7 @@ export function sweepRoutes(ctx: AppContext) {
   // Runs the current engine again over a stored sweep; the previous fit stays in the history.
   api.post('/sweeps/:sweepId/refit', {
     schemas: { params: IdParamsSchema.extend({ sweepId: z.coerce.number().int().positive() }), body: RefitInputSchema },
-    handle: async ({ params, body, user }) => {
+    handle: async ({ params, body, user }): Promise<RefitResult> => {
       const part = findPart(db, params.id);
       const sweep = db
         .select()
@@ -149,7 +156,7 @@ export function sweepRoutes(ctx: AppContext) {
           entityId: part.id,
           detail: { sweepId: sweep.id, fitId: fit.id, choices: body },
         });
-        return { fit: asFit(fit), part: findPart(tx, part.id) };
+        return { fit: asFit(fit), part: findPart(tx, part.id)! };
       });
     },
   });
