@@ -134,3 +134,31 @@ describe('judge: the words', () => {
     expect(() => judge({ value: 1, lower: 0, upper: 2, uncertainty: Infinity, unit: 'Ω' })).toThrow(/uncertainty must be/);
   });
 });
+
+// Added after the mutation run of 2 December 2026 (docs/mutation.md), for its survivors that a
+// real input separates; not yet counted in the score there.
+describe('judge and limits at exact boundaries', () => {
+  it('a tolerance of 0 % gives equal limits, and a reading on them is inside ±0 %', () => {
+    expect(limitsFromTolerance(100, 0)).toEqual({ lower: 100, upper: 100 });
+    expect(limitsFromTolerance(100, { minusPct: 0, plusPct: 0 })).toEqual({ lower: 100, upper: 100 });
+    expect(judge({ value: 100, nominal: 100, lower: 100, upper: 100, unit: 'Ω' }).reason).toMatch(/inside ±0 %/);
+  });
+
+  it('an interval touching the lower limit from inside passes; touching it from outside is marginal (limits inclusive)', () => {
+    // 410 − 10 = 400 = lower: inside. 390 + 10 = 400 = lower: the interval still reaches the limit.
+    expect(judge({ value: 410, lower: 400, upper: 600, uncertainty: 10, unit: 'Ω' }).verdict).toBe('pass');
+    expect(judge({ value: 390, lower: 400, upper: 600, uncertainty: 10, unit: 'Ω' }).verdict).toBe('marginal');
+    expect(judge({ value: 389.999999, lower: 400, upper: 600, uncertainty: 10, unit: 'Ω' }).verdict).toBe('fail');
+  });
+
+  it('each verdict names its rule', () => {
+    expect(judge({ value: 700, lower: 400, upper: 600, unit: 'Ω' }).rule).toBe('simple');
+    expect(judge({ value: 700, lower: 400, upper: 600, uncertainty: 10, unit: 'Ω' }).rule).toBe('guarded');
+    expect(judge({ value: 605, lower: 400, upper: 600, uncertainty: 10, unit: 'Ω' }).rule).toBe('guarded');
+  });
+
+  it('inverted limits are refused with both values; a display of 2 counts is the smallest accepted', () => {
+    expect(() => judge({ value: 1, lower: 2, upper: 1, unit: 'Ω' })).toThrow('Lower limit 2 is above upper limit 1.');
+    expect(meterRange(1, 2)).toBe(2);
+  });
+});
