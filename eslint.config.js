@@ -9,7 +9,7 @@ import comments from '@eslint-community/eslint-plugin-eslint-comments/configs';
 import globals from 'globals';
 
 export default tseslint.config(
-  { ignores: ['dist/', 'data/', 'node_modules/', 'coverage/', 'reports/', 'drizzle/', 'public/'] },
+  { ignores: ['dist/', 'data/', 'node_modules/', 'coverage/', 'reports/', '.stryker-tmp/', 'drizzle/', 'public/'] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   comments.recommended,

@@ -1,8 +1,10 @@
 // Mutation runs over the engine's shared code (npm run mutation; not part of CI: it is for people,
-// like the bench). One folder at a time on a shared machine, e.g.
-//   npm run mutation -- --mutate 'shared/series/**/*.ts'
-// Incremental: the results are kept in reports/mutation/incremental.json, so a rerun tests only
-// the mutants whose code or tests changed.
+// like the bench). One folder at a time on a shared machine, with its own incremental file and its
+// own tests (docs/mutation.md), e.g.
+//   LUGBOOK_MUTATION_TESTS='tests/shared/markings/**/*.test.ts' npm run mutation -- \
+//     --mutate 'shared/markings/**/*.ts' --incrementalFile reports/mutation/markings.incremental.json
+// Incremental: a rerun tests only the mutants whose code or covering tests changed. Mutants in
+// module-level tables are covered by no test in particular, so after adding tests rerun with --force.
 /** @type {import('@stryker-mutator/api/core').PartialStrykerOptions} */
 export default {
   testRunner: 'vitest',

@@ -10,6 +10,7 @@ import type { AppContext } from '@server/context';
 import { conflict, HttpError, unprocessable } from '@server/http/errors';
 import type { ApiRouter } from '@server/http/router';
 import type { AuthUser } from '@server/auth/session';
+import { pausePoint } from '@server/http/pause-point';
 import { guardedUpload } from '@server/uploads/multipart';
 import { fileRefused } from '@server/uploads/refusal';
 import { contentPath, incomingDir, storedName } from '@server/uploads/store';
@@ -97,7 +98,9 @@ export function lotUploadRoutes(api: ApiRouter, ctx: AppContext, statsJobs: Retu
         if (body.replace) sqlite.prepare('delete from lot_readings where lot_id = ?').run(lot.id);
         // The stored statistics describe the old readings: gone with them, or not at all.
         invalidateLotStats(sqlite, lot.id);
+        const half = Math.floor(data.n / 2);
         for (let i = 0; i < data.n; i++) {
+          if (i === half) pausePoint('lot-upload:mid-insert');
           const s = data.second[i]!;
           const f = data.frequency[i]!;
           insert.run(lot.id, data.items[i]!, data.values[i]!, Number.isNaN(s) ? null : s, Number.isNaN(f) ? null : f, data.lines[i]!);
@@ -119,11 +122,13 @@ export function lotUploadRoutes(api: ApiRouter, ctx: AppContext, statsJobs: Retu
           fs.renameSync(file.path, stored);
           created = true;
         }
+        pausePoint('lot-upload:file-moved');
       });
     } catch (err) {
       if (created) fs.rmSync(stored, { force: true });
       throw err;
     }
+    pausePoint('lot-upload:committed');
     const storedAt = performance.now();
     // From the columns already in memory (a replace leaves exactly these rows); the lot page asks for sets itself.
     const stats = lotStats(lot, data, { sets: false });
