@@ -1,5 +1,5 @@
 // Measured parts a harness can take its values from: pickups with a coil fit, pots with a taper
-// fit. The list route has no "has a fit" filter, so the parts of the kind are listed and their fits
+// fit, capacitors with a capacitance reading (their latest). The list route has no "has a fit" filter, so the parts of the kind are listed and their fits
 // asked for one by one — only when the user opens the chooser, and for at most MEASURED_LIMIT parts.
 import { queryOptions, useQueries, useQuery } from '@tanstack/react-query';
 import type { CoilFit } from '@shared/analysis/coil';
@@ -11,7 +11,8 @@ import { api } from '@/lib/api-client';
 
 export const MEASURED_LIMIT = 100;
 
-type MeasuredKind = 'pickup' | 'pot';
+type MeasuredKind = 'pickup' | 'pot' | 'capacitor';
+type FittedKind = 'pickup' | 'pot';
 const FIT_KIND = { pickup: 'coil', pot: 'taper' } as const;
 
 export const partsOfKindQueryOptions = (kind: MeasuredKind) =>
@@ -54,7 +55,7 @@ export interface MeasuredList<T> {
   looked: number;
 }
 
-function useMeasured(kind: MeasuredKind, enabled: boolean) {
+function useMeasured(kind: FittedKind, enabled: boolean) {
   const parts = useQuery({ ...partsOfKindQueryOptions(kind), enabled });
   const list = parts.data?.parts ?? [];
   const fits = useQueries({
@@ -95,4 +96,38 @@ export function useMeasuredPots(enabled: boolean): MeasuredList<MeasuredPot> {
     return [{ part, fit, taper: { law, m, total } }];
   });
   return { items, ...rest };
+}
+
+/** The fields of a reading the chooser needs (the parts screen reads the same route under the same key). */
+interface ReadingLine {
+  id: number;
+  quantity: string;
+  value: number;
+  frequency: number | null;
+  takenAt: number;
+}
+
+/** A part's readings, newest first; the same key as the part page's readings, so both share the cache. */
+export const partReadingsForHarness = (partId: number) =>
+  queryOptions({
+    queryKey: ['parts', 'detail', partId, 'readings'],
+    queryFn: ({ signal }) => api.get<{ readings: ReadingLine[] }>(`/api/parts/${partId}/readings`, { signal }),
+  });
+
+export type MeasuredCapacitor = { part: Part; reading: ReadingLine };
+
+/** Capacitors with a capacitance reading: the latest one of each (readings come newest first). */
+export function useMeasuredCapacitors(enabled: boolean): MeasuredList<MeasuredCapacitor> {
+  const parts = useQuery({ ...partsOfKindQueryOptions('capacitor'), enabled });
+  const list = parts.data?.parts ?? [];
+  const readings = useQueries({ queries: list.map((p) => ({ ...partReadingsForHarness(p.id), enabled })) });
+  const pending = enabled && (parts.isPending || readings.some((r) => r.isPending));
+  const error = parts.error ?? readings.find((r) => r.error)?.error ?? null;
+  const items = list.flatMap((part, i) => {
+    const reading = (readings[i]?.data?.readings ?? [])
+      .filter((r) => r.quantity === 'capacitance' && Number.isFinite(r.value) && r.value > 0)
+      .sort((a, b) => b.takenAt - a.takenAt || b.id - a.id)[0];
+    return reading ? [{ part, reading }] : [];
+  });
+  return { items, pending, error, looked: list.length };
 }
