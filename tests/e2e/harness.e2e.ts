@@ -145,6 +145,13 @@ test('one editor: quick starts, layouts, keyboard selector, a slider per knob, p
   expect(await page.locator('#harness-wiring').getByRole('radio', { name: /^1:/ }).isChecked()).toBe(true);
   expect(await page.getByRole('slider', { name: 'Tone 2 (middle) knob' }).inputValue()).toBe('9');
   expect(await page.locator('#harness-wiring').getByLabel('Treble bleed').inputValue()).toBe(topology);
+
+  // identical coils in opposition: "no signal (cancelled)", not a curve at −300 dB
+  await page.locator('#harness-wiring').getByLabel('Layout').selectOption('dual-coil');
+  await page.locator('#harness-wiring').getByLabel('Coils').selectOption('series-reversed');
+  await page.getByText(/No signal \(cancelled\)/).waitFor();
+  await page.locator('#harness-wiring').getByLabel('Coils').selectOption('series');
+  await expect.poll(() => page.getByText(/No signal \(cancelled\)/).count()).toBe(0);
   watched.expectNoProblems();
   await watched.close();
 }, 180_000);
