@@ -59,7 +59,8 @@ export function formatField(def: Pick<LayoutValueDef, 'quantity' | 'unit'>, valu
     case 'capacitance-per-length':
       return `${formatValue(value, 'F', { digits: 4 })}/m`;
     default:
-      return value === 0 ? `0 ${def.unit}` : formatValue(value, def.unit, { digits: 4 });
+      // none: written in the unit's usual size (0 pF rather than 0 F)
+      return value === 0 ? (def.unit === 'F' ? '0 pF' : `0 ${def.unit}`) : formatValue(value, def.unit, { digits: 4 });
   }
 }
 

@@ -179,7 +179,7 @@ export function FinderPanel({
                 <SweepPlot
                   volumes={curves.none.volumes}
                   series={series('level')}
-                  yLabel="Level re full volume, no bleed (dB)"
+                  yLabel="Level re no bleed at 10 (dB)"
                   range={taperRange}
                   marker={10}
                   height={240}
