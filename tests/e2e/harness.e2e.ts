@@ -155,3 +155,34 @@ test('one editor: quick starts, layouts, keyboard selector, a slider per knob, p
   watched.expectNoProblems();
   await watched.close();
 }, 180_000);
+
+test('downloads of a layout design: the SPICE netlist has one AC source per pickup, the CSV names its conditions and every position', async () => {
+  const watched = await watchedPage(browser);
+  const { page } = watched;
+  await signIn(page, baseUrl, 'tech@lugbook.test', password);
+  await page.goto(`${baseUrl}/harness`);
+  const wiring = page.locator('#harness-wiring');
+  await wiring.getByLabel('Layout').selectOption('two-pickups-3way');
+  await wiring.getByLabel('Phase').selectOption('reversed');
+  await wiring.getByRole('radio', { name: /^1:/ }).check({ force: true });
+  const read = async (button: string) => {
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: button }).click()]);
+    return { name: download.suggestedFilename(), text: fs.readFileSync((await download.path())!, 'utf8') };
+  };
+  const spice = await read('SPICE netlist');
+  expect(spice.name).toMatch(/^harness-two-pickups-3way-pos1-.*\.cir$/);
+  const sources = spice.text.split('\n').filter((l) => /^V/i.test(l));
+  expect(sources).toHaveLength(2);
+  expect(sources.filter((l) => / AC 1 180$/.test(l))).toHaveLength(1);
+  const csv = await read('Curves (CSV)');
+  expect(csv.text).toContain('# layout: Two pickups, three-way selector\n');
+  expect(csv.text).toContain('# selector position: 1: Both\n');
+  expect(csv.text).toContain('# phase: One pickup reversed\n');
+  expect(csv.text).toMatch(/# sources: every pickup or coil a unit source/);
+  const header = csv.text.split('\n').find((l) => l.startsWith('frequency_Hz'))!;
+  expect(header).toContain('position_0_neck_dB');
+  expect(header).toContain('position_2_bridge_dB');
+  expect(header).toContain('neck_alone_dB');
+  watched.expectNoProblems();
+  await watched.close();
+}, 120_000);
