@@ -1,13 +1,15 @@
 // Measured parts a harness can take its values from: pickups with a coil fit, pots with a taper
-// fit, capacitors with a capacitance reading (their latest). The list route has no "has a fit" filter, so the parts of the kind are listed and their fits
-// asked for one by one — only when the user opens the chooser, and for at most MEASURED_LIMIT parts.
-import { queryOptions, useQueries, useQuery } from '@tanstack/react-query';
+// fit, capacitors with a capacitance reading (their latest). The list route has no "has a fit"
+// filter, so the parts of the kind are listed and their fits (or readings) asked for one by one —
+// only when the user opens the chooser, and for at most MEASURED_LIMIT parts.
+import { useQueries, useQuery } from '@tanstack/react-query';
 import type { CoilFit } from '@shared/analysis/coil';
 import type { TaperFit } from '@shared/analysis/taper';
 import type { Part } from '@shared/schemas/parts';
 import type { Fit } from '@shared/schemas/sweeps';
 import { TAPER_LAWS } from '@shared/taper/law';
-import { api } from '@/lib/api-client';
+import { partFitsQueryOptions, partQueryOptions, partReadingsQueryOptions, partsQueryOptions } from '@/data/parts';
+import type { Reading } from '@/data/readings';
 
 export const MEASURED_LIMIT = 100;
 
@@ -15,25 +17,10 @@ type MeasuredKind = 'pickup' | 'pot' | 'capacitor';
 type FittedKind = 'pickup' | 'pot';
 const FIT_KIND = { pickup: 'coil', pot: 'taper' } as const;
 
-export const partsOfKindQueryOptions = (kind: MeasuredKind) =>
-  queryOptions({
-    queryKey: ['parts', 'list', { kind, limit: MEASURED_LIMIT }],
-    queryFn: ({ signal }) => api.get<{ parts: Part[] }>('/api/parts', { params: { kind, limit: MEASURED_LIMIT }, signal }),
-  });
+/** The parts of the kind the chooser looks at: the parts list's query with a kind and a limit. */
+export const partsOfKindQueryOptions = (kind: MeasuredKind) => partsQueryOptions({ kind, limit: MEASURED_LIMIT });
 
-export const partFitsQueryOptions = (partId: number) =>
-  queryOptions({
-    queryKey: ['parts', 'detail', partId, 'fits'],
-    queryFn: ({ signal }) => api.get<{ fits: Fit[] }>(`/api/parts/${partId}/fits`, { signal }),
-  });
-
-/** Part detail, for the label of a part a saved design refers to. Same key as the parts screen. */
-export const partQueryOptions = (partId: number) =>
-  queryOptions({
-    queryKey: ['parts', 'detail', partId],
-    queryFn: ({ signal }) => api.get<Part>(`/api/parts/${partId}`, { signal }),
-  });
-
+/** The label of a part a saved design refers to (the part page's query). */
 export const usePartLabel = (partId: number | undefined) => {
   const q = useQuery({ ...partQueryOptions(partId ?? 0), enabled: partId !== undefined });
   return q.data?.label;
@@ -98,29 +85,13 @@ export function useMeasuredPots(enabled: boolean): MeasuredList<MeasuredPot> {
   return { items, ...rest };
 }
 
-/** The fields of a reading the chooser needs (the parts screen reads the same route under the same key). */
-interface ReadingLine {
-  id: number;
-  quantity: string;
-  value: number;
-  frequency: number | null;
-  takenAt: number;
-}
-
-/** A part's readings, newest first; the same key as the part page's readings, so both share the cache. */
-export const partReadingsForHarness = (partId: number) =>
-  queryOptions({
-    queryKey: ['parts', 'detail', partId, 'readings'],
-    queryFn: ({ signal }) => api.get<{ readings: ReadingLine[] }>(`/api/parts/${partId}/readings`, { signal }),
-  });
-
-export type MeasuredCapacitor = { part: Part; reading: ReadingLine };
+export type MeasuredCapacitor = { part: Part; reading: Reading };
 
 /** Capacitors with a capacitance reading: the latest one of each (readings come newest first). */
 export function useMeasuredCapacitors(enabled: boolean): MeasuredList<MeasuredCapacitor> {
   const parts = useQuery({ ...partsOfKindQueryOptions('capacitor'), enabled });
   const list = parts.data?.parts ?? [];
-  const readings = useQueries({ queries: list.map((p) => ({ ...partReadingsForHarness(p.id), enabled })) });
+  const readings = useQueries({ queries: list.map((p) => ({ ...partReadingsQueryOptions(p.id), enabled })) });
   const pending = enabled && (parts.isPending || readings.some((r) => r.isPending));
   const error = parts.error ?? readings.find((r) => r.error)?.error ?? null;
   const items = list.flatMap((part, i) => {
