@@ -14,6 +14,7 @@
 import { summaryStatistics, type SummaryStatistics } from './lot-stats';
 import { LEVEL_FREQUENCY } from '@shared/circuit/metrics';
 import { GROUND, OUTPUT, type Netlist } from '@shared/circuit/netlist';
+import { loadParts, type LoadSetting } from '@shared/circuit/loads';
 import { compileHarness, solve } from '@shared/circuit/solver';
 import type { TaperLaw, TaperLawKind } from '@shared/taper/law';
 
@@ -222,15 +223,8 @@ export interface PickupModel {
   Rp?: number | null;
 }
 
-export interface LoadModel {
-  /** Cable capacitance, F (length × capacitance per metre). */
-  cableC: number;
-  /** Amplifier input resistance, Ω. */
-  ampR: number;
-}
-
-/** Pickup → volume pot (the pot's fitted law and total) → cable C ∥ amplifier R. */
-export function volumeNetlist(pickup: PickupModel, pot: { R: number; law: TaperLaw }, load: LoadModel): Netlist {
+/** Pickup → volume pot (the pot's fitted law and total) → the load of loads.ts (cable and input). */
+export function volumeNetlist(pickup: PickupModel, pot: { R: number; law: TaperLaw }, load: LoadSetting): Netlist {
   const parts: Netlist['parts'] = [
     {
       kind: 'pickup',
@@ -243,9 +237,8 @@ export function volumeNetlist(pickup: PickupModel, pot: { R: number; law: TaperL
       ...(pickup.Rp ? { Rp: pickup.Rp } : {}),
     },
     { kind: 'pot', id: 'volume', a: GROUND, b: 'hot', w: OUTPUT, R: pot.R, law: pot.law, knob: 'volume' },
-    { kind: 'resistor', id: 'amp', a: OUTPUT, b: GROUND, R: load.ampR },
+    ...loadParts(load),
   ];
-  if (load.cableC > 0) parts.push({ kind: 'capacitor', id: 'cable', a: OUTPUT, b: GROUND, C: load.cableC });
   return { title: 'Loaded volume taper', parts };
 }
 

@@ -156,3 +156,40 @@ export function findBleed(
   all.sort((a, b) => a.figures.score - b.figures.score);
   return { candidates: all.slice(0, options.count ?? 10), evaluated: all.length };
 }
+
+/** A bleed's curves over the finder's volumes (10, 9, …, 2), as the finder judges them (see `bleedCurves`). */
+export interface BleedCurves {
+  volumes: readonly number[];
+  /** Level at 1 kHz, dB re the same instrument without a bleed at full volume. */
+  level1kDb: Float64Array;
+  /** Treble retention, dB: (L(3 kHz) − L(200 Hz)) at each volume minus the same at full volume. */
+  trebleDb: Float64Array;
+}
+
+/**
+ * The curves behind a candidate's figures: the 1 kHz level and the treble retention at each of the
+ * finder's volumes (every volume of the layout turned together), for a bleed or for none. The
+ * screen draws them for the best candidates beside the no-bleed curves.
+ */
+export function bleedCurves(
+  layout: LayoutDef,
+  config: LayoutConfig,
+  knobs: Record<string, number>,
+  bleed: { topology: BleedTopology | 'none'; bleedC?: number; bleedR?: number },
+): BleedCurves {
+  const volumes = volumeKnobs(layout);
+  const keys = bleedKeys(layout);
+  const ref = levelsOf(layout, { ...config, options: { ...config.options, bleed: 'none' } }, knobs, volumes);
+  const values = { ...config.values };
+  for (const key of keys.c) if (bleed.bleedC !== undefined) values[key] = bleed.bleedC;
+  for (const key of keys.r) if (bleed.bleedR !== undefined) values[key] = bleed.bleedR;
+  const x =
+    bleed.topology === 'none'
+      ? ref
+      : levelsOf(layout, { ...config, values, options: { ...config.options, bleed: bleed.topology } }, knobs, volumes);
+  return {
+    volumes: FINDER_VOLUMES,
+    level1kDb: x.l1k.map((l) => l - ref.l1k[0]!),
+    trebleDb: x.treble.map((t) => t - x.treble[0]!),
+  };
+}

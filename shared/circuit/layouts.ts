@@ -9,6 +9,7 @@
 // one removes what it disconnects).
 import { DEFAULT_HARNESS_VALUES } from './presets';
 import { GROUND, OUTPUT, type Netlist, type Part, type PickupPart } from './netlist';
+import { isLoadId, LOAD_IDS, LOAD_VALUES, LOADS, loadParts, loadSettingOf } from './loads';
 import type { TaperLaw } from '../taper/law';
 
 export type LayoutId = 'one-pickup' | 'two-pickups-3way' | 'three-pickups-5way' | 'dual-coil';
@@ -128,11 +129,8 @@ const OPTION_DEFS = {
   load: {
     id: 'load',
     name: 'Plays into',
-    choices: [
-      { id: 'amp', name: 'Amplifier input' },
-      { id: 'buffer', name: 'Buffered pedal' },
-      { id: 'low-impedance-pedal', name: 'Low-impedance pedal input' },
-    ],
+    // loads.ts defines the loads; the first (the amplifier input) is the default
+    choices: LOAD_IDS.map((id) => ({ id, name: LOADS[id].name })),
   },
 } satisfies Record<string, LayoutOptionDef>;
 
@@ -193,37 +191,6 @@ function toneValues(prefix: string, prefixName: string): LayoutValueDef[] {
     c(key(prefix, 'secondC'), label(prefixName, 'second tone capacitor'), D.secondC),
   ];
 }
-
-/**
- * The load the instrument plays into. Amplifier input 1 MΩ (as the presets) with an input
- * capacitance `ampC` that is 0 unless given, so the presets keep their figures; a buffered pedal's
- * input 1 MΩ, with only the cable before it loading the pickup (the cable after a buffer is driven
- * by the buffer); a low-impedance pedal input of 10 kΩ (from memory: some vintage-style fuzz inputs
- * are a few kΩ to tens of kΩ; the user should enter the pedal's own figure).
- */
-export const LOAD_VALUES: readonly LayoutValueDef[] = [
-  {
-    key: 'cableCapPerMetre',
-    name: 'Cable capacitance per metre',
-    quantity: 'capacitance-per-length',
-    unit: 'F/m',
-    default: D.cableCapPerMetre,
-    range: 'non-negative',
-  },
-  {
-    key: 'cableLength',
-    name: 'Cable length (to the amplifier or pedal)',
-    quantity: 'length',
-    unit: 'm',
-    default: D.cableLength,
-    range: 'non-negative',
-  },
-  r('ampR', 'Amplifier input resistance', D.ampR),
-  c('ampC', 'Amplifier input capacitance', 0, 'non-negative'),
-  r('bufferR', 'Buffered pedal input resistance', 1e6),
-  { key: 'cableBeforeBuffer', name: 'Cable before the buffer', quantity: 'length', unit: 'm', default: 3, range: 'non-negative' },
-  r('pedalR', "Low-impedance pedal input resistance (from memory; enter your pedal's)", 10e3),
-];
 
 // Pickup defaults of our own choosing (common practice, from memory): neck pickups are wound a
 // little weaker than bridge pickups, so each pickup of a layout has its own figures. The dual-coil
@@ -538,29 +505,9 @@ function toneParts(v: LayoutValues, prefix: string, knob: string, from: string, 
   }
 }
 
-/** Cable and input of what the instrument plays into, at the output. */
-function loadParts(v: LayoutValues, load: string): Part[] {
-  const perMetre = num(v, 'cableCapPerMetre');
-  const parts: Part[] = [];
-  const cable = (length: number) => {
-    const C = perMetre * length;
-    // No cable (a direct connection, or a wireless link) means no capacitor, not a 0 F one.
-    if (C > 0) parts.push({ kind: 'capacitor', id: 'cable', a: OUTPUT, b: GROUND, C });
-  };
-  if (load === 'buffer') {
-    // Only the cable before the buffer loads the pickup.
-    cable(num(v, 'cableBeforeBuffer'));
-    parts.push({ kind: 'resistor', id: 'buffer', a: OUTPUT, b: GROUND, R: num(v, 'bufferR') });
-  } else if (load === 'low-impedance-pedal') {
-    cable(num(v, 'cableLength'));
-    parts.push({ kind: 'resistor', id: 'pedal', a: OUTPUT, b: GROUND, R: num(v, 'pedalR') });
-  } else {
-    cable(num(v, 'cableLength'));
-    parts.push({ kind: 'resistor', id: 'amp', a: OUTPUT, b: GROUND, R: num(v, 'ampR') });
-    const ampC = num(v, 'ampC');
-    if (ampC > 0) parts.push({ kind: 'capacitor', id: 'amp-c', a: OUTPUT, b: GROUND, C: ampC });
-  }
-  return parts;
+/** Cable and input of what the instrument plays into, at the output (loads.ts). */
+function outputLoad(v: LayoutValues, load: string): Part[] {
+  return loadParts(loadSettingOf(isLoadId(load) ? load : 'amp', v));
 }
 
 /** Which pickups each position of a selector joins. */
@@ -605,7 +552,7 @@ export function buildLayoutNetlist(layout: LayoutDef, config: LayoutConfig): Net
           );
         }
       }
-      parts.push(...volumeParts(v, '', 'hot', OUTPUT, 'standard'), ...loadParts(v, load));
+      parts.push(...volumeParts(v, '', 'hot', OUTPUT, 'standard'), ...outputLoad(v, load));
       parts.push(...toneParts(v, '', 'tone', interactive ? OUTPUT : 'hot', network));
       parts.push(...bleedParts(v, '', 'hot', OUTPUT, bleed));
       break;
@@ -620,7 +567,7 @@ export function buildLayoutNetlist(layout: LayoutDef, config: LayoutConfig): Net
         parts.push(...toneParts(v, p, `${p}.tone`, interactive ? OUTPUT : hot, network));
         parts.push(...bleedParts(v, p, hot, OUTPUT, bleed));
       }
-      parts.push(...loadParts(v, load));
+      parts.push(...outputLoad(v, load));
       break;
     }
     case 'three-pickups-5way': {
@@ -629,7 +576,7 @@ export function buildLayoutNetlist(layout: LayoutDef, config: LayoutConfig): Net
         const emf = p === 'middle' && o.phase === 'reversed' ? -1 : 1;
         parts.push(pickupPart(v, p, p, 'hot', GROUND, emf, p));
       }
-      parts.push(...volumeParts(v, '', 'hot', OUTPUT, 'standard'), ...loadParts(v, load));
+      parts.push(...volumeParts(v, '', 'hot', OUTPUT, 'standard'), ...outputLoad(v, load));
       const from = interactive ? OUTPUT : 'hot';
       if (active.includes('neck')) parts.push(...toneParts(v, 'tone1', 'tone1', from, network));
       if (active.includes('middle') || (o.tone2Serves === 'middle-bridge' && active.includes('bridge'))) {

@@ -6,6 +6,7 @@
 // lug 1), b = 'hot' (lug 3), w = 'out'.
 import { GROUND, OUTPUT, type Netlist, type Part } from './netlist';
 import type { TaperLaw } from '@shared/taper/law';
+import { DEFAULT_CABLE, LOADS, loadParts } from './loads';
 
 /** Part values of a harness, all in SI units (Ω, F, H, m, F/m) plus the two pots' laws. */
 export interface HarnessValues {
@@ -91,9 +92,9 @@ export const DEFAULT_HARNESS_VALUES: HarnessValues = {
   bleedR: 150e3,
   floorR: 10e3,
   secondC: 10e-9,
-  cableCapPerMetre: 100e-12,
-  cableLength: 3,
-  ampR: 1e6,
+  cableCapPerMetre: DEFAULT_CABLE.capPerMetre,
+  cableLength: DEFAULT_CABLE.lengthM,
+  ampR: LOADS.amp.inputDefault,
 };
 
 /** Pickup, volume pot, cable and amplifier input: the parts every preset shares. */
@@ -111,9 +112,8 @@ function common(v: HarnessValues): Part[] {
       ...(v.pickupRp !== undefined ? { Rp: v.pickupRp } : {}),
     },
     { kind: 'pot', id: 'volume', a: GROUND, b: 'hot', w: OUTPUT, R: v.volumeR, law: v.volumeLaw, knob: 'volume' },
-    // No cable (a direct connection, or a wireless link) means no capacitor, not a 0 F one.
-    ...(cableC > 0 ? [{ kind: 'capacitor' as const, id: 'cable', a: OUTPUT, b: GROUND, C: cableC }] : []),
-    { kind: 'resistor', id: 'amp', a: OUTPUT, b: GROUND, R: v.ampR },
+    // the amplifier input and the cable, as loads.ts defines them
+    ...loadParts({ id: 'amp', R: v.ampR, C: 0, cableC }),
   ];
 }
 

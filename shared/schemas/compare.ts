@@ -1,5 +1,6 @@
 // Bodies of the compare routes and saved comparisons (docs/screens.md, Compare: taper study).
 import { z } from 'zod';
+import { DEFAULT_CABLE, LOADS } from '../circuit/loads';
 import { SiPositive } from './common';
 import { TaperClassSchema } from './parts';
 
@@ -72,15 +73,15 @@ export const DEFAULT_COMPARE_SETTINGS: CompareSettings = {
   groupBy: 'lot',
   envelope: 'min-max',
   pickup: { source: 'preset', id: 'humbucker-like' },
-  cableLength: 3,
-  ampR: 1e6,
+  cableLength: DEFAULT_CABLE.lengthM,
+  ampR: LOADS.amp.inputDefault,
   toleranceDb: 1,
   setSize: 2,
   floorDb: -40,
 };
 
-/** Cable capacitance per metre, F/m (Sound On Sound, "Guitar cables", Nov 2009: about 100 pF per metre). */
-export const CABLE_CAPACITANCE_PER_METRE = 100e-12;
+/** Cable capacitance per metre, F/m: the cable of loads.ts (Sound On Sound, "Guitar cables", Nov 2009: about 100 pF per metre). */
+export const CABLE_CAPACITANCE_PER_METRE = DEFAULT_CABLE.capPerMetre;
 
 export const ComparisonInputSchema = z.object({
   name: z.string().trim().min(1, 'Give the comparison a name.').max(120, 'Keep the name to 120 characters.'),

@@ -1,10 +1,12 @@
 // Parts as several features read them: the list (Parts screen, the Harness screen's measured-part
 // chooser), one part's page data (Parts; the Harness screen shows a saved design's part label),
-// its fits (the part page; the Harness and Compare choosers), and the one call that creates a part
+// its fits (the part page; the Harness and Compare choosers), its readings (the part page; the Harness
+// screen's measured-capacitor chooser), and the one call that creates a part
 // (the Bench's quick form and the Parts screen's form).
 import { queryOptions, useMutation, useQuery } from '@tanstack/react-query';
 import type { CreatePartInput, Part, PartDetail } from '@shared/schemas/parts';
 import type { Fit } from '@shared/schemas/sweeps';
+import type { Reading } from './readings';
 import { api } from '@/lib/api-client';
 import { queryKeys, type PartFilters } from './query-keys';
 
@@ -36,6 +38,12 @@ export const partFitsQueryOptions = (partId: number) =>
   });
 
 export const useFits = (partId: number) => useQuery(partFitsQueryOptions(partId));
+
+export const getPartReadings = (id: number, signal?: AbortSignal) => api.get<{ readings: Reading[] }>(`/api/parts/${id}/readings`, { signal });
+
+/** Under the part's key, so anything that invalidates queryKeys.parts.all() refreshes it too. */
+export const partReadingsQueryOptions = (id: number) =>
+  queryOptions({ queryKey: queryKeys.parts.readings(id), queryFn: ({ signal }) => getPartReadings(id, signal) });
 
 export const createPart = (input: CreatePartInput) => api.post<Part>('/api/parts', input);
 

@@ -204,7 +204,7 @@ test('the Listen panel plays the phrase, follows a knob, switches A/B, and shows
   await page.close();
 }, 120_000);
 
-test('with the whole-instrument panel in use, Listen plays that layout at its selector position and knobs, and states the simplification', async () => {
+test('with a multi-pickup layout in the editor, Listen plays that layout at its selector position and knobs, and states the simplification', async () => {
   const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
   const problems: string[] = [];
   page.on('pageerror', (err) => problems.push(`page error: ${err.message}`));
@@ -215,9 +215,11 @@ test('with the whole-instrument panel in use, Listen plays that layout at its se
   await page.goto(`${baseUrl}/harness`);
   const panel = page.locator('#harness-listen');
   await panel.waitFor();
-  // before the instrument panel is touched, Listen plays the one-pickup design
+  // with the one-pickup layout, Listen plays it without the whole-instrument note
   expect(await panel.getByTestId('listen-instrument').count()).toBe(0);
-  const instrument = page.locator('#harness-instrument');
+  // the one editor: choose the two-pickup layout, then the selector's bridge position
+  const instrument = page.locator('#harness-wiring');
+  await instrument.getByLabel('Layout').selectOption('two-pickups-3way');
   await instrument.getByRole('radio', { name: /^2:/ }).check({ force: true });
   const note = panel.getByTestId('listen-instrument');
   await expect.poll(async () => (await note.textContent()) ?? '').toMatch(/Two pickups.*bridge/i);

@@ -180,4 +180,46 @@ describe('saved designs carry the whole instrument', () => {
     expect(bad.status).toBe(422);
     expect(Object.keys(bad.body.error.fields)).toContain('values.neck.pickupR');
   });
+
+  test('measured capacitors in any capacitor slot: the design records the parts, and a wrong part is a 422 naming the slot', async () => {
+    const tech = await t.as('tech');
+    const cap = (
+      await tech.post('/api/parts').send({ kind: 'capacitor', label: 'CAP-SLOT-1', nominal: 1e-9, tolerancePct: 10 }).expect(201)
+    ).body;
+    const pot = (await tech.post('/api/parts').send({ kind: 'pot', label: 'POT-SLOT-1', nominal: 500e3, tolerancePct: 20 }).expect(201))
+      .body;
+    // no capacitance reading yet: nothing to take the value from
+    const early = await tech.post('/api/harnesses').send({
+      name: 'Too early',
+      layout: 'one-pickup',
+      options: { bleed: 'cap' },
+      values: { bleedC: 1e-9 },
+      partRefs: { bleedC: cap.id },
+    });
+    expect(early.status).toBe(422);
+    expect(Object.keys(early.body.error.fields)).toEqual(['partRefs.bleedC']);
+    await tech.post(`/api/parts/${cap.id}/readings`).send({ quantity: 'capacitance', value: 1.03e-9 }).expect(201);
+    // the same capacitor in a bleed slot and in a tone slot of another pickup, a pot beside them
+    const saved = await tech.post('/api/harnesses').send({
+      name: 'Measured caps',
+      layout: 'two-pickups-3way',
+      options: { bleed: 'cap', toneNetwork: 'second-cap' },
+      values: { 'neck.bleedC': 1.03e-9, 'bridge.toneC': 1.03e-9, 'bridge.secondC': 1.03e-9, 'neck.volumeR': 500e3 },
+      partRefs: { 'neck.bleedC': cap.id, 'bridge.toneC': cap.id, 'bridge.secondC': cap.id, 'neck.volumeR': pot.id },
+    });
+    expect(saved.status).toBe(201);
+    const got = (await tech.get(`/api/harnesses/${saved.body.id}`).expect(200)).body;
+    expect(got.partRefs).toEqual({ 'neck.bleedC': cap.id, 'bridge.toneC': cap.id, 'bridge.secondC': cap.id, 'neck.volumeR': pot.id });
+    // a pot in a capacitor slot, a capacitor in a pot slot, a slot the layout lacks, a cable value, a missing part
+    const wrong = async (partRefs: Record<string, number>, field: string) => {
+      const res = await tech.post('/api/harnesses').send({ name: 'Wrong', layout: 'two-pickups-3way', values: {}, partRefs });
+      expect(res.status).toBe(422);
+      expect(Object.keys(res.body.error.fields)).toEqual([field]);
+    };
+    await wrong({ 'neck.toneC': pot.id }, 'partRefs.neck.toneC');
+    await wrong({ 'neck.volumeR': cap.id }, 'partRefs.neck.volumeR');
+    await wrong({ toneC: cap.id }, 'partRefs.toneC');
+    await wrong({ cableCapPerMetre: cap.id }, 'partRefs.cableCapPerMetre');
+    await wrong({ 'bridge.bleedC': 999999 }, 'partRefs.bridge.bleedC');
+  });
 });

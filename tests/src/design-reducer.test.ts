@@ -1,17 +1,22 @@
 // The Harness editor's state: typed text, errors per field, taper laws by their mid-rotation share,
 // values taken from measured parts (and let go when typed over), and the saved-design link.
 import { describe, expect, it } from 'vitest';
+import { getLayout } from '@shared/circuit/layouts';
 import {
   activeErrors,
+  defOf,
   describeValue,
+  designFromSaved,
   designReducer,
-  initialDesign,
   partRefsOf,
+  presetDesign,
+  quickStartOf,
   usedValues,
   type DesignState,
 } from '@/features/harness/components/design-state';
 
-const start = () => initialDesign('independent-tone');
+const start = () => presetDesign('independent-tone');
+const def = (key: string, layout = 'one-pickup') => defOf(getLayout(layout)!, key)!;
 
 describe('designReducer', () => {
   it('typed text becomes the value; bad text keeps the value and names the problem on its field', () => {
@@ -28,11 +33,12 @@ describe('designReducer', () => {
     expect(s.errors).toEqual({});
   });
 
-  it('errors of fields the preset does not use do not count', () => {
+  it('errors of fields the options do not use do not count', () => {
     const s = designReducer(start(), { type: 'text', key: 'bleedC', text: 'x' });
     expect(s.errors.bleedC).toBeTruthy();
     expect(activeErrors(s)).toEqual([]);
-    expect(activeErrors(designReducer(s, { type: 'preset', preset: 'bleed-cap' }))).toEqual(['bleedC']);
+    expect(activeErrors(designReducer(s, { type: 'quick-start', preset: 'bleed-cap' }))).toEqual(['bleedC']);
+    expect(activeErrors(designReducer(s, { type: 'option', id: 'bleed', choice: 'cap-series-r' }))).toEqual(['bleedC']);
   });
 
   it('clearing the optional loss resistance removes it', () => {
@@ -44,15 +50,15 @@ describe('designReducer', () => {
 
   it('a law is set by its kind and its share at mid-rotation', () => {
     let s = designReducer(start(), { type: 'law-kind', key: 'volumeLaw', kind: 'linear' });
-    expect(describeValue('volumeLaw', s.values)).toBe('Linear');
+    expect(describeValue(def('volumeLaw'), s.values)).toBe('Linear');
     // From linear to a curved law: the usual 15 % — common practice (no published source).
     s = designReducer(s, { type: 'law-kind', key: 'volumeLaw', kind: 'audio' });
-    expect(describeValue('volumeLaw', s.values)).toBe('Audio, 15 % at mid-rotation');
+    expect(describeValue(def('volumeLaw'), s.values)).toBe('Audio, 15 % at mid-rotation');
     s = designReducer(s, { type: 'law-mid', key: 'volumeLaw', text: '20 %' });
-    expect(describeValue('volumeLaw', s.values)).toBe('Audio, 20 % at mid-rotation');
+    expect(describeValue(def('volumeLaw'), s.values)).toBe('Audio, 20 % at mid-rotation');
     const bad = designReducer(s, { type: 'law-mid', key: 'volumeLaw', text: '0' });
     expect(bad.errors['volumeLaw.m']).toBeTruthy();
-    expect(describeValue('volumeLaw', bad.values)).toBe('Audio, 20 % at mid-rotation');
+    expect(describeValue(def('volumeLaw'), bad.values)).toBe('Audio, 20 % at mid-rotation');
   });
 
   it('values from a measured part remember the part until one of them is typed over or detached', () => {
@@ -80,10 +86,64 @@ describe('designReducer', () => {
     expect(s.loaded).toBeNull();
   });
 
-  it('only the values the preset uses are saved', () => {
-    const used = usedValues('independent-tone', start().values);
+  it('only the values the options use are saved', () => {
+    const used = usedValues(start());
     expect('bleedC' in used).toBe(false);
     expect('toneC' in used).toBe(true);
-    expect('bleedC' in usedValues('bleed-cap', start().values)).toBe(true);
+    expect('pedalR' in used).toBe(false);
+    expect('bleedC' in usedValues(presetDesign('bleed-cap'))).toBe(true);
+    const pedal = designReducer(start(), { type: 'option', id: 'load', choice: 'low-impedance-pedal' });
+    expect(Object.keys(usedValues(pedal)).filter((k) => /^(amp|pedal|buffer|cable)/.test(k))).toEqual([
+      'cableCapPerMetre',
+      'cableLength',
+      'pedalR',
+    ]);
+  });
+
+  it('the presets are quick starts: the one-pickup layout with their options, recognised back from the options', () => {
+    const s = presetDesign('dual-cap-tone');
+    expect(s.layout).toBe('one-pickup');
+    expect(s.options).toMatchObject({ toneNetwork: 'floor-and-second-cap', bleed: 'none', load: 'amp' });
+    expect(quickStartOf(s)).toBe('dual-cap-tone');
+    // a stacked network no preset has
+    expect(quickStartOf(designReducer(s, { type: 'option', id: 'bleed', choice: 'cap' }))).toBeNull();
+    // a quick start keeps the values typed so far
+    const typed = designReducer(start(), { type: 'text', key: 'toneC', text: '47n' });
+    expect(designReducer(typed, { type: 'quick-start', preset: 'bleed-cap' }).values.toneC).toBeCloseTo(47e-9, 20);
+  });
+
+  it('a layout design: dotted keys, measured capacitors in capacitor slots, opened back from its saved shape', () => {
+    let s = designReducer(start(), { type: 'layout', layout: 'two-pickups-3way' });
+    expect(s.values['neck.toneC']).toBeDefined();
+    s = designReducer(s, { type: 'option', id: 'bleed', choice: 'cap' });
+    s = designReducer(s, {
+      type: 'apply',
+      values: { 'bridge.bleedC': 1.03e-9 },
+      ref: { partId: 9, label: 'CAP-9', source: 'capacitance reading' },
+    });
+    s = designReducer(s, { type: 'selector', index: 2 });
+    expect(partRefsOf(s)).toEqual({ 'bridge.bleedC': 9 });
+    expect(usedValues(s)['bridge.bleedC']).toBe(1.03e-9);
+    const back = designFromSaved({
+      id: 3,
+      name: 'Saved',
+      notes: null,
+      ownerId: 'u1',
+      layout: s.layout,
+      selector: s.selector,
+      options: s.options,
+      knobs: null,
+      values: usedValues(s),
+      partRefs: partRefsOf(s),
+    });
+    expect(back.layout).toBe('two-pickups-3way');
+    expect(back.selector).toBe(2);
+    expect(back.options.bleed).toBe('cap');
+    expect(back.values['bridge.bleedC']).toBe(1.03e-9);
+    expect(back.refs['bridge.bleedC']).toEqual({ partId: 9 });
+    expect(back.texts['bridge.bleedC']).toBe('1.03 nF');
+    // a ref on a value the options no longer use is not saved
+    expect(partRefsOf(designReducer(s, { type: 'option', id: 'bleed', choice: 'none' }))).toEqual({});
+    expect(def('bridge.bleedC', 'two-pickups-3way').quantity).toBe('capacitance');
   });
 });

@@ -4,7 +4,10 @@
 import { describe, expect, it } from 'vitest';
 import { CreatePartFormSchema, emptyPartForm, parseNominal, parseTolerance } from '@/features/parts/components/part-form-schema';
 import { readNominal, readPercent, readSecondLimit } from '@/features/lots/components/lot-form-schema';
-import { fieldOf, parseField, parseMid } from '@/features/harness/components/design-state';
+import { getLayout } from '@shared/circuit/layouts';
+import { defOf, parseField, parseMid } from '@/features/harness/components/design-state';
+
+const fieldOf = (key: string) => defOf(getLayout('one-pickup')!, key)!;
 
 describe('part form', () => {
   it('tolerance: "10", "±10 %", "2,5" read; blank is none; words are refused by name', () => {
@@ -71,12 +74,22 @@ describe('lot form', () => {
 });
 
 describe('harness value fields', () => {
-  it('cable length in metres ("4.5 m"), within 0 to 100 m', () => {
+  it('cable length in metres ("4.5 m"), within 0 (no cable) to 100 m', () => {
     const len = fieldOf('cableLength');
     expect(parseField(len, '4.5 m')).toEqual({ ok: true, value: 4.5 });
     expect(parseField(len, '3')).toEqual({ ok: true, value: 3 });
-    expect(parseField(len, '0').ok).toBe(false);
+    expect(parseField(len, '0')).toEqual({ ok: true, value: 0 });
+    expect(parseField(len, '-1').ok).toBe(false);
     expect(parseField(len, '150').ok).toBe(false);
+  });
+
+  it('an amplifier input capacitance may be 0 (none), never negative; a tone capacitor must be more than 0', () => {
+    expect(parseField(fieldOf('ampC'), '0')).toEqual({ ok: true, value: 0 });
+    expect(parseField(fieldOf('ampC'), '0 pF')).toEqual({ ok: true, value: 0 });
+    const c = parseField(fieldOf('ampC'), '150p');
+    expect(c.ok && c.value).toBeCloseTo(150e-12, 22);
+    expect(parseField(fieldOf('ampC'), '-1n').ok).toBe(false);
+    expect(parseField(fieldOf('toneC'), '0').ok).toBe(false);
   });
 
   it('capacitance per metre ("100 pF/m"), a part value, and the optional loss resistance', () => {

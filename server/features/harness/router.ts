@@ -3,6 +3,7 @@ import { audit } from '@server/audit';
 import { mayChangeOwned } from '@server/auth/ownership';
 import type { AppContext } from '@server/context';
 import { harnesses } from '@server/db/schema';
+import type { DbLike } from '@server/db/client';
 import { forbidden, notFound, unprocessable } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
 import {
@@ -28,6 +29,7 @@ import {
 } from '@shared/circuit/presets';
 import { HarnessUnsolvableError } from '@shared/circuit/solver';
 import { toSpiceNetlist } from '@shared/circuit/spice';
+import { checkPartRefs } from './part-refs';
 import { IdParamsSchema } from '@shared/schemas/common';
 import {
   BleedFinderRequestSchema,
@@ -129,7 +131,7 @@ export function knobsOf(layout: LayoutDef | null, knobs: Record<string, number> 
  * of a layout) becomes the one-pickup layout with the preset's options; values, options, selector
  * and knobs are checked against the layout (422 naming the field).
  */
-function designRow(body: HarnessDesignInput) {
+function designRow(db: DbLike, body: HarnessDesignInput) {
   if (body.layout !== undefined && body.preset !== undefined)
     throw unprocessable('Give a layout or a preset, not both.', { preset: 'Leave out the preset when giving a layout.' });
   if (body.layout === undefined && body.preset === undefined) throw unprocessable("Give the design's layout.", { layout: 'Required.' });
@@ -143,6 +145,7 @@ function designRow(body: HarnessDesignInput) {
     knobs: body.knobs ?? undefined,
   });
   if (problems.length > 0) layoutProblems(problems);
+  checkPartRefs(db, layout, body.partRefs);
   return {
     name: body.name,
     layout: layoutId,
@@ -316,7 +319,7 @@ export function harnessRoutes(ctx: AppContext) {
     status: 201,
     schemas: { body: HarnessDesignInputSchema },
     handle: ({ body, user }) => {
-      const design = designRow(body);
+      const design = designRow(db, body);
       return db.transaction((tx) => {
         const row = tx
           .insert(harnesses)
@@ -340,7 +343,7 @@ export function harnessRoutes(ctx: AppContext) {
     handle: ({ params, body, user }): HarnessDesign => {
       const before = mustFind(params.id);
       if (!mayChangeOwned(before.ownerId, user)) throw forbidden("Only the design's owner (or qa/admin) may change it.");
-      const design = designRow(body);
+      const design = designRow(db, body);
       return db.transaction((tx) => {
         const row = tx
           .update(harnesses)

@@ -125,7 +125,7 @@ describe('curves on a common grid', () => {
 
 describe('loaded taper', () => {
   it('an ideal linear pot into an infinite load is 20·log10(x) (standard circuit theory: unloaded voltage divider)', () => {
-    const net = volumeNetlist({ R: 1e-6, L: 0, C: 0 }, { R: 500e3, law: { kind: 'linear' } }, { cableC: 0, ampR: 1e15 });
+    const net = volumeNetlist({ R: 1e-6, L: 0, C: 0 }, { R: 500e3, law: { kind: 'linear' } }, { id: 'amp', R: 1e15, C: 0, cableC: 0 });
     const t = loadedTaper(net);
     t.dial.forEach((d, i) => {
       if (d >= 0.1) expect(t.relativeDb[i]).toBeCloseTo(20 * Math.log10(d / 10), 6);
@@ -142,7 +142,7 @@ describe('loaded taper', () => {
     const pickup = { R: 8e3, L: 4.4, C: 120e-12, Rp: 300e3 };
     const R = 500e3;
     const law = { kind: 'audio', m: 0.15 } as const;
-    const load = { cableC: 300e-12, ampR: 1e6 };
+    const load = { id: 'amp' as const, R: 1e6, C: 0, cableC: 300e-12 };
     const t = loadedTaper(volumeNetlist(pickup, { R, law }, load));
     // Complex arithmetic written out here, apart from the engine's MNA solver.
     type C = [number, number];
@@ -158,7 +158,7 @@ describe('loaded taper', () => {
     const zShunt = par([0, -1 / (w * pickup.C)], [pickup.Rp, 0]); // C ∥ Rp across the terminals
     const vth = mul(zShunt, inv(add(zSeries, zShunt))); // Thévenin voltage per volt of EMF
     const zth = par(zSeries, zShunt);
-    const zLoad = par([load.ampR, 0], [0, -1 / (w * load.cableC)]);
+    const zLoad = par([load.R, 0], [0, -1 / (w * load.cableC)]);
     const level = (x: number) => {
       const y = lawValue(law, x);
       const low = par([Math.max(R * y, 1e-3), 0], zLoad);
@@ -180,7 +180,11 @@ describe('loaded taper', () => {
       ],
     };
     const ours = loadedTaper(
-      volumeNetlist({ R: 6e3, L: 2.5, C: 100e-12 }, { R: 250e3, law: { kind: 'two-segment', m: 0.1 } }, { cableC: 600e-12, ampR: 470e3 }),
+      volumeNetlist(
+        { R: 6e3, L: 2.5, C: 100e-12 },
+        { R: 250e3, law: { kind: 'two-segment', m: 0.1 } },
+        { id: 'amp', R: 470e3, C: 0, cableC: 600e-12 },
+      ),
     );
     const full = simulate(net, { volume: 10, tone: 10 }, [1000, 2000]).metrics.level1kDb;
     for (const d of [0.5, 2, 3.3, 5, 7.5, 10]) {

@@ -1,7 +1,7 @@
 // Behaviours of the whole-instrument layouts that the trade describes (common practice, no
 // published source, unless named), with the default cable (3 m at 100 pF/m) and amplifier (1 MΩ).
 import { describe, expect, it } from 'vitest';
-import { bleedFigures, findBleed } from '@shared/circuit/bleed-finder';
+import { bleedCurves, bleedFigures, findBleed } from '@shared/circuit/bleed-finder';
 import { buildLayoutNetlist, getLayout, layoutKnobs, resolveLayoutConfig } from '@shared/circuit/layouts';
 import { simulateInstrument, sweepKnobs } from '@shared/circuit/metrics';
 import type { Netlist } from '@shared/circuit/netlist';
@@ -189,5 +189,20 @@ describe('treble-bleed finder', () => {
     const treble = findBleed(layout, config, knobs, { weight: 1 }).candidates[0]!;
     expect(taper.figures.taperDeviationDb).toBeLessThan(treble.figures.taperDeviationDb);
     expect(taper.figures.score).toBe(taper.figures.taperDeviationDb);
+  });
+
+  it("the curves the screen draws are the ones the figures come from: spread is the treble curve's range, deviation the RMS against no bleed", () => {
+    const { layout, config } = instrument('two-pickups-3way', { selector: 1 });
+    const knobs = layoutKnobs(layout);
+    const best = findBleed(layout, config, knobs, { weight: 0.7 }).candidates[0]!;
+    const curves = bleedCurves(layout, config, knobs, { topology: best.topology, ...best.values });
+    const none = bleedCurves(layout, config, knobs, { topology: 'none' });
+    expect(curves.volumes).toEqual([10, 9, 8, 7, 6, 5, 4, 3, 2]);
+    expect(curves.trebleDb[0]).toBe(0);
+    expect(none.level1kDb[0]).toBe(0);
+    // definitions of the issue: spread = max − min of the treble retention; deviation = RMS of the 1 kHz level with minus without
+    expect(Math.max(...curves.trebleDb) - Math.min(...curves.trebleDb)).toBeCloseTo(best.figures.trebleSpreadDb, 9);
+    const rms = Math.sqrt(curves.level1kDb.reduce((s, l, i) => s + (l - none.level1kDb[i]!) ** 2, 0) / curves.level1kDb.length);
+    expect(rms).toBeCloseTo(best.figures.taperDeviationDb, 9);
   });
 });

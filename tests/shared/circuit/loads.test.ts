@@ -1,5 +1,9 @@
 import { describe, expect, it } from 'vitest';
-import { DEFAULT_CABLE, LOADS, loadedResponse, loadValues } from '@shared/circuit/loads';
+import { buildLayoutNetlist, getLayout, LAYOUTS, resolveLayoutConfig } from '@shared/circuit/layouts';
+import { loadedResponse } from '@shared/circuit/loaded-response';
+import { DEFAULT_CABLE, LOAD_IDS, LOAD_VALUES, LOADS, loadSettingOf, loadValueKeys } from '@shared/circuit/loads';
+import { simulate } from '@shared/circuit/metrics';
+import { DEFAULT_HARNESS_VALUES, getPreset } from '@shared/circuit/presets';
 
 // Textbook LC resonance f0 = 1/(2π√(LC)) (any circuits text, e.g. Horowitz & Hill, "The Art of
 // Electronics", 3rd ed., §1.7.14): the pickup's inductance with its own capacitance plus the cable's.
@@ -9,7 +13,7 @@ describe('loaded resonance of a measured pickup (harness engine)', () => {
   const pickup = { R: 6e3, L: 2.5, C: 100e-12 };
 
   it('into an amplifier through 3 m of 100 pF/m cable: near the LC resonance with 400 pF', () => {
-    const m = loadedResponse(pickup, { load: LOADS['amplifier-input'], cable: DEFAULT_CABLE });
+    const m = loadedResponse(pickup, { load: 'amp', cable: DEFAULT_CABLE });
     expect(m.peak.interior).toBe(true);
     // With pots at 10 (≈ 200 kΩ of load) the peak sits a few per cent below the undamped f0.
     const want = f0(2.5, 400e-12);
@@ -26,13 +30,49 @@ describe('loaded resonance of a measured pickup (harness engine)', () => {
   });
 
   it('a low-impedance pedal input damps the peak away', () => {
-    const m = loadedResponse(pickup, { load: LOADS['low-impedance-pedal'] });
+    const m = loadedResponse(pickup, { load: 'low-impedance-pedal' });
     expect(m.peakRiseDb).toBeLessThan(1);
   });
 
-  it('the load capacitance rides on the cable capacitance', () => {
-    const v = loadValues(LOADS['buffered-pedal'], { lengthM: 3, capPerMetre: 100e-12 });
-    expect(v.cableCapPerMetre * v.cableLength).toBeCloseTo(320e-12, 20);
-    expect(v.ampR).toBe(1e6);
+  it('into a buffered pedal the cable given is the one before the buffer: 1 m resonates as 1 m into an amplifier', () => {
+    const cable = { lengthM: 1, capPerMetre: 100e-12 };
+    const buffered = loadedResponse(pickup, { load: 'buffer', cable });
+    const amp = loadedResponse(pickup, { load: 'amp', cable });
+    // Both inputs default to 1 MΩ (common practice, no published source), so the two agree.
+    expect(buffered.peak.frequency).toBeCloseTo(amp.peak.frequency, 6);
+  });
+});
+
+describe('one load definition', () => {
+  it('every layout carries the load values of loads.ts and offers its loads as the `load` option', () => {
+    for (const layout of LAYOUTS) {
+      for (const def of LOAD_VALUES) expect(layout.values.find((v) => v.key === def.key)).toEqual(def);
+      expect(layout.options.find((o) => o.id === 'load')!.choices.map((c) => c.id)).toEqual([...LOAD_IDS]);
+    }
+  });
+
+  it("a load's figures come from its own keys; the others do not matter", () => {
+    const values = {
+      cableCapPerMetre: 120e-12,
+      cableLength: 5,
+      cableBeforeBuffer: 0.5,
+      ampR: 470e3,
+      ampC: 50e-12,
+      bufferR: 2e6,
+      pedalR: 8e3,
+    };
+    expect(loadSettingOf('amp', values)).toEqual({ id: 'amp', R: 470e3, C: 50e-12, cableC: 120e-12 * 5 });
+    expect(loadSettingOf('buffer', values)).toEqual({ id: 'buffer', R: 2e6, C: 0, cableC: 120e-12 * 0.5 });
+    expect(loadSettingOf('low-impedance-pedal', values)).toEqual({ id: 'low-impedance-pedal', R: 8e3, C: 0, cableC: 120e-12 * 5 });
+    expect(loadValueKeys('buffer')).toEqual(['cableCapPerMetre', 'cableBeforeBuffer', 'bufferR']);
+    expect(LOADS.amp.inputDefault).toBe(DEFAULT_HARNESS_VALUES.ampR);
+  });
+
+  it('the one-pickup layout into the default amplifier gives the independent-tone preset exactly (same parts, same figures)', () => {
+    const layout = getLayout('one-pickup')!;
+    const { config } = resolveLayoutConfig(layout, {});
+    const a = simulate(buildLayoutNetlist(layout, config), { volume: 6, tone: 4 });
+    const b = simulate(getPreset('independent-tone')!.build(DEFAULT_HARNESS_VALUES), { volume: 6, tone: 4 });
+    for (let k = 0; k < a.magnitudeDb.length; k++) expect(Math.abs(a.magnitudeDb[k]! - b.magnitudeDb[k]!)).toBeLessThan(1e-9);
   });
 });

@@ -1,6 +1,7 @@
 // Helpers of the Compare screen: group colours, number formats, the loaded tapers computed in the
 // browser with the shared harness engine, and the rows of the CSV exports.
 import { dialAtLevel, loadedTaper, volumeNetlist, type CompareGroup, type LoadedTaper, type PickupModel } from '@shared/analysis/compare';
+import { ampLoad } from '@shared/circuit/loads';
 import { PICKUP_PRESETS } from '@shared/circuit/presets';
 import { CABLE_CAPACITANCE_PER_METRE, type CompareSettings } from '@shared/schemas/compare';
 import { formatValue } from '@shared/units/format';
@@ -54,7 +55,7 @@ export function loadedTapers(
   pickup: PickupModel,
   settings: Pick<CompareSettings, 'cableLength' | 'ampR'>,
 ): PotLoaded[] {
-  const load = { cableC: settings.cableLength * CABLE_CAPACITANCE_PER_METRE, ampR: settings.ampR };
+  const load = ampLoad(settings.ampR, { lengthM: settings.cableLength, capPerMetre: CABLE_CAPACITANCE_PER_METRE });
   return pots.map((pot) => {
     const taper = loadedTaper(volumeNetlist(pickup, { R: pot.fit.total, law: taperLaw(pot.fit.law, pot.fit.m) }, load));
     return { pot, taper, marks: LEVEL_MARKS.map((db) => dialAtLevel(taper.dial, taper.relativeDb, db)) };

@@ -1,17 +1,20 @@
 // Measured parts a harness can take its values from: pickups with a coil fit, pots with a taper
-// fit. The list route has no "has a fit" filter, so the parts of the kind are listed and their fits
-// asked for one by one — only when the user opens the chooser, and for at most MEASURED_LIMIT parts.
+// fit, capacitors with a capacitance reading (their latest). The list route has no "has a fit"
+// filter, so the parts of the kind are listed and their fits (or readings) asked for one by one —
+// only when the user opens the chooser, and for at most MEASURED_LIMIT parts.
 import { useQueries, useQuery } from '@tanstack/react-query';
 import type { CoilFit } from '@shared/analysis/coil';
 import type { TaperFit } from '@shared/analysis/taper';
 import type { Part } from '@shared/schemas/parts';
 import type { Fit } from '@shared/schemas/sweeps';
 import { TAPER_LAWS } from '@shared/taper/law';
-import { partFitsQueryOptions, partQueryOptions, partsQueryOptions } from '@/data/parts';
+import { partFitsQueryOptions, partQueryOptions, partReadingsQueryOptions, partsQueryOptions } from '@/data/parts';
+import type { Reading } from '@/data/readings';
 
 export const MEASURED_LIMIT = 100;
 
-type MeasuredKind = 'pickup' | 'pot';
+type MeasuredKind = 'pickup' | 'pot' | 'capacitor';
+type FittedKind = 'pickup' | 'pot';
 const FIT_KIND = { pickup: 'coil', pot: 'taper' } as const;
 
 /** The parts of the kind the chooser looks at: the parts list's query with a kind and a limit. */
@@ -39,7 +42,7 @@ export interface MeasuredList<T> {
   looked: number;
 }
 
-function useMeasured(kind: MeasuredKind, enabled: boolean) {
+function useMeasured(kind: FittedKind, enabled: boolean) {
   const parts = useQuery({ ...partsOfKindQueryOptions(kind), enabled });
   const list = parts.data?.parts ?? [];
   const fits = useQueries({
@@ -80,4 +83,22 @@ export function useMeasuredPots(enabled: boolean): MeasuredList<MeasuredPot> {
     return [{ part, fit, taper: { law, m, total } }];
   });
   return { items, ...rest };
+}
+
+export type MeasuredCapacitor = { part: Part; reading: Reading };
+
+/** Capacitors with a capacitance reading: the latest one of each (readings come newest first). */
+export function useMeasuredCapacitors(enabled: boolean): MeasuredList<MeasuredCapacitor> {
+  const parts = useQuery({ ...partsOfKindQueryOptions('capacitor'), enabled });
+  const list = parts.data?.parts ?? [];
+  const readings = useQueries({ queries: list.map((p) => ({ ...partReadingsQueryOptions(p.id), enabled })) });
+  const pending = enabled && (parts.isPending || readings.some((r) => r.isPending));
+  const error = parts.error ?? readings.find((r) => r.error)?.error ?? null;
+  const items = list.flatMap((part, i) => {
+    const reading = (readings[i]?.data?.readings ?? [])
+      .filter((r) => r.quantity === 'capacitance' && Number.isFinite(r.value) && r.value > 0)
+      .sort((a, b) => b.takenAt - a.takenAt || b.id - a.id)[0];
+    return reading ? [{ part, reading }] : [];
+  });
+  return { items, pending, error, looked: list.length };
 }

@@ -3,23 +3,37 @@
 // figures and of the values that differ.
 import { useMemo } from 'react';
 import type uPlot from 'uplot';
-import type { VolumeToneKnobs as Knobs } from '@shared/circuit/netlist';
-import { HARNESS_VALUE_FIELDS, type HarnessPresetId, type HarnessValues } from '@shared/circuit/presets';
+import { getLayout } from '@shared/circuit/layouts';
 import { Plot, SERIES_COLOURS, axis, frequencyX } from '@/components/charts/plot';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { Panel } from '@/components/ui/page-header';
-import { describeValue, fieldsFor, presetOf, sameValue } from './design-state';
+import { describeValue, isUsed, sameValue, type DesignState } from './design-state';
 import { formatDb, formatIndex, formatKnob } from './harness-format';
 import { formatMetric, metricRows } from './metrics-table';
 import { A_COLOUR, A_DASH, FREQUENCY_RANGE, dbRange } from './response-plot';
 import { SweepPlot, taperRange, trebleRange } from './sweep-plot';
-import { TAPER_VOLUMES, type HarnessAnalysis } from './use-harness-analysis';
+import { TAPER_VOLUMES, type DesignInput, type HarnessAnalysis } from './use-harness-analysis';
 
+/** Design A: any layout, with the knobs it was pinned at (knobs B's layout shares follow B's). */
 export interface PinnedDesign {
   label: string;
-  preset: HarnessPresetId;
-  values: HarnessValues;
+  design: DesignInput;
+  knobs: Record<string, number>;
+}
+
+/** A's knobs now: the knobs both layouts have follow the screen; A's others stay where they were pinned. */
+export function pinnedKnobs(pinned: PinnedDesign, current: Record<string, number>): Record<string, number> {
+  const layout = getLayout(pinned.design.layout)!;
+  return Object.fromEntries(layout.knobs.map((k) => [k.id, current[k.id] ?? pinned.knobs[k.id] ?? 10]));
+}
+
+/** "Two pickups, three-way selector, position 1 (both)" */
+export function designWords(d: DesignInput): string {
+  const layout = getLayout(d.layout)!;
+  return layout.selector.positions.length > 1
+    ? `${layout.name}, position ${d.selector} (${layout.selector.positions[d.selector]?.name ?? ''})`
+    : layout.name;
 }
 
 const B_COLOUR = SERIES_COLOURS[0]!;
@@ -53,16 +67,23 @@ function difference(kind: 'hz' | 'db', a: number | null, b: number | null): stri
   return `${pct >= 0 ? '+' : '−'}${Math.abs(pct).toFixed(1)} %`;
 }
 
-function ValueDifferences({ pinned, preset, values }: { pinned: PinnedDesign; preset: HarnessPresetId; values: HarnessValues }) {
-  const usedA = new Set(fieldsFor(pinned.preset).map((f) => f.key));
-  const usedB = new Set(fieldsFor(preset).map((f) => f.key));
+function ValueDifferences({ pinned, design }: { pinned: PinnedDesign; design: DesignState }) {
+  const a = pinned.design;
+  const layout = getLayout(design.layout)!;
+  const sameLayout = a.layout === design.layout;
+  const options = layout.options.filter((o) => sameLayout && a.options[o.id] !== design.options[o.id]);
   // A value differs when one design uses it and the other does not, or both use it with different values.
-  const rows = HARNESS_VALUE_FIELDS.filter(
-    (f) =>
-      (usedA.has(f.key) || usedB.has(f.key)) && (usedA.has(f.key) !== usedB.has(f.key) || !sameValue(pinned.values[f.key], values[f.key])),
-  );
-  const wiringDiffers = pinned.preset !== preset;
-  if (!wiringDiffers && rows.length === 0) return <p className="text-sm text-ink-soft">A and B have the same wiring and values.</p>;
+  const rows = sameLayout
+    ? layout.values.filter((d) => {
+        const ua = isUsed(a, d.key);
+        const ub = isUsed(design, d.key);
+        return (ua || ub) && (ua !== ub || !sameValue(a.values[d.key], design.values[d.key]));
+      })
+    : [];
+  const positionDiffers = sameLayout && a.selector !== design.selector;
+  if (sameLayout && !positionDiffers && options.length === 0 && rows.length === 0)
+    return <p className="text-sm text-ink-soft">A and B have the same wiring and values.</p>;
+  const choice = (o: (typeof options)[number], id: string | undefined) => o.choices.find((c) => c.id === id)?.name ?? id ?? '';
   return (
     <table className="w-full text-sm">
       <caption className="mb-1 text-left text-sm font-semibold">What differs</caption>
@@ -80,22 +101,38 @@ function ValueDifferences({ pinned, preset, values }: { pinned: PinnedDesign; pr
         </tr>
       </thead>
       <tbody>
-        {wiringDiffers && (
+        {(!sameLayout || positionDiffers) && (
           <tr className="border-b border-paper-edge/70">
             <th scope="row" className="py-1 pr-2 text-left font-normal">
-              Wiring
+              Layout and position
             </th>
-            <td className="py-1 pr-2 text-right">{presetOf(pinned.preset).name}</td>
-            <td className="py-1 text-right">{presetOf(preset).name}</td>
+            <td className="py-1 pr-2 text-right">{designWords(a)}</td>
+            <td className="py-1 text-right">{designWords(design)}</td>
           </tr>
         )}
-        {rows.map((f) => (
-          <tr key={f.key} className="border-b border-paper-edge/70 last:border-0">
+        {!sameLayout && (
+          <tr className="border-b border-paper-edge/70">
+            <td colSpan={3} className="py-1 text-xs text-ink-soft">
+              Different layouts: their values are not compared one by one.
+            </td>
+          </tr>
+        )}
+        {options.map((o) => (
+          <tr key={o.id} className="border-b border-paper-edge/70">
             <th scope="row" className="py-1 pr-2 text-left font-normal">
-              {f.label}
+              {o.name}
             </th>
-            <td className="num py-1 pr-2 text-right">{usedA.has(f.key) ? describeValue(f.key, pinned.values) : 'not used'}</td>
-            <td className="num py-1 text-right">{usedB.has(f.key) ? describeValue(f.key, values) : 'not used'}</td>
+            <td className="py-1 pr-2 text-right">{choice(o, a.options[o.id])}</td>
+            <td className="py-1 text-right">{choice(o, design.options[o.id])}</td>
+          </tr>
+        ))}
+        {rows.map((d) => (
+          <tr key={d.key} className="border-b border-paper-edge/70 last:border-0">
+            <th scope="row" className="py-1 pr-2 text-left font-normal">
+              {d.name}
+            </th>
+            <td className="num py-1 pr-2 text-right">{isUsed(a, d.key) ? describeValue(d, a.values) : 'not used'}</td>
+            <td className="num py-1 text-right">{isUsed(design, d.key) ? describeValue(d, design.values) : 'not used'}</td>
           </tr>
         ))}
       </tbody>
@@ -106,8 +143,8 @@ function ValueDifferences({ pinned, preset, values }: { pinned: PinnedDesign; pr
 export function ComparisonPanel({
   pinned,
   a,
-  preset,
-  values,
+  design,
+  bLabel,
   b,
   knobs,
   onSwap,
@@ -116,10 +153,11 @@ export function ComparisonPanel({
   pinned: PinnedDesign;
   /** The analysis of A at the current knobs (computed by the screen, which also draws A on the main plot). */
   a: HarnessAnalysis | { error: string };
-  preset: HarnessPresetId;
-  values: HarnessValues;
+  design: DesignState;
+  /** B's name in words. */
+  bLabel: string;
   b: HarnessAnalysis;
-  knobs: Knobs;
+  knobs: Record<string, number>;
   onSwap: () => void;
   onUnpin: () => void;
 }) {
@@ -141,10 +179,7 @@ export function ComparisonPanel({
     <Panel
       id="harness-ab"
       title={
-        <span>
-          A/B comparison at volume <span className="num">{formatKnob(knobs.volume)}</span>, tone{' '}
-          <span className="num">{formatKnob(knobs.tone)}</span>
-        </span>
+        <span>A/B comparison at {b.layout.knobs.map((k) => `${k.name.toLowerCase()} ${formatKnob(knobs[k.id] ?? 10)}`).join(', ')}</span>
       }
       actions={
         <div className="flex flex-wrap gap-2">
@@ -161,8 +196,8 @@ export function ComparisonPanel({
         <span className="font-medium" style={{ color: A_COLOUR }}>
           A, dashed
         </span>
-        : {pinned.label === presetOf(pinned.preset).name ? pinned.label : `${pinned.label} (${presetOf(pinned.preset).name})`}.{' '}
-        <span className="font-medium text-accent">B, solid</span>: the design in the editor ({presetOf(preset).name}). The knobs move both.
+        : {pinned.label} ({designWords(pinned.design)}). <span className="font-medium text-accent">B, solid</span>: the design in the editor
+        ({bLabel}, {designWords(design)}). The knobs move both (knobs only A has stay where A was pinned).
       </p>
       {'error' in a || !sweeps ? (
         <Alert>Design A cannot be solved: {'error' in a ? a.error : ''}</Alert>
@@ -178,7 +213,7 @@ export function ComparisonPanel({
                   series={sweeps.taper}
                   yLabel="Level re full volume (dB)"
                   range={taperRange}
-                  marker={knobs.volume}
+                  marker={knobs[b.axes.volumeKnob] ?? 10}
                   height={220}
                   label="Volume taper of A and B"
                 />
@@ -190,7 +225,7 @@ export function ComparisonPanel({
                   series={sweeps.treble}
                   yLabel="Treble re full volume (dB)"
                   range={trebleRange}
-                  marker={knobs.volume}
+                  marker={knobs[b.axes.volumeKnob] ?? 10}
                   height={220}
                   label="Treble retention of A and B"
                 />
@@ -242,7 +277,7 @@ export function ComparisonPanel({
                 </tr>
               </tbody>
             </table>
-            <ValueDifferences pinned={pinned} preset={preset} values={values} />
+            <ValueDifferences pinned={pinned} design={design} />
           </div>
         </div>
       )}

@@ -1,11 +1,11 @@
-// Saved designs: open one in the editor, pin one as A, and (writers only) save the editor's design
+// Saved designs (every layout): open one in the editor, pin one as A, and (writers only) save the editor's design
 // as new, save changes to the one it was opened from, or delete. The server checks every write:
 // only the owner, or qa/admin, may change or delete a design.
 import { zodResolver } from '@hookform/resolvers/zod';
 import { memo, useEffect, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { roleCan } from '@shared/auth/capabilities';
-import type { HarnessPresetId } from '@shared/circuit/presets';
+import { getLayout } from '@shared/circuit/layouts';
 import { HarnessDesignInputSchema, type HarnessDesign } from '@shared/schemas/harness';
 import { Alert, Loading } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
@@ -16,16 +16,33 @@ import { formatDateTime } from '@/lib/format';
 import { applyServerError } from '@/lib/form';
 import { useHarnesses } from '@/data/harnesses';
 import { useCreateHarness, useDeleteHarness, useUpdateHarness } from '../api/save-harness';
-import { activeErrors, partRefsOf, presetOf, usedValues, type DesignState } from './design-state';
+import { activeErrors, partRefsOf, presetOf, quickStartOf, usedValues, type DesignState } from './design-state';
 
 const SaveFormSchema = HarnessDesignInputSchema.pick({ name: true, notes: true });
 type SaveForm = { name: string; notes?: string | null };
 
-/** A design saved from one of the seven presets: the editor above opens these. */
-export type PresetDesign = HarnessDesign & { preset: HarnessPresetId };
-const isPresetDesign = (d: HarnessDesign): d is PresetDesign => d.preset !== null;
+/** A saved design in words: its layout, position and quick start ("One pickup · Treble bleed: capacitor"). */
+function savedWords(d: HarnessDesign): string {
+  const layout = getLayout(d.layout);
+  if (!layout) return d.layout;
+  const preset = quickStartOf({
+    layout: layout.id,
+    options: Object.fromEntries(layout.options.map((o) => [o.id, d.options[o.id] ?? o.choices[0]!.id])),
+  });
+  const position =
+    layout.selector.positions.length > 1 ? `, position ${d.selector} (${layout.selector.positions[d.selector]?.name ?? ''})` : '';
+  return `${layout.name}${position}${preset ? ` · ${presetOf(preset).name}` : ''}`;
+}
 
-function SaveDesignForm({ state, onSaved }: { state: DesignState; onSaved: (d: HarnessDesign) => void }) {
+function SaveDesignForm({
+  state,
+  knobs,
+  onSaved,
+}: {
+  state: DesignState;
+  knobs: Record<string, number>;
+  onSaved: (d: HarnessDesign) => void;
+}) {
   const create = useCreateHarness();
   const update = useUpdateHarness();
   const user = useUser();
@@ -55,8 +72,11 @@ function SaveDesignForm({ state, onSaved }: { state: DesignState; onSaved: (d: H
       const input = {
         name,
         notes: notes?.trim() ? notes.trim() : null,
-        preset: state.preset,
-        values: usedValues(state.preset, state.values),
+        layout: state.layout,
+        selector: state.selector,
+        options: state.options,
+        knobs,
+        values: usedValues(state),
         partRefs: partRefsOf(state),
       };
       try {
@@ -140,14 +160,17 @@ function DeleteButton({ design, onDeleted }: { design: HarnessDesign; onDeleted:
 /** Memoised: a knob change re-renders the screen but not the list of designs. */
 export const DesignsPanel = memo(function DesignsPanel({
   state,
+  knobs,
   onOpen,
   onPin,
   onSaved,
   onDeleted,
 }: {
   state: DesignState;
-  onOpen: (d: PresetDesign) => void;
-  onPin: (d: PresetDesign) => void;
+  /** The screen's knobs, saved with the design. */
+  knobs: Record<string, number>;
+  onOpen: (d: HarnessDesign) => void;
+  onPin: (d: HarnessDesign) => void;
   onSaved: (d: HarnessDesign) => void;
   onDeleted: (id: number) => void;
 }) {
@@ -182,24 +205,17 @@ export const DesignsPanel = memo(function DesignsPanel({
                       )}
                     </p>
                     <p className="text-xs text-ink-soft">
-                      {d.preset ? (presetOf(d.preset)?.name ?? d.preset) : `Whole instrument (${d.layout}, position ${d.selector})`} ·{' '}
-                      {formatDateTime(d.updatedAt ?? d.createdAt)}
+                      {savedWords(d)} · {formatDateTime(d.updatedAt ?? d.createdAt)}
                     </p>
                     {d.notes && <p className="mt-0.5 line-clamp-2 text-sm text-ink-soft">{d.notes}</p>}
                   </div>
                   <div className="flex flex-wrap items-center gap-2">
-                    {isPresetDesign(d) ? (
-                      <>
-                        <Button size="sm" onClick={() => onOpen(d)} aria-label={`Open ${d.name} in the editor`}>
-                          Open
-                        </Button>
-                        <Button size="sm" onClick={() => onPin(d)} aria-label={`Pin ${d.name} as A`}>
-                          Pin as A
-                        </Button>
-                      </>
-                    ) : (
-                      <span className="text-xs text-ink-soft">A whole-instrument design: the preset editor cannot open it</span>
-                    )}
+                    <Button size="sm" onClick={() => onOpen(d)} aria-label={`Open ${d.name} in the editor`}>
+                      Open
+                    </Button>
+                    <Button size="sm" onClick={() => onPin(d)} aria-label={`Pin ${d.name} as A`}>
+                      Pin as A
+                    </Button>
                     {mayDelete && <DeleteButton design={d} onDeleted={onDeleted} />}
                   </div>
                 </li>
@@ -210,7 +226,7 @@ export const DesignsPanel = memo(function DesignsPanel({
       </Panel>
       {canWrite ? (
         <Panel id="harness-save" title={state.loaded ? `Save — opened from “${state.loaded.name}”` : 'Save this design'}>
-          <SaveDesignForm state={state} onSaved={onSaved} />
+          <SaveDesignForm state={state} knobs={knobs} onSaved={onSaved} />
         </Panel>
       ) : (
         <Panel id="harness-save" title="Saving">

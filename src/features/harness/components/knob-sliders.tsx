@@ -1,12 +1,11 @@
-// The two knobs as sliders on the 0–10 dial. Native range inputs: arrow keys move 0.1, Page Up /
+// One slider per knob of the layout on the 0–10 dial. Native range inputs: arrow keys move 0.1, Page Up /
 // Page Down move 1, Home / End go to the stops; the value is announced as "6.5 of 10".
 import { useId } from 'react';
-import type { VolumeToneKnobs as Knobs } from '@shared/circuit/netlist';
 import { formatKnob } from './harness-format';
 
 const TICKS = [0, 1, 2, 3, 4, 5, 6, 7, 8, 9, 10];
 
-function KnobSlider({ name, label, value, onChange }: { name: keyof Knobs; label: string; value: number; onChange: (v: number) => void }) {
+function KnobSlider({ name, label, value, onChange }: { name: string; label: string; value: number; onChange: (v: number) => void }) {
   const id = useId();
   const listId = `${id}-ticks`;
   return (
@@ -56,11 +55,27 @@ function KnobSlider({ name, label, value, onChange }: { name: keyof Knobs; label
   );
 }
 
-export function KnobSliders({ knobs, onChange }: { knobs: Knobs; onChange: (k: Knobs) => void }) {
+/** Sliders named "<knob name> knob" ("Volume knob", "Neck tone knob"); `knobs` holds every knob's setting. */
+export function KnobSliders({
+  defs,
+  knobs,
+  onChange,
+}: {
+  defs: readonly { id: string; name: string }[];
+  knobs: Readonly<Record<string, number>>;
+  onChange: (k: Record<string, number>) => void;
+}) {
   return (
     <div className="space-y-4">
-      <KnobSlider name="volume" label="Volume knob" value={knobs.volume} onChange={(volume) => onChange({ ...knobs, volume })} />
-      <KnobSlider name="tone" label="Tone knob" value={knobs.tone} onChange={(tone) => onChange({ ...knobs, tone })} />
+      {defs.map((d) => (
+        <KnobSlider
+          key={d.id}
+          name={d.id}
+          label={`${d.name} knob`}
+          value={knobs[d.id] ?? 10}
+          onChange={(v) => onChange({ ...knobs, [d.id]: v })}
+        />
+      ))}
       <p className="text-xs text-ink-soft">Arrow keys move 0.1, Page Up / Page Down a whole step, Home / End to the stops.</p>
     </div>
   );

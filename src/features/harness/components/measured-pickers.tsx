@@ -8,8 +8,10 @@ import { Alert } from '@/components/ui/alert';
 import { formatDate } from '@/lib/format';
 import {
   MEASURED_LIMIT,
+  useMeasuredCapacitors,
   useMeasuredPickups,
   useMeasuredPots,
+  type MeasuredCapacitor,
   type MeasuredList,
   type MeasuredPickup,
   type MeasuredPot,
@@ -49,18 +51,21 @@ export const pickupSummary = (p: MeasuredPickup) =>
 export const potSummary = (p: MeasuredPot) =>
   `${p.part.label} · ${formatValue(p.taper.total, 'Ω')} · ${p.taper.law === 'linear' ? TAPER_LAW_LABEL.linear.toLowerCase() : `${TAPER_LAW_LABEL[p.taper.law].toLowerCase()}, ${Number((p.taper.m * 100).toPrecision(3))} % at mid`}`;
 
-/** One chooser of measured parts: the newest fit of each, summarised in a line. */
-function MeasuredPicker<T extends { part: { id: number }; fit: { createdAt: number } }>({
+/** One chooser of measured parts: the newest fit (or reading) of each, summarised in a line. */
+function MeasuredPicker<T extends { part: { id: number } }>({
   label,
   list,
   summary,
   choose,
   none,
   onPick,
+  when,
 }: {
   label: string;
   list: MeasuredList<T>;
   summary: (item: T) => string;
+  /** When the figure was measured or fitted, in words. */
+  when: (item: T) => string;
   choose: string;
   none: string;
   onPick: (item: T) => void;
@@ -84,7 +89,7 @@ function MeasuredPicker<T extends { part: { id: number }; fit: { createdAt: numb
         <option value="">{list.pending ? 'Loading…' : list.items.length ? choose : 'None available'}</option>
         {list.items.map((p) => (
           <option key={p.part.id} value={p.part.id}>
-            {summary(p)} (fit {formatDate(p.fit.createdAt)})
+            {summary(p)} ({when(p)})
           </option>
         ))}
       </select>
@@ -99,6 +104,7 @@ export function MeasuredPickupPicker({ onPick }: { onPick: (p: MeasuredPickup) =
       label="Measured pickup (latest coil fit)"
       list={useMeasuredPickups(true)}
       summary={pickupSummary}
+      when={(p) => `fit ${formatDate(p.fit.createdAt)}`}
       choose="Choose a pickup…"
       none="No pickup has a coil fit yet. Upload an impedance sweep on the pickup's page first."
       onPick={onPick}
@@ -112,8 +118,26 @@ export function MeasuredPotPicker({ which, onPick }: { which: 'volume' | 'tone';
       label={`Measured pot for the ${which} (latest taper fit)`}
       list={useMeasuredPots(true)}
       summary={potSummary}
+      when={(p) => `fit ${formatDate(p.fit.createdAt)}`}
       choose="Choose a pot…"
       none="No pot has a taper fit yet. Upload a rotation sweep on the pot's page first."
+      onPick={onPick}
+    />
+  );
+}
+
+export const capacitorSummary = (c: MeasuredCapacitor) =>
+  `${c.part.label} · ${formatValue(c.reading.value, 'F', { digits: 4 })}${c.reading.frequency ? ` at ${formatValue(c.reading.frequency, 'Hz')}` : ''}`;
+
+export function MeasuredCapacitorPicker({ label, onPick }: { label: string; onPick: (c: MeasuredCapacitor) => void }) {
+  return (
+    <MeasuredPicker
+      label={`Measured capacitor for the ${label} (latest capacitance reading)`}
+      list={useMeasuredCapacitors(true)}
+      summary={capacitorSummary}
+      when={(c) => `read ${formatDate(c.reading.takenAt)}`}
+      choose="Choose a capacitor…"
+      none="No capacitor has a capacitance reading yet. Record one at the Bench first."
       onPick={onPick}
     />
   );

@@ -1,7 +1,6 @@
 // How the design behaves as the volume knob turns, at the current tone: the volume taper (with
 // the pot's own law, unloaded, for reference), the treble retention, and the interaction index.
 import { useMemo } from 'react';
-import type { VolumeToneKnobs as Knobs } from '@shared/circuit/netlist';
 import { lawValue, type TaperLaw } from '@shared/taper/law';
 import { SERIES_COLOURS } from '@/components/charts/plot';
 import { Panel } from '@/components/ui/page-header';
@@ -16,7 +15,19 @@ function interactionWords(x: number): string {
   return 'the knobs clearly affect each other';
 }
 
-export function SweepsPanel({ analysis, volumeLaw, knobs }: { analysis: HarnessAnalysis; volumeLaw: TaperLaw; knobs: Knobs }) {
+export function SweepsPanel({
+  analysis,
+  volumeLaw,
+  knobs,
+}: {
+  analysis: HarnessAnalysis;
+  volumeLaw: TaperLaw;
+  knobs: Record<string, number>;
+}) {
+  const volumeName = analysis.layout.knobs.find((k) => k.id === analysis.axes.volumeKnob)?.name.toLowerCase() ?? 'volume';
+  const toneName = analysis.layout.knobs.find((k) => k.id === analysis.axes.toneKnob)?.name.toLowerCase() ?? 'tone';
+  const volume = knobs[analysis.axes.volumeKnob] ?? 10;
+  const tone = knobs[analysis.axes.toneKnob] ?? 10;
   // The pot's law on its own: 20·log10(y(x)), what the taper would be with no load and no pickup.
   const bare = useMemo(
     () => Float64Array.from(TAPER_VOLUMES, (v) => 20 * Math.log10(Math.max(lawValue(volumeLaw, v / 10), 1e-9))),
@@ -38,7 +49,7 @@ export function SweepsPanel({ analysis, volumeLaw, knobs }: { analysis: HarnessA
       id="harness-sweeps"
       title={
         <span>
-          Turning the volume, with the tone at <span className="num">{formatKnob(knobs.tone)}</span>
+          Turning the {volumeName}, with the {toneName} at <span className="num">{formatKnob(tone)}</span>
         </span>
       }
     >
@@ -65,7 +76,7 @@ export function SweepsPanel({ analysis, volumeLaw, knobs }: { analysis: HarnessA
             series={taperSeries}
             yLabel="Level re full volume (dB)"
             range={taperRange}
-            marker={knobs.volume}
+            marker={volume}
             label="Volume taper: level at 1 kHz relative to full volume, in dB, against the volume knob from 0 to 10"
           />
         </figure>
@@ -82,7 +93,7 @@ export function SweepsPanel({ analysis, volumeLaw, knobs }: { analysis: HarnessA
             series={trebleSeries}
             yLabel="Treble re full volume (dB)"
             range={trebleRange}
-            marker={knobs.volume}
+            marker={volume}
             label="Treble retention in dB against the volume knob from 0 to 10"
           />
         </figure>

@@ -1,13 +1,7 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { Reading } from '@/data/readings';
-import { api } from '@/lib/api-client';
-import { queryKeys } from '@/data/query-keys';
+import { useQuery } from '@tanstack/react-query';
+import { partReadingsQueryOptions } from '@/data/parts';
 
-export const getPartReadings = (id: number, signal?: AbortSignal) =>
-  api.get<{ readings: Reading[] }>(`/api/parts/${id}/readings`, { signal });
-
-/** Under the part's key, so anything that invalidates queryKeys.parts.all() refreshes it too. */
-export const partReadingsQueryOptions = (id: number) =>
-  queryOptions({ queryKey: queryKeys.parts.readings(id), queryFn: ({ signal }) => getPartReadings(id, signal) });
+// A part's readings: the query lives in src/data/parts.ts (the Harness screen's capacitor chooser reads it too).
+export { getPartReadings, partReadingsQueryOptions } from '@/data/parts';
 
 export const usePartReadings = (id: number) => useQuery(partReadingsQueryOptions(id));

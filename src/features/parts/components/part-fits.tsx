@@ -1,7 +1,8 @@
 // Fits: the current fit of each sweep with its parameters, quality figures, flags and the engine
 // version that made it; earlier (superseded) fits stay below as history.
 import { useMemo, useState, type ReactNode } from 'react';
-import { DEFAULT_CABLE, LOAD_IDS, LOADS, loadedResponse, type LoadId } from '@shared/circuit/loads';
+import { loadedResponse } from '@shared/circuit/loaded-response';
+import { DEFAULT_CABLE, LOAD_IDS, LOADS, type LoadId } from '@shared/circuit/loads';
 import type { CoilFit } from '@shared/analysis/coil';
 import type { TaperFit } from '@shared/analysis/taper';
 import type { Fit, RefitInput } from '@shared/schemas/sweeps';
@@ -123,17 +124,14 @@ function FitAgain({ kind, busy, onFit }: { kind: 'taper' | 'coil'; busy: boolean
 
 /** The loaded resonance: the fitted coil with volume and tone at 10 (500 kΩ each), a cable and a load. */
 function LoadedResonance({ r }: { r: CoilFit }) {
-  const [load, setLoad] = useState<LoadId>('amplifier-input');
+  const [load, setLoad] = useState<LoadId>('amp');
   const [lengthText, setLengthText] = useState(String(DEFAULT_CABLE.lengthM));
   const [pfText, setPfText] = useState(String(DEFAULT_CABLE.capPerMetre * 1e12));
   const lengthM = Number(lengthText);
   const pf = Number(pfText);
   const valid = Number.isFinite(lengthM) && lengthM >= 0 && lengthM <= 100 && Number.isFinite(pf) && pf >= 0 && pf <= 1000;
   const m = useMemo(
-    () =>
-      valid
-        ? loadedResponse({ R: r.R, L: r.L, C: r.C, Rp: r.Rp }, { load: LOADS[load], cable: { lengthM, capPerMetre: pf * 1e-12 } })
-        : null,
+    () => (valid ? loadedResponse({ R: r.R, L: r.L, C: r.C, Rp: r.Rp }, { load, cable: { lengthM, capPerMetre: pf * 1e-12 } }) : null),
     [valid, r.R, r.L, r.C, r.Rp, load, lengthM, pf],
   );
   return (
@@ -149,13 +147,13 @@ function LoadedResonance({ r }: { r: CoilFit }) {
           >
             {LOAD_IDS.map((id) => (
               <option key={id} value={id}>
-                {LOADS[id].name}
+                {LOADS[id].name} ({formatValue(LOADS[id].inputDefault, 'Ω')})
               </option>
             ))}
           </select>
         </label>
         <label className="text-xs text-ink-soft">
-          Cable length (m)
+          {load === 'buffer' ? 'Cable before the buffer (m)' : 'Cable length (m)'}
           <input
             className="num mt-0.5 block w-full rounded border border-paper-edge bg-paper px-2 py-1 text-sm text-ink"
             inputMode="decimal"
