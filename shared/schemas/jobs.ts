@@ -35,6 +35,12 @@ export const InstallPartInputSchema = z.object({
 });
 export type InstallPartInput = z.infer<typeof InstallPartInputSchema>;
 
+/** Puts an installed part in a slot of the job's design (shared/circuit/slots.ts), or takes it out (null). */
+export const AssignSlotInputSchema = z.object({
+  slot: z.string().trim().min(1, 'Choose a slot.').max(80).nullable(),
+});
+export type AssignSlotInput = z.infer<typeof AssignSlotInputSchema>;
+
 export const JobReportInputSchema = z.object({
   /** Defaults to the job's customer e-mail. */
   to: z.string().trim().toLowerCase().email('Enter an e-mail address.').optional(),

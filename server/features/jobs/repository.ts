@@ -1,6 +1,8 @@
 import { desc, eq, sql } from 'drizzle-orm';
 import type { DbLike } from '@server/db/client';
 import { harnesses, jobParts, jobs, parts } from '@server/db/schema';
+import type { DesignSlot } from '@shared/circuit/slots';
+import { designOf } from './slots';
 
 export type JobRow = typeof jobs.$inferSelect;
 export interface JobDetail extends JobRow {
@@ -12,9 +14,13 @@ export interface JobDetail extends JobRow {
     status: string;
     position: string;
     overrideReason: string | null;
+    /** The slot of the design it fills ('volumeR', 'neck.toneC', 'north.pickup'), or null. */
+    slot: string | null;
     installedAt: number;
   }[];
   harnessName: string | null;
+  /** The slots of the job's design (none without a design), each with the part filling it, if any. */
+  slots: (DesignSlot & { partId: number | null })[];
 }
 
 export function listJobs(db: DbLike) {
@@ -38,6 +44,7 @@ export function jobDetail(db: DbLike, id: number): JobDetail | undefined {
       status: parts.status,
       position: jobParts.position,
       overrideReason: jobParts.overrideReason,
+      slot: jobParts.slot,
       installedAt: jobParts.installedAt,
     })
     .from(jobParts)
@@ -48,7 +55,11 @@ export function jobDetail(db: DbLike, id: number): JobDetail | undefined {
   const harnessName = job.harnessId
     ? (db.select({ name: harnesses.name }).from(harnesses).where(eq(harnesses.id, job.harnessId)).get()?.name ?? null)
     : null;
-  return { ...job, parts: installed, harnessName };
+  const slots = (designOf(db, job.harnessId)?.slots ?? []).map((s) => ({
+    ...s,
+    partId: installed.find((p) => p.slot === s.key)?.partId ?? null,
+  }));
+  return { ...job, parts: installed, harnessName, slots };
 }
 
 /** The jobs a part went into (the other direction of the trace). */
