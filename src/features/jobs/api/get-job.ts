@@ -9,10 +9,18 @@ export const jobQueryOptions = (id: number) =>
 
 export const useJob = (id: number) => useQuery(jobQueryOptions(id));
 
-export const getJobReport = (id: number, signal?: AbortSignal) => api.get<JobReport>(`/api/jobs/${id}/report`, { signal });
+/** What the e-mail will carry besides the job: the address typed (else the customer's) and the shop's note. */
+export type JobReportOptions = { to?: string; message?: string };
 
-// Under the job's key: installing or removing a part refreshes the preview too.
-export const jobReportQueryOptions = (id: number) =>
-  queryOptions({ queryKey: ['jobs', 'detail', id, 'report'], queryFn: ({ signal }) => getJobReport(id, signal) });
+export const getJobReport = (id: number, opts: JobReportOptions = {}, signal?: AbortSignal) =>
+  api.get<JobReport>(`/api/jobs/${id}/report`, { params: opts, signal });
 
-export const useJobReport = (id: number) => useQuery(jobReportQueryOptions(id));
+// Under the job's key: installing, removing or assigning a part refreshes the preview too.
+export const jobReportQueryOptions = (id: number, opts: JobReportOptions = {}) =>
+  queryOptions({
+    queryKey: ['jobs', 'detail', id, 'report', opts],
+    queryFn: ({ signal }) => getJobReport(id, opts, signal),
+    placeholderData: (previous) => previous,
+  });
+
+export const useJobReport = (id: number, opts: JobReportOptions = {}) => useQuery(jobReportQueryOptions(id, opts));
