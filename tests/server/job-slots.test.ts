@@ -5,6 +5,7 @@
 import { coilImpedance } from '@shared/analysis/coil';
 import { readConditions } from '@shared/csv/conditions';
 import { readTable } from '@shared/csv/read-table';
+import { buildLayoutNetlist, getLayout, layoutKnobs, resolveLayoutConfig } from '@shared/circuit/layouts';
 import { simulateInstrument } from '@shared/circuit/metrics';
 import { DEFAULT_HARNESS_VALUES, getPreset, type HarnessValues } from '@shared/circuit/presets';
 import { taperLaw, taperLawValue, type TaperLawKind } from '@shared/taper/law';
@@ -257,6 +258,49 @@ describe('parts in the slots of the job design', () => {
     expect(moved.parts.map((p: { slot: string | null }) => p.slot)).toEqual([null, null, null, null]);
     expect(moved.slots.map((s: { key: string }) => s.key)).toContain('neck.toneC');
     expect(harness.id).not.toBe(plain.id);
+  });
+
+  test('a whole-instrument design: a measured capacitor in the neck tone slot moves the neck curves as the engine says', async () => {
+    const tech = await t.as('tech');
+    const design = {
+      layout: 'two-pickups-3way',
+      selector: 0,
+      options: { toneNetwork: 'plain' },
+      knobs: { 'neck.tone': 3 },
+      values: {},
+    };
+    const harness = (
+      await tech
+        .post('/api/harnesses')
+        .send({ name: `Two ${uid()}`, ...design })
+        .expect(201)
+    ).body;
+    const job = (await tech.post('/api/jobs').send({ customer: 'L. Example', instrument: 'Two-pickup', harnessId: harness.id }).expect(201))
+      .body;
+    const cap = await part(tech, { kind: 'capacitor', label: `CAP-L-${uid()}`, nominal: 100e-9, tolerancePct: 10 });
+    await tech.post(`/api/parts/${cap.id}/readings`).send({ quantity: 'capacitance', value: 98.2e-9 }).expect(201);
+    await install(tech, job.id, cap.id, 'neck tone cap');
+    const wrongSlot = await assign(tech, job.id, cap.id, 'neck.toneR');
+    expect(wrongSlot.status).toBe(422);
+    expect(wrongSlot.body.error.fields.slot).toMatch(/Neck: tone pot \(neck\.toneR\) takes a pot, not a capacitor/);
+    await assign(tech, job.id, cap.id, 'neck.toneC').expect(200);
+    const report = (await tech.get(`/api/jobs/${job.id}/report`).expect(200)).body;
+    expect(report.text).toMatch(new RegExp(`Neck: tone capacitor: ${cap.label}: measured capacitance 98\\.2 nF`));
+    expect(report.text).toMatch(/Bridge: tone capacitor: no part assigned, typical values used/);
+    // The engine on the same layout with the measured value (the layout's own netlist builder here:
+    // this layout has no preset form).
+    const layout = getLayout('two-pickups-3way')!;
+    const { config } = resolveLayoutConfig(layout, { ...design, values: { 'neck.toneC': 98.2e-9 } });
+    const cols = columns(report.csv);
+    const f = cols.frequency_hz!;
+    for (const v of [10, 6, 2]) {
+      const expected = simulateInstrument(
+        buildLayoutNetlist(layout, config),
+        { ...layoutKnobs(layout, design.knobs), 'neck.volume': v },
+        f,
+      ).magnitudeDb;
+      cols[`volume_${v}_db`]!.forEach((got, k) => expect(Math.abs(got - expected[k]!)).toBeLessThan(2e-3));
+    }
   });
 
   test('the preview is exactly the message sent: subject, text and attachments', async () => {
