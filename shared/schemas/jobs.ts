@@ -1,4 +1,6 @@
 import { z } from 'zod';
+import type { DesignSlot } from '../circuit/slots';
+import type { PartKind, PartStatus } from './common';
 
 export const JOB_STATUSES = ['open', 'done', 'delivered'] as const;
 
@@ -46,3 +48,63 @@ export const JobReportInputSchema = z.object({
   to: z.string().trim().toLowerCase().email('Enter an e-mail address.').optional(),
   message: z.string().trim().max(4000).optional(),
 });
+
+// The answers of the job routes (server/features/jobs/router.ts), read by the client's api.get<T>.
+
+export type JobStatus = (typeof JOB_STATUSES)[number];
+
+/** A job as stored (POST /api/jobs answers it). */
+export interface Job {
+  id: number;
+  code: string;
+  customer: string;
+  customerEmail: string | null;
+  instrument: string;
+  status: JobStatus;
+  harnessId: number | null;
+  notes: string | null;
+  createdBy: string | null;
+  createdAt: number;
+  updatedAt: number | null;
+}
+
+/** GET /api/jobs: each job with the number of parts installed. */
+export type JobListRow = Job & { partCount: number };
+
+/** A part installed in a job. */
+export interface InstalledPart {
+  partId: number;
+  label: string;
+  kind: PartKind;
+  nominal: number | null;
+  status: PartStatus;
+  position: string;
+  /** Why a flagged or never-judged part went in anyway. */
+  overrideReason: string | null;
+  /** The slot of the job's design it fills ('volumeR', 'neck.toneC', 'north.pickup'), or null. */
+  slot: string | null;
+  installedAt: number;
+}
+
+/** A slot of the job's design (shared/circuit/slots.ts) and the installed part filling it, if any. */
+export type JobSlot = DesignSlot & { partId: number | null };
+
+/** GET /api/jobs/:id (and the answer of every change to a job). */
+export type JobDetail = Job & {
+  parts: InstalledPart[];
+  harnessName: string | null;
+  /** The slots of the job's design (none without a design). */
+  slots: JobSlot[];
+};
+
+/**
+ * GET /api/jobs/:id/report: the customer e-mail exactly as a send with the same `to` and `message`
+ * would carry it; attachments by name, type and size, and the predicted curves' CSV as attached.
+ */
+export interface JobReport {
+  to: string | null;
+  subject: string;
+  text: string;
+  attachments: { filename: string; contentType: string; size: number }[];
+  csv: string | null;
+}

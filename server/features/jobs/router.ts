@@ -14,6 +14,9 @@ import {
   InstallPartInputSchema,
   JobReportInputSchema,
   UpdateJobInputSchema,
+  type JobDetail,
+  type JobListRow,
+  type JobReport,
 } from '@shared/schemas/jobs';
 import { slotRefusal } from '@shared/circuit/slots';
 import { jobDetail, jobsOfPart, listJobs } from './repository';
@@ -23,7 +26,7 @@ import { designOf } from './slots';
 export function jobRoutes(ctx: AppContext) {
   const { db } = ctx;
   const api = new ApiRouter('/api/jobs');
-  const mustFind = (id: number) => {
+  const mustFind = (id: number): JobDetail => {
     const job = jobDetail(db, id);
     if (!job) throw notFound('That job');
     return job;
@@ -33,7 +36,7 @@ export function jobRoutes(ctx: AppContext) {
       throw unprocessable('That harness design does not exist.', { harnessId: 'Unknown design.' });
   };
 
-  api.get('/', { handle: () => ({ jobs: listJobs(db) }) });
+  api.get('/', { handle: (): { jobs: JobListRow[] } => ({ jobs: listJobs(db) }) });
   api.get('/:id', { schemas: { params: IdParamsSchema }, handle: ({ params }) => mustFind(params.id) });
 
   api.post('/', {
@@ -217,7 +220,7 @@ export function jobRoutes(ctx: AppContext) {
   });
 
   /** The message as the e-mail would carry it; attachments by name, type and size, the curves' CSV in full. */
-  const previewOf = (m: ReportMessage) => ({
+  const previewOf = (m: ReportMessage): JobReport => ({
     to: m.to,
     subject: m.subject,
     text: m.text,
