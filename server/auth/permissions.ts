@@ -26,6 +26,7 @@ export const ROUTE_PERMISSIONS: Record<string, RoutePermission> = {
   'POST /api/team/invitations': 'admin',
   'DELETE /api/team/invitations/:id': 'admin',
   'GET /api/outbox': 'admin',
+  'GET /api/outbox/:id/attachments/:attachmentId': 'admin',
   'GET /api/audit': 'admin',
 
   // Parts
@@ -83,6 +84,7 @@ export const ROUTE_PERMISSIONS: Record<string, RoutePermission> = {
   'PATCH /api/jobs/:id': 'write',
   'POST /api/jobs/:id/parts': 'write',
   'DELETE /api/jobs/:id/parts/:partId': 'write',
+  'PUT /api/jobs/:id/parts/:partId/slot': 'write',
   'GET /api/jobs/:id/report': 'read',
   'POST /api/jobs/:id/report': 'write',
 

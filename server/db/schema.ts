@@ -2,7 +2,7 @@
 // (ohm, farad, henry, hertz). Times are integer milliseconds since the epoch unless a column
 // says otherwise (lucia's session expiry is in seconds, as its adapter writes it).
 import { sql } from 'drizzle-orm';
-import { index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import { blob, index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 // Relative imports: drizzle-kit loads this file without the tsconfig path aliases.
 import { INSTRUMENT_KINDS } from '../../shared/schemas/bench';
 import { PART_KINDS, PART_STATUSES, ROLES, VERDICTS, type PartStatus } from '../../shared/schemas/common';
@@ -350,10 +350,16 @@ export const jobParts = sqliteTable(
     position: text('position').notNull(),
     /** Why a flagged or never-judged part went in anyway (the tech's words), or null. */
     overrideReason: text('override_reason'),
+    /**
+     * The slot of the job's wiring design this part fills (shared/circuit/slots.ts: 'volumeR',
+     * 'neck.toneC', 'north.pickup' …), or null; the report's predictions use its measured values.
+     */
+    slot: text('slot'),
     installedBy: text('installed_by').references(() => users.id, { onDelete: 'set null' }),
     installedAt: createdAt(),
   },
-  (t) => [primaryKey({ columns: [t.jobId, t.partId] })],
+  // One part per slot of a job (SQLite lets any number of rows hold a null slot).
+  (t) => [primaryKey({ columns: [t.jobId, t.partId] }), uniqueIndex('job_parts_slot_idx').on(t.jobId, t.slot)],
 );
 
 export const comparisons = sqliteTable('comparisons', {
@@ -383,6 +389,22 @@ export const outbox = sqliteTable('outbox', {
   error: text('error'),
   createdAt: createdAt(),
 });
+
+/** The attachments of an outbox message, as they went out (name, type, bytes). */
+export const outboxAttachments = sqliteTable(
+  'outbox_attachments',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    messageId: integer('message_id')
+      .notNull()
+      .references(() => outbox.id, { onDelete: 'cascade' }),
+    filename: text('filename').notNull(),
+    contentType: text('content_type').notNull(),
+    size: integer('size').notNull(),
+    content: blob('content', { mode: 'buffer' }).notNull(),
+  },
+  (t) => [index('outbox_attachments_message_idx').on(t.messageId)],
+);
 
 export const auditLog = sqliteTable(
   'audit_log',

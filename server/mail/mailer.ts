@@ -1,6 +1,6 @@
 import nodemailer, { type Transporter } from 'nodemailer';
 import type { Db } from '@server/db/client';
-import { outbox } from '@server/db/schema';
+import { outbox, outboxAttachments } from '@server/db/schema';
 
 export type MailTopic = 'invitation' | 'password-reset' | 'lot-disposition' | 'lot-reopen' | 'customer-report';
 
@@ -40,18 +40,35 @@ export function createMailer(db: Db, opts: { smtpUrl?: string; from: string }): 
           error = err instanceof Error ? err.message : String(err);
         }
       }
-      db.insert(outbox)
-        .values({
-          to: message.to,
-          subject: message.subject,
-          text: message.text,
-          topic: message.topic,
-          raw,
-          transport: smtp ? 'smtp' : 'outbox',
-          sentAt,
-          error,
-        })
-        .run();
+      // The message and its attachments in one transaction: the Outbox lists them and serves them back.
+      db.transaction((tx) => {
+        const row = tx
+          .insert(outbox)
+          .values({
+            to: message.to,
+            subject: message.subject,
+            text: message.text,
+            topic: message.topic,
+            raw,
+            transport: smtp ? 'smtp' : 'outbox',
+            sentAt,
+            error,
+          })
+          .returning({ id: outbox.id })
+          .get();
+        for (const a of message.attachments ?? []) {
+          const content = typeof a.content === 'string' ? Buffer.from(a.content, 'utf8') : a.content;
+          tx.insert(outboxAttachments)
+            .values({
+              messageId: row.id,
+              filename: a.filename,
+              contentType: a.contentType ?? 'application/octet-stream',
+              size: content.length,
+              content,
+            })
+            .run();
+        }
+      });
     },
   };
 }

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import type { DesignSlot } from '../circuit/slots';
 import type { PartKind, PartStatus } from './common';
 
 export const JOB_STATUSES = ['open', 'done', 'delivered'] as const;
@@ -35,6 +36,12 @@ export const InstallPartInputSchema = z.object({
     .optional(),
 });
 export type InstallPartInput = z.infer<typeof InstallPartInputSchema>;
+
+/** Puts an installed part in a slot of the job's design (shared/circuit/slots.ts), or takes it out (null). */
+export const AssignSlotInputSchema = z.object({
+  slot: z.string().trim().min(1, 'Choose a slot.').max(80).nullable(),
+});
+export type AssignSlotInput = z.infer<typeof AssignSlotInputSchema>;
 
 export const JobReportInputSchema = z.object({
   /** Defaults to the job's customer e-mail. */
@@ -74,14 +81,30 @@ export interface InstalledPart {
   position: string;
   /** Why a flagged or never-judged part went in anyway. */
   overrideReason: string | null;
+  /** The slot of the job's design it fills ('volumeR', 'neck.toneC', 'north.pickup'), or null. */
+  slot: string | null;
   installedAt: number;
 }
 
-/** GET /api/jobs/:id (and the answer of every change to a job). */
-export type JobDetail = Job & { parts: InstalledPart[]; harnessName: string | null };
+/** A slot of the job's design (shared/circuit/slots.ts) and the installed part filling it, if any. */
+export type JobSlot = DesignSlot & { partId: number | null };
 
-/** GET /api/jobs/:id/report: the customer report's text and, with a harness design, its predicted curves as CSV. */
+/** GET /api/jobs/:id (and the answer of every change to a job). */
+export type JobDetail = Job & {
+  parts: InstalledPart[];
+  harnessName: string | null;
+  /** The slots of the job's design (none without a design). */
+  slots: JobSlot[];
+};
+
+/**
+ * GET /api/jobs/:id/report: the customer e-mail exactly as a send with the same `to` and `message`
+ * would carry it; attachments by name, type and size, and the predicted curves' CSV as attached.
+ */
 export interface JobReport {
+  to: string | null;
+  subject: string;
   text: string;
+  attachments: { filename: string; contentType: string; size: number }[];
   csv: string | null;
 }

@@ -14,6 +14,8 @@ export type PartFilters = { kind?: PartKind; status?: PartStatus; q?: string; lo
 export type PartScan = { id: number } | { label: string };
 /** The matched-set chooser of a lot: parts agreeing within matchPct %, in sets of setSize. */
 export type LotMatch = { matchPct: number; setSize: number };
+/** The customer report's preview for a typed address and shop note (GET /api/jobs/:id/report). */
+export type JobReportOptions = { to?: string; message?: string };
 /** The body of POST /api/compare/tapers (a read, sent as a POST because a selection can be long). */
 export type TapersRequest = { selection: CompareSelection; groupBy: GroupBy };
 
@@ -56,8 +58,8 @@ export const queryKeys = {
     all: () => ['jobs'] as const,
     list: () => ['jobs', 'list'] as const,
     detail: (id: number) => ['jobs', 'detail', id] as const,
-    /** Under the job's key: installing or removing a part refreshes the preview too. */
-    report: (id: number) => ['jobs', 'detail', id, 'report'] as const,
+    /** Under the job's key: installing, removing or assigning a part refreshes the preview too. */
+    report: (id: number, opts: JobReportOptions = {}) => ['jobs', 'detail', id, 'report', opts] as const,
   },
   lots: {
     all: () => ['lots'] as const,

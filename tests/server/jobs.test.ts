@@ -52,7 +52,7 @@ describe('jobs', () => {
       await tech.post('/api/jobs').send({ customer: 'S. Example', instrument: 'Solid-body four-string', harnessId: harness.id }).expect(201)
     ).body;
     const text = (await tech.get(`/api/jobs/${job.id}/report`)).body.text as string;
-    expect(text).toMatch(/volumeR from POT-REF-1 taken from measured parts when the design was saved, the rest typical values/);
+    expect(text).toMatch(/resistance 247 kΩ \(the design.s value, taken from POT-REF-1 when the design was saved\)/);
     expect(text).not.toMatch(/with the design's typical part values/);
   });
 

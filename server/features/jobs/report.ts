@@ -1,31 +1,134 @@
 // The customer report: what was installed (with the measured values and verdicts) and, when the
-// job has a harness design, what the wiring will do at a few knob settings.
+// job has a wiring design, what the wiring will do at a few knob settings, computed with the
+// measured values of the installed parts assigned to the design's slots (typical values elsewhere,
+// said so line by line). One function, composeReport, builds the whole message — subject, text and
+// attachments — for both the preview on the job page and the e-mail, so the two cannot differ.
 import { conditionsHeader } from '@shared/csv/conditions';
-import { eq } from 'drizzle-orm';
 import type { DbLike } from '@server/db/client';
-import { harnesses } from '@server/db/schema';
 import { describeVerdict, partEvidence } from '@server/features/parts/evidence';
 import { findPart } from '@server/features/parts/repository';
-import { buildLayoutNetlist, getLayout, layoutKnobs, resolveLayoutConfig, toneKnobs, volumeKnobs } from '@shared/circuit/layouts';
+import { buildLayoutNetlist, layoutKnobs, resolveLayoutConfig, toneKnobs, volumeKnobs, type LayoutValue } from '@shared/circuit/layouts';
 import { simulateInstrument, sweepKnobs } from '@shared/circuit/metrics';
 import { getPreset } from '@shared/circuit/presets';
+import type { DesignSlot } from '@shared/circuit/slots';
 import { solveChecked, UnsolvableHarness } from '@server/features/harness/solvable';
 import { nominalQuantity } from '@shared/analysis/reading-verdict';
+import { lawMid, TAPER_LAW_LABEL, type TaperLaw } from '@shared/taper/law';
 import { formatValue } from '@shared/units/format';
 import { QUANTITY_UNIT } from '@shared/units/quantities';
 import type { JobDetail } from './repository';
+import { designOf, slotValues, type SlotQuantity } from './slots';
 
 const fmtDb = (x: number) => `${x >= 0 ? '+' : ''}${x.toFixed(1)} dB`;
 
-export function harnessSummary(db: DbLike, harnessId: number | null): { text: string; csv: string | null } | null {
-  if (!harnessId) return null;
-  const design = db.select().from(harnesses).where(eq(harnesses.id, harnessId)).get();
-  const layout = design && getLayout(design.layout);
-  if (!design || !layout) return null;
-  const { config, problems } = resolveLayoutConfig(layout, { selector: design.selector, options: design.options, values: design.values });
+const QUANTITY_WORD: Record<SlotQuantity, string> = {
+  resistance: 'resistance',
+  law: 'law',
+  capacitance: 'capacitance',
+  inductance: 'inductance',
+  lossResistance: 'loss resistance',
+};
+const PICKUP_WORD: Partial<Record<SlotQuantity, string>> = { resistance: 'DC resistance', capacitance: 'self-capacitance' };
+const UNIT: Record<SlotQuantity, string> = { resistance: 'Ω', law: '', capacitance: 'F', inductance: 'H', lossResistance: 'Ω' };
+
+/** "audio, 14.2 % at mid-rotation", "linear". */
+export function lawWords(law: TaperLaw): string {
+  const name = TAPER_LAW_LABEL[law.kind].toLowerCase();
+  return law.kind === 'linear' ? name : `${name}, ${(lawMid(law) * 100).toFixed(1)} % at mid-rotation`;
+}
+
+function valueWords(quantity: SlotQuantity, value: LayoutValue | undefined): string {
+  if (value === undefined) return 'none';
+  return typeof value === 'number' ? formatValue(value, UNIT[quantity]) : lawWords(value);
+}
+
+/** The prediction of the job's design with the assigned parts' measured values. */
+export interface Prediction {
+  /** The wiring paragraph: design, options, knobs, resonance, the volume table. */
+  text: string;
+  /** One line per slot: which values are measured (with the part's label) and which are typical. */
+  valueLines: string[];
+  /** Layout value keys replaced by measured values, with the part label. */
+  measured: { key: string; label: string; value: LayoutValue }[];
+  /** Values of the design taken from measured parts when it was saved, still in use (its partRefs). */
+  designRefs: number;
+  /** The predicted curves with their conditions, or null when the design could not be computed. */
+  csv: string | null;
+}
+
+/**
+ * The design's values with every assigned part's measured values put in, and the words for each
+ * slot. A value a part was not measured in keeps the design's value ("not measured, typical value
+ * used"); a slot without a part keeps the design's values ("typical"), or names the part the design
+ * took it from when it was saved (its partRefs).
+ */
+function valuesForJob(db: DbLike, job: JobDetail, design: NonNullable<ReturnType<typeof designOf>>) {
+  const { layout, slots } = design;
+  const saved = resolveLayoutConfig(layout, {
+    selector: design.design.selector,
+    options: design.design.options,
+    values: design.design.values,
+  });
+  const designValues = saved.config.values;
+  const refs = design.design.partRefs ?? {};
+  const usedRefs = new Set<string>();
+  const typicalWords = (slot: DesignSlot, q: SlotQuantity) => {
+    const key = slot.values[q]!;
+    const v = valueWords(q, designValues[key]);
+    const ref = refs[key];
+    if (ref === undefined) return v;
+    usedRefs.add(key);
+    const part = findPart(db, ref);
+    return `${v} (the design's value, taken from ${part ? part.label : `part ${ref}`} when the design was saved)`;
+  };
+  const word = (slot: DesignSlot, q: SlotQuantity) => (slot.accepts === 'pickup' ? (PICKUP_WORD[q] ?? QUANTITY_WORD[q]) : QUANTITY_WORD[q]);
+  const values: Record<string, unknown> = { ...(design.design.values as Record<string, unknown>) };
+  const measured: Prediction['measured'] = [];
+  const lines: string[] = [];
+  for (const slot of slots) {
+    const installed = job.parts.find((p) => p.slot === slot.key);
+    const part = installed && findPart(db, installed.partId);
+    const quantities = (Object.keys(slot.values) as SlotQuantity[]).filter((q) => q !== 'lossResistance');
+    if (!part) {
+      lines.push(
+        `  ${slot.name}: no part assigned, typical values used: ${quantities.map((q) => `${word(slot, q)} ${typicalWords(slot, q)}`).join(', ')}.`,
+      );
+      continue;
+    }
+    const got = slotValues(db, part, slot);
+    for (const m of got.measured) {
+      values[m.key] = m.value;
+      measured.push({ key: m.key, label: part.label, value: m.value });
+    }
+    const bySource = new Map<string, string[]>();
+    for (const m of got.measured)
+      bySource.set(m.source, [...(bySource.get(m.source) ?? []), `${word(slot, m.quantity)} ${valueWords(m.quantity, m.value)}`]);
+    const parts = [
+      ...[...bySource].map(([source, words]) => `measured ${words.join(', ')} (${source})`),
+      ...got.notMeasured.map((q) => `${word(slot, q)} not measured, typical value used: ${typicalWords(slot, q)}`),
+    ];
+    lines.push(`  ${slot.name}: ${part.label}: ${parts.join('; ')}.`);
+  }
+  for (const p of job.parts) {
+    if (p.slot && !slots.some((s) => s.key === p.slot))
+      lines.push(`  ${p.label} is assigned to "${p.slot}", a slot this design does not use: its values are not in the predictions.`);
+  }
+  return { values, measured, lines, designRefs: usedRefs.size };
+}
+
+/** The predicted behaviour of the job's design, with the assigned parts' measured values; null without a design. */
+export function predictJob(db: DbLike, job: JobDetail): Prediction | null {
+  const found = designOf(db, job.harnessId);
+  if (!found) return null;
+  const { design, layout } = found;
+  const { values, measured, lines: valueLines, designRefs } = valuesForJob(db, job, found);
+  const { config, problems } = resolveLayoutConfig(layout, { selector: design.selector, options: design.options, values });
   if (problems.length > 0)
     return {
-      text: `Wiring: ${design.name} (${layout.name}). Its predicted response could not be computed: ${problems[0]!.message}`,
+      text: `Wiring: ${design.name} (${layout.name}). Its predicted response could not be computed: ${problems[0]!.message} (${problems[0]!.path})`,
+      valueLines,
+      measured,
+      designRefs,
       csv: null,
     };
   const netlist = buildLayoutNetlist(layout, config);
@@ -51,10 +154,13 @@ export function harnessSummary(db: DbLike, harnessId: number | null): { text: st
       (r) => [r.magnitudeDb],
     );
   } catch (err) {
-    // A design saved with values the engine cannot solve: the report says so instead of failing.
+    // Values the engine cannot solve: the report says so instead of failing.
     if (err instanceof UnsolvableHarness)
       return {
-        text: `Wiring: ${design.name} (${layout.name}). Its predicted response could not be computed with the values saved in the design.`,
+        text: `Wiring: ${design.name} (${layout.name}). Its predicted response could not be computed with these values.`,
+        valueLines,
+        measured,
+        designRefs,
         csv: null,
       };
     throw err;
@@ -90,13 +196,35 @@ export function harnessSummary(db: DbLike, harnessId: number | null): { text: st
     { key: 'load', value: `${choice('load').toLowerCase()} (${loadValue})` },
     { key: 'knobs', value: layout.knobs.map((k) => `${k.name.toLowerCase()} ${knobs[k.id]}`).join(', ') },
     { key: 'curves', value: `${volumeName} at ${volume.join(', ')}, other knobs as above` },
-    { key: 'computed', value: 'circuit model with the values saved in the design (not measured)' },
+    {
+      key: 'computed',
+      value: measured.length
+        ? 'circuit model with the measured values of the parts assigned to the design, the rest typical values (not measured)'
+        : 'circuit model with the typical values saved in the design (not measured)',
+    },
+    {
+      key: 'measured values',
+      value: measured.length
+        ? measured
+            .map((m) => `${m.key} ${valueWords(m.key.endsWith('Law') ? 'law' : unitQuantity(m.key), m.value)} (${m.label})`)
+            .join('; ')
+        : 'none',
+    },
   ]);
   const csvRows = ['frequency_hz,' + volume.map((v) => `volume_${v}_db`).join(',')];
   grid.frequencies.forEach((f, k) => {
     csvRows.push([f.toPrecision(6), ...volume.map((_, vi) => grid.magnitudeDb[vi * grid.frequencies.length + k]!.toFixed(3))].join(','));
   });
-  return { text: lines.join('\n'), csv: header + csvRows.join('\n') + '\n' };
+  return { text: lines.join('\n'), valueLines, measured, designRefs, csv: header + csvRows.join('\n') + '\n' };
+}
+
+/** The quantity of a layout value key by its name (…R and …Rp resistance, …C capacitance, …L inductance). */
+function unitQuantity(key: string): SlotQuantity {
+  const last = key.split('.').pop()!;
+  if (/Rp$/.test(last)) return 'lossResistance';
+  if (/R$/.test(last)) return 'resistance';
+  if (/L$/.test(last)) return 'inductance';
+  return 'capacitance';
 }
 
 /** One installed part's line: its status as the evidence has it, the evidence, any override. */
@@ -123,44 +251,93 @@ export function partLine(db: DbLike, p: JobDetail['parts'][number]): string {
   return lines.join('\n');
 }
 
-/**
- * Where the prediction's part values come from, in words: a design may hold values taken from measured
- * parts when it was saved (its partRefs); the rest are typical values. Neither is necessarily a part
- * installed in this job.
- */
-function predictionSource(db: DbLike, harnessId: number | null): string {
-  const refs = harnessId
-    ? (db.select({ partRefs: harnesses.partRefs }).from(harnesses).where(eq(harnesses.id, harnessId)).get()?.partRefs ?? {})
-    : {};
-  const measured = Object.entries(refs).map(([key, partId]) => {
-    const part = findPart(db, partId);
-    return `${key} from ${part ? part.label : `part ${partId}`}`;
-  });
+/** Where the prediction's values come from, in one sentence. */
+function predictionSource(prediction: Prediction): string {
   const amp = 'your amplifier and cable change the exact figures.';
-  if (measured.length === 0) {
-    return `Predictions come from a circuit model of the wiring design with the design's typical part values, not the measured parts above; ${amp}`;
-  }
-  return `Predictions come from a circuit model of the wiring design with the values saved in it: ${measured.join(', ')} taken from measured parts when the design was saved, the rest typical values, not necessarily the parts installed above; ${amp}`;
+  if (prediction.measured.length === 0 && prediction.designRefs > 0)
+    return `Predictions come from a circuit model of the wiring design with the values saved in it (some taken from measured parts when the design was saved, as listed above, the rest typical values), not measurements of the parts assigned in this job; ${amp}`;
+  if (prediction.measured.length === 0)
+    return `Predictions come from a circuit model of the wiring design with typical part values, not measured ones (no installed part with a measurement is assigned to the design); ${amp}`;
+  const labels = [...new Set(prediction.measured.map((m) => m.label))];
+  return `Predictions come from a circuit model of the wiring design with the measured values of ${labels.join(', ')} (as listed above) and typical values for the rest; ${amp}`;
 }
 
-export function reportText(db: DbLike, job: JobDetail, shopMessage?: string): { text: string; csv: string | null } {
+export interface ReportAttachment {
+  filename: string;
+  contentType: string;
+  content: string | Buffer;
+}
+
+/** Everything an attachment source may use. */
+export interface ReportInput {
+  db: DbLike;
+  job: JobDetail;
+  prediction: Prediction | null;
+}
+
+/** Adds attachments to the report, with the lines the text says about them. */
+export type ReportAttachmentSource = (
+  input: ReportInput,
+) => { attachments: ReportAttachment[]; lines: string[] } | Promise<{ attachments: ReportAttachment[]; lines: string[] }>;
+
+/** The predicted curves as CSV, when the design could be computed. */
+const predictedCurves: ReportAttachmentSource = ({ job, prediction }) =>
+  prediction?.csv
+    ? {
+        attachments: [{ filename: `${job.code}-predicted-curves.csv`, contentType: 'text/csv', content: prediction.csv }],
+        lines: ['The predicted curves are attached as CSV (level in dB against frequency).'],
+      }
+    : { attachments: [], lines: [] };
+
+/**
+ * The report's attachments, built here and only here, in this order. A module that adds an
+ * attachment (sound clips, photos) adds its source to this list; the preview and the e-mail both
+ * read it through composeReport.
+ */
+export const REPORT_ATTACHMENT_SOURCES: ReportAttachmentSource[] = [predictedCurves];
+
+export interface ReportMessage {
+  /** The recipient the e-mail goes to (the given address, else the job's customer's), or null. */
+  to: string | null;
+  subject: string;
+  text: string;
+  attachments: ReportAttachment[];
+}
+
+/** The whole customer e-mail: the preview on the job page and the message sent are both this. */
+export async function composeReport(db: DbLike, job: JobDetail, opts: { to?: string; message?: string } = {}): Promise<ReportMessage> {
   const partLines = job.parts.map((p) => partLine(db, p));
-  const harness = harnessSummary(db, job.harnessId);
+  const prediction = predictJob(db, job);
+  const extras = [];
+  for (const source of REPORT_ATTACHMENT_SOURCES) extras.push(await source({ db, job, prediction }));
+  const attachmentLines = extras.flatMap((e) => e.lines);
   const text = [
     `Hello ${job.customer},`,
     '',
     `here is the record of the work on your ${job.instrument} (job ${job.code}).`,
-    ...(shopMessage ? ['', shopMessage] : []),
+    ...(opts.message ? ['', opts.message] : []),
     '',
     'Parts installed:',
     ...(partLines.length ? partLines : ['  (none recorded)']),
-    ...(harness
-      ? ['', harness.text, ...(harness.csv ? ['', 'The predicted curves are attached as CSV (level in dB against frequency).'] : [])]
+    ...(prediction
+      ? [
+          '',
+          prediction.text,
+          '',
+          "Values in these predictions (measured: from the installed parts named; typical: the design's values, not measured):",
+          ...(prediction.valueLines.length ? prediction.valueLines : ['  (the design has no slots for parts)']),
+        ]
       : []),
+    ...(attachmentLines.length ? ['', ...attachmentLines] : []),
     '',
-    ...(harness ? [predictionSource(db, job.harnessId)] : []),
+    ...(prediction ? [predictionSource(prediction)] : []),
   ]
     .join('\n')
     .trimEnd();
-  return { text, csv: harness?.csv ?? null };
+  return {
+    to: opts.to ?? job.customerEmail ?? null,
+    subject: `Your ${job.instrument}: work record ${job.code}`,
+    text,
+    attachments: extras.flatMap((e) => e.attachments),
+  };
 }

@@ -1,7 +1,7 @@
 import { desc, eq, sql } from 'drizzle-orm';
 import type { DbLike } from '@server/db/client';
 import { harnesses, jobParts, jobs, parts } from '@server/db/schema';
-
+import { designOf } from './slots';
 import type { JobDetail, JobListRow } from '@shared/schemas/jobs';
 import type { PartInstallation } from '@shared/schemas/parts';
 
@@ -30,6 +30,7 @@ export function jobDetail(db: DbLike, id: number): JobDetail | undefined {
       status: parts.status,
       position: jobParts.position,
       overrideReason: jobParts.overrideReason,
+      slot: jobParts.slot,
       installedAt: jobParts.installedAt,
     })
     .from(jobParts)
@@ -40,7 +41,11 @@ export function jobDetail(db: DbLike, id: number): JobDetail | undefined {
   const harnessName = job.harnessId
     ? (db.select({ name: harnesses.name }).from(harnesses).where(eq(harnesses.id, job.harnessId)).get()?.name ?? null)
     : null;
-  return { ...job, parts: installed, harnessName };
+  const slots = (designOf(db, job.harnessId)?.slots ?? []).map((s) => ({
+    ...s,
+    partId: installed.find((p) => p.slot === s.key)?.partId ?? null,
+  }));
+  return { ...job, parts: installed, harnessName, slots };
 }
 
 /** The jobs a part went into (the other direction of the trace). */

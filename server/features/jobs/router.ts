@@ -9,6 +9,7 @@ import { conflict, HttpError, notFound, unprocessable } from '@server/http/error
 import { ApiRouter } from '@server/http/router';
 import { IdParamsSchema } from '@shared/schemas/common';
 import {
+  AssignSlotInputSchema,
   CreateJobInputSchema,
   InstallPartInputSchema,
   JobReportInputSchema,
@@ -17,8 +18,10 @@ import {
   type JobListRow,
   type JobReport,
 } from '@shared/schemas/jobs';
+import { slotRefusal } from '@shared/circuit/slots';
 import { jobDetail, jobsOfPart, listJobs } from './repository';
-import { reportText } from './report';
+import { composeReport, type ReportMessage } from './report';
+import { designOf } from './slots';
 
 export function jobRoutes(ctx: AppContext) {
   const { db } = ctx;
@@ -64,17 +67,31 @@ export function jobRoutes(ctx: AppContext) {
     handle: ({ params, body, user }) => {
       const before = mustFind(params.id);
       checkHarness(body.harnessId);
+      // A new design keeps only the slot assignments it has slots for (the parts stay installed).
+      const cleared =
+        body.harnessId !== undefined && body.harnessId !== before.harnessId
+          ? before.parts.filter((p) => p.slot && !(designOf(db, body.harnessId ?? null)?.slots ?? []).some((s) => s.key === p.slot))
+          : [];
       db.transaction((tx) => {
         tx.update(jobs)
           .set({ ...body, updatedAt: Date.now() })
           .where(eq(jobs.id, params.id))
           .run();
+        for (const p of cleared)
+          tx.update(jobParts)
+            .set({ slot: null })
+            .where(and(eq(jobParts.jobId, params.id), eq(jobParts.partId, p.partId)))
+            .run();
         audit(tx, {
           userId: user.id,
           action: 'job.update',
           entity: 'job',
           entityId: params.id,
-          detail: { before: { status: before.status, harnessId: before.harnessId }, after: body },
+          detail: {
+            before: { status: before.status, harnessId: before.harnessId },
+            after: body,
+            ...(cleared.length ? { slotsCleared: cleared.map((p) => ({ partId: p.partId, slot: p.slot })) } : {}),
+          },
         });
       });
       return mustFind(params.id);
@@ -160,16 +177,72 @@ export function jobRoutes(ctx: AppContext) {
     },
   });
 
+  api.put('/:id/parts/:partId/slot', {
+    schemas: { params: IdParamsSchema.extend({ partId: z.coerce.number().int().positive() }), body: AssignSlotInputSchema },
+    handle: ({ params, body, user }) => {
+      const job = mustFind(params.id);
+      const line = job.parts.find((p) => p.partId === params.partId);
+      if (!line) throw notFound('That part in this job');
+      if (body.slot !== null) {
+        const design = designOf(db, job.harnessId);
+        if (!design)
+          throw unprocessable('This job has no wiring design: choose one before assigning parts to its slots.', {
+            slot: 'The job has no wiring design.',
+          });
+        const slot = design.slots.find((s) => s.key === body.slot);
+        if (!slot)
+          throw unprocessable(`The design ${design.design.name} has no slot "${body.slot}".`, {
+            slot: `No slot "${body.slot}"; choose one of ${design.slots.map((s) => s.key).join(', ')}.`,
+          });
+        const refusal = slotRefusal(slot, line.kind);
+        if (refusal) throw unprocessable(`${line.label}: ${refusal}`, { slot: refusal });
+        const holder = job.parts.find((p) => p.slot === slot.key && p.partId !== line.partId);
+        if (holder)
+          throw unprocessable(`${slot.name} (${slot.key}) holds ${holder.label} already: clear it first.`, {
+            slot: `${slot.name} (${slot.key}) holds ${holder.label} already.`,
+          });
+      }
+      db.transaction((tx) => {
+        tx.update(jobParts)
+          .set({ slot: body.slot })
+          .where(and(eq(jobParts.jobId, job.id), eq(jobParts.partId, line.partId)))
+          .run();
+        audit(tx, {
+          userId: user.id,
+          action: body.slot === null ? 'job.clear-slot' : 'job.assign-slot',
+          entity: 'job',
+          entityId: job.id,
+          detail: { partId: line.partId, label: line.label, slot: body.slot, previous: line.slot },
+        });
+      });
+      return mustFind(job.id);
+    },
+  });
+
+  /** The message as the e-mail would carry it; attachments by name, type and size, the curves' CSV in full. */
+  const previewOf = (m: ReportMessage): JobReport => ({
+    to: m.to,
+    subject: m.subject,
+    text: m.text,
+    attachments: m.attachments.map((a) => ({
+      filename: a.filename,
+      contentType: a.contentType,
+      size: typeof a.content === 'string' ? Buffer.byteLength(a.content) : a.content.length,
+    })),
+    csv: (m.attachments.find((a) => a.contentType === 'text/csv')?.content as string | undefined) ?? null,
+  });
+
   api.get('/:id/report', {
-    schemas: { params: IdParamsSchema },
-    handle: ({ params }): JobReport => reportText(db, mustFind(params.id)),
+    schemas: { params: IdParamsSchema, query: JobReportInputSchema },
+    handle: async ({ params, query }) => previewOf(await composeReport(db, mustFind(params.id), query)),
   });
 
   api.post('/:id/report', {
     schemas: { params: IdParamsSchema, body: JobReportInputSchema },
     handle: async ({ params, body, user }) => {
       const job = mustFind(params.id);
-      const to = body.to ?? job.customerEmail;
+      const report = await composeReport(db, job, body);
+      const to = report.to;
       if (!to) throw unprocessable('The job has no customer e-mail; give one.', { to: 'Required: the job has no customer e-mail.' });
       // Only to the job's customer or a member: the server is not a relay for arbitrary addresses.
       const member = db.select({ id: users.id }).from(users).where(eq(users.email, to.toLowerCase())).get();
@@ -178,15 +251,12 @@ export function jobRoutes(ctx: AppContext) {
           to: "Not the customer's address nor a member's.",
         });
       }
-      const report = reportText(db, job, body.message);
       await ctx.mailer.send({
         to,
         topic: 'customer-report',
-        subject: `Your ${job.instrument}: work record ${job.code}`,
+        subject: report.subject,
         text: report.text,
-        attachments: report.csv
-          ? [{ filename: `${job.code}-predicted-curves.csv`, content: report.csv, contentType: 'text/csv' }]
-          : undefined,
+        attachments: report.attachments.length ? report.attachments : undefined,
       });
       audit(db, { userId: user.id, action: 'job.report-sent', entity: 'job', entityId: job.id, detail: { to } });
       return { ok: true, to };

@@ -187,3 +187,48 @@ test('the full demo scenario seeds: lots with sweeps and fits, a 100,000-item lo
   expect(await seedDemo(ctx, { password: 'a-long-demo-passphrase' })).toBe(false);
   ctx.sqlite.close();
 });
+
+describe('0008: job parts get a slot, outbox messages their attachments', () => {
+  test('installed parts and messages keep their rows; slots start empty and one part fills a slot', () => {
+    const sqlite = new Database(path.join(tempDir(), 'lugbook.db'));
+    migrate(drizzle(sqlite, { schema }), { migrationsFolder: foldersUpTo('0007_lot_stats') });
+    sqlite.prepare("insert into users (id, email, name, role, password_hash) values ('u1', 'a@example.org', 'A', 'tech', 'x')").run();
+    const part = sqlite.prepare('insert into parts (kind, label, nominal) values (?, ?, ?)');
+    part.run('pot', 'POT-1', 500e3);
+    part.run('capacitor', 'CAP-1', 22e-9);
+    part.run('capacitor', 'CAP-2', 47e-9);
+    sqlite.prepare("insert into jobs (code, customer, instrument, created_by) values ('JOB-0001', 'C', 'Bass', 'u1')").run();
+    const install = sqlite.prepare("insert into job_parts (job_id, part_id, position, installed_by) values (1, ?, ?, 'u1')");
+    install.run(1, 'volume');
+    install.run(2, 'tone cap');
+    install.run(3, 'spare');
+    sqlite
+      .prepare(
+        "insert into outbox (\"to\", subject, text, topic, raw, transport) values ('c@example.org', 'Report', 'x', 'customer-report', 'raw', 'outbox')",
+      )
+      .run();
+    const before = rowCounts(sqlite);
+    const jobPartsBefore = sqlite.prepare('select * from job_parts order by part_id').all();
+
+    applyMigrations(sqlite, drizzle(sqlite, { schema }));
+
+    const after = rowCounts(sqlite);
+    expect(Object.fromEntries(Object.keys(before).map((k) => [k, after[k]]))).toEqual(before);
+    expect(after.outbox_attachments).toBe(0);
+    const rows = sqlite.prepare('select * from job_parts order by part_id').all() as Record<string, unknown>[];
+    expect(rows.map(({ slot: _, ...r }) => r)).toEqual(jobPartsBefore);
+    expect(rows.map((r) => r.slot)).toEqual([null, null, null]);
+    // One part per slot of a job; any number without a slot.
+    sqlite.prepare("update job_parts set slot = 'toneC' where part_id = 2").run();
+    expect(() => sqlite.prepare("update job_parts set slot = 'toneC' where part_id = 3").run()).toThrow(/UNIQUE/);
+    // Deleting a message takes its attachments along.
+    sqlite
+      .prepare(
+        "insert into outbox_attachments (message_id, filename, content_type, size, content) values (1, 'a.csv', 'text/csv', 1, x'41')",
+      )
+      .run();
+    sqlite.prepare('delete from outbox where id = 1').run();
+    expect(rowCounts(sqlite).outbox_attachments).toBe(0);
+    sqlite.close();
+  });
+});

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
-import { queryKeys } from '@/data/query-keys';
+import { queryKeys, type JobReportOptions } from '@/data/query-keys';
 import type { JobDetail, JobReport } from './types';
 
 export const getJob = (id: number, signal?: AbortSignal) => api.get<JobDetail>(`/api/jobs/${id}`, { signal });
@@ -10,10 +10,17 @@ export const jobQueryOptions = (id: number) =>
 
 export const useJob = (id: number) => useQuery(jobQueryOptions(id));
 
-export const getJobReport = (id: number, signal?: AbortSignal) => api.get<JobReport>(`/api/jobs/${id}/report`, { signal });
+/** What the e-mail will carry besides the job: the address typed (else the customer's) and the shop's note. */
+export type { JobReportOptions };
 
-// Under the job's key: installing or removing a part refreshes the preview too.
-export const jobReportQueryOptions = (id: number) =>
-  queryOptions({ queryKey: queryKeys.jobs.report(id), queryFn: ({ signal }) => getJobReport(id, signal) });
+export const getJobReport = (id: number, opts: JobReportOptions = {}, signal?: AbortSignal) =>
+  api.get<JobReport>(`/api/jobs/${id}/report`, { params: opts, signal });
 
-export const useJobReport = (id: number) => useQuery(jobReportQueryOptions(id));
+export const jobReportQueryOptions = (id: number, opts: JobReportOptions = {}) =>
+  queryOptions({
+    queryKey: queryKeys.jobs.report(id, opts),
+    queryFn: ({ signal }) => getJobReport(id, opts, signal),
+    placeholderData: (previous) => previous,
+  });
+
+export const useJobReport = (id: number, opts: JobReportOptions = {}) => useQuery(jobReportQueryOptions(id, opts));

@@ -11,6 +11,12 @@ export const getPartByLabel = (label: string) => api.get<Part>(`/api/parts/by-la
 export const installPart = ({ id, input }: { id: number; input: InstallPartInput }) => api.post<JobDetail>(`/api/jobs/${id}/parts`, input);
 export const removePart = ({ id, partId }: { id: number; partId: number }) => api.delete<JobDetail>(`/api/jobs/${id}/parts/${partId}`);
 
+/** Puts an installed part in a slot of the job's design, or takes it out (slot null). */
+export const assignSlot = ({ id, partId, slot }: { id: number; partId: number; slot: string | null }) =>
+  api.put<JobDetail>(`/api/jobs/${id}/parts/${partId}/slot`, { slot });
+
+export const useAssignSlot = () => useMutation({ mutationFn: assignSlot, meta: { invalidates: [queryKeys.jobs.all()] } });
+
 // Installing and removing change the part's status too: the parts lists go stale.
 export const useInstallPart = () =>
   useMutation({ mutationFn: installPart, meta: { invalidates: [queryKeys.jobs.all(), queryKeys.parts.all()] } });

@@ -1,2 +1,2 @@
 // The job routes' answers are declared once in shared/schemas/jobs.ts (the server's handlers return them).
-export type { InstalledPart, Job, JobDetail, JobListRow, JobReport, JobStatus } from '@shared/schemas/jobs';
+export type { InstalledPart, Job, JobDetail, JobListRow, JobReport, JobSlot, JobStatus } from '@shared/schemas/jobs';

@@ -14,6 +14,7 @@ import { useUpdateJob } from '../api/save-job';
 import type { JobDetail } from '../api/types';
 import { InstallPartForm } from './job-install';
 import { JobReportPanel } from './job-report';
+import { JobSlots } from './job-slots';
 import { JOB_STATUS_LOOK, JobStatusBadge } from './job-status-badge';
 
 const KIND_WORD: Record<string, string> = { pot: 'Pot', capacitor: 'Capacitor', resistor: 'Resistor', pickup: 'Pickup', other: 'Other' };
@@ -91,6 +92,9 @@ function InstalledParts({ job, canWrite }: { job: JobDetail; canWrite: boolean }
               Status
             </th>
             <th scope="col" className={th}>
+              Slot
+            </th>
+            <th scope="col" className={th}>
               Installed
             </th>
             {canWrite && (
@@ -123,6 +127,13 @@ function InstalledParts({ job, canWrite }: { job: JobDetail; canWrite: boolean }
               <td data-label="Status" className="px-3 py-2">
                 <StatusBadge status={p.status} />
                 {p.overrideReason && <p className="mt-1 text-xs text-marginal">Installed over its status: {p.overrideReason}</p>}
+              </td>
+              <td data-label="Slot" className="px-3 py-2">
+                {p.slot ? (
+                  (job.slots.find((s) => s.key === p.slot)?.name ?? <span className="num">{p.slot}</span>)
+                ) : (
+                  <span className="text-ink-soft">none</span>
+                )}
               </td>
               <td data-label="Installed" className="px-3 py-2 whitespace-nowrap">
                 {formatDateTime(p.installedAt)}
@@ -222,6 +233,9 @@ export function JobScreen({ id }: { id: number }) {
               <InstallPartForm jobId={j.id} />
             </div>
           )}
+        </Panel>
+        <Panel title="Parts in the wiring design" id="job-slots">
+          <JobSlots job={j} canWrite={canWrite} />
         </Panel>
         <Panel title="Customer report" id="job-report">
           <JobReportPanel job={j} canWrite={canWrite} />

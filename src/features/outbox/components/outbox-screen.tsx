@@ -5,14 +5,50 @@ import { Button } from '@/components/ui/button';
 import { LinkifiedText } from '@/components/ui/linkified-text';
 import { PageHeader } from '@/components/ui/page-header';
 import { formatDateTime } from '@/lib/format';
-import { useOutbox, type OutboxMessage } from '../api/get-outbox';
+import { outboxAttachmentHref, useOutbox, type OutboxMessage } from '../api/get-outbox';
 
 const TOPIC_LABEL: Record<string, string> = {
   invitation: 'Invitation',
   'password-reset': 'Password reset',
   'lot-disposition': 'Lot disposition',
   'customer-report': 'Customer report',
+  'lot-reopen': 'Lot reopened',
 };
+
+const formatSize = (bytes: number) =>
+  bytes < 1024 ? `${bytes} B` : bytes < 1024 * 1024 ? `${(bytes / 1024).toFixed(1)} KiB` : `${(bytes / 1024 / 1024).toFixed(1)} MiB`;
+
+function Attachments({ m }: { m: OutboxMessage }) {
+  if (m.attachments.length === 0)
+    return (
+      <p className="text-sm text-ink-soft">
+        {m.attachmentsInSourceOnly
+          ? 'Written before attachments were listed here: its attachments are kept only in the stored message source.'
+          : 'None.'}
+      </p>
+    );
+  return (
+    <ul aria-label="Attachments" className="divide-y divide-paper-edge/70 rounded-md border border-paper-edge">
+      {m.attachments.map((a) => (
+        <li key={a.id} className="flex flex-wrap items-center justify-between gap-2 px-3 py-2 text-sm">
+          <span className="min-w-0">
+            <span className="num block break-all font-medium">{a.filename}</span>
+            <span className="text-xs text-ink-soft">
+              {a.contentType} · {formatSize(a.size)}
+            </span>
+          </span>
+          <a
+            href={outboxAttachmentHref(m.id, a.id)}
+            download={a.filename}
+            className="shrink-0 rounded-md border border-paper-edge px-2 py-1 text-accent underline-offset-2 hover:underline"
+          >
+            Download<span className="sr-only"> {a.filename}</span>
+          </a>
+        </li>
+      ))}
+    </ul>
+  );
+}
 
 function Delivery({ m }: { m: OutboxMessage }) {
   if (m.error) return <Badge tone="fail" icon="cross" label="Not sent" title={m.error} />;
@@ -46,6 +82,8 @@ function MessageView({ m, onClose }: { m: OutboxMessage; onClose: () => void }) 
       </dl>
       {m.error && <Alert title="Sending failed">{m.error}</Alert>}
       <LinkifiedText text={m.text} className="mt-3 rounded-md bg-paper p-3 text-sm leading-relaxed" />
+      <h3 className="mt-4 mb-2 text-sm font-semibold">Attachments ({m.attachments.length})</h3>
+      <Attachments m={m} />
     </article>
   );
 }
@@ -105,7 +143,10 @@ export function OutboxScreen() {
                     <Delivery m={m} />
                   </span>
                   <span className="mt-0.5 flex justify-between gap-2 text-xs text-ink-soft">
-                    <span className="truncate">{m.to}</span>
+                    <span className="truncate">
+                      {m.to}
+                      {m.attachments.length > 0 && ` · ${m.attachments.length} attachment${m.attachments.length === 1 ? '' : 's'}`}
+                    </span>
                     <span className="shrink-0">{formatDateTime(m.createdAt)}</span>
                   </span>
                 </button>
