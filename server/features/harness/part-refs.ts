@@ -8,7 +8,7 @@ import { readings } from '@server/db/schema';
 import { findPart } from '@server/features/parts/repository';
 import { unprocessable } from '@server/http/errors';
 import type { LayoutDef } from '@shared/circuit/layouts';
-import { slotPartKind } from '@shared/circuit/part-slots';
+import { slotPartKind } from '@shared/circuit/slots';
 
 const READING_OF = { capacitor: 'capacitance', resistor: 'resistance' } as const;
 

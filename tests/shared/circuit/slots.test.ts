@@ -3,7 +3,7 @@
 // the load: cable, amplifier, pedal) is some slot's.
 import { describe, expect, test } from 'vitest';
 import { buildLayoutNetlist, LAYOUTS, resolveLayoutConfig } from '@shared/circuit/layouts';
-import { designSlots, slotRefusal } from '@shared/circuit/slots';
+import { designSlots, slotPartKind, slotRefusal } from '@shared/circuit/slots';
 
 const LOAD_PARTS = new Set(['cable', 'amp', 'amp-c', 'buffer', 'pedal']);
 
@@ -16,6 +16,16 @@ function optionSets(layoutId: string) {
 }
 
 describe('design slots', () => {
+  test('a slot takes the kind of part the value keys it sets take (the editor and the job agree)', () => {
+    for (const layout of LAYOUTS) {
+      for (const options of optionSets(layout.id)) {
+        for (const slot of designSlots(layout, options)) {
+          for (const key of Object.values(slot.values)) expect([key, slotPartKind(key!)]).toEqual([key, slot.accepts]);
+        }
+      }
+    }
+  });
+
   for (const layout of LAYOUTS) {
     test(`${layout.id}: each slot value feeds the netlist, and each installed part of the netlist has a slot`, () => {
       for (const options of optionSets(layout.id)) {

@@ -7,7 +7,7 @@ import { memo, useState, type Dispatch, type ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import type { LayoutDef, LayoutValueDef } from '@shared/circuit/layouts';
 import { loadValueKeys, isLoadId, LOADS } from '@shared/circuit/loads';
-import { slotPartKind } from '@shared/circuit/part-slots';
+import { slotPartKind } from '@shared/circuit/slots';
 import { PICKUP_PRESETS } from '@shared/circuit/presets';
 import { TAPER_LAW_LABEL, TAPER_LAWS, taperLaw, type TaperLaw, type TaperLawKind } from '@shared/taper/law';
 import { SelectField, TextField } from '@/components/ui/field';
