@@ -15,6 +15,8 @@ export interface JobDetail extends JobRow {
     installedAt: number;
   }[];
   harnessName: string | null;
+  /** The saved design of the wiring before the work, when there is one (null when it was deleted). */
+  beforeHarnessName: string | null;
 }
 
 export function listJobs(db: DbLike) {
@@ -48,7 +50,10 @@ export function jobDetail(db: DbLike, id: number): JobDetail | undefined {
   const harnessName = job.harnessId
     ? (db.select({ name: harnesses.name }).from(harnesses).where(eq(harnesses.id, job.harnessId)).get()?.name ?? null)
     : null;
-  return { ...job, parts: installed, harnessName };
+  const beforeHarnessName = job.beforeHarnessId
+    ? (db.select({ name: harnesses.name }).from(harnesses).where(eq(harnesses.id, job.beforeHarnessId)).get()?.name ?? null)
+    : null;
+  return { ...job, parts: installed, harnessName, beforeHarnessName };
 }
 
 /** The jobs a part went into (the other direction of the trace). */

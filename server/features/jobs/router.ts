@@ -11,6 +11,7 @@ import { IdParamsSchema } from '@shared/schemas/common';
 import { CreateJobInputSchema, InstallPartInputSchema, JobReportInputSchema, UpdateJobInputSchema } from '@shared/schemas/jobs';
 import { jobDetail, jobsOfPart, listJobs } from './repository';
 import { reportText } from './report';
+import { reportClips } from './clips';
 
 export function jobRoutes(ctx: AppContext) {
   const { db } = ctx;
@@ -154,7 +155,13 @@ export function jobRoutes(ctx: AppContext) {
 
   api.get('/:id/report', {
     schemas: { params: IdParamsSchema },
-    handle: ({ params }) => reportText(db, mustFind(params.id)),
+    handle: ({ params }) => {
+      const job = mustFind(params.id);
+      const report = reportText(db, job);
+      // Listen hook (clips.ts): the before/after clips' paragraph, as the e-mail will carry it
+      const clips = reportClips(db, ctx.config.uploadsDir, job);
+      return clips.text ? { ...report, text: `${report.text}\n\n${clips.text}` } : report;
+    },
   });
 
   api.post('/:id/report', {
@@ -171,14 +178,19 @@ export function jobRoutes(ctx: AppContext) {
         });
       }
       const report = reportText(db, job, body.message);
+      // Listen hook (clips.ts): the before/after clips' paragraph and their two WAV files
+      const clips = reportClips(db, ctx.config.uploadsDir, job);
+      const clipFiles = clips.attachments();
+      const attachments = [
+        ...(report.csv ? [{ filename: `${job.code}-predicted-curves.csv`, content: report.csv, contentType: 'text/csv' }] : []),
+        ...clipFiles,
+      ];
       await ctx.mailer.send({
         to,
         topic: 'customer-report',
         subject: `Your ${job.instrument}: work record ${job.code}`,
-        text: report.text,
-        attachments: report.csv
-          ? [{ filename: `${job.code}-predicted-curves.csv`, content: report.csv, contentType: 'text/csv' }]
-          : undefined,
+        text: clips.text ? `${report.text}\n\n${clips.text}` : report.text,
+        attachments: attachments.length ? attachments : undefined,
       });
       audit(db, { userId: user.id, action: 'job.report-sent', entity: 'job', entityId: job.id, detail: { to } });
       return { ok: true, to };
