@@ -13,20 +13,12 @@ import { and, desc, eq } from 'drizzle-orm';
 import type { DbLike } from '@server/db/client';
 import { attachments, harnesses } from '@server/db/schema';
 import { contentPath } from '@server/uploads/store';
-import { instrumentResponses, type InstrumentResponses } from '@shared/audio/impulse';
+import { carryKnobs } from '@shared/audio/carry-knobs';
+import { harnessResponse, instrumentResponses, type InstrumentResponses } from '@shared/audio/impulse';
 import { pickupPositionOf, synthesizePhrase } from '@shared/audio/phrase';
 import { MAX_CHAIN_BOOST_DB, renderChannels, renderPickupTracks } from '@shared/audio/render';
 import { readWav, readWavHeader, WavError, writeWav } from '@shared/audio/wav';
-import {
-  buildLayoutNetlist,
-  getLayout,
-  layoutKnobs,
-  resolveLayoutConfig,
-  toneKnobs,
-  volumeKnobs,
-  type LayoutDef,
-} from '@shared/circuit/layouts';
-import { harnessResponse } from '@shared/audio/impulse';
+import { buildLayoutNetlist, getLayout, layoutKnobs, resolveLayoutConfig, type LayoutDef } from '@shared/circuit/layouts';
 import { CLIP_MAX_SECONDS, type BeforeDesign, type RecordingChain } from '@shared/schemas/job-clips';
 import { RECORDING_CHAIN_DEFAULTS } from '@shared/schemas/listen';
 import { formatValue } from '@shared/units/format';
@@ -66,17 +58,6 @@ function wiringOf(label: string, d: DesignShape): Wiring | string {
   const { config, problems } = resolveLayoutConfig(layout, { selector: d.selector, options: d.options, values: d.values });
   if (problems.length > 0) return `${label}: ${problems[0]!.message}`;
   return { label, layout, config };
-}
-
-/** The after design's knob settings carried over to another layout: same knob id, else the same role (volume, tone), else 10. */
-export function carryKnobs(from: LayoutDef, knobs: Record<string, number>, to: LayoutDef): Record<string, number> {
-  const volume = knobs[volumeKnobs(from)[0] ?? ''] ?? 10;
-  const tone = knobs[toneKnobs(from)[0] ?? ''] ?? 10;
-  const vol = new Set(volumeKnobs(to));
-  const ton = new Set(toneKnobs(to));
-  const out: Record<string, number> = {};
-  for (const k of to.knobs) out[k.id] = knobs[k.id] ?? (vol.has(k.id) ? volume : ton.has(k.id) ? tone : 10);
-  return out;
 }
 
 const knobWords = (layout: LayoutDef, knobs: Record<string, number>) =>

@@ -14,6 +14,7 @@ import { useUpdateJob } from '../api/save-job';
 import type { JobDetail } from '../api/types';
 import { InstallPartForm } from './job-install';
 import { JobReportPanel } from './job-report';
+import { JobListen } from './job-listen';
 import { JOB_STATUS_LOOK, JobStatusBadge } from './job-status-badge';
 
 const KIND_WORD: Record<string, string> = { pot: 'Pot', capacitor: 'Capacitor', resistor: 'Resistor', pickup: 'Pickup', other: 'Other' };
@@ -222,6 +223,9 @@ export function JobScreen({ id }: { id: number }) {
               <InstallPartForm jobId={j.id} />
             </div>
           )}
+        </Panel>
+        <Panel title="Before and after: listen" id="job-before-after">
+          <JobListen job={j} canWrite={canWrite} />
         </Panel>
         <Panel title="Customer report" id="job-report">
           <JobReportPanel job={j} canWrite={canWrite} />
