@@ -140,6 +140,12 @@ describe('report clips', () => {
     const saved = await tech.put(`/api/jobs/${job.id}/before`).send({ harnessId: before.id, design: null }).expect(200);
     expect(saved.body).toMatchObject({ beforeHarnessId: before.id, beforeDesign: null, beforeHarnessName: before.name });
     expect((await (await t.as('viewer')).put(`/api/jobs/${job.id}/before`).send({ harnessId: null })).status).toBe(403);
+    // the saved design named as the before wiring can still be deleted; the report then says why there are no clips
+    await tech.delete(`/api/harnesses/${before.id}`).expect(200);
+    expect((await tech.get(`/api/jobs/${job.id}`).expect(200)).body).toMatchObject({ beforeHarnessId: before.id, beforeHarnessName: null });
+    const preview = (await tech.get(`/api/jobs/${job.id}/report`).expect(200)).body.text as string;
+    expect(preview).toMatch(/Sound clips: none attached \(the saved design of the wiring before the work is no longer saved\)\./);
+    expect((await sentClips(tech, job.id)).wavs).toHaveLength(0);
   });
 
   test('without a recording: two 16-bit mono WAV clips of the built-in phrase, named in the preview and the e-mail', async () => {
