@@ -160,6 +160,17 @@ export function JobListen({ job, canWrite }: { job: JobDetail; canWrite: boolean
         <Alert>The saved design of the wiring before the work has been deleted; choose another.</Alert>
       )}
       <Recordings job={job} />
+      {after && (
+        <p className="text-sm text-ink-soft">
+          The report&apos;s clips use the design&apos;s saved knobs
+          {after.knobs && Object.keys(after.knobs).length > 0
+            ? ` (${Object.entries(after.knobs)
+                .map(([k, v]) => `${k} ${v}`)
+                .join(', ')})`
+            : ' (all at 10)'}
+          ; the sliders below are for listening here only.
+        </p>
+      )}
       {after ? (
         <DesignListen
           key={`${after.id}|${before?.label ?? ''}`}
