@@ -8,7 +8,15 @@ import { installCheck } from '@server/features/parts/evidence';
 import { conflict, HttpError, notFound, unprocessable } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
 import { IdParamsSchema } from '@shared/schemas/common';
-import { CreateJobInputSchema, InstallPartInputSchema, JobReportInputSchema, UpdateJobInputSchema } from '@shared/schemas/jobs';
+import {
+  CreateJobInputSchema,
+  InstallPartInputSchema,
+  JobReportInputSchema,
+  UpdateJobInputSchema,
+  type JobDetail,
+  type JobListRow,
+  type JobReport,
+} from '@shared/schemas/jobs';
 import { jobDetail, jobsOfPart, listJobs } from './repository';
 import { reportText } from './report';
 import { reportClips } from './clips';
@@ -16,7 +24,7 @@ import { reportClips } from './clips';
 export function jobRoutes(ctx: AppContext) {
   const { db } = ctx;
   const api = new ApiRouter('/api/jobs');
-  const mustFind = (id: number) => {
+  const mustFind = (id: number): JobDetail => {
     const job = jobDetail(db, id);
     if (!job) throw notFound('That job');
     return job;
@@ -26,7 +34,7 @@ export function jobRoutes(ctx: AppContext) {
       throw unprocessable('That harness design does not exist.', { harnessId: 'Unknown design.' });
   };
 
-  api.get('/', { handle: () => ({ jobs: listJobs(db) }) });
+  api.get('/', { handle: (): { jobs: JobListRow[] } => ({ jobs: listJobs(db) }) });
   api.get('/:id', { schemas: { params: IdParamsSchema }, handle: ({ params }) => mustFind(params.id) });
 
   api.post('/', {
@@ -155,7 +163,7 @@ export function jobRoutes(ctx: AppContext) {
 
   api.get('/:id/report', {
     schemas: { params: IdParamsSchema },
-    handle: ({ params }) => {
+    handle: ({ params }): JobReport => {
       const job = mustFind(params.id);
       const report = reportText(db, job);
       // Listen hook (clips.ts): the before/after clips' paragraph, as the e-mail will carry it

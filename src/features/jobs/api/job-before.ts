@@ -1,11 +1,12 @@
 // The wiring before the work and the job's recordings (the report's before/after clips, Listen on the job's page).
 import { queryOptions, useMutation, useQuery } from '@tanstack/react-query';
 import type { JobBeforeInput } from '@shared/schemas/job-clips';
+import { queryKeys } from '@/data/query-keys';
 import { api } from '@/lib/api-client';
 import type { JobDetail } from './types';
 
 export const setJobBefore = ({ id, input }: { id: number; input: JobBeforeInput }) => api.put<JobDetail>(`/api/jobs/${id}/before`, input);
-export const useSetJobBefore = () => useMutation({ mutationFn: setJobBefore, meta: { invalidates: [['jobs']] } });
+export const useSetJobBefore = () => useMutation({ mutationFn: setJobBefore, meta: { invalidates: [queryKeys.jobs.all()] } });
 
 export interface JobAttachment {
   id: number;
@@ -17,7 +18,7 @@ export interface JobAttachment {
 
 export const jobAttachmentsQueryOptions = (id: number) =>
   queryOptions({
-    queryKey: ['jobs', 'detail', id, 'attachments'],
+    queryKey: queryKeys.jobs.attachments(id),
     queryFn: ({ signal }) => api.get<{ attachments: JobAttachment[] }>(`/api/jobs/${id}/attachments`, { signal }),
   });
 export const useJobAttachments = (id: number) => useQuery(jobAttachmentsQueryOptions(id));
@@ -28,4 +29,4 @@ export function uploadJobRecording({ id, file }: { id: number; file: File }) {
   form.set('file', file);
   return api.post<JobAttachment>(`/api/jobs/${id}/attachments`, form);
 }
-export const useUploadJobRecording = () => useMutation({ mutationFn: uploadJobRecording, meta: { invalidates: [['jobs']] } });
+export const useUploadJobRecording = () => useMutation({ mutationFn: uploadJobRecording, meta: { invalidates: [queryKeys.jobs.all()] } });

@@ -7,7 +7,7 @@ import { DesignListen, type ListenableDesign } from '@/components/listen/design-
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { formatDateTime } from '@/lib/format';
-import { useHarnesses } from '../api/get-harnesses';
+import { useHarnesses } from '@/data/harnesses';
 import { useJobAttachments, useSetJobBefore, useUploadJobRecording } from '../api/job-before';
 import type { JobDetail } from '../api/types';
 
