@@ -14,6 +14,7 @@ import { compareRoutes } from '@server/features/compare/router';
 import { healthRoutes } from '@server/features/health/router';
 import { instrumentRoutes } from '@server/features/instruments/router';
 import { jobRoutes } from '@server/features/jobs/router';
+import { jobBeforeRoutes } from '@server/features/jobs/before';
 import { lotRoutes } from '@server/features/lots/router';
 import { outboxRoutes } from '@server/features/outbox/router';
 import { partRoutes } from '@server/features/parts/router';
@@ -41,6 +42,7 @@ function featureRouters(ctx: AppContext): ApiRouter[] {
     ...harnessRoutes(ctx),
     renderRoutes(ctx),
     jobRoutes(ctx),
+    jobBeforeRoutes(ctx),
     ...attachmentRoutes(ctx),
     ...compareRoutes(ctx),
   ];

@@ -82,6 +82,7 @@ export const ROUTE_PERMISSIONS: Record<string, RoutePermission> = {
   'POST /api/jobs': 'write',
   'GET /api/jobs/:id': 'read',
   'PATCH /api/jobs/:id': 'write',
+  'PUT /api/jobs/:id/before': 'write',
   'POST /api/jobs/:id/parts': 'write',
   'DELETE /api/jobs/:id/parts/:partId': 'write',
   'PUT /api/jobs/:id/parts/:partId/slot': 'write',

@@ -8,6 +8,7 @@ import { INSTRUMENT_KINDS } from '../../shared/schemas/bench';
 import { PART_KINDS, PART_STATUSES, ROLES, VERDICTS, type PartStatus } from '../../shared/schemas/common';
 import type { HarnessDesign } from '../../shared/schemas/harness';
 import { JOB_STATUSES } from '../../shared/schemas/jobs';
+import type { BeforeDesign, RecordingChain } from '../../shared/schemas/job-clips';
 import { LOT_STATUSES, type SecondQuantity } from '../../shared/schemas/lots';
 import { FIT_KINDS, SWEEP_KINDS, type Fit } from '../../shared/schemas/sweeps';
 import { TAPER_LAWS } from '../../shared/taper/law';
@@ -242,7 +243,8 @@ export const attachments = sqliteTable('attachments', {
   id: integer('id').primaryKey({ autoIncrement: true }),
   ownerType: text('owner_type', { enum: ['part', 'lot', 'job'] }).notNull(),
   ownerId: integer('owner_id').notNull(),
-  purpose: text('purpose', { enum: ['sweep', 'lot-readings', 'photo', 'certificate'] }).notNull(),
+  /** `recording`: a job's direct-input WAV recording of the customer's instrument (the source of the report's clips). */
+  purpose: text('purpose', { enum: ['sweep', 'lot-readings', 'photo', 'certificate', 'recording'] }).notNull(),
   originalName: text('original_name').notNull(),
   /** sha256 of the content; the file on disk is named after it, never after the user's name. */
   contentHash: text('content_hash').notNull(),
@@ -332,6 +334,16 @@ export const jobs = sqliteTable('jobs', {
   instrument: text('instrument').notNull(),
   status: text('status', { enum: JOB_STATUSES }).notNull().default('open'),
   harnessId: integer('harness_id').references(() => harnesses.id, { onDelete: 'set null' }),
+  /**
+   * The wiring the instrument had before the work: a saved design, or (`before_design`) a design body
+   * kept with the job. No foreign key: drizzle-kit adds a column's reference without its ON DELETE
+   * rule, so deleting the design would be refused; ids are never reused (AUTOINCREMENT), and a
+   * deleted design reads as "no longer saved" (server/features/jobs/clips.ts).
+   */
+  beforeHarnessId: integer('before_harness_id'),
+  beforeDesign: text('before_design', { mode: 'json' }).$type<BeforeDesign>(),
+  /** How the job's recording was made (recorder input Ω, cable m); null: the defaults, 1 MΩ and 3 m. */
+  recordingChain: text('recording_chain', { mode: 'json' }).$type<RecordingChain>(),
   notes: text('notes'),
   createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
   createdAt: createdAt(),

@@ -8,7 +8,7 @@ import multer from 'multer';
 import { HttpError } from '@server/http/errors';
 import { guardedUpload } from './multipart';
 
-export type UploadKind = 'table' | 'document';
+export type UploadKind = 'table' | 'document' | 'recording';
 
 interface FileType {
   extensions: string[];
@@ -27,9 +27,14 @@ const TYPES: Record<string, FileType> = {
     matches: (h) => h.subarray(0, 8).equals(Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a])),
   },
   pdf: { extensions: ['.pdf'], mime: 'application/pdf', matches: (h) => h.subarray(0, 5).toString('latin1') === '%PDF-' },
+  wav: {
+    extensions: ['.wav'],
+    mime: 'audio/wav',
+    matches: (h) => h.subarray(0, 4).toString('latin1') === 'RIFF' && h.subarray(8, 12).toString('latin1') === 'WAVE',
+  },
 };
 
-const ALLOWED: Record<UploadKind, string[]> = { table: ['csv', 'tsv'], document: ['jpeg', 'png', 'pdf'] };
+const ALLOWED: Record<UploadKind, string[]> = { table: ['csv', 'tsv'], document: ['jpeg', 'png', 'pdf'], recording: ['wav'] };
 
 /** multer for one file in field `file`, kept in memory until it has been checked and parsed. */
 export function singleFileUpload(maxBytes: number) {

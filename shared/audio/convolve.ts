@@ -14,6 +14,8 @@ export interface PreparedFilter {
   block: number;
   re: Float64Array;
   im: Float64Array;
+  /** The same spectrum interleaved (bin k at [2k], [2k + 1]), as the block loop reads it. */
+  spec: Float64Array;
 }
 
 /**
@@ -28,16 +30,39 @@ export function prepareFilter(ir: ImpulseResponse): PreparedFilter {
   const re = new Float64Array(fftSize / 2 + 1);
   const im = new Float64Array(fftSize / 2 + 1);
   fft.forward(ir.samples, re, im);
-  return { ir, fftSize, block, re, im };
+  const spec = new Float64Array(2 * fftSize);
+  for (let k = 0; k <= fftSize / 2; k++) {
+    spec[2 * k] = re[k]!;
+    spec[2 * k + 1] = im[k]!;
+  }
+  return { ir, fftSize, block, re, im, spec };
+}
+
+/** X[k] ← X[k]·H[k] for bins 0..N/2, both interleaved. */
+function multiplySpectrum(x: Float64Array, h: Float64Array, half: number): void {
+  for (let k = 0; k <= half; k++) {
+    const r = 2 * k;
+    const xr = x[r]!;
+    const xi = x[r + 1]!;
+    const hr = h[r]!;
+    const hi = h[r + 1]!;
+    x[r] = xr * hr - xi * hi;
+    x[r + 1] = xr * hi + xi * hr;
+  }
 }
 
 /**
  * out[i] += gain(i)·y[from + i + shift] for i in [0, to − from), where y = input ∗ ir and shift
  * is the filter's modelling delay (so the output is time-aligned with the input). Input outside
  * [0, input.length) counts as silence. `gain` defaults to 1.
+ *
+ * Work per pair of blocks: two real forward FFTs (fft.js's real transform) straight into
+ * interleaved spectra, the products with H in place, and one complex inverse FFT that returns both
+ * blocks (IDFT(X + jY) = x + jy), added to the output from the transform's own buffer; the FFT
+ * plans and buffers are made once per size and kept.
  */
 export function convolveInto(
-  input: ArrayLike<number>,
+  input: Float32Array | Float64Array,
   filter: PreparedFilter,
   out: Float32Array | Float64Array,
   from: number,
@@ -45,64 +70,58 @@ export function convolveInto(
   gain?: (i: number) => number,
 ): void {
   if (to <= from) return;
-  const { block, fftSize, re: hRe, im: hIm } = filter;
+  const { block, fftSize, spec: h } = filter;
   const shift = filter.ir.delay;
   const irLen = filter.ir.samples.length;
   const fft = realFft(fftSize);
-  const bins = fftSize / 2 + 1;
+  const half = fftSize / 2;
   // y[t] for t in [from + shift, to + shift) needs input from t − irLen + 1 to t
   const yStart = from + shift;
   const yEnd = to + shift;
   const firstInput = Math.max(0, yStart - irLen + 1);
   const lastInput = Math.min(input.length, yEnd); // exclusive
   if (lastInput <= firstInput) return;
-  const buf = new Float64Array(block);
-  const aRe = new Float64Array(bins);
-  const aIm = new Float64Array(bins);
-  const bRe = new Float64Array(bins);
-  const bIm = new Float64Array(bins);
-  const ya = new Float64Array(fftSize);
-  const yb = new Float64Array(fftSize);
-  const blockSpectrum = (start: number, re: Float64Array, im: Float64Array): boolean => {
-    const end = Math.min(start + block, lastInput);
-    if (end <= start) return false;
-    for (let i = start; i < end; i++) buf[i - start] = input[i]!;
-    buf.fill(0, end - start);
-    fft.forward(buf, re, im);
-    for (let k = 0; k < bins; k++) {
-      const xr = re[k]!;
-      const xi = im[k]!;
-      re[k] = xr * hRe[k]! - xi * hIm[k]!;
-      im[k] = xr * hIm[k]! + xi * hRe[k]!;
-    }
-    return true;
-  };
-  const add = (y: Float64Array, start: number) => {
-    // y[j] is the full output at time start + j; keep what falls in [yStart, yEnd)
+  const { a, b } = scratch(fftSize);
+  const add = (y: Float64Array, parity: 0 | 1, start: number) => {
+    // y[2j + parity] is the full output at time start + j; keep what falls in [yStart, yEnd)
     const j0 = Math.max(0, yStart - start);
     const j1 = Math.min(fftSize, yEnd - start);
-    for (let j = j0; j < j1; j++) {
-      const i = start + j - yStart;
-      out[i] = out[i]! + (gain ? gain(i) : 1) * y[j]!;
+    const base = start - yStart;
+    if (gain) {
+      for (let j = j0; j < j1; j++) out[base + j] = out[base + j]! + gain(base + j) * y[2 * j + parity]!;
+    } else {
+      for (let j = j0; j < j1; j++) out[base + j] = out[base + j]! + y[2 * j + parity]!;
     }
   };
   // blocks two at a time: one complex inverse FFT returns both
   for (let start = firstInput; start < lastInput; start += 2 * block) {
     const second = start + block;
-    blockSpectrum(start, aRe, aIm);
-    if (blockSpectrum(second, bRe, bIm)) {
-      fft.inverse2(aRe, aIm, bRe, bIm, ya, yb);
-      add(ya, start);
-      add(yb, second);
-    } else {
-      fft.inverse(aRe, aIm, ya);
-      add(ya, start);
+    fft.forwardInto(input, start, Math.min(second, lastInput), a);
+    multiplySpectrum(a, h, half);
+    const hasSecond = second < lastInput;
+    if (hasSecond) {
+      fft.forwardInto(input, second, Math.min(second + block, lastInput), b);
+      multiplySpectrum(b, h, half);
     }
+    const y = fft.inversePair(a, hasSecond ? b : null);
+    add(y, 0, start);
+    if (hasSecond) add(y, 1, second);
   }
 }
 
+const scratches = new Map<number, { a: Float64Array; b: Float64Array }>();
+/** Two interleaved spectra per FFT size, kept between calls (the block loop is not re-entrant, and JavaScript runs it to the end). */
+function scratch(size: number) {
+  let s = scratches.get(size);
+  if (!s) {
+    s = { a: new Float64Array(2 * size), b: new Float64Array(2 * size) };
+    scratches.set(size, s);
+  }
+  return s;
+}
+
 /** The input through one filter, time-aligned (the modelling delay taken off), as long as the input. */
-export function convolve(input: ArrayLike<number>, ir: ImpulseResponse | PreparedFilter): Float32Array {
+export function convolve(input: Float32Array | Float64Array, ir: ImpulseResponse | PreparedFilter): Float32Array {
   const filter = 'fftSize' in ir ? ir : prepareFilter(ir);
   const out = new Float32Array(input.length);
   convolveInto(input, filter, out, 0, input.length);
@@ -128,7 +147,7 @@ export const CROSSFADE_SECONDS = 0.025;
  * Every track must be as long as the first; the output is as long too.
  */
 export function renderSegments(
-  tracks: readonly ArrayLike<number>[],
+  tracks: readonly (Float32Array | Float64Array)[],
   segments: readonly FilterSegment[],
   sampleRate: number,
   fadeSamples = Math.round(CROSSFADE_SECONDS * sampleRate),

@@ -22,6 +22,7 @@ export class RealFft {
   private readonly fft: FFT;
   private readonly complex: Float64Array;
   private readonly out: Float64Array;
+  private readonly real: Float64Array;
 
   constructor(size: number) {
     if (!isPowerOfTwo(size) || size < 4) throw new Error(`FFT size must be a power of two of at least 4, not ${size}`);
@@ -30,6 +31,62 @@ export class RealFft {
     this.fft = new FFT(size);
     this.complex = new Float64Array(2 * size);
     this.out = new Float64Array(2 * size);
+    this.real = new Float64Array(size);
+  }
+
+  /**
+   * The spectrum of input[start, end) (zero-padded to N; input past its end counts as 0) written
+   * interleaved into `spec` (length 2N): bin k at spec[2k] (re) and spec[2k + 1] (im), k = 0..N/2.
+   * No copy into separate arrays: the block convolution works on this layout directly.
+   */
+  forwardInto(input: Float32Array | Float64Array, start: number, end: number, spec: Float64Array): void {
+    const real = this.real;
+    const len = Math.max(0, Math.min(end, input.length, start + this.size) - start);
+    for (let i = 0; i < len; i++) real[i] = input[start + i]!;
+    real.fill(0, len);
+    this.fft.realTransform(spec, real);
+  }
+
+  /**
+   * The inverse of one or two Hermitian half spectra in the interleaved layout of `forwardInto`, in
+   * one complex transform: returns the transform's own buffer holding x[t] at 2t and y[t] at 2t + 1
+   * (y = 0 without `b`), scaled by 1/N. Valid until the next call.
+   */
+  inversePair(a: Float64Array, b: Float64Array | null): Float64Array {
+    const n = this.size;
+    const c = this.complex;
+    const h = n / 2;
+    if (b) {
+      c[0] = a[0]!;
+      c[1] = b[0]!;
+      c[2 * h] = a[2 * h]!;
+      c[2 * h + 1] = b[2 * h]!;
+      for (let k = 1; k < h; k++) {
+        const xr = a[2 * k]!;
+        const xi = a[2 * k + 1]!;
+        const yr = b[2 * k]!;
+        const yi = b[2 * k + 1]!;
+        c[2 * k] = xr - yi;
+        c[2 * k + 1] = xi + yr;
+        c[2 * (n - k)] = xr + yi;
+        c[2 * (n - k) + 1] = yr - xi;
+      }
+    } else {
+      c[0] = a[0]!;
+      c[1] = 0;
+      c[2 * h] = a[2 * h]!;
+      c[2 * h + 1] = 0;
+      for (let k = 1; k < h; k++) {
+        const xr = a[2 * k]!;
+        const xi = a[2 * k + 1]!;
+        c[2 * k] = xr;
+        c[2 * k + 1] = xi;
+        c[2 * (n - k)] = xr;
+        c[2 * (n - k) + 1] = -xi;
+      }
+    }
+    this.fft.inverseTransform(this.out, c);
+    return this.out;
   }
 
   /** Bins 0..N/2 of the DFT X[k] = Σ x[n]·e^(−j2πkn/N) of `input` (zero-padded when shorter than N). */

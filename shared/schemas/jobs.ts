@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import type { DesignSlot } from '../circuit/slots';
 import type { PartKind, PartStatus } from './common';
+import type { BeforeDesign, RecordingChain } from './job-clips';
 
 export const JOB_STATUSES = ['open', 'done', 'delivered'] as const;
 
@@ -62,6 +63,11 @@ export interface Job {
   instrument: string;
   status: JobStatus;
   harnessId: number | null;
+  /** The wiring before the work: a saved design, or a design body kept with the job (the report's clips). */
+  beforeHarnessId: number | null;
+  beforeDesign: BeforeDesign | null;
+  /** How the job's recording was made; null: 1 MΩ and 3 m. */
+  recordingChain: RecordingChain | null;
   notes: string | null;
   createdBy: string | null;
   createdAt: number;
@@ -95,6 +101,8 @@ export type JobDetail = Job & {
   harnessName: string | null;
   /** The slots of the job's design (none without a design). */
   slots: JobSlot[];
+  /** The saved design of the wiring before the work, when there is one (null when it was deleted). */
+  beforeHarnessName: string | null;
 };
 
 /**

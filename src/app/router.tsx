@@ -77,6 +77,7 @@ export function createAppRouter(queryClient: QueryClient) {
                 screen(paths.app.lot.path, () => import('./routes/lot')),
                 screen(paths.app.compare.path, () => import('./routes/compare')),
                 screen(paths.app.harness.path, () => import('./routes/harness')),
+                screen(paths.app.harnessDesign.path, () => import('./routes/harness-design')),
                 screen(paths.app.jobs.path, () => import('./routes/jobs')),
                 screen(paths.app.job.path, () => import('./routes/job')),
                 screen(paths.app.team.path, () => import('./routes/team')),

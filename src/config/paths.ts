@@ -32,6 +32,7 @@ export const paths = {
     lot: { path: '/lots/:id', getHref: (id: number | string) => `/lots/${encodeURIComponent(String(id))}` },
     compare: { path: '/compare', getHref: () => '/compare' },
     harness: { path: '/harness', getHref: () => '/harness' },
+    harnessDesign: { path: '/harness/designs/:id', getHref: (id: number | string) => `/harness/designs/${encodeURIComponent(String(id))}` },
     jobs: { path: '/jobs', getHref: () => '/jobs' },
     job: { path: '/jobs/:id', getHref: (id: number | string) => `/jobs/${encodeURIComponent(String(id))}` },
     team: { path: '/team', getHref: () => '/team' },

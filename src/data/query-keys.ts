@@ -53,6 +53,8 @@ export const queryKeys = {
   harnesses: {
     all: () => ['harnesses'] as const,
     list: () => ['harnesses', 'list'] as const,
+    /** A saved design's page. */
+    detail: (id: number) => ['harnesses', 'detail', id] as const,
   },
   jobs: {
     all: () => ['jobs'] as const,
@@ -60,6 +62,8 @@ export const queryKeys = {
     detail: (id: number) => ['jobs', 'detail', id] as const,
     /** Under the job's key: installing, removing or assigning a part refreshes the preview too. */
     report: (id: number, opts: JobReportOptions = {}) => ['jobs', 'detail', id, 'report', opts] as const,
+    /** The job's attachments (its recordings for the report's clips). */
+    attachments: (id: number) => ['jobs', 'detail', id, 'attachments'] as const,
   },
   lots: {
     all: () => ['lots'] as const,

@@ -243,3 +243,73 @@ test('with a multi-pickup layout in the editor, Listen plays that layout at its 
   expect(problems).toEqual([]);
   await page.close();
 }, 120_000);
+
+test("Listen on a saved design's page and on a job's page (before as A, after as B); the job's report preview names the two clips", async () => {
+  const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+  const problems: string[] = [];
+  page.on('pageerror', (err) => problems.push(`page error: ${err.message}`));
+  page.on('console', (msg) => {
+    if (msg.type() === 'error') problems.push(`console: ${msg.text()}`);
+  });
+  await signIn(page, baseUrl, 'tech@lugbook.test', password);
+  // the browser's own session, with the Origin a state-changing request needs
+  const send = async (method: 'post' | 'put', url: string, data: object) => {
+    const r = await page.request[method](`${baseUrl}${url}`, { data, headers: { Origin: baseUrl } });
+    expect(r.status(), `${method} ${url}: ${await r.text()}`).toBeLessThan(300);
+    return r.json();
+  };
+  const knobs = { volume: 5, tone: 10 };
+  const before = await send('post', '/api/harnesses', { name: 'E2E as it came in', preset: 'independent-tone', values: {}, knobs });
+  const after = await send('post', '/api/harnesses', { name: 'E2E with a bleed', preset: 'bleed-cap', values: {}, knobs });
+  const job = await send('post', '/api/jobs', {
+    customer: 'E. Example',
+    customerEmail: 'e.example@lugbook.test',
+    instrument: 'Solid-body six-string',
+    harnessId: after.id,
+  });
+  await send('put', `/api/jobs/${job.id}/before`, { harnessId: before.id });
+  const shots = process.env.LUGBOOK_SHOTS;
+  if (shots) fs.mkdirSync(shots, { recursive: true });
+
+  // the saved design's page
+  await page.goto(`${baseUrl}/harness/designs/${after.id}`);
+  const designPanel = page.locator('#design-listen');
+  await designPanel.waitFor();
+  expect(await designPanel.getByText('Start quiet.').count()).toBe(1);
+  expect(await designPanel.getByRole('slider', { name: 'Volume' }).inputValue()).toBe('5');
+  await designPanel.getByRole('button', { name: 'Play' }).click();
+  const designMeter = designPanel.getByTestId('listen-meter-text');
+  await expect.poll(async () => (await designMeter.textContent()) ?? '', { timeout: 15_000 }).toMatch(/dBFS/);
+  if (shots) await page.screenshot({ path: `${shots}/design-page-listen.png`, fullPage: true });
+  await designPanel.getByRole('button', { name: 'Stop' }).click();
+
+  // the job's page: before as A, after as B, at the same knobs
+  await page.goto(`${baseUrl}/jobs/${job.id}`);
+  const jobPanel = page.locator('#job-listen');
+  await jobPanel.waitFor();
+  expect(await jobPanel.getByText('Start quiet.').count()).toBe(1);
+  await expect.poll(() => jobPanel.getByRole('radio', { name: /^A: Before: E2E as it came in/ }).count()).toBe(1);
+  expect(await jobPanel.getByRole('radio', { name: /^B: After: E2E with a bleed/ }).count()).toBe(1);
+  await jobPanel.getByRole('button', { name: 'Play' }).click();
+  const jobMeter = jobPanel.getByTestId('listen-meter-text');
+  await expect.poll(async () => (await jobMeter.textContent()) ?? '', { timeout: 15_000 }).toMatch(/dBFS/);
+  await jobPanel.getByRole('radio', { name: /^A:/ }).check();
+  await jobPanel.getByRole('slider', { name: 'Volume' }).focus();
+  await page.keyboard.press('ArrowLeft');
+  await page.waitForTimeout(300);
+  expect(await jobPanel.getByRole('button', { name: 'Stop' }).count()).toBe(1);
+  // the report preview names the clips, as the e-mail will
+  const report = page.locator('#job-report');
+  await expect.poll(async () => (await report.textContent()) ?? '', { timeout: 10_000 }).toMatch(new RegExp(`${job.code}-1-before\\.wav`));
+  expect(await report.textContent()).toMatch(new RegExp(`${job.code}-2-after\\.wav: the wiring after the work, E2E with a bleed`));
+  if (shots) {
+    await page.locator('#job-before-after').screenshot({ path: `${shots}/job-listen.png` });
+    // the preview scrolls: show its end, where the clips are named
+    await report.locator('pre').evaluate((el) => (el.scrollTop = el.scrollHeight));
+    await report.screenshot({ path: `${shots}/job-report-clips.png` });
+    await page.screenshot({ path: `${shots}/job-page.png`, fullPage: true });
+  }
+  await jobPanel.getByRole('button', { name: 'Stop' }).click();
+  expect(problems).toEqual([]);
+  await page.close();
+}, 120_000);

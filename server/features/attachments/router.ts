@@ -4,9 +4,10 @@ import { z } from 'zod';
 import { audit } from '@server/audit';
 import type { AppContext } from '@server/context';
 import { attachments, jobs, lots, parts } from '@server/db/schema';
-import { notFound } from '@server/http/errors';
+import { HttpError, notFound, unprocessable } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
 import { checkFileType, contentPath, singleFileUpload, withStoredFile, storedName } from '@server/uploads/store';
+import { readWavHeader, WavError } from '@shared/audio/wav';
 import { IdParamsSchema } from '@shared/schemas/common';
 
 const MAX_DOCUMENT_BYTES = 10 * 1024 * 1024;
@@ -18,11 +19,13 @@ const SERVED_TYPES: Record<string, string> = {
   'application/pdf': 'application/pdf',
   'text/csv': 'text/csv; charset=utf-8',
   'text/tab-separated-values': 'text/tab-separated-values; charset=utf-8',
+  'audio/wav': 'audio/wav',
 };
 const INLINE_TYPES = new Set(['image/png', 'image/jpeg']);
-const UploadFields = z.object({ purpose: z.enum(['photo', 'certificate']).default('photo') });
+/** `recording`: a job's direct-input WAV recording of the customer's instrument (the source of the report's clips). */
+const UploadFields = z.object({ purpose: z.enum(['photo', 'certificate', 'recording']).default('photo') });
 
-/** Photos of parts or meter displays and certificates, for parts, lots and jobs. */
+/** Photos of parts or meter displays and certificates, for parts, lots and jobs; a job's WAV recordings. */
 export function attachmentRoutes(ctx: AppContext) {
   const { db } = ctx;
   const routers: ApiRouter[] = [];
@@ -52,8 +55,20 @@ export function attachmentRoutes(ctx: AppContext) {
       schemas: { params: IdParamsSchema, body: UploadFields },
       handle: ({ params, body, req, user }) => {
         if (!exists(params.id)) throw notFound('That record');
-        const { mime } = checkFileType(req.file, 'document');
+        if (body.purpose === 'recording' && owner.type !== 'job')
+          throw unprocessable('Recordings are kept with jobs only.', { purpose: 'Use photo or certificate here.' });
+        const { mime } = checkFileType(req.file, body.purpose === 'recording' ? 'recording' : 'document');
         const file = req.file!;
+        if (body.purpose === 'recording') {
+          // the clips decode it later: refuse here what the WAV reader would refuse then
+          try {
+            const h = readWavHeader(new Uint8Array(file.buffer.buffer, file.buffer.byteOffset, file.buffer.byteLength));
+            if (h.frames === 0) throw new WavError('The WAV file holds no samples.');
+          } catch (e) {
+            if (e instanceof WavError) throw new HttpError(422, 'invalid_file', e.message, { file: e.message });
+            throw e;
+          }
+        }
         return withStoredFile(ctx.config.uploadsDir, file.buffer, (content) =>
           db.transaction((tx) => {
             const row = tx

@@ -17,6 +17,7 @@ import { lawMid, TAPER_LAW_LABEL, type TaperLaw } from '@shared/taper/law';
 import { formatValue } from '@shared/units/format';
 import { QUANTITY_UNIT } from '@shared/units/quantities';
 import type { JobDetail } from './repository';
+import { soundClips } from './clips';
 import { designOf, slotValues, type SlotQuantity } from './slots';
 
 const fmtDb = (x: number) => `${x >= 0 ? '+' : ''}${x.toFixed(1)} dB`;
@@ -273,6 +274,8 @@ export interface ReportInput {
   db: DbLike;
   job: JobDetail;
   prediction: Prediction | null;
+  /** Where the job's stored files (its recording) are. */
+  uploadsDir: string;
 }
 
 /** Adds attachments to the report, with the lines the text says about them. */
@@ -294,7 +297,7 @@ const predictedCurves: ReportAttachmentSource = ({ job, prediction }) =>
  * attachment (sound clips, photos) adds its source to this list; the preview and the e-mail both
  * read it through composeReport.
  */
-export const REPORT_ATTACHMENT_SOURCES: ReportAttachmentSource[] = [predictedCurves];
+export const REPORT_ATTACHMENT_SOURCES: ReportAttachmentSource[] = [predictedCurves, soundClips];
 
 export interface ReportMessage {
   /** The recipient the e-mail goes to (the given address, else the job's customer's), or null. */
@@ -305,11 +308,15 @@ export interface ReportMessage {
 }
 
 /** The whole customer e-mail: the preview on the job page and the message sent are both this. */
-export async function composeReport(db: DbLike, job: JobDetail, opts: { to?: string; message?: string } = {}): Promise<ReportMessage> {
+export async function composeReport(
+  db: DbLike,
+  job: JobDetail,
+  opts: { to?: string; message?: string; uploadsDir: string },
+): Promise<ReportMessage> {
   const partLines = job.parts.map((p) => partLine(db, p));
   const prediction = predictJob(db, job);
   const extras = [];
-  for (const source of REPORT_ATTACHMENT_SOURCES) extras.push(await source({ db, job, prediction }));
+  for (const source of REPORT_ATTACHMENT_SOURCES) extras.push(await source({ db, job, prediction, uploadsDir: opts.uploadsDir }));
   const attachmentLines = extras.flatMap((e) => e.lines);
   const text = [
     `Hello ${job.customer},`,

@@ -45,7 +45,10 @@ export function jobDetail(db: DbLike, id: number): JobDetail | undefined {
     ...s,
     partId: installed.find((p) => p.slot === s.key)?.partId ?? null,
   }));
-  return { ...job, parts: installed, harnessName, slots };
+  const beforeHarnessName = job.beforeHarnessId
+    ? (db.select({ name: harnesses.name }).from(harnesses).where(eq(harnesses.id, job.beforeHarnessId)).get()?.name ?? null)
+    : null;
+  return { ...job, parts: installed, harnessName, beforeHarnessName, slots };
 }
 
 /** The jobs a part went into (the other direction of the trace). */

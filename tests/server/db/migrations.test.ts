@@ -173,6 +173,48 @@ describe('0001: the reverse law’s m becomes its mid-rotation value y(0.5)', ()
   });
 });
 
+describe('0009: jobs record the wiring before the work', () => {
+  test('existing jobs keep every column and start with no before wiring; a design named as before can still be deleted', () => {
+    const sqlite = new Database(path.join(tempDir(), 'lugbook.db'));
+    migrate(drizzle(sqlite, { schema }), { migrationsFolder: foldersUpTo('0007_lot_stats') });
+    sqlite.prepare("insert into users (id, email, name, role, password_hash) values ('u1', 'a@example.org', 'A', 'tech', 'x')").run();
+    sqlite
+      .prepare(
+        "insert into harnesses (name, layout, preset, \"values\", owner_id) values ('Plain', 'one-pickup', 'independent-tone', '{}', 'u1')",
+      )
+      .run();
+    sqlite.prepare("insert into harnesses (name, layout, \"values\", owner_id) values ('Bleed', 'one-pickup', '{}', 'u1')").run();
+    const insertJob = sqlite.prepare(
+      "insert into jobs (code, customer, customer_email, instrument, status, harness_id, notes, created_by) values (?, ?, ?, ?, ?, ?, ?, 'u1')",
+    );
+    insertJob.run('JOB-0001', 'A. Customer', 'a.customer@example.org', 'Six-string', 'open', 2, 'new bleed');
+    insertJob.run('JOB-0002', 'B. Customer', null, 'Four-string', 'delivered', null, null);
+    sqlite.prepare("insert into parts (kind, label) values ('pot', 'POT-9')").run();
+    sqlite.prepare("insert into job_parts (job_id, part_id, position) values (1, 1, 'volume')").run();
+    sqlite
+      .prepare(
+        "insert into attachments (owner_type, owner_id, purpose, original_name, content_hash, mime, size) values ('job', 1, 'photo', 'a.png', 'ab', 'image/png', 3)",
+      )
+      .run();
+    const before = rowCounts(sqlite);
+    const jobsBefore = sqlite.prepare('select * from jobs order by id').all() as Record<string, unknown>[];
+
+    applyMigrations(sqlite, drizzle(sqlite, { schema }));
+
+    const afterCounts = rowCounts(sqlite);
+    expect(Object.fromEntries(Object.keys(before).map((k) => [k, afterCounts[k]]))).toEqual(before);
+    const jobsAfter = sqlite.prepare('select * from jobs order by id').all() as Record<string, unknown>[];
+    jobsAfter.forEach((row, i) => {
+      expect(row).toEqual({ ...jobsBefore[i], before_harness_id: null, before_design: null, recording_chain: null });
+    });
+    // The new column carries no foreign key, so naming a design as the before wiring never blocks deleting it.
+    sqlite.prepare('update jobs set before_harness_id = 1 where id = 1').run();
+    sqlite.prepare('delete from harnesses where id = 1').run();
+    expect(sqlite.prepare('select before_harness_id as b, harness_id as h from jobs where id = 1').get()).toEqual({ b: 1, h: 2 });
+    sqlite.close();
+  });
+});
+
 test('the full demo scenario seeds: lots with sweeps and fits, a 100,000-item lot, designs and jobs', async () => {
   const dir = tempDir();
   const ctx = createContext({ dbFile: path.join(dir, 'lugbook.db'), uploadsDir: path.join(dir, 'uploads') });

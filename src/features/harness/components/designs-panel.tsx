@@ -4,13 +4,15 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { memo, useEffect, useState } from 'react';
 import { useForm } from 'react-hook-form';
+import { Link } from 'react-router-dom';
 import { roleCan } from '@shared/auth/capabilities';
 import { getLayout } from '@shared/circuit/layouts';
 import { HarnessDesignInputSchema, type HarnessDesign } from '@shared/schemas/harness';
 import { Alert, Loading } from '@/components/ui/alert';
-import { Button } from '@/components/ui/button';
+import { Button, buttonClass } from '@/components/ui/button';
 import { TextAreaField, TextField } from '@/components/ui/field';
 import { Panel } from '@/components/ui/page-header';
+import { paths } from '@/config/paths';
 import { useCan, useUser } from '@/lib/auth';
 import { formatDateTime } from '@/lib/format';
 import { applyServerError } from '@/lib/form';
@@ -216,6 +218,13 @@ export const DesignsPanel = memo(function DesignsPanel({
                     <Button size="sm" onClick={() => onPin(d)} aria-label={`Pin ${d.name} as A`}>
                       Pin as A
                     </Button>
+                    <Link
+                      to={paths.app.harnessDesign.getHref(d.id)}
+                      className={buttonClass('secondary', 'sm')}
+                      aria-label={`${d.name}: its page, to listen`}
+                    >
+                      Page
+                    </Link>
                     {mayDelete && <DeleteButton design={d} onDeleted={onDeleted} />}
                   </div>
                 </li>

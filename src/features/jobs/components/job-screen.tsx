@@ -15,6 +15,7 @@ import type { JobDetail } from '../api/types';
 import { InstallPartForm } from './job-install';
 import { JobReportPanel } from './job-report';
 import { JobSlots } from './job-slots';
+import { JobListen } from './job-listen';
 import { JOB_STATUS_LOOK, JobStatusBadge } from './job-status-badge';
 
 const KIND_WORD: Record<string, string> = { pot: 'Pot', capacitor: 'Capacitor', resistor: 'Resistor', pickup: 'Pickup', other: 'Other' };
@@ -236,6 +237,9 @@ export function JobScreen({ id }: { id: number }) {
         </Panel>
         <Panel title="Parts in the wiring design" id="job-slots">
           <JobSlots job={j} canWrite={canWrite} />
+        </Panel>
+        <Panel title="Before and after: listen" id="job-before-after">
+          <JobListen job={j} canWrite={canWrite} />
         </Panel>
         <Panel title="Customer report" id="job-report">
           <JobReportPanel job={j} canWrite={canWrite} />
