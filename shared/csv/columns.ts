@@ -50,6 +50,11 @@ export interface NeedsMapping {
   header: string[];
   detected: ColumnMapping;
   missing: ColumnRole[];
+  /**
+   * Columns that were found but whose unit the file does not say and the values cannot settle (a
+   * capacitance column with no unit holding 47: pF? nF?): the mapping step asks for the unit.
+   */
+  unitNeeded?: { role: ColumnRole; index: number; header: string; reason: string }[];
 }
 
 /** The user's choice in the column-mapping step: a column (index or header text) and optionally its unit. */

@@ -69,6 +69,7 @@ interface Row {
   engine_version: string;
   nominal: number;
   tolerance_pct: number;
+  tolerance_plus_pct: number | null;
   second_limit: number | null;
   count: number;
   detail: string;
@@ -86,10 +87,10 @@ export function refreshLotStats(sqlite: Database.Database, lot: LotRow): StoredL
   const stored = { count: results.count, statsJson: JSON.stringify(results.stats), columnsJson: JSON.stringify(results.columns) };
   sqlite
     .prepare(
-      `insert into lot_stats (lot_id, engine_version, nominal, tolerance_pct, second_limit, count, detail, columns, computed_at)
-       values (?, ?, ?, ?, ?, ?, ?, ?, ?)
+      `insert into lot_stats (lot_id, engine_version, nominal, tolerance_pct, tolerance_plus_pct, second_limit, count, detail, columns, computed_at)
+       values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)
        on conflict (lot_id) do update set engine_version = excluded.engine_version, nominal = excluded.nominal,
-         tolerance_pct = excluded.tolerance_pct, second_limit = excluded.second_limit, count = excluded.count,
+         tolerance_pct = excluded.tolerance_pct, tolerance_plus_pct = excluded.tolerance_plus_pct, second_limit = excluded.second_limit, count = excluded.count,
          detail = excluded.detail, columns = excluded.columns, computed_at = excluded.computed_at`,
     )
     .run(
@@ -97,6 +98,7 @@ export function refreshLotStats(sqlite: Database.Database, lot: LotRow): StoredL
       ANALYSIS_ENGINE_VERSION,
       lot.nominal,
       lot.tolerancePct,
+      lot.tolerancePlusPct ?? lot.tolerancePct,
       lot.secondLimit,
       stored.count,
       stored.statsJson,
@@ -114,7 +116,7 @@ export function refreshLotStats(sqlite: Database.Database, lot: LotRow): StoredL
 export function storedLotStats(sqlite: Database.Database, lot: LotRow, part: 'detail' | 'columns'): StoredLotResults {
   const row = sqlite
     .prepare(
-      `select engine_version, nominal, tolerance_pct, second_limit, count, ${part === 'detail' ? "detail, '' as columns" : "'' as detail, columns"} from lot_stats where lot_id = ?`,
+      `select engine_version, nominal, tolerance_pct, tolerance_plus_pct, second_limit, count, ${part === 'detail' ? "detail, '' as columns" : "'' as detail, columns"} from lot_stats where lot_id = ?`,
     )
     .get(lot.id) as Row | undefined;
   if (
@@ -122,6 +124,7 @@ export function storedLotStats(sqlite: Database.Database, lot: LotRow, part: 'de
     row.engine_version === ANALYSIS_ENGINE_VERSION &&
     row.nominal === lot.nominal &&
     row.tolerance_pct === lot.tolerancePct &&
+    (row.tolerance_plus_pct ?? row.tolerance_pct) === (lot.tolerancePlusPct ?? lot.tolerancePct) &&
     row.second_limit === lot.secondLimit
   ) {
     return { count: row.count, statsJson: row.detail, columnsJson: row.columns };
