@@ -15,7 +15,9 @@ export interface Lot {
   kind: LotKind;
   quantity: string;
   nominal: number;
+  /** Below nominal (−), percent; tolerancePlusPct is the side above (null on rows from before it existed: symmetric). */
   tolerancePct: number;
+  tolerancePlusPct: number | null;
   marking: string | null;
   supplier: string | null;
   receivedOn: string | null;
