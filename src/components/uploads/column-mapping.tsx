@@ -3,7 +3,7 @@
 // recognised, or a column whose unit the file does not give); the same file is then sent again with
 // the mapping. The logic lives in column-mapping-model.ts, driven by shared/csv/columns.ts.
 import { useState } from 'react';
-import { mappingRoles } from '@shared/csv/columns';
+import { mappingRoles, roleWord } from '@shared/csv/columns';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { SelectField } from '@/components/ui/field';
@@ -40,7 +40,7 @@ export function ColumnMappingStep({
   };
 
   return (
-    <fieldset className="space-y-3 rounded-md border border-accent/30 bg-accent-tint/40 p-3 sm:p-4" data-testid="column-mapping">
+    <fieldset className="@container space-y-3 rounded-md border border-accent/30 bg-accent-tint/40 p-3 sm:p-4" data-testid="column-mapping">
       <legend className="px-1 text-sm font-semibold">Which column holds what?</legend>
       <p className="text-sm text-ink-soft">
         The file’s columns are:{' '}
@@ -65,7 +65,8 @@ export function ColumnMappingStep({
           </label>
         </div>
       )}
-      <div className="grid gap-3 sm:grid-cols-2">
+      {/* Two roles a row where the step is wide (the lot page), one where it is narrow (a part page's column). */}
+      <div className="grid gap-3 @2xl:grid-cols-2">
         {roles.map(({ role, required }) => {
           const c = choices[role] ?? { column: '', unit: '' };
           const units = unitOptions(ctx, role);
@@ -87,7 +88,7 @@ export function ColumnMappingStep({
               </SelectField>
               {units.length > 0 && (
                 <SelectField
-                  label={`Unit of ${roleLabel(role).toLowerCase()}`}
+                  label={`Unit of ${roleWord(role)}`}
                   value={c.unit}
                   onChange={(e) => set({ unit: e.target.value })}
                   disabled={c.column === ''}
