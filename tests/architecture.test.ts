@@ -7,11 +7,14 @@ test('imports flow one way: shared → server or src, never between server and s
 
 // The rules themselves, on made-up paths, so a rule that stopped reporting would show here.
 describe('the layer rules report what they forbid', () => {
-  test('client: components and lib import neither features nor app; features do not import app or each other', () => {
+  test('client: components, lib and data import neither features nor app; features do not import app or each other', () => {
     expect(
       clientLayerViolations('src/components/ui/badge.tsx', 'src/features/parts/api/get-part', '@/features/parts/api/get-part'),
     ).toHaveLength(1);
     expect(clientLayerViolations('src/lib/format.ts', 'src/app/router', '@/app/router')).toHaveLength(1);
+    expect(clientLayerViolations('src/data/parts.ts', 'src/features/parts/api/sweeps', '@/features/parts/api/sweeps')).toHaveLength(1);
+    expect(clientLayerViolations('src/data/parts.ts', 'src/app/router', '@/app/router')).toHaveLength(1);
+    expect(clientLayerViolations('src/features/jobs/components/x.tsx', 'src/data/jobs', '@/data/jobs')).toEqual([]);
     expect(clientLayerViolations('src/features/jobs/components/x.tsx', 'src/app/provider', '@/app/provider')).toHaveLength(1);
     expect(
       clientLayerViolations('src/features/jobs/components/x.tsx', 'src/features/parts/api/get-part', '@/features/parts/api/get-part'),

@@ -5,10 +5,10 @@ import { sql } from 'drizzle-orm';
 import { index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 // Relative imports: drizzle-kit loads this file without the tsconfig path aliases.
 import { INSTRUMENT_KINDS } from '../../shared/schemas/bench';
-import { PART_KINDS, PART_STATUSES, ROLES, VERDICTS } from '../../shared/schemas/common';
+import { PART_KINDS, PART_STATUSES, ROLES, VERDICTS, type PartStatus } from '../../shared/schemas/common';
 import type { HarnessDesign } from '../../shared/schemas/harness';
 import { JOB_STATUSES } from '../../shared/schemas/jobs';
-import { LOT_STATUSES } from '../../shared/schemas/lots';
+import { LOT_STATUSES, type SecondQuantity } from '../../shared/schemas/lots';
 import { FIT_KINDS, SWEEP_KINDS, type Fit } from '../../shared/schemas/sweeps';
 import { TAPER_LAWS } from '../../shared/taper/law';
 
@@ -104,7 +104,7 @@ export const lots = sqliteTable('lots', {
   supplier: text('supplier'),
   receivedOn: text('received_on'),
   expectedCount: integer('expected_count'),
-  secondQuantity: text('second_quantity'),
+  secondQuantity: text('second_quantity').$type<SecondQuantity>(),
   secondLimit: real('second_limit'),
   /** The meter the lot was measured with and its test frequency (Hz): carried to promoted parts' readings. */
   instrumentId: integer('instrument_id').references(() => instruments.id, { onDelete: 'set null' }),
@@ -212,8 +212,9 @@ export const partStatusEvents = sqliteTable('part_status_events', {
   partId: integer('part_id')
     .notNull()
     .references(() => parts.id, { onDelete: 'cascade' }),
-  fromStatus: text('from_status'),
-  toStatus: text('to_status').notNull(),
+  // Type only (no SQL change): the statuses written are the part statuses of shared/schemas/common.ts.
+  fromStatus: text('from_status').$type<PartStatus>(),
+  toStatus: text('to_status').notNull().$type<PartStatus>(),
   reason: text('reason'),
   userId: text('user_id').references(() => users.id, { onDelete: 'set null' }),
   at: createdAt(),

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import type { PartKind, PartStatus } from './common';
 
 export const JOB_STATUSES = ['open', 'done', 'delivered'] as const;
 
@@ -40,3 +41,47 @@ export const JobReportInputSchema = z.object({
   to: z.string().trim().toLowerCase().email('Enter an e-mail address.').optional(),
   message: z.string().trim().max(4000).optional(),
 });
+
+// The answers of the job routes (server/features/jobs/router.ts), read by the client's api.get<T>.
+
+export type JobStatus = (typeof JOB_STATUSES)[number];
+
+/** A job as stored (POST /api/jobs answers it). */
+export interface Job {
+  id: number;
+  code: string;
+  customer: string;
+  customerEmail: string | null;
+  instrument: string;
+  status: JobStatus;
+  harnessId: number | null;
+  notes: string | null;
+  createdBy: string | null;
+  createdAt: number;
+  updatedAt: number | null;
+}
+
+/** GET /api/jobs: each job with the number of parts installed. */
+export type JobListRow = Job & { partCount: number };
+
+/** A part installed in a job. */
+export interface InstalledPart {
+  partId: number;
+  label: string;
+  kind: PartKind;
+  nominal: number | null;
+  status: PartStatus;
+  position: string;
+  /** Why a flagged or never-judged part went in anyway. */
+  overrideReason: string | null;
+  installedAt: number;
+}
+
+/** GET /api/jobs/:id (and the answer of every change to a job). */
+export type JobDetail = Job & { parts: InstalledPart[]; harnessName: string | null };
+
+/** GET /api/jobs/:id/report: the customer report's text and, with a harness design, its predicted curves as CSV. */
+export interface JobReport {
+  text: string;
+  csv: string | null;
+}

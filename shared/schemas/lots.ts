@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import type { DeviationBin, LotStatistics, MatchedSet } from '@shared/analysis/lot-stats';
 import { inRange, rangeWords, VALUE_RANGES } from './ranges';
 import { checkTolerancePair, TolerancePlusSchema, ToleranceMinusSchema } from './parts';
 
@@ -88,3 +89,103 @@ export const PromoteInputSchema = z
     path: ['readingIds'],
   });
 export type PromoteInput = z.infer<typeof PromoteInputSchema>;
+
+// The answers of the lot routes (server/features/lots/router.ts), read by the client's api.get<T>.
+
+export type LotKind = (typeof LOT_KINDS)[number];
+export type LotStatus = (typeof LOT_STATUSES)[number];
+export type Disposition = (typeof DISPOSITIONS)[number];
+export type SecondQuantity = (typeof SECOND_QUANTITIES)[number];
+
+/** A lot as stored, with the unit of its values. */
+export interface Lot {
+  id: number;
+  code: string;
+  kind: LotKind;
+  quantity: string;
+  nominal: number;
+  /** Below nominal (−), percent; tolerancePlusPct is the side above (null on rows from before it existed: symmetric). */
+  tolerancePct: number;
+  tolerancePlusPct: number | null;
+  marking: string | null;
+  supplier: string | null;
+  receivedOn: string | null;
+  expectedCount: number | null;
+  secondQuantity: SecondQuantity | null;
+  secondLimit: number | null;
+  /** The meter and test frequency (Hz) of the lot's readings, carried to promoted parts. */
+  instrumentId: number | null;
+  testFrequency: number | null;
+  status: LotStatus;
+  dispositionReason: string | null;
+  disposedBy: string | null;
+  disposedAt: number | null;
+  notes: string | null;
+  createdBy: string | null;
+  createdAt: number;
+  /** F for capacitors, Ω for pots and resistors. */
+  unit: string;
+}
+
+/** GET /api/lots: each lot with its number of readings. */
+export type LotListRow = Lot & { count: number };
+
+/** A deviation bin as JSON brings it: ±Infinity bounds arrive as null; the item indices stay out. */
+export type LotBin = Omit<DeviationBin, 'fromPct' | 'toPct' | 'indices'> & { fromPct: number | null; toPct: number | null };
+
+/**
+ * The engine's LotStatistics as the detail route sends it: the per-item deviations are left out
+ * (the items route carries them as a column); the first 200 matched sets are listed and all of
+ * them counted in `matchedSetCount`.
+ */
+export type LotStats = Omit<LotStatistics, 'deviationsPct' | 'bins' | 'matchedSets'> & {
+  bins: LotBin[];
+  matchedSets: MatchedSet[];
+  matchedSetCount: number;
+};
+
+export interface LotWatcher {
+  id: string;
+  email: string;
+  name: string;
+}
+
+export type LotHistoryKind = 'created' | 'upload' | 'disposition' | 'reopen' | 'watchers' | 'promote';
+
+/** One event of a lot's history, oldest first (server/features/lots/history.ts). */
+export interface LotHistoryEvent {
+  kind: LotHistoryKind;
+  at: number;
+  by: string | null;
+  /** Upload: the file and its rows; disposition: the status; reopen: the status it had. */
+  file?: string;
+  rows?: number;
+  replaced?: boolean;
+  status?: string;
+  was?: string;
+  reason?: string;
+  parts?: number;
+}
+
+/** GET /api/lots/:id */
+export type LotDetail = LotListRow & {
+  watchers: LotWatcher[];
+  history: LotHistoryEvent[];
+  stats: LotStats | null;
+  disposedByName: string | null;
+};
+
+/** GET /api/lots/:id/items: every item of a lot as columns; -1 in bin/set means none. */
+export interface LotItems {
+  ids: number[];
+  items: string[];
+  values: number[];
+  second: (number | null)[];
+  deviationsPct: number[];
+  bin: number[];
+  set: number[];
+  outlier: (0 | 1)[];
+  secondFail: (0 | 1)[];
+  /** The part each item was promoted to, or null. */
+  partIds: (number | null)[];
+}

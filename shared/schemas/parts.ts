@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { TAPER_LAWS } from '@shared/taper/law';
-import { PartKindSchema, PartStatusSchema, SiPositive, type PartKind } from './common';
+import { PartKindSchema, PartStatusSchema, SiPositive, type PartKind, type PartStatus } from './common';
 import { inRange, rangeWords, VALUE_RANGES } from './ranges';
 
 export const TaperClassSchema = z.enum(TAPER_LAWS);
@@ -108,3 +108,22 @@ export const PartSchema = z.object({
   updatedAt: z.number().nullable(),
 });
 export type Part = z.infer<typeof PartSchema>;
+
+/** One change of a part's status (GET /api/parts/:id `statusHistory`, oldest first). */
+export type PartStatusEvent = {
+  id: number;
+  partId: number;
+  fromStatus: PartStatus | null;
+  toStatus: PartStatus;
+  reason: string | null;
+  userId: string | null;
+  /** Who made the change (null when the member has left). */
+  userName: string | null;
+  at: number;
+};
+
+/** A job the part went into (the other direction of the job's parts list). */
+export type PartInstallation = { jobId: number; code: string; customer: string; instrument: string; position: string; installedAt: number };
+
+/** GET /api/parts/:id: the part with its lot's code, its status history and the jobs it went into. */
+export type PartDetail = Part & { lotCode: string | null; statusHistory: PartStatusEvent[]; installedIn: PartInstallation[] };

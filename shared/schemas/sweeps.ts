@@ -1,7 +1,8 @@
 import { z } from 'zod';
-import type { CoilFit } from '@shared/analysis/coil';
-import type { TaperFit } from '@shared/analysis/taper';
+import type { CoilFit, CoilPoint } from '@shared/analysis/coil';
+import type { TaperFit, TaperPoint } from '@shared/analysis/taper';
 import { TAPER_LAWS } from '@shared/taper/law';
+import type { Part } from './parts';
 import { VALUE_RANGES, rangeWords } from './ranges';
 
 export const SWEEP_KINDS = ['taper', 'impedance'] as const;
@@ -21,6 +22,32 @@ export type Fit = {
   supersededAt: number | null;
   createdAt: number;
 } & ({ kind: 'taper'; result: TaperFit } | { kind: 'coil'; result: CoilFit });
+
+/** An impedance point as the API sends it: frequency (Hz) with the real and imaginary parts (Ω). */
+export type ImpedancePoint = Extract<CoilPoint, { re: number }>;
+
+/**
+ * A stored sweep as the API sends it (GET /api/parts/:id/sweeps). Points come back in the engines'
+ * input shape: taper rotation in percent of the full rotation, impedance as re/im.
+ */
+export type Sweep = {
+  id: number;
+  partId: number;
+  attachmentId: number | null;
+  /** How the file's columns were understood ({ rotation: 'Angle (°)', … }). */
+  columns: Record<string, string> | null;
+  pointCount: number;
+  createdBy: string | null;
+  createdAt: number;
+  /** The sweep's current fit (null when none is stored). */
+  fit: Fit | null;
+} & ({ kind: 'taper'; points: TaperPoint[] } | { kind: 'impedance'; points: ImpedancePoint[] });
+
+/** POST /api/parts/:id/sweeps: the stored sweep, its fit, what the file's reading left aside, and the part with its new status. */
+export type SweepUploadResult = Sweep & { fit: Fit; ignoredColumns: string[]; notes: string[]; part: Part };
+
+/** POST /api/parts/:id/sweeps/:sweepId/refit: the new fit and the part with its new status. */
+export type RefitResult = { fit: Fit; part: Part };
 
 /** A column chosen by the user when the file's headers were not recognised: index or header text, and its unit. */
 export const ColumnChoiceSchema = z.object({

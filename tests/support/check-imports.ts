@@ -1,6 +1,6 @@
 // The import boundaries DEVELOPERS.md states ("Layout"): shared/ imports neither server/ nor src/
 // (nor Node, DOM or server packages); server/ and src/ never import each other; client features do
-// not import each other; src/components and src/lib import neither features nor app; features do
+// not import each other; src/components, src/lib and src/data import neither features nor app; features do
 // not import app; a server feature never imports another feature's router. Run by `npm run lint`
 // and by tests/architecture.test.ts.
 import fs from 'node:fs';
@@ -31,7 +31,7 @@ function resolveSpecifier(file: string, spec: string): string | null {
 
 const NODE_OR_DOM_IN_SHARED = /^(node:|fs$|path$|crypto$|better-sqlite3|express|drizzle-orm|react)/;
 
-/** Inside src/: components and lib below features, features below app, features apart. */
+/** Inside src/: components, lib and data below features, features below app, features apart. */
 export function clientLayerViolations(file: string, target: string, spec: string): string[] {
   const problems: string[] = [];
   const norm = (p: string) => p.split(path.sep).join('/');
@@ -40,7 +40,7 @@ export function clientLayerViolations(file: string, target: string, spec: string
   const targetFeature = to.match(/^src\/features\/([^/]+)(\/|$)/)?.[1];
   const targetIsApp = /^src\/app(\/|$)/.test(to);
   if (feature && targetFeature && feature !== targetFeature) problems.push(`${file}: feature ${feature} imports feature ${targetFeature}`);
-  if (/^src\/(components|lib)\//.test(from) && (targetFeature || targetIsApp))
+  if (/^src\/(components|lib|data)\//.test(from) && (targetFeature || targetIsApp))
     problems.push(`${file}: shared client code imports ${targetIsApp ? 'app' : `feature ${targetFeature}`} (${spec})`);
   if (feature && targetIsApp) problems.push(`${file}: feature ${feature} imports app (${spec})`);
   return problems;

@@ -2,22 +2,14 @@ import { desc, eq, sql } from 'drizzle-orm';
 import type { DbLike } from '@server/db/client';
 import { harnesses, jobParts, jobs, parts } from '@server/db/schema';
 
-export type JobRow = typeof jobs.$inferSelect;
-export interface JobDetail extends JobRow {
-  parts: {
-    partId: number;
-    label: string;
-    kind: (typeof parts.$inferSelect)['kind'];
-    nominal: number | null;
-    status: string;
-    position: string;
-    overrideReason: string | null;
-    installedAt: number;
-  }[];
-  harnessName: string | null;
-}
+import type { JobDetail, JobListRow } from '@shared/schemas/jobs';
+import type { PartInstallation } from '@shared/schemas/parts';
 
-export function listJobs(db: DbLike) {
+export type JobRow = typeof jobs.$inferSelect;
+/** GET /api/jobs/:id (declared in shared/schemas/jobs.ts). */
+export type { JobDetail } from '@shared/schemas/jobs';
+
+export function listJobs(db: DbLike): JobListRow[] {
   return db
     .select({ job: jobs, partCount: sql<number>`(select count(*) from job_parts jp where jp.job_id = "jobs"."id")` })
     .from(jobs)
@@ -52,7 +44,7 @@ export function jobDetail(db: DbLike, id: number): JobDetail | undefined {
 }
 
 /** The jobs a part went into (the other direction of the trace). */
-export function jobsOfPart(db: DbLike, partId: number) {
+export function jobsOfPart(db: DbLike, partId: number): PartInstallation[] {
   return db
     .select({
       jobId: jobs.id,

@@ -8,14 +8,22 @@ import { installCheck } from '@server/features/parts/evidence';
 import { conflict, HttpError, notFound, unprocessable } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
 import { IdParamsSchema } from '@shared/schemas/common';
-import { CreateJobInputSchema, InstallPartInputSchema, JobReportInputSchema, UpdateJobInputSchema } from '@shared/schemas/jobs';
+import {
+  CreateJobInputSchema,
+  InstallPartInputSchema,
+  JobReportInputSchema,
+  UpdateJobInputSchema,
+  type JobDetail,
+  type JobListRow,
+  type JobReport,
+} from '@shared/schemas/jobs';
 import { jobDetail, jobsOfPart, listJobs } from './repository';
 import { reportText } from './report';
 
 export function jobRoutes(ctx: AppContext) {
   const { db } = ctx;
   const api = new ApiRouter('/api/jobs');
-  const mustFind = (id: number) => {
+  const mustFind = (id: number): JobDetail => {
     const job = jobDetail(db, id);
     if (!job) throw notFound('That job');
     return job;
@@ -25,7 +33,7 @@ export function jobRoutes(ctx: AppContext) {
       throw unprocessable('That harness design does not exist.', { harnessId: 'Unknown design.' });
   };
 
-  api.get('/', { handle: () => ({ jobs: listJobs(db) }) });
+  api.get('/', { handle: (): { jobs: JobListRow[] } => ({ jobs: listJobs(db) }) });
   api.get('/:id', { schemas: { params: IdParamsSchema }, handle: ({ params }) => mustFind(params.id) });
 
   api.post('/', {
@@ -154,7 +162,7 @@ export function jobRoutes(ctx: AppContext) {
 
   api.get('/:id/report', {
     schemas: { params: IdParamsSchema },
-    handle: ({ params }) => reportText(db, mustFind(params.id)),
+    handle: ({ params }): JobReport => reportText(db, mustFind(params.id)),
   });
 
   api.post('/:id/report', {

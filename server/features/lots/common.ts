@@ -1,7 +1,7 @@
 // What every lot route module shares: the kinds, their units and quantities, the summary shape, finding a lot.
 import type { AppContext } from '@server/context';
 import { notFound } from '@server/http/errors';
-import { LOT_KINDS } from '@shared/schemas/lots';
+import { LOT_KINDS, type Lot } from '@shared/schemas/lots';
 import { findLot, type LotRow } from './repository';
 
 export type LotKind = (typeof LOT_KINDS)[number];
@@ -10,8 +10,9 @@ export const QUANTITY = { capacitor: 'capacitance', pot: 'resistance', resistor:
 /** Lots hold capacitors, pots or resistors only (the lot kinds of shared/schemas/lots.ts). */
 export const lotKind = (lot: LotRow) => lot.kind as LotKind;
 
-export function lotSummary(lot: LotRow) {
-  return { ...lot, unit: UNIT[lotKind(lot)] };
+/** The lot as the API sends it (shared/schemas/lots.ts `Lot`). */
+export function lotSummary(lot: LotRow): Lot {
+  return { ...lot, kind: lotKind(lot), unit: UNIT[lotKind(lot)] };
 }
 
 /** The lot with that id, or a 404. */

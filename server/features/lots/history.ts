@@ -4,23 +4,10 @@
 import { and, asc, eq, inArray } from 'drizzle-orm';
 import type { DbLike } from '@server/db/client';
 import { auditLog, users } from '@server/db/schema';
+import type { LotHistoryEvent, LotHistoryKind } from '@shared/schemas/lots';
 import type { LotRow } from './repository';
 
-export type LotHistoryKind = 'created' | 'upload' | 'disposition' | 'reopen' | 'watchers' | 'promote';
-
-export interface LotHistoryEvent {
-  kind: LotHistoryKind;
-  at: number;
-  by: string | null;
-  /** Upload: the file and its rows; disposition: the status; reopen: the status it had. */
-  file?: string;
-  rows?: number;
-  replaced?: boolean;
-  status?: string;
-  was?: string;
-  reason?: string;
-  parts?: number;
-}
+export type { LotHistoryEvent, LotHistoryKind } from '@shared/schemas/lots';
 
 const KIND: Record<string, LotHistoryKind> = {
   'lot.create': 'created',

@@ -18,6 +18,9 @@ import {
   LotStatsQuerySchema,
   PromoteInputSchema,
   WatchersInputSchema,
+  type LotDetail,
+  type LotItems,
+  type LotListRow,
 } from '@shared/schemas/lots';
 import { lotFinder, lotSummary, QUANTITY } from './common';
 import { lotDispositionRoutes } from './disposition';
@@ -50,7 +53,7 @@ export function lotRoutes(ctx: AppContext) {
   };
 
   registerWatcherRoutes(api, ctx);
-  api.get('/', { handle: () => ({ lots: listLots(db).map((l) => ({ ...lotSummary(l), count: l.count })) }) });
+  api.get('/', { handle: (): { lots: LotListRow[] } => ({ lots: listLots(db).map((l) => ({ ...lotSummary(l), count: l.count })) }) });
 
   api.post('/', {
     status: 201,
@@ -139,7 +142,8 @@ export function lotRoutes(ctx: AppContext) {
       const disposedByName = lot.disposedBy
         ? (db.select({ name: users.name }).from(users).where(eq(users.id, lot.disposedBy)).get()?.name ?? null)
         : null;
-      const head = {
+      // Every field of LotDetail but `stats`, which is spliced in below as stored text.
+      const head: Omit<LotDetail, 'stats'> = {
         ...lotSummary(lot),
         disposedByName,
         count: results.count,
@@ -158,7 +162,7 @@ export function lotRoutes(ctx: AppContext) {
       const lot = mustFind(params.id);
       const results = isDefaultMatching(query) ? storedLotStats(sqlite, lot, 'columns') : freshResults(lot, query);
       // Which items became parts is read on every request: a promotion changes it, not the readings.
-      const partIds = lotItemPartIds(db, sqlite, lot.id, results.count);
+      const partIds: LotItems['partIds'] = lotItemPartIds(db, sqlite, lot.id, results.count);
       // The stored columns object, with partIds put in front of its first key.
       res.type('json').send(`{"partIds":${JSON.stringify(partIds)},${results.columnsJson.slice(1)}`);
     },

@@ -7,7 +7,7 @@ import { lots, parts, partStatusEvents, toleranceProfiles, users } from '@server
 import { notFound, unprocessable } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
 import { IdParamsSchema } from '@shared/schemas/common';
-import { CreatePartInputSchema, nominalProblem, PartListQuerySchema, UpdatePartInputSchema } from '@shared/schemas/parts';
+import { CreatePartInputSchema, nominalProblem, PartListQuerySchema, UpdatePartInputSchema, type PartDetail } from '@shared/schemas/parts';
 import { jobsOfPart } from '@server/features/jobs/repository';
 import { assertLabelFree, findPart, findPartByLabel, listParts, setPartStatus } from './repository';
 
@@ -57,7 +57,7 @@ export function partRoutes(ctx: AppContext) {
 
   api.get('/:id', {
     schemas: { params: IdParamsSchema },
-    handle: ({ params }) => {
+    handle: ({ params }): PartDetail => {
       const part = findPart(db, params.id);
       if (!part) throw notFound('That part');
       const statusHistory = db

@@ -8,7 +8,7 @@ import { coilFlags, fitCoil, type CoilFit, type CoilPoint } from '@shared/analys
 import { ANALYSIS_ENGINE_VERSION } from '@shared/analysis/engine-version';
 import { fitTaper, type TaperFit, type TaperPoint } from '@shared/analysis/taper';
 import type { ProfileRules } from '@shared/schemas/bench';
-import type { Fit } from '@shared/schemas/sweeps';
+import type { Fit, Sweep } from '@shared/schemas/sweeps';
 import type { RefitInput } from '@shared/schemas/sweeps';
 import type { StoredPoint } from './store';
 
@@ -17,6 +17,8 @@ export type FitRow = typeof fits.$inferSelect;
 
 /** A fit row as the API sends it: a row's kind and result are always written together (fitAndStore). */
 export const asFit = (row: FitRow): Fit => row as Fit;
+/** A sweep row with its points and current fit, as the API sends it: the points follow the row's kind (fitInput). */
+export const asSweep = (row: SweepRow, points: TaperPoint[] | CoilPoint[], fit: Fit | null): Sweep => ({ ...row, points, fit }) as Sweep;
 export type SweepFit = { kind: 'taper'; result: TaperFit } | { kind: 'coil'; result: CoilFit };
 
 /** Stored-form points in the engine's input shape (taper rotation in percent of the full rotation). */

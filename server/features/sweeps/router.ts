@@ -9,9 +9,16 @@ import { ApiRouter } from '@server/http/router';
 import { fileRefused } from '@server/uploads/refusal';
 import { checkFileType, singleFileUpload, withStoredFile, storedName } from '@server/uploads/store';
 import { IdParamsSchema } from '@shared/schemas/common';
-import { RefitInputSchema, SweepUploadFieldsSchema } from '@shared/schemas/sweeps';
+import {
+  RefitInputSchema,
+  SweepUploadFieldsSchema,
+  type Fit,
+  type RefitResult,
+  type Sweep,
+  type SweepUploadResult,
+} from '@shared/schemas/sweeps';
 import { parseSweepCsv } from '@shared/csv/sweeps';
-import { asFit, fitAndStore, fitInput, sweepInput, type SweepRow } from './fit';
+import { asFit, asSweep, fitAndStore, fitInput, sweepInput, type SweepRow } from './fit';
 import { insertSweep, toStoredPoints } from './store';
 
 const MAX_SWEEP_BYTES = 2 * 1024 * 1024;
@@ -21,7 +28,7 @@ export function sweepRoutes(ctx: AppContext) {
   const { db } = ctx;
   const api = new ApiRouter('/api/parts/:id');
 
-  const withFits = (list: SweepRow[]) => {
+  const withFits = (list: SweepRow[]): Sweep[] => {
     if (list.length === 0) return [];
     const current = db
       .select()
@@ -37,12 +44,12 @@ export function sweepRoutes(ctx: AppContext) {
       )
       .all()
       .map(asFit);
-    return list.map((s) => ({ ...s, points: sweepInput(db, s), fit: current.find((f) => f.sweepId === s.id) ?? null }));
+    return list.map((s) => asSweep(s, sweepInput(db, s), current.find((f) => f.sweepId === s.id) ?? null));
   };
 
   api.get('/sweeps', {
     schemas: { params: IdParamsSchema },
-    handle: ({ params }) => {
+    handle: ({ params }): { sweeps: Sweep[] } => {
       if (!findPart(db, params.id)) throw notFound('That part');
       return { sweeps: withFits(db.select().from(sweeps).where(eq(sweeps.partId, params.id)).orderBy(desc(sweeps.id)).all()) };
     },
@@ -52,7 +59,7 @@ export function sweepRoutes(ctx: AppContext) {
     status: 201,
     before: [singleFileUpload(MAX_SWEEP_BYTES)],
     schemas: { params: IdParamsSchema, body: SweepUploadFieldsSchema },
-    handle: ({ params, body, req, user }) => {
+    handle: ({ params, body, req, user }): SweepUploadResult => {
       const part = findPart(db, params.id);
       if (!part) throw notFound('That part');
       if (body.kind === 'taper' && part.kind !== 'pot')
@@ -98,13 +105,13 @@ export function sweepRoutes(ctx: AppContext) {
               entityId: part.id,
               detail: { sweepId: sweep.id, kind: body.kind, points: stored.length, file: attachment.originalName, flagged: fit.flagged },
             });
+            const storedFit = asFit(fit);
             return {
-              ...sweep,
-              points: fitInput(sweep.kind, stored),
-              fit: asFit(fit),
+              ...asSweep(sweep, fitInput(sweep.kind, stored), storedFit),
+              fit: storedFit,
               ignoredColumns: parsed.ignored,
               notes: parsed.notes,
-              part: findPart(tx, part.id),
+              part: findPart(tx, part.id)!,
             };
           }),
         );
@@ -117,7 +124,7 @@ export function sweepRoutes(ctx: AppContext) {
 
   api.get('/fits', {
     schemas: { params: IdParamsSchema },
-    handle: ({ params }) => {
+    handle: ({ params }): { fits: Fit[] } => {
       if (!findPart(db, params.id)) throw notFound('That part');
       return { fits: db.select().from(fits).where(eq(fits.partId, params.id)).orderBy(desc(fits.id)).all().map(asFit) };
     },
@@ -126,7 +133,7 @@ export function sweepRoutes(ctx: AppContext) {
   // Runs the current engine again over a stored sweep; the previous fit stays in the history.
   api.post('/sweeps/:sweepId/refit', {
     schemas: { params: IdParamsSchema.extend({ sweepId: z.coerce.number().int().positive() }), body: RefitInputSchema },
-    handle: ({ params, body, user }) => {
+    handle: ({ params, body, user }): RefitResult => {
       const part = findPart(db, params.id);
       const sweep = db
         .select()
@@ -143,7 +150,7 @@ export function sweepRoutes(ctx: AppContext) {
           entityId: part.id,
           detail: { sweepId: sweep.id, fitId: fit.id, choices: body },
         });
-        return { fit: asFit(fit), part: findPart(tx, part.id) };
+        return { fit: asFit(fit), part: findPart(tx, part.id)! };
       });
     },
   });

@@ -1,5 +1,6 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { instrumentsQueryOptions, profilesQueryOptions } from '@/components/readings/api';
+import { instrumentsQueryOptions } from '@/data/instruments';
+import { profilesQueryOptions } from '@/data/profiles';
 import { recentReadingsQueryOptions } from '@/features/bench/api/get-recent-readings';
 import { BenchScreen } from '@/features/bench/components/bench-screen';
 

@@ -1,5 +1,5 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { harnessesQueryOptions } from '@/features/harness/api/get-harnesses';
+import { harnessesQueryOptions } from '@/data/harnesses';
 import { HarnessScreen } from '@/features/harness/components/harness-screen';
 
 // The curves are computed in the browser; only the saved designs come from the server.

@@ -1,5 +1,5 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { jobsQueryOptions } from '@/features/jobs/api/get-jobs';
+import { jobsQueryOptions } from '@/data/jobs';
 import { JobsScreen } from '@/features/jobs/components/jobs-screen';
 
 export const makeLoader = (queryClient: QueryClient) => async () => {

@@ -1,6 +1,6 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { data, useParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { partQueryOptions } from '@/features/parts/api/get-part';
+import { partQueryOptions } from '@/data/parts';
 import { partReadingsQueryOptions } from '@/features/parts/api/get-readings';
 import { sweepsQueryOptions } from '@/features/parts/api/sweeps';
 import { PartScreen } from '@/features/parts/components/part-screen';

@@ -1,6 +1,7 @@
 import type { QueryClient } from '@tanstack/react-query';
 import type { LoaderFunctionArgs, ShouldRevalidateFunction } from 'react-router-dom';
-import { PARTS_LIST_LIMIT, filtersFromSearch, partsQueryOptions } from '@/features/parts/api/get-parts';
+import { partsQueryOptions } from '@/data/parts';
+import { PARTS_LIST_LIMIT, filtersFromSearch } from '@/features/parts/api/get-parts';
 import { PartsScreen } from '@/features/parts/components/parts-screen';
 
 export const makeLoader =

@@ -1,7 +1,8 @@
 import type { QueryClient } from '@tanstack/react-query';
 import type { LoaderFunctionArgs } from 'react-router-dom';
 import { roleCan } from '@shared/auth/capabilities';
-import { instrumentsQueryOptions, profilesQueryOptions } from '@/components/readings/api';
+import { instrumentsQueryOptions } from '@/data/instruments';
+import { profilesQueryOptions } from '@/data/profiles';
 import { invitationsQueryOptions } from '@/features/team/api/get-invitations';
 import { membersQueryOptions } from '@/features/team/api/get-members';
 import { TeamScreen } from '@/features/team/components/team-screen';

@@ -4,7 +4,8 @@ import type { ReadingJudgement } from '@shared/analysis/reading-verdict';
 import { judgeReading, type ProfileSpec } from '@shared/analysis/reading-verdict';
 import type { ReadingQuantity } from '@shared/schemas/bench';
 import { chooseProfile, type ProfiledPart } from '@shared/analysis/profile-match';
-import type { Instrument, Profile } from './api';
+import type { Instrument } from '@/data/instruments';
+import type { Profile } from '@/data/profiles';
 
 export type JudgedPart = ProfiledPart & { tolerancePct: number | null };
 

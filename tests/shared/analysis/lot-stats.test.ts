@@ -12,10 +12,29 @@ function lot(n: number, seed: number, nominal = 500e3, spreadPct = 5): Float64Ar
   return x;
 }
 
-describe('Cp and Cpk (NIST/SEMATECH e-Handbook §6.1.6)', () => {
+describe('Cp and Cpk', () => {
+  it('the published gap-width example gives Cp 0.38160, CPL 0.50032, CPU = Cpk 0.26288', () => {
+    // SAS Institute Inc., SAS/QC User's Guide, SHEWHART procedure, Example 18.37, Output 18.37.1
+    // (first-hand; tests/fixtures/examples/process-capability.txt): LSL 240, USL 270, mean 259.667,
+    // s 13.1028. Those inputs are printed rounded, so each index may differ from the printed one by
+    // up to 1.3e-5 + 5e-6 (the fixture's source line works it out): allowed 2e-5.
+    // Data m − s, m, m + s have mean m and sample SD s; nominal 255 ± 15/255 gives 240 … 270.
+    const m = 259.667;
+    const s = 13.1028;
+    const r = lotStatistics({ values: [m - s, m, m + s], nominal: 255, tolerancePct: (15 / 255) * 100 });
+    expect(r.lower).toBeCloseTo(240, 9);
+    expect(r.upper).toBeCloseTo(270, 9);
+    expect(Math.abs(r.cp! - 0.3816)).toBeLessThanOrEqual(1e-5);
+    expect(Math.abs(r.cpk! - 0.26288)).toBeLessThanOrEqual(2e-5);
+    // CPL and CPU from the same mean, SD and limits (the engine reports their minimum as Cpk).
+    expect(Math.abs((r.mean - r.lower) / (3 * r.sd) - 0.50032)).toBeLessThanOrEqual(2e-5);
+    expect(Math.abs((r.upper - r.mean) / (3 * r.sd) - 0.26288)).toBeLessThanOrEqual(2e-5);
+  });
+
   it('the handbook example USL = 20, LSL = 8, x̄ = 16, s = 2 gives Cp = 1, Cpk = 2/3', () => {
-    // Example numbers SECONDHAND (a public known-answer test module quoting the handbook, named in
-    // tests/fixtures/examples/process-capability.txt); re-derived here: Cpu = 4/6, Cpl = 8/6.
+    // NIST/SEMATECH e-Handbook §6.1.6. Example numbers SECONDHAND (a public known-answer test module
+    // quoting the handbook; see tests/fixtures/examples/process-capability.txt); re-derived here from
+    // the formulas read first-hand in the SAS/QC User's Guide: Cpu = 4/6, Cpl = 8/6.
     // Data 14, 16, 18 have mean 16 and sample SD 2 exactly; nominal 14 ± 300/7 % gives 8 … 20.
     const r = lotStatistics({ values: [14, 16, 18], nominal: 14, tolerancePct: 300 / 7 });
     expect(r.mean).toBe(16);

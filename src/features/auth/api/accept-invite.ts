@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { AcceptInviteInput, User } from '@shared/schemas/auth';
 import { api } from '@/lib/api-client';
-import { ME_QUERY_KEY } from '@/lib/react-query';
+import { queryKeys } from '@/data/query-keys';
 
 export const acceptInvite = (input: AcceptInviteInput) => api.post<{ user: User }>('/api/auth/accept-invite', input);
 
@@ -11,8 +11,8 @@ export function useAcceptInvite() {
   return useMutation({
     mutationFn: acceptInvite,
     onSuccess: ({ user }) => {
-      queryClient.removeQueries({ predicate: (q) => q.queryKey[0] !== ME_QUERY_KEY[0] });
-      queryClient.setQueryData(ME_QUERY_KEY, { user });
+      queryClient.removeQueries({ predicate: (q) => q.queryKey[0] !== queryKeys.auth.me()[0] });
+      queryClient.setQueryData(queryKeys.auth.me(), { user });
     },
   });
 }

@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { Role } from '@shared/schemas/common';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/data/query-keys';
 
 export type InvitationPreview = { email: string; role: Role; expiresAt: number };
 
@@ -9,7 +10,7 @@ export const getInvitation = (token: string, signal?: AbortSignal) =>
 
 export const invitationQueryOptions = (token: string) =>
   queryOptions({
-    queryKey: ['auth', 'invitation', token],
+    queryKey: queryKeys.auth.invitation(token),
     queryFn: ({ signal }) => getInvitation(token, signal),
     staleTime: Infinity,
   });

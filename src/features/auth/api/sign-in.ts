@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { SignInInput, User } from '@shared/schemas/auth';
 import { api } from '@/lib/api-client';
-import { ME_QUERY_KEY } from '@/lib/react-query';
+import { queryKeys } from '@/data/query-keys';
 
 export const signIn = (input: SignInInput) => api.post<{ user: User }>('/api/auth/sign-in', input);
 
@@ -11,8 +11,8 @@ export function useSignIn() {
     mutationFn: signIn,
     onSuccess: ({ user }) => {
       // Whatever another account left in the cache is not this user's to see.
-      queryClient.removeQueries({ predicate: (q) => q.queryKey[0] !== ME_QUERY_KEY[0] });
-      queryClient.setQueryData(ME_QUERY_KEY, { user });
+      queryClient.removeQueries({ predicate: (q) => q.queryKey[0] !== queryKeys.auth.me()[0] });
+      queryClient.setQueryData(queryKeys.auth.me(), { user });
     },
   });
 }

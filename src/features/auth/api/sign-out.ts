@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
-import { ME_QUERY_KEY } from '@/lib/react-query';
+import { queryKeys } from '@/data/query-keys';
 
 export const signOut = () => api.post<{ ok: true }>('/api/auth/sign-out');
 
@@ -9,8 +9,8 @@ export function useSignOut() {
   return useMutation({
     mutationFn: signOut,
     onSettled: () => {
-      queryClient.removeQueries({ predicate: (q) => q.queryKey[0] !== ME_QUERY_KEY[0] });
-      queryClient.setQueryData(ME_QUERY_KEY, { user: null });
+      queryClient.removeQueries({ predicate: (q) => q.queryKey[0] !== queryKeys.auth.me()[0] });
+      queryClient.setQueryData(queryKeys.auth.me(), { user: null });
     },
   });
 }

@@ -1,6 +1,7 @@
 import { queryOptions } from '@tanstack/react-query';
 import type { Part } from '@shared/schemas/parts';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/data/query-keys';
 
 /**
  * What a scanner or a person typed: a part page address (`…/parts/42`, from the printed label's
@@ -22,7 +23,7 @@ export const findPart = (scan: { id: number } | { label: string }, signal?: Abor
 /** Asked afresh each time (staleTime 0): the part may have changed since the last scan. */
 export const findPartQueryOptions = (scan: { id: number } | { label: string }) =>
   queryOptions({
-    queryKey: ['parts', 'lookup', scan],
+    queryKey: queryKeys.parts.lookup(scan),
     queryFn: ({ signal }) => findPart(scan, signal),
     staleTime: 0,
     retry: false,

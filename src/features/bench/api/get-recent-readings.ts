@@ -1,7 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { PartKind } from '@shared/schemas/common';
-import type { Reading } from '@/components/readings/api';
+import type { Reading } from '@/data/readings';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/data/query-keys';
 
 export type RecentReading = Reading & { partLabel: string; partKind: PartKind };
 
@@ -11,6 +12,6 @@ export const getRecentReadings = (signal?: AbortSignal) =>
   api.get<{ readings: RecentReading[] }>('/api/readings/recent', { params: { limit: RECENT_LIMIT }, signal });
 
 export const recentReadingsQueryOptions = () =>
-  queryOptions({ queryKey: ['readings', 'recent'], queryFn: ({ signal }) => getRecentReadings(signal) });
+  queryOptions({ queryKey: queryKeys.readings.recent(), queryFn: ({ signal }) => getRecentReadings(signal) });
 
 export const useRecentReadings = () => useQuery(recentReadingsQueryOptions());

@@ -12,7 +12,7 @@ import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/field';
 import { applyServerError } from '@/lib/form';
-import { useCreatePart } from '../api/create-part';
+import { useCreatePart } from '@/data/parts';
 
 const KIND_LABEL: Record<PartKind, string> = { pot: 'Pot', capacitor: 'Capacitor', resistor: 'Resistor', pickup: 'Pickup', other: 'Other' };
 

@@ -1,12 +1,13 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import type { SavedComparison } from './types';
+import { queryKeys } from '@/data/query-keys';
 
 export const getComparisons = (signal?: AbortSignal) => api.get<{ comparisons: SavedComparison[] }>('/api/comparisons', { signal });
 
 export const comparisonsQueryOptions = () =>
   queryOptions({
-    queryKey: ['comparisons', 'list'],
+    queryKey: queryKeys.comparisons.list(),
     queryFn: ({ signal }) => getComparisons(signal),
   });
 
@@ -16,7 +17,7 @@ export const getComparison = (id: number, signal?: AbortSignal) => api.get<Saved
 
 export const comparisonQueryOptions = (id: number) =>
   queryOptions({
-    queryKey: ['comparisons', 'detail', id],
+    queryKey: queryKeys.comparisons.detail(id),
     queryFn: ({ signal }) => getComparison(id, signal),
   });
 

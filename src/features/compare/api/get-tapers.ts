@@ -1,13 +1,9 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { GroupBy } from '@shared/analysis/compare';
-import type { CompareSelection } from '@shared/schemas/compare';
 import { api } from '@/lib/api-client';
 import type { CompareTapersResponse } from './types';
+import { queryKeys, type TapersRequest } from '@/data/query-keys';
 
-export interface TapersRequest {
-  selection: CompareSelection;
-  groupBy: GroupBy;
-}
+export type { TapersRequest } from '@/data/query-keys';
 
 // A POST because a selection can list many part ids; it reads only, so it is a query.
 export const getCompareTapers = (req: TapersRequest, signal?: AbortSignal) =>
@@ -15,7 +11,7 @@ export const getCompareTapers = (req: TapersRequest, signal?: AbortSignal) =>
 
 export const compareTapersQueryOptions = (req: TapersRequest) =>
   queryOptions({
-    queryKey: ['compare', 'tapers', req],
+    queryKey: queryKeys.compare.tapers(req),
     queryFn: ({ signal }) => getCompareTapers(req, signal),
   });
 

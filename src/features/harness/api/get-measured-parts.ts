@@ -1,38 +1,23 @@
 // Measured parts a harness can take its values from: pickups with a coil fit, pots with a taper
 // fit. The list route has no "has a fit" filter, so the parts of the kind are listed and their fits
 // asked for one by one — only when the user opens the chooser, and for at most MEASURED_LIMIT parts.
-import { queryOptions, useQueries, useQuery } from '@tanstack/react-query';
+import { useQueries, useQuery } from '@tanstack/react-query';
 import type { CoilFit } from '@shared/analysis/coil';
 import type { TaperFit } from '@shared/analysis/taper';
 import type { Part } from '@shared/schemas/parts';
 import type { Fit } from '@shared/schemas/sweeps';
 import { TAPER_LAWS } from '@shared/taper/law';
-import { api } from '@/lib/api-client';
+import { partFitsQueryOptions, partQueryOptions, partsQueryOptions } from '@/data/parts';
 
 export const MEASURED_LIMIT = 100;
 
 type MeasuredKind = 'pickup' | 'pot';
 const FIT_KIND = { pickup: 'coil', pot: 'taper' } as const;
 
-export const partsOfKindQueryOptions = (kind: MeasuredKind) =>
-  queryOptions({
-    queryKey: ['parts', 'list', { kind, limit: MEASURED_LIMIT }],
-    queryFn: ({ signal }) => api.get<{ parts: Part[] }>('/api/parts', { params: { kind, limit: MEASURED_LIMIT }, signal }),
-  });
+/** The parts of the kind the chooser looks at: the parts list's query with a kind and a limit. */
+export const partsOfKindQueryOptions = (kind: MeasuredKind) => partsQueryOptions({ kind, limit: MEASURED_LIMIT });
 
-export const partFitsQueryOptions = (partId: number) =>
-  queryOptions({
-    queryKey: ['parts', 'detail', partId, 'fits'],
-    queryFn: ({ signal }) => api.get<{ fits: Fit[] }>(`/api/parts/${partId}/fits`, { signal }),
-  });
-
-/** Part detail, for the label of a part a saved design refers to. Same key as the parts screen. */
-export const partQueryOptions = (partId: number) =>
-  queryOptions({
-    queryKey: ['parts', 'detail', partId],
-    queryFn: ({ signal }) => api.get<Part>(`/api/parts/${partId}`, { signal }),
-  });
-
+/** The label of a part a saved design refers to (the part page's query). */
 export const usePartLabel = (partId: number | undefined) => {
   const q = useQuery({ ...partQueryOptions(partId ?? 0), enabled: partId !== undefined });
   return q.data?.label;

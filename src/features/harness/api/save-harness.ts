@@ -1,6 +1,7 @@
 import { useMutation } from '@tanstack/react-query';
 import type { HarnessDesign, HarnessDesignInput } from '@shared/schemas/harness';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/data/query-keys';
 
 export const createHarness = (input: HarnessDesignInput) => api.post<HarnessDesign>('/api/harnesses', input);
 
@@ -9,6 +10,6 @@ export const updateHarness = ({ id, input }: { id: number; input: HarnessDesignI
 
 export const deleteHarness = (id: number) => api.delete<{ ok: true }>(`/api/harnesses/${id}`);
 
-export const useCreateHarness = () => useMutation({ mutationFn: createHarness, meta: { invalidates: [['harnesses']] } });
-export const useUpdateHarness = () => useMutation({ mutationFn: updateHarness, meta: { invalidates: [['harnesses']] } });
-export const useDeleteHarness = () => useMutation({ mutationFn: deleteHarness, meta: { invalidates: [['harnesses']] } });
+export const useCreateHarness = () => useMutation({ mutationFn: createHarness, meta: { invalidates: [queryKeys.harnesses.all()] } });
+export const useUpdateHarness = () => useMutation({ mutationFn: updateHarness, meta: { invalidates: [queryKeys.harnesses.all()] } });
+export const useDeleteHarness = () => useMutation({ mutationFn: deleteHarness, meta: { invalidates: [queryKeys.harnesses.all()] } });

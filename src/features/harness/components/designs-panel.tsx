@@ -14,7 +14,7 @@ import { Panel } from '@/components/ui/page-header';
 import { useCan, useUser } from '@/lib/auth';
 import { formatDateTime } from '@/lib/format';
 import { applyServerError } from '@/lib/form';
-import { useHarnesses } from '../api/get-harnesses';
+import { useHarnesses } from '@/data/harnesses';
 import { useCreateHarness, useDeleteHarness, useUpdateHarness } from '../api/save-harness';
 import { activeErrors, partRefsOf, presetOf, usedValues, type DesignState } from './design-state';
 

@@ -1,11 +1,12 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/data/query-keys';
 import type { JobDetail, JobReport } from './types';
 
 export const getJob = (id: number, signal?: AbortSignal) => api.get<JobDetail>(`/api/jobs/${id}`, { signal });
 
 export const jobQueryOptions = (id: number) =>
-  queryOptions({ queryKey: ['jobs', 'detail', id], queryFn: ({ signal }) => getJob(id, signal) });
+  queryOptions({ queryKey: queryKeys.jobs.detail(id), queryFn: ({ signal }) => getJob(id, signal) });
 
 export const useJob = (id: number) => useQuery(jobQueryOptions(id));
 
@@ -13,6 +14,6 @@ export const getJobReport = (id: number, signal?: AbortSignal) => api.get<JobRep
 
 // Under the job's key: installing or removing a part refreshes the preview too.
 export const jobReportQueryOptions = (id: number) =>
-  queryOptions({ queryKey: ['jobs', 'detail', id, 'report'], queryFn: ({ signal }) => getJobReport(id, signal) });
+  queryOptions({ queryKey: queryKeys.jobs.report(id), queryFn: ({ signal }) => getJobReport(id, signal) });
 
 export const useJobReport = (id: number) => useQuery(jobReportQueryOptions(id));

@@ -8,7 +8,7 @@ import { Button } from '@/components/ui/button';
 import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
 import { paths } from '@/config/paths';
 import { applyServerError } from '@/lib/form';
-import { useHarnesses } from '../api/get-harnesses';
+import { useHarnesses } from '@/data/harnesses';
 import { useCreateJob } from '../api/save-job';
 
 const JobFormFields = z.object({

@@ -8,7 +8,7 @@ import { paths } from '@/config/paths';
 import { useCan } from '@/lib/auth';
 import { formatDate, formatDateTime, formatNominal } from '@/lib/format';
 import { useJob } from '../api/get-job';
-import { useHarnesses } from '../api/get-harnesses';
+import { useHarnesses } from '@/data/harnesses';
 import { useRemovePart } from '../api/job-parts';
 import { useUpdateJob } from '../api/save-job';
 import type { JobDetail } from '../api/types';

@@ -6,7 +6,7 @@ import { PageHeader } from '@/components/ui/page-header';
 import { paths } from '@/config/paths';
 import { useCan } from '@/lib/auth';
 import { formatDate } from '@/lib/format';
-import { useJobs } from '../api/get-jobs';
+import { useJobs } from '@/data/jobs';
 import { CreateJobForm } from './job-form';
 import { JobStatusBadge } from './job-status-badge';
 

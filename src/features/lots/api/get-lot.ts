@@ -1,5 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/data/query-keys';
 import type { LotDetail, MatchOptions } from './types';
 
 export const getLot = (id: number, match: MatchOptions, signal?: AbortSignal) =>
@@ -7,7 +8,7 @@ export const getLot = (id: number, match: MatchOptions, signal?: AbortSignal) =>
 
 export const lotQueryOptions = (id: number, match: MatchOptions) =>
   queryOptions({
-    queryKey: ['lots', 'detail', id, match],
+    queryKey: queryKeys.lots.detail(id, match),
     queryFn: ({ signal }) => getLot(id, match, signal),
   });
 

@@ -3,6 +3,7 @@
 import { queryOptions, useMutation, useQuery } from '@tanstack/react-query';
 import type { Member as TeamMember } from '@shared/schemas/auth';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/data/query-keys';
 import type { LotWatcher } from './types';
 
 /** What the watcher list needs of a member. */
@@ -12,7 +13,7 @@ export const getMembers = (signal?: AbortSignal) => api.get<{ members: Member[] 
 
 export const membersQueryOptions = () =>
   queryOptions({
-    queryKey: ['lots', 'watcher-candidates'],
+    queryKey: queryKeys.lots.watcherCandidates(),
     queryFn: ({ signal }) => getMembers(signal),
   });
 
@@ -20,4 +21,4 @@ export const useMembers = (enabled: boolean) => useQuery({ ...membersQueryOption
 
 export const setWatchers = ({ id, userIds }: { id: number; userIds: string[] }) =>
   api.put<{ watchers: LotWatcher[] }>(`/api/lots/${id}/watchers`, { userIds });
-export const useSetWatchers = () => useMutation({ mutationFn: setWatchers, meta: { invalidates: [['lots']] } });
+export const useSetWatchers = () => useMutation({ mutationFn: setWatchers, meta: { invalidates: [queryKeys.lots.all()] } });

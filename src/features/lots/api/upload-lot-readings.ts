@@ -5,6 +5,7 @@ import { useMutation } from '@tanstack/react-query';
 import type { ExplicitMapping, NeedsMapping } from '@shared/csv/columns';
 import { api, isApiError, type FileIssue } from '@/lib/api-client';
 import type { Lot, LotStats } from './types';
+import { queryKeys } from '@/data/query-keys';
 
 export type UploadIssue = FileIssue;
 
@@ -46,4 +47,4 @@ export async function uploadLotReadings({ id, file, replace, mapping }: UploadIn
   return api.post<UploadResult>(`/api/lots/${id}/readings`, form);
 }
 
-export const useUploadLotReadings = () => useMutation({ mutationFn: uploadLotReadings, meta: { invalidates: [['lots']] } });
+export const useUploadLotReadings = () => useMutation({ mutationFn: uploadLotReadings, meta: { invalidates: [queryKeys.lots.all()] } });

@@ -11,7 +11,7 @@ import { applyServerError } from '@/lib/form';
 import { ROLE_LABEL, toleranceText } from '@/lib/format';
 import { useCreateLot } from '../api/create-lot';
 import { useMembers } from '../api/get-members';
-import { useInstruments } from '@/components/readings/api';
+import { useInstruments } from '@/data/instruments';
 import {
   CreateLotFormSchema,
   LOT_FORM_FIELDS,

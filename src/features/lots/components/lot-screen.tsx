@@ -14,7 +14,7 @@ import { usePromoteLotItems } from '../api/promote-lot';
 import { LotItemScan } from './lot-item-scan';
 import { LotHistory } from './lot-history';
 import { LotWatchers } from './lot-watchers';
-import { useInstruments } from '@/components/readings/api';
+import { useInstruments } from '@/data/instruments';
 import { DEFAULT_MATCH, type LotDetail, type MatchOptions } from '../api/types';
 import { LotDisposition } from './lot-disposition';
 import { LOT_KIND_LABEL, SECOND_LABEL, SECOND_UNIT } from './lot-form-schema';

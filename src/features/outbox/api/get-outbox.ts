@@ -1,5 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/data/query-keys';
 
 export type OutboxMessage = {
   id: number;
@@ -15,6 +16,6 @@ export type OutboxMessage = {
 
 export const getOutbox = (signal?: AbortSignal) => api.get<{ messages: OutboxMessage[] }>('/api/outbox', { signal });
 
-export const outboxQueryOptions = () => queryOptions({ queryKey: ['outbox', 'list'], queryFn: ({ signal }) => getOutbox(signal) });
+export const outboxQueryOptions = () => queryOptions({ queryKey: queryKeys.outbox.list(), queryFn: ({ signal }) => getOutbox(signal) });
 
 export const useOutbox = () => useQuery(outboxQueryOptions());

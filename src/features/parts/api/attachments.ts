@@ -1,5 +1,6 @@
 import { queryOptions, useMutation, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/data/query-keys';
 
 export type Attachment = {
   id: number;
@@ -16,7 +17,7 @@ export const attachmentFileHref = (id: number) => `/api/attachments/${id}/file`;
 
 export const attachmentsQueryOptions = (partId: number) =>
   queryOptions({
-    queryKey: ['parts', 'detail', partId, 'attachments'],
+    queryKey: queryKeys.parts.attachments(partId),
     queryFn: ({ signal }) => api.get<{ attachments: Attachment[] }>(`/api/parts/${partId}/attachments`, { signal }),
   });
 export const useAttachments = (partId: number) => useQuery(attachmentsQueryOptions(partId));
@@ -27,4 +28,4 @@ export function uploadAttachment({ partId, file, purpose }: { partId: number; fi
   form.set('file', file);
   return api.post<Attachment>(`/api/parts/${partId}/attachments`, form);
 }
-export const useUploadAttachment = () => useMutation({ mutationFn: uploadAttachment, meta: { invalidates: [['parts', 'detail']] } });
+export const useUploadAttachment = () => useMutation({ mutationFn: uploadAttachment, meta: { invalidates: [queryKeys.parts.details()] } });

@@ -1,21 +1,9 @@
-import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import { keepPreviousData, useQuery } from '@tanstack/react-query';
 import { PART_KINDS, PART_STATUSES, type PartKind, type PartStatus } from '@shared/schemas/common';
-import type { Part } from '@shared/schemas/parts';
-import { api } from '@/lib/api-client';
-
-export type PartFilters = { kind?: PartKind; status?: PartStatus; q?: string; lotId?: number; limit?: number };
+import { partsQueryOptions, type PartFilters } from '@/data/parts';
 
 /** The list shows at most this many parts (the newest); filters narrow it. */
 export const PARTS_LIST_LIMIT = 500;
-
-export const getParts = (filters: PartFilters, signal?: AbortSignal) =>
-  api.get<{ parts: Part[] }>('/api/parts', { params: filters, signal });
-
-export const partsQueryOptions = (filters: PartFilters = {}) =>
-  queryOptions({
-    queryKey: ['parts', 'list', filters],
-    queryFn: ({ signal }) => getParts(filters, signal),
-  });
 
 /** Keeps the previous rows on screen while a new filter loads, so the table does not blink. */
 export const useParts = (filters: PartFilters) => useQuery({ ...partsQueryOptions(filters), placeholderData: keepPreviousData });

@@ -12,8 +12,9 @@ import { Badge } from '@/components/ui/badge';
 import { Button } from '@/components/ui/button';
 import { useCan } from '@/lib/auth';
 import { formatDateTime } from '@/lib/format';
-import type { PartDetail } from '../api/get-part';
-import { useFits, useRefitSweep, useSweeps } from '../api/sweeps';
+import type { PartDetail } from '@shared/schemas/parts';
+import { useFits } from '@/data/parts';
+import { useRefitSweep, useSweeps } from '../api/sweeps';
 
 const pct = (x: number, digits = 1) => `${x.toFixed(digits)} %`;
 const withErr = (v: number, se: number | null | undefined, unit: string) => (

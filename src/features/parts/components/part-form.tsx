@@ -11,7 +11,7 @@ import { Button } from '@/components/ui/button';
 import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
 import { paths } from '@/config/paths';
 import { applyServerError } from '@/lib/form';
-import { useCreatePart } from '../api/create-part';
+import { useCreatePart } from '@/data/parts';
 import { useUpdatePart } from '../api/update-part';
 import {
   CreatePartFormSchema,

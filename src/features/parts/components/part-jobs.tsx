@@ -11,8 +11,9 @@ import { paths } from '@/config/paths';
 import { useCan } from '@/lib/auth';
 import { formatDateTime } from '@/lib/format';
 import { applyServerError } from '@/lib/form';
-import type { PartDetail } from '../api/get-part';
-import { useInstallPart, useJobs } from '../api/jobs';
+import type { PartDetail } from '@shared/schemas/parts';
+import { useJobs } from '@/data/jobs';
+import { useInstallPart } from '../api/jobs';
 
 const Schema = z.object({ jobId: z.string().min(1, 'Choose a job.'), position: InstallPartInputSchema.shape.position });
 type Values = z.input<typeof Schema>;

@@ -1,4 +1,6 @@
-import { useInstruments, useProfiles, type Reading } from '@/components/readings/api';
+import { useInstruments } from '@/data/instruments';
+import { useProfiles } from '@/data/profiles';
+import type { Reading } from '@/data/readings';
 import { OverdueMark } from '@/components/readings/overdue-mark';
 import { chooseProfile } from '@shared/analysis/profile-match';
 import { ReadingForm } from '@/components/readings/reading-form';
@@ -10,7 +12,7 @@ import { useCan } from '@/lib/auth';
 import { formatDateTime } from '@/lib/format';
 import { formatValue } from '@shared/units/format';
 import { usePartReadings } from '../api/get-readings';
-import type { PartDetail } from '../api/get-part';
+import type { PartDetail } from '@shared/schemas/parts';
 
 function ReadingRows({ readings }: { readings: Reading[] }) {
   return (

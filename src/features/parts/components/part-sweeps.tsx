@@ -1,5 +1,5 @@
-import type { PartDetail } from '../api/get-part';
-import { useProfiles } from '@/components/readings/api';
+import type { PartDetail } from '@shared/schemas/parts';
+import { useProfiles } from '@/data/profiles';
 import { chooseProfile } from '@shared/analysis/profile-match';
 import { Alert, Loading } from '@/components/ui/alert';
 import { useCan } from '@/lib/auth';

@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { Role } from '@shared/schemas/common';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/data/query-keys';
 
 export type Invitation = {
   id: string;
@@ -24,6 +25,6 @@ export function invitationState(inv: Invitation, now = Date.now()): InvitationSt
 export const getInvitations = (signal?: AbortSignal) => api.get<{ invitations: Invitation[] }>('/api/team/invitations', { signal });
 
 export const invitationsQueryOptions = () =>
-  queryOptions({ queryKey: ['team', 'invitations'], queryFn: ({ signal }) => getInvitations(signal) });
+  queryOptions({ queryKey: queryKeys.team.invitations(), queryFn: ({ signal }) => getInvitations(signal) });
 
 export const useInvitations = () => useQuery(invitationsQueryOptions());

@@ -1,5 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/data/query-keys';
 
 /** Part labels that differ only in case, kept from before labels were compared without case. */
 export interface LabelClash {
@@ -10,6 +11,6 @@ export interface LabelClash {
 export const getLabelClashes = (signal?: AbortSignal) => api.get<{ clashes: LabelClash[] }>('/api/team/label-clashes', { signal });
 
 export const labelClashesQueryOptions = () =>
-  queryOptions({ queryKey: ['team', 'label-clashes'], queryFn: ({ signal }) => getLabelClashes(signal) });
+  queryOptions({ queryKey: queryKeys.team.labelClashes(), queryFn: ({ signal }) => getLabelClashes(signal) });
 
 export const useLabelClashes = () => useQuery(labelClashesQueryOptions());

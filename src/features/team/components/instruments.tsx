@@ -13,7 +13,7 @@ import {
 } from '@shared/schemas/bench';
 import { formatValue } from '@shared/units/format';
 import { QUANTITY_UNIT } from '@shared/units/quantities';
-import { useInstruments, type Instrument } from '@/components/readings/api';
+import { useInstruments, type Instrument } from '@/data/instruments';
 import { OverdueMark } from '@/components/readings/overdue-mark';
 import { QUANTITY_NAME, QUANTITY_SHORT } from '@/components/readings/words';
 import { Alert, Loading } from '@/components/ui/alert';

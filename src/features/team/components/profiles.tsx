@@ -10,7 +10,7 @@ import { NOMINAL_QUANTITY } from '@shared/schemas/parts';
 import { TAPER_LAW_LABEL, TAPER_LAWS } from '@shared/taper/law';
 import { formatValue } from '@shared/units/format';
 import { QUANTITY_UNIT } from '@shared/units/quantities';
-import { useProfiles, type Profile } from '@/components/readings/api';
+import { useProfiles, type Profile } from '@/data/profiles';
 import { Alert, Loading } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/field';
