@@ -75,7 +75,7 @@ test('a sweep whose headers are not recognised opens the same mapping step and i
   // The sample audio sweep with its headers renamed to words the reader does not know.
   const [head, ...rows] = fs.readFileSync(`${samples}pot-500k-audio-sweep.csv`, 'utf8').split('\n');
   const preamble: string[] = [];
-  let body = [head!, ...rows];
+  const body = [head!, ...rows];
   while (body[0]!.startsWith('#')) preamble.push(body.shift()!);
   const columns = body[0]!.split(',').length;
   body[0] = ['Winkel', 'Widerstand', 'Spalte3', 'Spalte4'].slice(0, columns).join(',');
