@@ -97,7 +97,10 @@ export const lots = sqliteTable('lots', {
   kind: text('kind', { enum: PART_KINDS }).notNull(),
   quantity: text('quantity').notNull(),
   nominal: real('nominal').notNull(),
+  /** Tolerance below nominal (−), percent; also above it unless tolerancePlusPct differs. */
   tolerancePct: real('tolerance_pct').notNull(),
+  /** Tolerance above nominal (+), percent: 80 on a Z lot (−20 %/+80 %); equal to tolerancePct when symmetric. */
+  tolerancePlusPct: real('tolerance_plus_pct'),
   marking: text('marking'),
   supplier: text('supplier'),
   receivedOn: text('received_on'),
@@ -147,6 +150,7 @@ export const lotStats = sqliteTable('lot_stats', {
   /** The nominal and tolerance the figures were computed against (a change of limits recomputes). */
   nominal: real('nominal').notNull(),
   tolerancePct: real('tolerance_pct').notNull(),
+  tolerancePlusPct: real('tolerance_plus_pct'),
   secondLimit: real('second_limit'),
   count: integer('count').notNull(),
   detail: text('detail').notNull(),
@@ -174,7 +178,10 @@ export const parts = sqliteTable(
     kind: text('kind', { enum: PART_KINDS }).notNull(),
     label: text('label').notNull(),
     nominal: real('nominal'),
+    /** Tolerance below nominal (−), percent; also above it unless tolerancePlusPct differs. */
     tolerancePct: real('tolerance_pct'),
+    /** Tolerance above nominal (+), percent (80 on a Z part); equal to tolerancePct when symmetric, null with it. */
+    tolerancePlusPct: real('tolerance_plus_pct'),
     marking: text('marking'),
     /** For pots: 'linear' | 'audio' | 'reverse' | 'two-segment' with the class's mid-rotation m. */
     taperClass: text('taper_class', { enum: TAPER_LAWS }),

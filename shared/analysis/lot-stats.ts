@@ -8,6 +8,10 @@
 // - Quartiles: Hyndman & Fan (1996) definition 7 (linear interpolation; see lot-sort.ts).
 // - Cp = (USL − LSL)/(6σ), Cpk = min(USL − μ, μ − LSL)/(3σ): NIST/SEMATECH e-Handbook of
 //   Statistical Methods, §6.1.6 "What is Process Capability?", with σ estimated by the sample SD.
+//   With asymmetric limits (a Z lot, −20 %/+80 %) both are computed from the limits as they are:
+//   Cp still compares the spread with the width USL − LSL, whose middle is not the nominal, so it
+//   says what the lot could do if centred between the limits, not on nominal; Cpk (nearer limit)
+//   is the figure that describes the lot as it is. `asymmetric` and `midpoint` say so.
 // - Outliers: Tukey's fences Q1 − 1.5·IQR and Q3 + 1.5·IQR (J. W. Tukey, Exploratory Data
 //   Analysis, 1977; NIST/SEMATECH e-Handbook §7.1.6 "inner fences").
 // - Histogram bin width: 2·IQR·n^(−1/3), Freedman & Diaconis (1981), "On the histogram as a density
@@ -31,7 +35,10 @@ export interface SummaryStatistics {
 export interface LotInput {
   values: ArrayLike<number>;
   nominal: number;
+  /** Percent below nominal; also above it unless tolerancePlusPct is given. */
   tolerancePct: number;
+  /** Percent above nominal (80 on a Z lot); default: tolerancePct. */
+  tolerancePlusPct?: number;
   /** A second quantity per part (dissipation factor, ESR…) with its upper limit. */
   second?: { values: ArrayLike<number>; max: number };
   /** Parts whose values agree within this percentage form matched sets (see matchSets). */
@@ -64,6 +71,10 @@ export interface MatchedSet {
 export interface LotStatistics extends SummaryStatistics {
   lower: number;
   upper: number;
+  /** True when the limits are not symmetric about nominal (then Cp is measured about `midpoint`, not nominal). */
+  asymmetric: boolean;
+  /** (lower + upper) / 2: the centre Cp assumes. */
+  midpoint: number;
   /** null when the SD is 0 or undefined (n < 2). */
   cp: number | null;
   cpk: number | null;
@@ -169,9 +180,14 @@ export function summaryStatistics(values: ArrayLike<number>): SummaryStatistics 
  * t = 20 % these are −20, −10, −5, −2, 0, 2, 5, 10, 20 %; for t = 5 %: −5, −2.5, −1.25, −0.5, 0, ….
  * Parts outside ±t fall in the two open outer bins ("below" / "above" the limits).
  */
-export function defaultBinEdgesPct(tolerancePct: number): number[] {
+export function defaultBinEdgesPct(tolerancePct: number, tolerancePlusPct: number = tolerancePct): number[] {
   const t = tolerancePct;
-  return [-t, -t / 2, -t / 4, -t / 10, 0, t / 10, t / 4, t / 2, t].map((e) => Number(e.toPrecision(12)));
+  const u = tolerancePlusPct;
+  // Each side scaled to its own tolerance (−20 %/+80 %: −20, −10, −5, −2, 0, 8, 20, 40, 80 %);
+  // a side of 0 % (−0/+100) has no inner edges.
+  const below = t > 0 ? [-t, -t / 2, -t / 4, -t / 10] : [];
+  const above = u > 0 ? [u / 10, u / 4, u / 2, u] : [];
+  return [...below, 0, ...above].map((e) => Number(e.toPrecision(12)));
 }
 
 function pctText(e: number): string {
@@ -181,13 +197,21 @@ function pctText(e: number): string {
 
 export function lotStatistics(input: LotInput): LotStatistics {
   const { nominal, tolerancePct } = input;
+  const tolerancePlusPct = input.tolerancePlusPct ?? tolerancePct;
   if (!Number.isFinite(nominal) || nominal === 0) throw new RangeError('lotStatistics needs a finite, non-zero nominal.');
-  if (!Number.isFinite(tolerancePct) || tolerancePct <= 0) throw new RangeError('lotStatistics needs a tolerance above 0 %.');
+  if (
+    !Number.isFinite(tolerancePct) ||
+    !Number.isFinite(tolerancePlusPct) ||
+    tolerancePct < 0 ||
+    tolerancePlusPct < 0 ||
+    tolerancePct + tolerancePlusPct <= 0
+  )
+    throw new RangeError('lotStatistics needs a tolerance above 0 %.');
   const x = toFiniteFloat64(input.values, 'lotStatistics');
   const n = x.length;
   if (n === 0) throw new RangeError('lotStatistics needs at least one value.');
 
-  const { lower, upper } = limitsFromTolerance(nominal, tolerancePct);
+  const { lower, upper } = limitsFromTolerance(nominal, { minusPct: tolerancePct, plusPct: tolerancePlusPct });
   const m0 = compensatedSum(x) / n;
   // The original index of each sorted value is only needed for matched sets; without them a
   // plain native sort of a copy is enough (and ~3 ms cheaper for 100 000 values).
@@ -226,7 +250,7 @@ export function lotStatistics(input: LotInput): LotStatistics {
   // Deviation bins: edges e0 < … < ek−1; bin 0 is below e0, bins 1…k−1 are [e_i−1, e_i) with the
   // last one closed, bin k is above ek−1.
   const customEdges = input.binEdgesPct !== undefined;
-  const be = customEdges ? [...input.binEdgesPct!] : defaultBinEdgesPct(tolerancePct);
+  const be = customEdges ? [...input.binEdgesPct!] : defaultBinEdgesPct(tolerancePct, tolerancePlusPct);
   if (be.length < 2 || be.some((e, i) => !Number.isFinite(e) || (i > 0 && e <= be[i - 1]!))) {
     throw new RangeError('binEdgesPct needs at least two finite, strictly ascending edges.');
   }
@@ -304,6 +328,8 @@ export function lotStatistics(input: LotInput): LotStatistics {
     max,
     lower,
     upper,
+    asymmetric: tolerancePct !== tolerancePlusPct,
+    midpoint: (lower + upper) / 2,
     cp,
     cpk,
     countBelow,

@@ -3,12 +3,16 @@
 import type { ProfileRules } from '@shared/schemas/bench';
 import type { PartKind } from '@shared/schemas/common';
 import { QUANTITY_UNIT, type Quantity } from '@shared/units/quantities';
+import { toleranceOf, toleranceWords } from './tolerance';
 import { accuracyAt, instrumentUncertainty, judge, limitsFromTolerance, type Accuracy, type Verdict } from './verdict';
 
 export interface PartSpec {
   kind: PartKind;
   nominal: number | null;
+  /** Below nominal (−), percent; also above it unless tolerancePlusPct differs. */
   tolerancePct: number | null;
+  /** Above nominal (+), percent; absent or null: the same as tolerancePct. */
+  tolerancePlusPct?: number | null;
 }
 
 export interface ProfileSpec {
@@ -48,10 +52,13 @@ export function judgeReading(
   const rules = opts.profile?.rules ?? {};
 
   if (reading.quantity === nominalQuantity(part.kind) && part.nominal != null) {
-    const tolerancePct = part.tolerancePct ?? opts.profile?.tolerancePct;
-    if (tolerancePct == null) return null;
-    const { lower, upper } = limitsFromTolerance(part.nominal, tolerancePct);
-    const source = part.tolerancePct != null ? `part tolerance ±${tolerancePct} %` : `profile "${opts.profile!.name}"`;
+    const tolerance = toleranceOf(part.tolerancePct, part.tolerancePlusPct) ?? toleranceOf(opts.profile?.tolerancePct);
+    if (tolerance == null) return null;
+    const { lower, upper } = limitsFromTolerance(part.nominal, tolerance);
+    const source =
+      part.tolerancePct != null
+        ? `part tolerance ${toleranceWords(tolerance.minusPct, tolerance.plusPct)}`
+        : `profile "${opts.profile!.name}"`;
     return {
       ...judge({ value: reading.value, nominal: part.nominal, lower, upper, uncertainty, unit, quantity: reading.quantity }),
       source,

@@ -11,6 +11,7 @@
 
 import { formatValue } from '@shared/units/format';
 import type { Quantity } from '@shared/units/quantities';
+import type { TwoSidedTolerance } from './tolerance';
 
 /** A meter's accuracy at the range in use: ±(pctOfReading % of reading + counts × resolution). */
 export type Accuracy = {
@@ -113,10 +114,7 @@ export function decimalLimit(x: number): number {
  * nominal ± tolerance (symmetric percent, or {minusPct, plusPct} for e.g. −20 %/+80 %), as the
  * decimal values the user means (see decimalLimit). Lot counts below/above use the same limits.
  */
-export function limitsFromTolerance(
-  nominal: number,
-  tolerancePct: number | { minusPct: number; plusPct: number },
-): { lower: number; upper: number } {
+export function limitsFromTolerance(nominal: number, tolerancePct: number | TwoSidedTolerance): { lower: number; upper: number } {
   const minus = typeof tolerancePct === 'number' ? tolerancePct : tolerancePct.minusPct;
   const plus = typeof tolerancePct === 'number' ? tolerancePct : tolerancePct.plusPct;
   if (!Number.isFinite(nominal) || !Number.isFinite(minus) || !Number.isFinite(plus) || minus < 0 || plus < 0) {

@@ -50,6 +50,11 @@ export interface NeedsMapping {
   header: string[];
   detected: ColumnMapping;
   missing: ColumnRole[];
+  /**
+   * Columns that were found but whose unit the file does not say and the values cannot settle (a
+   * capacitance column with no unit holding 47: pF? nF?): the mapping step asks for the unit.
+   */
+  unitNeeded?: { role: ColumnRole; index: number; header: string; reason: string }[];
 }
 
 /** The user's choice in the column-mapping step: a column (index or header text) and optionally its unit. */
@@ -389,6 +394,97 @@ const ROLE_WORD: Record<ColumnRole, string> = {
 
 export function roleWord(role: ColumnRole): string {
   return ROLE_WORD[role];
+}
+
+/** A unit the column-mapping step offers: the text sent back as the mapping's unit (read by parseUnit) and its label. */
+export interface UnitChoice {
+  value: string;
+  label: string;
+}
+
+const OHMS: UnitChoice[] = [
+  { value: 'Ω', label: 'Ω' },
+  { value: 'kΩ', label: 'kΩ' },
+  { value: 'MΩ', label: 'MΩ' },
+];
+const HERTZ: UnitChoice[] = [
+  { value: 'Hz', label: 'Hz' },
+  { value: 'kHz', label: 'kHz' },
+];
+const FARADS: UnitChoice[] = [
+  { value: 'pF', label: 'pF' },
+  { value: 'nF', label: 'nF' },
+  { value: 'µF', label: 'µF' },
+  { value: 'F', label: 'F' },
+];
+
+/**
+ * The units the mapping step offers for a role, each one the reader accepts for it (ROLE_DIMENSIONS);
+ * the lot's value column follows the lot's quantity. The item has no unit (empty list).
+ */
+export function unitChoices(role: ColumnRole, quantity?: 'capacitance' | 'resistance'): UnitChoice[] {
+  switch (role) {
+    case 'rotation':
+      return [
+        { value: 'deg', label: 'degrees (°)' },
+        { value: '%', label: 'percent (%)' },
+      ];
+    case 'phase':
+      return [
+        { value: 'deg', label: 'degrees (°)' },
+        { value: 'rad', label: 'radians' },
+      ];
+    case 'resistance':
+    case 'resistanceW3':
+    case 'total':
+    case 'magnitude':
+    case 're':
+    case 'im':
+      return OHMS;
+    case 'frequency':
+    case 'testFrequency':
+      return HERTZ;
+    case 'value':
+      return quantity === 'capacitance' ? FARADS : OHMS;
+    case 'second':
+      return [
+        { value: '', label: 'D as a fraction' },
+        { value: '%', label: 'D in %' },
+        { value: 'Ω', label: 'ESR in Ω' },
+        { value: 'mΩ', label: 'ESR in mΩ' },
+      ];
+    case 'item':
+      return [];
+  }
+}
+
+/** The roles the mapping step asks for, in order, and which of them a file must have. */
+export function mappingRoles(kind: TableKind, impedanceForm: 'polar' | 'rect' = 'polar'): { role: ColumnRole; required: boolean }[] {
+  if (kind === 'taper')
+    return [
+      { role: 'rotation', required: true },
+      { role: 'resistance', required: true },
+      { role: 'resistanceW3', required: false },
+      { role: 'total', required: false },
+    ];
+  if (kind === 'impedance')
+    return impedanceForm === 'polar'
+      ? [
+          { role: 'frequency', required: true },
+          { role: 'magnitude', required: true },
+          { role: 'phase', required: true },
+        ]
+      : [
+          { role: 'frequency', required: true },
+          { role: 're', required: true },
+          { role: 'im', required: true },
+        ];
+  return [
+    { role: 'item', required: true },
+    { role: 'value', required: true },
+    { role: 'second', required: false },
+    { role: 'testFrequency', required: false },
+  ];
 }
 
 const DIMENSION_WORD: Record<UnitDimension, string> = {

@@ -3,6 +3,8 @@
 // back) and as the conditions line under the title of a PNG export. A value that is not known is
 // written as "not set" or "not measured", never left out or guessed.
 
+import { toleranceWords } from '@shared/analysis/tolerance';
+
 export type ConditionValue = string | number | boolean | null | undefined;
 
 export interface Condition {
@@ -88,7 +90,15 @@ function engineering(value: number, unit: string): string {
 
 /** A lot export's conditions: the lot, its limits, the matching options the statistics used, when. */
 export function lotConditions(
-  lot: { code: string; quantity: string; nominal: number; tolerancePct: number; status: string; testFrequency?: number | null },
+  lot: {
+    code: string;
+    quantity: string;
+    nominal: number;
+    tolerancePct: number;
+    tolerancePlusPct?: number | null;
+    status: string;
+    testFrequency?: number | null;
+  },
   opts: { readings: number; matchPct: number; setSize: number; madeAt?: Date },
 ): Condition[] {
   const unit = LOT_UNIT[lot.quantity] ?? '';
@@ -97,7 +107,7 @@ export function lotConditions(
     { key: 'lot status', value: lot.status },
     { key: 'quantity', value: lot.quantity },
     { key: 'nominal', value: engineering(lot.nominal, unit) },
-    { key: 'tolerance', value: `±${lot.tolerancePct} %` },
+    { key: 'tolerance', value: toleranceWords(lot.tolerancePct, lot.tolerancePlusPct) },
     { key: 'test frequency', value: lot.testFrequency == null ? null : engineering(lot.testFrequency, 'Hz') },
     { key: 'readings', value: opts.readings },
     { key: 'matched sets', value: `within ±${opts.matchPct} % of each other, ${opts.setSize} parts a set` },

@@ -19,7 +19,8 @@
 // 0 and must show up as out of tolerance). A value column with no unit in its header is in SI (F, Ω);
 // for capacitance only while every value is below 1e-3 (no capacitor in a lot is a millifarad: a
 // bare 47 or 0.047 in such a column is nF or µF written without its unit), else the upload stops and
-// asks for the column's unit (common practice).
+// opens the mapping step for the column's unit (`needsMappingFor`; common practice). Columns no
+// role uses are listed back (`ignored`), as sweeps do.
 import Papa from 'papaparse';
 import { readNumberCell } from './cell-number';
 import {
@@ -62,7 +63,14 @@ export type LotRowReader =
       /** A row's cells and its file line → the row, or the issue that stops the upload. */
       read(cells: string[], line: number): LotRow | CsvIssue;
       columns: Record<string, string>;
+      /** Header texts of the file's columns that no role uses: listed back to the user, never dropped silently. */
+      ignored: string[];
       secondQuantity: 'dissipation' | 'esr' | null;
+      /**
+       * For the issue `read` returned: the mapping step that settles it, when the issue is a unit the
+       * file does not give (a unit-less capacitance column with a value of 1e-3 or more), else undefined.
+       */
+      needsMappingFor(issue: CsvIssue): NeedsMapping | undefined;
     }
   | { ok: false; issues: CsvIssue[]; needsMapping?: NeedsMapping };
 
@@ -124,6 +132,7 @@ export function createLotRowReader(header: string[], opts: LotReaderOptions): Lo
   const freq = cols.mapping.testFrequency ? numberColumn(cols.mapping.testFrequency) : null;
   const bareFarads = opts.quantity === 'capacitance' && (valueInfo!.dimension ?? '') === '' && valueInfo!.scale === 1;
   const secondName = cols.mapping.second?.secondQuantity === 'esr' ? 'an ESR' : 'a dissipation factor';
+  let unitIssue: CsvIssue | null = null;
 
   // Returns the scaled number, or an issue; `optional` turns an empty cell into null.
   function num(c: NumberColumn, cells: string[], line: number, optional: boolean): number | null | CsvIssue {
@@ -148,11 +157,12 @@ export function createLotRowReader(header: string[], opts: LotReaderOptions): Lo
     if (v === null || typeof v === 'object') return v ?? csvIssue(line, value.header, 'the cell is empty.');
     if (v < 0) return csvIssue(line, value.header, `${cells[value.index]!.trim()} is negative; a ${opts.quantity} cannot be.`);
     if (bareFarads && v >= 1e-3) {
-      return csvIssue(
+      unitIssue = csvIssue(
         line,
         value.header,
         `${cells[value.index]!.trim()} in a capacitance column whose header names no unit would be ${v} F; give the column's unit (for example "${value.header} (nF)" or choose it in the column mapping).`,
       );
+      return unitIssue;
     }
     let s: number | null = null;
     if (second) {
@@ -172,11 +182,26 @@ export function createLotRowReader(header: string[], opts: LotReaderOptions): Lo
     return { item, value: v, second: s, frequency: f };
   }
 
+  const needsUnit: NeedsMapping = {
+    header,
+    detected: cols.mapping,
+    missing: [],
+    unitNeeded: [
+      {
+        role: 'value',
+        index: value.index,
+        header: value.header,
+        reason: `The column "${value.header}" names no unit and holds values of 1e-3 or more, which cannot be farads: say which unit it is written in (pF, nF, µF).`,
+      },
+    ],
+  };
   return {
     ok: true,
     read,
     columns: columnsUsed(cols.mapping, ROLES_OF.lot),
+    ignored: cols.unknown,
     secondQuantity: cols.mapping.second?.secondQuantity ?? null,
+    needsMappingFor: (issue) => (issue === unitIssue ? needsUnit : undefined),
   };
 }
 
@@ -246,6 +271,7 @@ export type LotParseResult =
       ok: true;
       rows: LotRow[];
       columns: Record<string, string>;
+      ignored: string[];
       secondQuantity: 'dissipation' | 'esr' | null;
       headerLine: number;
     }
@@ -284,7 +310,10 @@ export function parseLotRows(text: string, opts: ParseLotOptions): LotParseResul
       };
     }
     const r = reader.read(cells, line);
-    if (isCsvIssue(r)) return { ok: false, issues: [r] };
+    if (isCsvIssue(r)) {
+      const needsMapping = reader.needsMappingFor(r);
+      return { ok: false, issues: [r], ...(needsMapping ? { needsMapping } : {}) };
+    }
     rows.push(r);
   }
   const unclosed = parsed.errors.find((e) => e.code === 'MissingQuotes');
@@ -301,5 +330,12 @@ export function parseLotRows(text: string, opts: ParseLotOptions): LotParseResul
       ],
     };
   }
-  return { ok: true, rows, columns: reader.columns, secondQuantity: reader.secondQuantity, headerLine: sniff.headerLine };
+  return {
+    ok: true,
+    rows,
+    columns: reader.columns,
+    ignored: reader.ignored,
+    secondQuantity: reader.secondQuantity,
+    headerLine: sniff.headerLine,
+  };
 }

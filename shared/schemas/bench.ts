@@ -2,6 +2,7 @@
 import { z } from 'zod';
 import { PROFILE_LAWS } from '@shared/taper/law';
 import { PartKindSchema } from './common';
+import { rangeNumber, readingProblem } from './ranges';
 
 export const READING_QUANTITIES = ['resistance', 'capacitance', 'inductance', 'dissipation', 'esr', 'q'] as const;
 export const ReadingQuantitySchema = z.enum(READING_QUANTITIES);
@@ -76,11 +77,17 @@ export const ProfileInputSchema = z
   });
 export type ProfileInput = z.infer<typeof ProfileInputSchema>;
 
-export const CreateReadingInputSchema = z.object({
-  quantity: ReadingQuantitySchema,
-  value: z.number().finite(),
-  /** Test frequency, Hz (LCR readings). */
-  frequency: z.number().finite().positive().optional().nullable(),
-  instrumentId: z.number().int().positive().optional().nullable(),
-});
+/** A bench reading: its value must be one a meter can show for its quantity (ranges.ts, readingProblem). */
+export const CreateReadingInputSchema = z
+  .object({
+    quantity: ReadingQuantitySchema,
+    value: z.number().finite(),
+    /** Test frequency, Hz (LCR readings). */
+    frequency: rangeNumber('frequency').optional().nullable(),
+    instrumentId: z.number().int().positive().optional().nullable(),
+  })
+  .superRefine((r, ctx) => {
+    const problem = readingProblem(r.quantity, r.value);
+    if (problem) ctx.addIssue({ code: 'custom', path: ['value'], message: problem });
+  });
 export type CreateReadingInput = z.infer<typeof CreateReadingInputSchema>;

@@ -1,10 +1,18 @@
 import { z } from 'zod';
 import type { DeviationBin, LotStatistics, MatchedSet } from '@shared/analysis/lot-stats';
+import { inRange, rangeWords, VALUE_RANGES } from './ranges';
+import { checkTolerancePair, TolerancePlusSchema, ToleranceMinusSchema } from './parts';
 
 export const LOT_KINDS = ['capacitor', 'pot', 'resistor'] as const;
 export const LOT_STATUSES = ['open', 'accepted', 'rejected', 'sorted'] as const;
 export const DISPOSITIONS = ['accepted', 'rejected', 'sorted'] as const;
 export const SECOND_QUANTITIES = ['dissipation', 'esr', 'end-resistance'] as const;
+
+/** Why a nominal does not fit a lot of this kind (capacitance for capacitors, resistance otherwise; ranges.ts), or null. */
+export function lotNominalProblem(kind: (typeof LOT_KINDS)[number], nominal: number): string | null {
+  const q = kind === 'capacitor' ? 'capacitance' : 'resistance';
+  return inRange(q, nominal) ? null : `Must be ${VALUE_RANGES[q].what} ${rangeWords(q)}.`;
+}
 
 export const CreateLotInputSchema = z
   .object({
@@ -19,7 +27,10 @@ export const CreateLotInputSchema = z
     /** SI units (F for capacitors, Ω for pots and resistors); or give a marking instead. */
     nominal: z.number().finite().positive().optional(),
     marking: z.string().trim().min(1).max(40).optional(),
-    tolerancePct: z.number().finite().positive().max(100).optional(),
+    /** Below nominal (−), percent; also above it unless tolerancePlusPct is given. */
+    tolerancePct: ToleranceMinusSchema.optional(),
+    /** Above nominal (+), percent (80 for a Z lot); omitted: the same as tolerancePct, or the marking's. */
+    tolerancePlusPct: TolerancePlusSchema.optional(),
     supplier: z.string().trim().max(80).optional().nullable(),
     receivedOn: z
       .string()
@@ -42,6 +53,13 @@ export const CreateLotInputSchema = z
   .refine((l) => (l.secondQuantity == null) === (l.secondLimit == null), {
     message: 'A second quantity needs its limit, and a limit its quantity.',
     path: ['secondLimit'],
+  })
+  .superRefine((l, ctx) => {
+    checkTolerancePair(l, ctx);
+    if (l.nominal != null) {
+      const problem = lotNominalProblem(l.kind, l.nominal);
+      if (problem) ctx.addIssue({ code: 'custom', path: ['nominal'], message: problem });
+    }
   });
 export type CreateLotInput = z.infer<typeof CreateLotInputSchema>;
 
@@ -86,7 +104,9 @@ export interface Lot {
   kind: LotKind;
   quantity: string;
   nominal: number;
+  /** Below nominal (−), percent; tolerancePlusPct is the side above (null on rows from before it existed: symmetric). */
   tolerancePct: number;
+  tolerancePlusPct: number | null;
   marking: string | null;
   supplier: string | null;
   receivedOn: string | null;

@@ -23,11 +23,33 @@ const LabelSchema = z
 
 const optionalText = (max: number) => z.string().trim().max(max).optional().nullable();
 
+/** Why a nominal does not fit a part of this kind (ranges.ts), or null. */
+export function nominalProblem(kind: PartKind, nominal: number): string | null {
+  const q = NOMINAL_QUANTITY[kind];
+  return inRange(q, nominal) ? null : `Must be ${VALUE_RANGES[q].what} ${rangeWords(q)}.`;
+}
+
+/** Below nominal (−): 0–100 %. */
+export const ToleranceMinusSchema = z.number().finite().min(0).max(100, 'At most 100 % below nominal.');
+/** Above nominal (+): 0–1000 % (Z is +80 %; some electrolytics are +100 %). */
+export const TolerancePlusSchema = z.number().finite().min(0).max(1000, 'At most 1000 % above nominal.');
+
+/** Refines an object with tolerancePct (−) and tolerancePlusPct (+): the + side needs the − side, and both 0 admits nothing. */
+export function checkTolerancePair(t: { tolerancePct?: number | null; tolerancePlusPct?: number | null }, ctx: z.RefinementCtx): void {
+  if (t.tolerancePlusPct != null && t.tolerancePct == null)
+    ctx.addIssue({ code: 'custom', path: ['tolerancePct'], message: 'Give the side below nominal too (−20 for −20 %/+80 %).' });
+  if (t.tolerancePct === 0 && (t.tolerancePlusPct ?? 0) === 0)
+    ctx.addIssue({ code: 'custom', path: ['tolerancePct'], message: 'A tolerance of 0 % admits no part; give a percentage above 0.' });
+}
+
 const PartFieldsSchema = z.object({
   kind: PartKindSchema,
   label: LabelSchema,
   nominal: SiPositive.optional().nullable(),
-  tolerancePct: z.number().finite().positive().max(100).optional().nullable(),
+  /** Below nominal (−), percent; also above it unless tolerancePlusPct is given. */
+  tolerancePct: ToleranceMinusSchema.optional().nullable(),
+  /** Above nominal (+), percent (80 for a Z part); omitted: the same as tolerancePct. */
+  tolerancePlusPct: TolerancePlusSchema.optional().nullable(),
   marking: optionalText(40),
   taperClass: TaperClassSchema.optional().nullable(),
   taperM: z.number().gt(0).lt(1).optional().nullable(),
@@ -38,20 +60,21 @@ const PartFieldsSchema = z.object({
 });
 /** A new part; its nominal must lie in the physical range of its kind's quantity (ranges.ts). */
 export const CreatePartInputSchema = PartFieldsSchema.superRefine((p, ctx) => {
+  checkTolerancePair(p, ctx);
   if (p.nominal === undefined || p.nominal === null) return;
-  const q = NOMINAL_QUANTITY[p.kind];
-  if (!inRange(q, p.nominal)) {
-    ctx.addIssue({ code: 'custom', path: ['nominal'], message: `Must be ${VALUE_RANGES[q].what} ${rangeWords(q)}.` });
-  }
+  const problem = nominalProblem(p.kind, p.nominal);
+  if (problem) ctx.addIssue({ code: 'custom', path: ['nominal'], message: problem });
 });
 export type CreatePartInput = z.infer<typeof CreatePartInputSchema>;
 
+/** A part's changes; the nominal's range for the part's kind is checked by the route, which knows the kind. */
 export const UpdatePartInputSchema = PartFieldsSchema.omit({ kind: true })
   .partial()
   .extend({
     status: PartStatusSchema.optional(),
     statusReason: optionalText(300),
-  });
+  })
+  .superRefine(checkTolerancePair);
 export type UpdatePartInput = z.infer<typeof UpdatePartInputSchema>;
 
 export const PartListQuerySchema = z.object({
@@ -69,6 +92,7 @@ export const PartSchema = z.object({
   label: z.string(),
   nominal: z.number().nullable(),
   tolerancePct: z.number().nullable(),
+  tolerancePlusPct: z.number().nullable(),
   marking: z.string().nullable(),
   taperClass: TaperClassSchema.nullable(),
   taperM: z.number().nullable(),

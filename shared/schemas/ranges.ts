@@ -30,6 +30,10 @@ export const VALUE_RANGES = {
   /** Cable capacitance per metre: 0 (no cable) to 1 nF/m (the worst coiled cords are a few hundred pF/m). */
   cableCapPerMetre: { min: 0, max: 1e-9, unit: 'F/m', what: 'a cable capacitance per metre', minInclusive: true },
   fullRotation: { min: 10, max: 3600, unit: '°', what: 'a full rotation', minInclusive: true },
+  /** A dissipation factor (D = tan δ): 0 to 10; a film capacitor reads about 0.001, a failing electrolytic a few tenths. */
+  dissipation: { min: 0, max: 10, unit: '', what: 'a dissipation factor', minInclusive: true },
+  /** A quality factor Q: 0 to 10,000. */
+  q: { min: 0, max: 10_000, unit: '', what: 'a quality factor', minInclusive: true },
 } as const satisfies Record<string, ValueRange>;
 
 export type RangeName = keyof typeof VALUE_RANGES;
@@ -74,4 +78,19 @@ export const QUANTITY_RANGE: Partial<Record<string, RangeName>> = {
   capacitance: 'capacitance',
   inductance: 'inductance',
   frequency: 'frequency',
+  dissipation: 'dissipation',
+  q: 'q',
 };
+
+/**
+ * Why a measured reading of a quantity cannot be what a meter showed, or null when it can. A reading
+ * may be 0 (a short, an open capacitor) and anything up to the range's maximum; below zero, beyond
+ * the maximum, NaN or infinite it is refused. Quantities the table does not cover only need to be finite.
+ */
+export function readingProblem(quantity: string, value: number): string | null {
+  const name = QUANTITY_RANGE[quantity];
+  if (!name) return Number.isFinite(value) ? null : 'Must be a finite number.';
+  const r = VALUE_RANGES[name];
+  if (Number.isFinite(value) && value >= 0 && value <= r.max) return null;
+  return `Must be ${r.what} from 0 to ${show(r.max, r.unit)}.`;
+}

@@ -1,6 +1,7 @@
 // Display helpers shared by screens. Numbers go through shared/units so the client and the
 // server's e-mails write values the same way.
 import type { PartKind } from '@shared/schemas/common';
+import { toleranceWords } from '@shared/analysis/tolerance';
 import { NOMINAL_QUANTITY } from '@shared/schemas/parts';
 import { formatValue } from '@shared/units/format';
 import { QUANTITY_UNIT } from '@shared/units/quantities';
@@ -11,9 +12,17 @@ export function formatNominal(kind: PartKind, nominal: number | null | undefined
   return formatValue(nominal, QUANTITY_UNIT[NOMINAL_QUANTITY[kind]]);
 }
 
-export function formatTolerance(pct: number | null | undefined): string {
+/** "±5 %", or "−20 %/+80 %" when the sides differ (a Z part); "—" without a tolerance. */
+export function formatTolerance(pct: number | null | undefined, plusPct?: number | null): string {
   if (pct === null || pct === undefined) return '—';
-  return `±${Number(pct.toPrecision(3))} %`;
+  return toleranceWords(pct, plusPct);
+}
+
+/** A tolerance as form text: "5", or "−20/+80" when the sides differ; blank without one. */
+export function toleranceText(pct: number | null | undefined, plusPct?: number | null): string {
+  if (pct === null || pct === undefined) return '';
+  const plus = plusPct ?? pct;
+  return plus === pct ? String(pct) : `−${pct}/+${plus}`;
 }
 
 const dateTime = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });

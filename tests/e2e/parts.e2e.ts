@@ -25,7 +25,7 @@ test('a tech creates a part in the browser and finds it in the list', async () =
   await page.getByLabel('Kind').first().selectOption('pot');
   await page.getByLabel('Label').fill('E2E-POT-1');
   await page.getByLabel('Nominal').fill('500k');
-  await page.getByLabel('Tolerance (±%)').fill('20');
+  await page.getByLabel('Tolerance (%)').fill('20');
   await page.getByRole('button', { name: 'Save part' }).click();
   await page.getByText('Saved').waitFor();
   await page.getByRole('button', { name: 'Close' }).click();

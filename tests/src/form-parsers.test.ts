@@ -10,14 +10,16 @@ import { defOf, parseField, parseMid } from '@/features/harness/components/desig
 const fieldOf = (key: string) => defOf(getLayout('one-pickup')!, key)!;
 
 describe('part form', () => {
-  it('tolerance: "10", "±10 %", "2,5" read; blank is none; words are refused by name', () => {
-    expect(parseTolerance('10')).toEqual({ ok: true, value: 10 });
-    expect(parseTolerance('±10 %')).toEqual({ ok: true, value: 10 });
-    expect(parseTolerance('2,5')).toEqual({ ok: true, value: 2.5 });
+  it('tolerance: "10", "±10 %", "2,5" read as both sides; "−20/+80" as two; blank is none; words are refused by name', () => {
+    expect(parseTolerance('10')).toEqual({ ok: true, value: { minusPct: 10, plusPct: 10 } });
+    expect(parseTolerance('±10 %')).toEqual({ ok: true, value: { minusPct: 10, plusPct: 10 } });
+    expect(parseTolerance('2,5')).toEqual({ ok: true, value: { minusPct: 2.5, plusPct: 2.5 } });
+    // IEC 60062 letter Z: −20 %/+80 %
+    expect(parseTolerance('−20/+80')).toEqual({ ok: true, value: { minusPct: 20, plusPct: 80 } });
     expect(parseTolerance('  ')).toEqual({ ok: true, value: null });
     const bad = parseTolerance('ten');
     expect(bad.ok).toBe(false);
-    expect(!bad.ok && bad.error).toMatch(/"ten" is not a percentage/);
+    expect(!bad.ok && bad.error).toMatch(/"ten" is not a tolerance/);
   });
 
   it('nominal by the kind: 500k on a pot is 500 000 Ω, 22n on a capacitor is 22 nF, blank is none', () => {
@@ -38,22 +40,29 @@ describe('part form', () => {
     expect(paths).toContain('tolerancePct');
     const ok = CreatePartFormSchema.safeParse({ ...emptyPartForm('pot'), label: 'POT-900', nominal: '500k', tolerancePct: '20' });
     expect(ok.success).toBe(true);
-    expect(ok.data).toMatchObject({ kind: 'pot', label: 'POT-900', nominal: 500e3, tolerancePct: 20 });
+    expect(ok.data).toMatchObject({ kind: 'pot', label: 'POT-900', nominal: 500e3, tolerancePct: 20, tolerancePlusPct: 20 });
+    const z = CreatePartFormSchema.safeParse({ ...emptyPartForm('capacitor'), label: 'CAP-900', nominal: '100n', tolerancePct: '-20 +80' });
+    expect(z.success && z.data).toMatchObject({ tolerancePct: 20, tolerancePlusPct: 80 });
   });
 });
 
 describe('lot form', () => {
   it('a capacitor marking is decoded with its tolerance letter', () => {
     const r = readNominal('capacitor', '473J');
-    expect(r).toMatchObject({ ok: true, empty: false, tolerancePct: 5, marking: '473J' });
+    expect(r).toMatchObject({ ok: true, empty: false, tolerance: { minusPct: 5, plusPct: 5 }, marking: '473J' });
     expect(r.ok && !r.empty && r.nominal).toBeCloseTo(47e-9, 20);
+  });
+
+  it('a Z marking keeps both sides: 104Z is 100 nF −20 %/+80 % (IEC 60062)', () => {
+    const z = readNominal('capacitor', '104Z');
+    expect(z).toMatchObject({ ok: true, empty: false, tolerance: { minusPct: 20, plusPct: 80 }, text: '100 nF −20 %/+80 %' });
   });
 
   it('engineering notation, an RKM marking on resistors, and a marking of the wrong kind is refused', () => {
     const n = readNominal('resistor', '4k7');
     expect(n.ok && !n.empty && n.nominal).toBe(4700);
     const rkm = readNominal('resistor', '4K7J');
-    expect(rkm).toMatchObject({ ok: true, empty: false, nominal: 4700, tolerancePct: 5 });
+    expect(rkm).toMatchObject({ ok: true, empty: false, nominal: 4700, tolerance: { minusPct: 5, plusPct: 5 } });
     const wrong = readNominal('resistor', '2n2J');
     expect(wrong.ok).toBe(false);
     expect(!wrong.ok && wrong.error).toMatch(/capacitor marking/);
@@ -62,7 +71,7 @@ describe('lot form', () => {
   });
 
   it('percent and the second-quantity limit: D as a fraction or in %, ESR in Ω', () => {
-    expect(readPercent('±5 %')).toEqual({ ok: true, value: 5 });
+    expect(readPercent('±5 %')).toEqual({ ok: true, value: { minusPct: 5, plusPct: 5 } });
     expect(readPercent('')).toEqual({ ok: true, value: null });
     expect(readPercent('five').ok).toBe(false);
     expect(readSecondLimit('dissipation', '1 %')).toEqual({ ok: true, value: 0.01 });

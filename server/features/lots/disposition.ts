@@ -1,4 +1,5 @@
 // Recording a lot's disposition (with the watchers' e-mails) and reopening a disposed lot.
+import { toleranceWords } from '@shared/analysis/tolerance';
 import { eq } from 'drizzle-orm';
 import { audit } from '@server/audit';
 import type { AppContext } from '@server/context';
@@ -45,9 +46,9 @@ export function lotDispositionRoutes(api: ApiRouter, ctx: AppContext) {
           topic: 'lot-disposition',
           subject: `Lot ${lot.code} ${body.status}`,
           text:
-            `Lot ${lot.code} (${lot.kind}, ${formatValue(lot.nominal, unit)} ±${lot.tolerancePct} %${lot.supplier ? `, from ${lot.supplier}` : ''}) was ${body.status} by ${user.name}.\n\n` +
+            `Lot ${lot.code} (${lot.kind}, ${formatValue(lot.nominal, unit)} ${toleranceWords(lot.tolerancePct, lot.tolerancePlusPct)}${lot.supplier ? `, from ${lot.supplier}` : ''}) was ${body.status} by ${user.name}.\n\n` +
             `Reason: ${body.reason}\n\n` +
-            `n = ${stats.n}, mean ${formatValue(stats.mean, unit)}, SD ${formatValue(stats.sd, unit)}, Cpk ${stats.cpk?.toFixed(2) ?? '—'}; ` +
+            `n = ${stats.n}, mean ${formatValue(stats.mean, unit)}, SD ${formatValue(stats.sd, unit)}, Cpk ${stats.cpk?.toFixed(2) ?? '—'}${stats.asymmetric ? ' (limits not symmetric about nominal: Cpk from the mean to the nearer limit)' : ''}; ` +
             `${stats.countBelow + stats.countAbove} outside the tolerance, ${stats.outliers.indices.length} outliers.\n\n` +
             `${ctx.config.publicUrl}/lots/${lot.id}\n`,
         });

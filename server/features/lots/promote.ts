@@ -54,6 +54,7 @@ export function promoteToParts(ctx: AppContext, lot: LotRow, input: PromoteInput
           label: labels[k]!,
           nominal: lot.nominal,
           tolerancePct: lot.tolerancePct,
+          tolerancePlusPct: lot.tolerancePlusPct ?? lot.tolerancePct,
           marking: lot.marking,
           supplier: lot.supplier,
           lotId: lot.id,

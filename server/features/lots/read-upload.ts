@@ -29,6 +29,8 @@ export interface LotColumns {
   lines: Uint32Array;
   n: number;
   columns: Record<string, string>;
+  /** Header texts of columns no role uses, listed back to the user. */
+  ignored: string[];
   secondQuantity: 'dissipation' | 'esr' | null;
   contentHash: string;
 }
@@ -81,6 +83,7 @@ export async function readLotFile(
   const items: string[] = [];
   let n = 0;
   let failure: CsvIssue | null = null;
+  let needsMapping: NeedsMapping | undefined;
   const lineOf = createRowLineCounter();
   let first = true;
 
@@ -113,6 +116,7 @@ export async function readLotFile(
           const row = reader.read(cells, line);
           if (isCsvIssue(row)) {
             failure = row;
+            needsMapping = reader.needsMappingFor(row);
             parser.abort();
             return;
           }
@@ -135,7 +139,7 @@ export async function readLotFile(
       error: (err: Error) => reject(err),
     });
   });
-  if (failure) return { ok: false, issues: [failure] };
+  if (failure) return { ok: false, issues: [failure], ...(needsMapping ? { needsMapping } : {}) };
   if (n === 0)
     return {
       ok: false,
@@ -152,6 +156,7 @@ export async function readLotFile(
       lines: lines.subarray(0, n),
       n,
       columns: reader.columns,
+      ignored: reader.ignored,
       secondQuantity: reader.secondQuantity,
       contentHash: hash.digest('hex'),
     },

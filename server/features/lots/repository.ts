@@ -77,6 +77,7 @@ export function lotStats(
     values: data.values,
     nominal: lot.nominal,
     tolerancePct: lot.tolerancePct,
+    tolerancePlusPct: lot.tolerancePlusPct ?? lot.tolerancePct,
     ...(hasSecond ? { second: { values: data.second.map((v) => (Number.isNaN(v) ? 0 : v)), max: lot.secondLimit! } } : {}),
     ...(opts.sets === false ? {} : { matchPct: opts.matchPct ?? 1, setSize: opts.setSize ?? 2 }),
     withBinIndices: opts.withBinIndices ?? false,

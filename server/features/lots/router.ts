@@ -14,6 +14,7 @@ import { MarkingError } from '@shared/markings/tolerance-letters';
 import { IdParamsSchema } from '@shared/schemas/common';
 import {
   CreateLotInputSchema,
+  lotNominalProblem,
   LotStatsQuerySchema,
   PromoteInputSchema,
   WatchersInputSchema,
@@ -54,12 +55,16 @@ export function lotRoutes(ctx: AppContext) {
     status: 201,
     schemas: { body: CreateLotInputSchema },
     handle: ({ body, user }) => {
-      let { nominal, tolerancePct } = body;
+      let { nominal, tolerancePct, tolerancePlusPct } = body;
+      if (tolerancePct != null) tolerancePlusPct ??= tolerancePct;
       if (body.marking) {
         try {
           const decoded = decodeMarking(body.marking);
           nominal ??= decoded.nominal;
-          tolerancePct ??= decoded.tolerancePct ?? undefined;
+          const t = decoded.tolerance;
+          // The marking's tolerance letter, both sides (Z: −20 %/+80 %, IEC 60062), unless one was typed.
+          if (tolerancePct == null && t?.kind === 'percent') [tolerancePct, tolerancePlusPct] = [t.pct, t.pct];
+          if (tolerancePct == null && t?.kind === 'asymmetric') [tolerancePct, tolerancePlusPct] = [t.minusPct, t.plusPct];
         } catch (err) {
           if (err instanceof MarkingError) throw unprocessable(err.message, { marking: err.message });
           throw err;
@@ -69,6 +74,8 @@ export function lotRoutes(ctx: AppContext) {
         throw unprocessable('Give the tolerance, or a marking with a tolerance letter.', {
           tolerancePct: 'Required without a tolerance letter.',
         });
+      const nominalOff = lotNominalProblem(body.kind, nominal!);
+      if (nominalOff) throw unprocessable(`The marking's value is out of range: ${nominalOff}`, { marking: nominalOff });
       const code =
         body.code ??
         `LOT-${new Date().toISOString().slice(0, 10).replace(/-/g, '')}-${
@@ -95,6 +102,7 @@ export function lotRoutes(ctx: AppContext) {
             quantity: QUANTITY[body.kind],
             nominal: nominal!,
             tolerancePct,
+            tolerancePlusPct: tolerancePlusPct ?? tolerancePct,
             marking: body.marking ?? null,
             supplier: body.supplier ?? null,
             receivedOn: body.receivedOn ?? null,
@@ -109,7 +117,13 @@ export function lotRoutes(ctx: AppContext) {
           .returning()
           .get();
         for (const userId of new Set(body.watcherIds)) tx.insert(lotWatchers).values({ lotId: lot.id, userId }).run();
-        audit(tx, { userId: user.id, action: 'lot.create', entity: 'lot', entityId: lot.id, detail: { ...body, nominal, tolerancePct } });
+        audit(tx, {
+          userId: user.id,
+          action: 'lot.create',
+          entity: 'lot',
+          entityId: lot.id,
+          detail: { ...body, nominal, tolerancePct, tolerancePlusPct },
+        });
         return lotSummary(lot);
       });
     },

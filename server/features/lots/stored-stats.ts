@@ -69,6 +69,7 @@ interface Row {
   engine_version: string;
   nominal: number;
   tolerance_pct: number;
+  tolerance_plus_pct: number | null;
   second_limit: number | null;
   count: number;
   detail: string;
@@ -104,10 +105,10 @@ export function refreshLotStats(sqlite: Database.Database, lot: LotRow): StoredL
       if (readingsMark(sqlite, lot.id) !== read.mark) return false;
       sqlite
         .prepare(
-          `insert into lot_stats (lot_id, engine_version, nominal, tolerance_pct, second_limit, count, detail, columns, computed_at)
-       values (?, ?, ?, ?, ?, ?, ?, ?, ?)
+          `insert into lot_stats (lot_id, engine_version, nominal, tolerance_pct, tolerance_plus_pct, second_limit, count, detail, columns, computed_at)
+       values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)
        on conflict (lot_id) do update set engine_version = excluded.engine_version, nominal = excluded.nominal,
-         tolerance_pct = excluded.tolerance_pct, second_limit = excluded.second_limit, count = excluded.count,
+         tolerance_pct = excluded.tolerance_pct, tolerance_plus_pct = excluded.tolerance_plus_pct, second_limit = excluded.second_limit, count = excluded.count,
          detail = excluded.detail, columns = excluded.columns, computed_at = excluded.computed_at`,
         )
         .run(
@@ -115,6 +116,7 @@ export function refreshLotStats(sqlite: Database.Database, lot: LotRow): StoredL
           ANALYSIS_ENGINE_VERSION,
           lot.nominal,
           lot.tolerancePct,
+          lot.tolerancePlusPct ?? lot.tolerancePct,
           lot.secondLimit,
           stored.count,
           stored.statsJson,
@@ -135,7 +137,7 @@ export function refreshLotStats(sqlite: Database.Database, lot: LotRow): StoredL
 export function readStoredLotStats(sqlite: Database.Database, lot: LotRow, part: 'detail' | 'columns'): StoredLotResults | null {
   const row = sqlite
     .prepare(
-      `select engine_version, nominal, tolerance_pct, second_limit, count, ${part === 'detail' ? "detail, '' as columns" : "'' as detail, columns"} from lot_stats where lot_id = ?`,
+      `select engine_version, nominal, tolerance_pct, tolerance_plus_pct, second_limit, count, ${part === 'detail' ? "detail, '' as columns" : "'' as detail, columns"} from lot_stats where lot_id = ?`,
     )
     .get(lot.id) as Row | undefined;
   if (
@@ -143,6 +145,7 @@ export function readStoredLotStats(sqlite: Database.Database, lot: LotRow, part:
     row.engine_version === ANALYSIS_ENGINE_VERSION &&
     row.nominal === lot.nominal &&
     row.tolerance_pct === lot.tolerancePct &&
+    (row.tolerance_plus_pct ?? row.tolerance_pct) === (lot.tolerancePlusPct ?? lot.tolerancePct) &&
     row.second_limit === lot.secondLimit
   ) {
     return { count: row.count, statsJson: row.detail, columnsJson: row.columns };

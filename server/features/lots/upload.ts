@@ -115,7 +115,7 @@ export function lotUploadRoutes(api: ApiRouter, ctx: AppContext, statsJobs: Retu
           action: body.replace ? 'lot.readings-replaced' : 'lot.readings-uploaded',
           entity: 'lot',
           entityId: lot.id,
-          detail: { rows: data.n, file: file.originalname, columns: data.columns },
+          detail: { rows: data.n, file: file.originalname, columns: data.columns, ignoredColumns: data.ignored },
         });
         if (!fs.existsSync(stored)) {
           fs.mkdirSync(path.dirname(stored), { recursive: true });
@@ -146,6 +146,8 @@ export function lotUploadRoutes(api: ApiRouter, ctx: AppContext, statsJobs: Retu
       lot: lotSummary(lot),
       rows: data.n,
       columns: data.columns,
+      // Columns of the file that no role uses: listed back, never dropped silently (as sweeps do).
+      ignoredColumns: data.ignored,
       stats: stats && { ...stats, deviationsPct: undefined },
       // Where the time went, for the benchmark and for anyone wondering about a large lot.
       timings: { parseMs: parsedAt - started, storeMs: storedAt - parsedAt, statsMs: done - storedAt, storedStatsMs: keptAt - done },

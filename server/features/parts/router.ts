@@ -7,7 +7,7 @@ import { lots, parts, partStatusEvents, toleranceProfiles, users } from '@server
 import { notFound, unprocessable } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
 import { IdParamsSchema } from '@shared/schemas/common';
-import { CreatePartInputSchema, PartListQuerySchema, UpdatePartInputSchema, type PartDetail } from '@shared/schemas/parts';
+import { CreatePartInputSchema, nominalProblem, PartListQuerySchema, UpdatePartInputSchema, type PartDetail } from '@shared/schemas/parts';
 import { jobsOfPart } from '@server/features/jobs/repository';
 import { assertLabelFree, findPart, findPartByLabel, listParts, setPartStatus } from './repository';
 
@@ -39,9 +39,11 @@ export function partRoutes(ctx: AppContext) {
       assertReferences(body);
       assertLabelFree(db, body.label);
       return db.transaction((tx) => {
+        // A tolerance given as one number is the same on both sides.
+        const tolerancePlusPct = body.tolerancePct == null ? null : (body.tolerancePlusPct ?? body.tolerancePct);
         const part = tx
           .insert(parts)
-          .values({ ...body, createdBy: user.id })
+          .values({ ...body, tolerancePlusPct, createdBy: user.id })
           .returning()
           .get();
         tx.insert(partStatusEvents)
@@ -105,7 +107,16 @@ export function partRoutes(ctx: AppContext) {
       if (!part) throw notFound('That part');
       assertReferences(body);
       if (body.label && body.label !== part.label) assertLabelFree(db, body.label, part.id);
+      // The nominal's range depends on the part's kind, which the body does not carry.
+      if (body.nominal != null) {
+        const problem = nominalProblem(part.kind, body.nominal);
+        if (problem) throw unprocessable(`The nominal is out of range: ${problem}`, { nominal: problem });
+      }
       const { status, statusReason, ...fields } = body;
+      // A tolerance changed as one number becomes symmetric; a plus side alone needs the stored minus side.
+      if (fields.tolerancePct !== undefined && fields.tolerancePlusPct === undefined) fields.tolerancePlusPct = fields.tolerancePct;
+      if (fields.tolerancePct === undefined && fields.tolerancePlusPct != null && part.tolerancePct == null)
+        throw unprocessable('Give the side below nominal too.', { tolerancePct: 'Required with tolerancePlusPct.' });
       return db.transaction((tx) => {
         const changed = Object.fromEntries(Object.entries(fields).filter(([k, v]) => part[k as keyof typeof part] !== v));
         if (Object.keys(changed).length > 0)

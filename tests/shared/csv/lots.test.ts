@@ -117,11 +117,32 @@ describe('a capacitance column whose header names no unit (common practice)', ()
     if (!r.ok) throw new Error(JSON.stringify(r.issues));
     expect(r.rows.map((row) => row.value)).toEqual([4.7e-8, 4.71e-8]);
   });
-  it('asks for the unit when a value is 1e-3 or more (47 is not 47 F)', () => {
+  it('opens the mapping step for the unit when a value is 1e-3 or more (47 is not 47 F)', () => {
     const r = parseLotRows('Item,C\n1,47.1\n2,46.9\n', { quantity: 'capacitance' });
-    expect(r.ok).toBe(false);
-    expect(!r.ok && r.issues[0]!.message).toMatch(/give the column's unit/);
-    expect(!r.ok && r.issues[0]!.column).toBe('C');
+    if (r.ok) throw new Error('47.1 F was accepted');
+    expect(r.issues[0]!.message).toMatch(/give the column's unit/);
+    expect(r.issues[0]!.column).toBe('C');
+    // the columns were found; only the value column's unit is asked for
+    expect(r.needsMapping?.missing).toEqual([]);
+    expect(r.needsMapping?.detected.item?.index).toBe(0);
+    expect(r.needsMapping?.unitNeeded).toEqual([
+      { role: 'value', index: 1, header: 'C', reason: expect.stringMatching(/cannot be farads/) },
+    ]);
+    // the unit stated in the mapping step reads the same file
+    const mapped = parseLotRows('Item,C\n1,47.1\n2,46.9\n', { quantity: 'capacitance', mapping: { value: { column: 1, unit: 'nF' } } });
+    if (!mapped.ok) throw new Error(JSON.stringify(mapped.issues));
+    expect(mapped.rows.map((row) => row.value)).toEqual([47.1e-9, 46.9e-9]);
+  });
+  it('a value refused for another reason does not open the mapping step', () => {
+    const r = parseLotRows('Item,C\n1,4.7e-8\n2,-4.7e-8\n', { quantity: 'capacitance' });
+    expect(!r.ok && r.needsMapping).toBeUndefined();
+  });
+  it('lists the columns it does not use', () => {
+    const r = parseLotRows('Item,C (nF),Bin,Operator\n1,47.1,A,x\n', { quantity: 'capacitance' });
+    if (!r.ok) throw new Error(JSON.stringify(r.issues));
+    expect(r.ignored).toEqual(['Bin', 'Operator']);
+    const clean = parseLotRows('Item,C (nF)\n1,47.1\n', { quantity: 'capacitance' });
+    expect(clean.ok && clean.ignored).toEqual([]);
   });
   it('keeps reading a header unit as given: C (nF)', () => {
     const r = parseLotRows('Item,C (nF)\n1,47.1\n', { quantity: 'capacitance' });

@@ -136,7 +136,7 @@ export function BenchScreen() {
                 </Link>
                 <span>{KIND_WORD[part.kind]}</span>
                 <span className="num">{formatNominal(part.kind, part.nominal)}</span>
-                <span className="num">{formatTolerance(part.tolerancePct)}</span>
+                <span className="num">{formatTolerance(part.tolerancePct, part.tolerancePlusPct)}</span>
                 <StatusBadge status={part.status} reason={part.statusReason} />
                 <span className="text-ink-soft">{profile ? `Profile: ${profile.name}` : 'No profile applies'}</span>
               </div>

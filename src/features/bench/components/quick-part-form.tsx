@@ -1,5 +1,6 @@
 // A part created on the spot at the bench: kind, label, nominal, tolerance (and taper class for a
 // pot). Everything else can be added later on the part page.
+import { parseToleranceText } from '@shared/analysis/tolerance';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
@@ -23,21 +24,26 @@ const FIELD_NAMES = ['kind', 'label', 'nominal', 'tolerancePct', 'taperClass'] a
 const Schema = Fields.transform((v, ctx) => {
   const nominal = v.nominal.trim() === '' ? ({ ok: true, value: null } as const) : tryParseValue(v.nominal, NOMINAL_QUANTITY[v.kind]);
   if (!nominal.ok) ctx.addIssue({ code: 'custom', path: ['nominal'], message: nominal.error });
-  const tolText = v.tolerancePct.replace(/[±%\s]/g, '').replace(',', '.');
-  const tolerance = tolText === '' ? null : Number(tolText);
-  if (tolerance !== null && !Number.isFinite(tolerance))
-    ctx.addIssue({ code: 'custom', path: ['tolerancePct'], message: 'Type a percentage such as 10 or 2.5.' });
+  // One number for ±, or two sides (−20/+80), as on the part form.
+  const tol = parseToleranceText(v.tolerancePct);
+  if (!tol.ok) ctx.addIssue({ code: 'custom', path: ['tolerancePct'], message: tol.error });
+  const tolerance = tol.ok ? tol.value : null;
   const checked = CreatePartInputSchema.safeParse({
     kind: v.kind,
     label: v.label,
     nominal: nominal.ok ? nominal.value : null,
-    tolerancePct: tolerance,
+    tolerancePct: tolerance?.minusPct ?? null,
+    tolerancePlusPct: tolerance?.plusPct ?? null,
     taperClass: v.kind === 'pot' && v.taperClass ? v.taperClass : null,
   });
   if (!checked.success)
     for (const issue of checked.error.issues)
-      ctx.addIssue({ code: 'custom', path: [String(issue.path[0] ?? 'label')], message: issue.message });
-  if (!nominal.ok || !checked.success) return z.NEVER;
+      ctx.addIssue({
+        code: 'custom',
+        path: [issue.path[0] === 'tolerancePlusPct' ? 'tolerancePct' : String(issue.path[0] ?? 'label')],
+        message: issue.message,
+      });
+  if (!nominal.ok || !tol.ok || !checked.success) return z.NEVER;
   return checked.data;
 });
 

@@ -20,6 +20,8 @@ export interface UploadResult {
   lot: Lot;
   rows: number;
   columns: Record<string, string>;
+  /** Header texts of the file's columns no role used (listed back to the user). */
+  ignoredColumns?: string[];
   stats: LotStats | null;
   /** Server time spent reading, storing and computing (ms). */
   timings?: { parseMs: number; storeMs: number; statsMs: number };

@@ -2,6 +2,7 @@
 // percentages) and then checks the result with the shared CreateLotInputSchema, so the rules the
 // server applies are the ones the form shows.
 import { z } from 'zod';
+import { parseToleranceText, toleranceWords, type TwoSidedTolerance } from '@shared/analysis/tolerance';
 import { decodeMarking } from '@shared/markings/decode';
 import { CreateLotInputSchema, LOT_KINDS, type CreateLotInput } from '@shared/schemas/lots';
 import { formatValue } from '@shared/units/format';
@@ -58,7 +59,15 @@ export const SECOND_LABEL: Record<SecondQuantity, string> = { dissipation: 'D', 
 
 export type NominalReading =
   | { ok: true; empty: true }
-  | { ok: true; empty: false; nominal: number; tolerancePct: number | null; marking: string | null; text: string }
+  | {
+      ok: true;
+      empty: false;
+      nominal: number;
+      /** The marking's tolerance letter, both sides (Z: 20 below, 80 above); null without one. */
+      tolerance: TwoSidedTolerance | null;
+      marking: string | null;
+      text: string;
+    }
   | { ok: false; error: string };
 
 // Two or three digits with an optional tolerance letter (473, 473J), or RKM with a tolerance letter
@@ -88,13 +97,20 @@ export function readNominal(kind: LotKind, text: string): NominalReading {
           ok: false,
           error: `"${t}" is a ${d.kind} marking (${formatValue(d.nominal, d.unit)}), but this is a lot of ${LOT_KIND_LABEL[kind].toLowerCase()}.`,
         };
+      const tol = d.tolerance;
+      const tolerance =
+        tol?.kind === 'percent'
+          ? { minusPct: tol.pct, plusPct: tol.pct }
+          : tol?.kind === 'asymmetric'
+            ? { minusPct: tol.minusPct, plusPct: tol.plusPct }
+            : null;
       return {
         ok: true,
         empty: false,
         nominal: d.nominal,
-        tolerancePct: d.tolerancePct,
+        tolerance,
         marking: t,
-        text: formatValue(d.nominal, d.unit) + (d.tolerancePct != null ? ` ±${d.tolerancePct} %` : ''),
+        text: formatValue(d.nominal, d.unit) + (tolerance ? ` ${toleranceWords(tolerance.minusPct, tolerance.plusPct)}` : ''),
       };
     } catch (err) {
       return { ok: false, error: err instanceof Error ? err.message : String(err) };
@@ -108,7 +124,7 @@ export function readNominal(kind: LotKind, text: string): NominalReading {
       ok: true,
       empty: false,
       nominal: parsed.value,
-      tolerancePct: null,
+      tolerance: null,
       marking: null,
       text: formatValue(parsed.value, LOT_UNIT[kind]),
     };
@@ -118,13 +134,11 @@ export function readNominal(kind: LotKind, text: string): NominalReading {
   return { ok: false, error: `${parsed.error} Or type a marking code such as ${kind === 'capacitor' ? '473J' : '4K7'}.` };
 }
 
-/** "5", "±5 %", "2,5" → the number; blank → null. */
-export function readPercent(text: string): { ok: true; value: number | null } | { ok: false; error: string } {
-  const t = text.replace(/[±%\s]/g, '').replace(',', '.');
-  if (t === '') return { ok: true, value: null };
-  const value = Number(t);
-  if (!Number.isFinite(value)) return { ok: false, error: `"${text.trim()}" is not a percentage; type a number such as 5 or 2.5.` };
-  return { ok: true, value };
+/** "5", "±5 %", "2,5" → both sides; "−20/+80" → 20 below and 80 above nominal; blank → null. */
+export function readPercent(text: string): { ok: true; value: TwoSidedTolerance | null } | { ok: false; error: string } {
+  const r = parseToleranceText(text);
+  if (r.ok) return r;
+  return { ok: false, error: `"${text.trim()}" is not a tolerance; ${r.error.charAt(0).toLowerCase()}${r.error.slice(1)}` };
 }
 
 /** The second-quantity limit in SI: D as a fraction ("1 %" → 0.01), ESR and end resistance in Ω. */
@@ -158,7 +172,7 @@ export const CreateLotFormSchema = LotFormFields.transform((v, ctx): CreateLotIn
     );
   const tol = readPercent(v.tolerancePct);
   if (!tol.ok) fail('tolerancePct', tol.error);
-  else if (tol.value === null && !(nominal.ok && !nominal.empty && nominal.tolerancePct != null))
+  else if (tol.value === null && !(nominal.ok && !nominal.empty && nominal.tolerance != null))
     fail('tolerancePct', 'Give the tolerance, or a marking with a tolerance letter (473J).');
   const second = (SECOND_CHOICES[v.kind].find((c) => c.value === v.secondQuantity)?.value ?? null) as SecondQuantity | null;
   const limit = second ? readSecondLimit(second, v.secondLimit) : ({ ok: true, value: null } as const);
@@ -181,7 +195,7 @@ export const CreateLotFormSchema = LotFormFields.transform((v, ctx): CreateLotIn
     ...(blankToNull(v.code) ? { code: v.code.trim() } : {}),
     kind: v.kind,
     ...(nominal.ok && !nominal.empty ? (nominal.marking ? { marking: nominal.marking } : { nominal: nominal.nominal }) : {}),
-    ...(tol.ok && tol.value !== null ? { tolerancePct: tol.value } : {}),
+    ...(tol.ok && tol.value !== null ? { tolerancePct: tol.value.minusPct, tolerancePlusPct: tol.value.plusPct } : {}),
     supplier: blankToNull(v.supplier),
     receivedOn: blankToNull(v.receivedOn),
     expectedCount,
@@ -194,7 +208,9 @@ export const CreateLotFormSchema = LotFormFields.transform((v, ctx): CreateLotIn
   };
   const checked = CreateLotInputSchema.safeParse(candidate);
   if (!checked.success) {
-    for (const issue of checked.error.issues) fail(String(issue.path[0] ?? 'nominal'), issue.message);
+    // The form has one tolerance field for both sides.
+    for (const issue of checked.error.issues)
+      fail(issue.path[0] === 'tolerancePlusPct' ? 'tolerancePct' : String(issue.path[0] ?? 'nominal'), issue.message);
     return z.NEVER;
   }
   return checked.data;

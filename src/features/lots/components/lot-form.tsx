@@ -8,7 +8,7 @@ import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
 import { paths } from '@/config/paths';
 import { useUser } from '@/lib/auth';
 import { applyServerError } from '@/lib/form';
-import { ROLE_LABEL } from '@/lib/format';
+import { ROLE_LABEL, toleranceText } from '@/lib/format';
 import { useCreateLot } from '../api/create-lot';
 import { useMembers } from '../api/get-members';
 import { useInstruments } from '@/data/instruments';
@@ -151,12 +151,19 @@ export function CreateLotForm({ onClose }: { onClose: () => void }) {
           {...form.register('nominal')}
         />
         <TextField
-          label="Tolerance (±%)"
-          inputMode="decimal"
+          label="Tolerance (%)"
           autoComplete="off"
           inputClassName="num"
-          placeholder={reading.ok && !reading.empty && reading.tolerancePct != null ? `${reading.tolerancePct} (from the marking)` : '5'}
-          hint={reading.ok && !reading.empty && reading.tolerancePct != null ? 'Leave blank to use the marking’s letter' : undefined}
+          placeholder={
+            reading.ok && !reading.empty && reading.tolerance != null
+              ? `${toleranceText(reading.tolerance.minusPct, reading.tolerance.plusPct)} (from the marking)`
+              : '5'
+          }
+          hint={
+            reading.ok && !reading.empty && reading.tolerance != null
+              ? 'Leave blank to use the marking’s letter'
+              : 'One number for ±, or two sides such as −20/+80'
+          }
           error={errors.tolerancePct?.message}
           {...form.register('tolerancePct')}
         />

@@ -42,7 +42,8 @@ function LotFacts({ lot }: { lot: LotDetail }) {
   return (
     <dl className="mb-6 grid grid-cols-2 gap-x-6 gap-y-3 rounded-lg border border-paper-edge bg-paper-bright p-4 sm:grid-cols-4">
       <Fact term="Nominal">
-        <span className="num">{formatValue(lot.nominal, lot.unit)}</span> <span className="num">{formatTolerance(lot.tolerancePct)}</span>
+        <span className="num">{formatValue(lot.nominal, lot.unit)}</span>{' '}
+        <span className="num">{formatTolerance(lot.tolerancePct, lot.tolerancePlusPct)}</span>
         {lot.marking && <span className="num ml-2 text-ink-soft">marked {lot.marking}</span>}
       </Fact>
       <Fact term="Supplier">{lot.supplier ?? '—'}</Fact>
@@ -214,7 +215,7 @@ export function LotScreen({ id }: { id: number }) {
           </span>
         }
         documentTitle={`Lot ${lot.code}`}
-        description={`${LOT_KIND_LABEL[lot.kind]}, ${formatValue(lot.nominal, lot.unit)} ${formatTolerance(lot.tolerancePct)}`}
+        description={`${LOT_KIND_LABEL[lot.kind]}, ${formatValue(lot.nominal, lot.unit)} ${formatTolerance(lot.tolerancePct, lot.tolerancePlusPct)}`}
         actions={
           <>
             <Link to={paths.app.lots.getHref()} className={buttonClass('secondary', 'sm')}>

@@ -1,5 +1,6 @@
 import type { ReactNode } from 'react';
 import { Badge } from '@/components/ui/badge';
+import { formatTolerance } from '@/lib/format';
 import type { Lot, LotStats } from '../api/types';
 import { fmtLotValue, fmtPct, fmtSecond } from './lot-format';
 import { SECOND_LABEL, SECOND_UNIT } from './lot-form-schema';
@@ -29,6 +30,9 @@ export function LotStatsPanel({ lot, stats }: { lot: Lot; stats: LotStats }) {
   const dev = (v: number) => fmtPct(((v - lot.nominal) / lot.nominal) * 100);
   const out = stats.countBelow + stats.countAbove;
   const second = lot.secondQuantity;
+  // From the lot, not the statistics: statistics stored before the two sides existed carry no such field.
+  const asymmetric = lot.tolerancePlusPct != null && lot.tolerancePlusPct !== lot.tolerancePct;
+  const midpoint = (stats.lower + stats.upper) / 2;
   return (
     <div className="grid gap-x-8 sm:grid-cols-2 lg:grid-cols-1">
       <dl>
@@ -46,12 +50,14 @@ export function LotStatsPanel({ lot, stats }: { lot: Lot; stats: LotStats }) {
         <Row term="Min · max">
           {fmtLotValue(stats.min, u)} · {fmtLotValue(stats.max, u)}
         </Row>
-        <Row term="Limits">
+        <Row term="Limits" note={formatTolerance(lot.tolerancePct, lot.tolerancePlusPct)}>
           {fmtLotValue(stats.lower, u)} … {fmtLotValue(stats.upper, u)}
         </Row>
       </dl>
       <dl>
-        <Row term="Cp">{stats.cp === null ? '—' : stats.cp.toFixed(2)}</Row>
+        <Row term={asymmetric ? `Cp (band centred at ${fmtLotValue(midpoint, u)})` : 'Cp'}>
+          {stats.cp === null ? '—' : stats.cp.toFixed(2)}
+        </Row>
         <Row
           term={
             <span className="inline-flex items-center gap-2">
@@ -84,6 +90,13 @@ export function LotStatsPanel({ lot, stats }: { lot: Lot; stats: LotStats }) {
           </Row>
         )}
       </dl>
+      {asymmetric && (
+        <p className="mt-2 text-xs text-ink-soft sm:col-span-2 lg:col-span-1" data-testid="asymmetric-capability">
+          The limits are not symmetric about nominal ({formatTolerance(lot.tolerancePct, lot.tolerancePlusPct)}). Cp compares the spread
+          with the width between them as if the lot were centred at their middle, {fmtLotValue(midpoint, u)}, not at nominal{' '}
+          {fmtLotValue(lot.nominal, u)}; Cpk, from the mean to the nearer limit, describes the lot as it is.
+        </p>
+      )}
     </div>
   );
 }

@@ -100,7 +100,7 @@ export function LotsScreen() {
                     {formatValue(lot.nominal, lot.unit)}
                   </td>
                   <td data-label="Tolerance" className="num px-3 py-2 text-right whitespace-nowrap">
-                    {formatTolerance(lot.tolerancePct)}
+                    {formatTolerance(lot.tolerancePct, lot.tolerancePlusPct)}
                   </td>
                   <td data-label="Supplier" className="px-3 py-2">
                     {lot.supplier ?? <span className="text-ink-faint">—</span>}

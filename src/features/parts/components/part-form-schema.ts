@@ -2,11 +2,13 @@
 // with the shared schema (CreatePartInputSchema / UpdatePartInputSchema), so the rules live in one
 // place. The nominal is read in engineering notation for the quantity of the part's kind.
 import { z } from 'zod';
+import { parseToleranceText, type TwoSidedTolerance } from '@shared/analysis/tolerance';
 import { PartKindSchema, type PartKind } from '@shared/schemas/common';
 import { CreatePartInputSchema, NOMINAL_QUANTITY, UpdatePartInputSchema, type Part } from '@shared/schemas/parts';
 import { formatValue } from '@shared/units/format';
 import { tryParseValue } from '@shared/units/parse';
 import { QUANTITY_UNIT } from '@shared/units/quantities';
+import { toleranceText } from '@/lib/format';
 
 const PartFormFields = z.object({
   kind: PartKindSchema,
@@ -24,13 +26,14 @@ export const PART_FORM_FIELDS = ['kind', 'label', 'nominal', 'tolerancePct', 'ma
 
 const blankToNull = (s: string) => (s.trim() === '' ? null : s.trim());
 
-/** "10", "±10 %", "10,5%" → the number; blank → null; anything else → an error message. */
-export function parseTolerance(text: string): { ok: true; value: number | null } | { ok: false; error: string } {
-  const t = text.replace(/[±%\s]/g, '').replace(',', '.');
-  if (t === '') return { ok: true, value: null };
-  const value = Number(t);
-  if (!Number.isFinite(value)) return { ok: false, error: `"${text.trim()}" is not a percentage; type a number such as 10 or 2.5.` };
-  return { ok: true, value };
+/**
+ * "10", "±10 %", "10,5%" → both sides 10; "−20/+80" → 20 below, 80 above (a Z part); blank → null;
+ * anything else → an error message.
+ */
+export function parseTolerance(text: string): { ok: true; value: TwoSidedTolerance | null } | { ok: false; error: string } {
+  const r = parseToleranceText(text);
+  if (r.ok) return r;
+  return { ok: false, error: `"${text.trim()}" is not a tolerance; ${r.error.charAt(0).toLowerCase()}${r.error.slice(1)}` };
 }
 
 /** The nominal as typed, read for the kind's quantity: "500k" on a pot → 500000 Ω. */
@@ -55,7 +58,8 @@ function intoInput<S extends z.ZodType>(target: S) {
       kind: v.kind,
       label: v.label,
       nominal: nominal.ok ? nominal.value : null,
-      tolerancePct: tolerance.ok ? tolerance.value : null,
+      tolerancePct: tolerance.ok ? (tolerance.value?.minusPct ?? null) : null,
+      tolerancePlusPct: tolerance.ok ? (tolerance.value?.plusPct ?? null) : null,
       marking: blankToNull(v.marking),
       // Only pots have a taper.
       taperClass: v.kind === 'pot' ? blankToNull(v.taperClass) : null,
@@ -68,7 +72,8 @@ function intoInput<S extends z.ZodType>(target: S) {
         const field = String(issue.path[0] ?? 'label');
         // A field that failed to parse already has its message.
         if ((field === 'nominal' && !nominal.ok) || (field === 'tolerancePct' && !tolerance.ok)) continue;
-        fail(field, issue.message);
+        // The form has one tolerance field for both sides.
+        fail(field === 'tolerancePlusPct' ? 'tolerancePct' : field, issue.message);
       }
     }
     if (failed || !checked.success) return z.NEVER;
@@ -97,7 +102,7 @@ export function partToForm(part: Part): PartFormValues {
     kind: part.kind,
     label: part.label,
     nominal: part.nominal === null ? '' : formatValue(part.nominal, QUANTITY_UNIT[NOMINAL_QUANTITY[part.kind]], { digits: 12 }),
-    tolerancePct: part.tolerancePct === null ? '' : String(part.tolerancePct),
+    tolerancePct: toleranceText(part.tolerancePct, part.tolerancePlusPct),
     marking: part.marking ?? '',
     taperClass: part.taperClass ?? '',
     supplier: part.supplier ?? '',

@@ -89,10 +89,10 @@ function PartFields({ register, errors, kind, nominalText, kindLocked, wide }: F
         {...register('nominal')}
       />
       <TextField
-        label="Tolerance (±%)"
-        inputMode="decimal"
+        label="Tolerance (%)"
         autoComplete="off"
         inputClassName="num"
+        hint="One number for ±, or two sides such as −20/+80"
         error={errors.tolerancePct?.message}
         {...register('tolerancePct')}
       />

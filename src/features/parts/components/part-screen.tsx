@@ -39,7 +39,7 @@ function PartFacts({ part }: { part: PartDetail }) {
         {formatNominal(part.kind, part.nominal)}
       </Fact>
       <Fact term="Tolerance" numeric>
-        {formatTolerance(part.tolerancePct)}
+        {formatTolerance(part.tolerancePct, part.tolerancePlusPct)}
       </Fact>
       <Fact term="Marking">{part.marking ? <span className="font-mono">{part.marking}</span> : none}</Fact>
       {part.kind === 'pot' && <Fact term="Taper class">{part.taperClass ? TAPER_LAW_LABEL[part.taperClass] : none}</Fact>}

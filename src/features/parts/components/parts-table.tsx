@@ -33,7 +33,11 @@ const columns = [
     sortUndefined: 'last',
     cell: (c) => formatNominal(c.row.original.kind, c.getValue()),
   }),
-  col.accessor('tolerancePct', { header: 'Tolerance', meta: { numeric: true }, cell: (c) => formatTolerance(c.getValue()) }),
+  col.accessor('tolerancePct', {
+    header: 'Tolerance',
+    meta: { numeric: true },
+    cell: (c) => formatTolerance(c.getValue(), c.row.original.tolerancePlusPct),
+  }),
   col.accessor('taperClass', {
     header: 'Taper',
     cell: (c) => {
