@@ -234,7 +234,8 @@ export function jobRoutes(ctx: AppContext) {
 
   api.get('/:id/report', {
     schemas: { params: IdParamsSchema, query: JobReportInputSchema },
-    handle: async ({ params, query }) => previewOf(await composeReport(db, mustFind(params.id), { ...query, uploadsDir: ctx.config.uploadsDir })),
+    handle: async ({ params, query }) =>
+      previewOf(await composeReport(db, mustFind(params.id), { ...query, uploadsDir: ctx.config.uploadsDir })),
   });
 
   api.post('/:id/report', {
