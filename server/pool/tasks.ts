@@ -12,6 +12,7 @@ import { findBleed } from '@shared/circuit/bleed-finder';
 import { getLayout, type LayoutConfig } from '@shared/circuit/layouts';
 import { sweepKnobs } from '@shared/circuit/metrics';
 import type { Netlist } from '@shared/circuit/netlist';
+import { renderClips, type ClipRenderInput } from '@server/features/jobs/clips';
 import type { LotRow } from '@server/features/lots/repository';
 import { lotValues } from '@server/features/lots/repository';
 import { lotResults, refreshLotStats, type StoredLotResults } from '@server/features/lots/stored-stats';
@@ -152,5 +153,10 @@ export function lotFreshResults(input: LotResultsInput): StoredLotResults {
 }
 
 /** Every job by name: the pool's typed front (server/pool/index.ts) takes its types from here. */
-export const TASKS = { harnessSweep, bleedFinder, render, coilFit, lotStats, lotFreshResults } as const;
+/** A job's report clips (server/features/jobs/clips.ts): the before and after designs as two 16-bit WAV files. */
+export function reportClips(input: ClipRenderInput): [Uint8Array, Uint8Array] {
+  return renderClips(input);
+}
+
+export const TASKS = { harnessSweep, bleedFinder, render, coilFit, lotStats, lotFreshResults, reportClips } as const;
 export type TaskName = keyof typeof TASKS;

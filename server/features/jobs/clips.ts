@@ -19,6 +19,7 @@ import { pickupPositionOf, synthesizePhrase } from '@shared/audio/phrase';
 import { MAX_CHAIN_BOOST_DB, renderChannels, renderPickupTracks } from '@shared/audio/render';
 import { readWav, readWavHeader, WavError, writeWav } from '@shared/audio/wav';
 import { buildLayoutNetlist, getLayout, layoutKnobs, resolveLayoutConfig, type LayoutDef } from '@shared/circuit/layouts';
+import type { Netlist } from '@shared/circuit/netlist';
 import { CLIP_MAX_SECONDS, type BeforeDesign, type RecordingChain } from '@shared/schemas/job-clips';
 import { RECORDING_CHAIN_DEFAULTS } from '@shared/schemas/listen';
 import { formatValue } from '@shared/units/format';
@@ -41,9 +42,20 @@ export interface ClipAttachment {
 export interface ReportClips {
   /** The e-mail's paragraph about the clips (which is which, the source, the caution), or null when the job has no before wiring. */
   text: string | null;
-  /** The two WAV files (rendered when called); empty when no clips can be made. */
-  attachments: () => ClipAttachment[];
+  /** The two WAV files, rendered when called (in the job pool when the caller runs it there); empty when no clips can be made. */
+  attachments: (render?: ClipRenderer) => Promise<ClipAttachment[]>;
 }
+
+/** Both designs' netlists and knobs, the recording chain and the source: all a worker needs to render the clips. */
+export interface ClipRenderInput {
+  before: { netlist: Netlist; knobs: Record<string, number> };
+  after: { netlist: Netlist; knobs: Record<string, number> };
+  /** The recording's WAV bytes and its chain (the before wiring into the recorder); absent: the built-in phrase. */
+  recording?: { wav: Uint8Array; chain: { netlist: Netlist; knobs: Record<string, number> } };
+}
+
+/** Renders the before and after clips as 16-bit WAV bytes (the pool's `reportClips` job, or inline). */
+export type ClipRenderer = (input: ClipRenderInput) => Promise<[Uint8Array, Uint8Array]>;
 
 interface Wiring {
   label: string;
@@ -87,7 +99,7 @@ function chainOf(before: Wiring, chain: RecordingChain) {
     options,
     values: { ...before.config.values, ampR: chain.inputR, cableLength: chain.cableLength },
   });
-  return harnessResponse(buildLayoutNetlist(before.layout, config), layoutKnobs(before.layout, {}));
+  return { netlist: buildLayoutNetlist(before.layout, config), knobs: layoutKnobs(before.layout, {}) };
 }
 
 /** Mono (channels averaged), at most `seconds` long. */
@@ -102,7 +114,7 @@ function monoHead(channels: Float32Array[], sampleRate: number, seconds: number)
  * The paragraph and the clips for a job's report. `uploadsDir` is where the job's recording is stored.
  */
 export function reportClips(db: DbLike, uploadsDir: string, job: JobDetail): ReportClips {
-  const none = (text: string | null): ReportClips => ({ text, attachments: () => [] });
+  const none = (text: string | null): ReportClips => ({ text, attachments: () => Promise.resolve([]) });
   const hasBefore = job.beforeHarnessId != null || job.beforeDesign != null;
   if (!hasBefore) return none(null);
   const noClips = (why: string) => none(`Sound clips: none attached (${why}).`);
@@ -154,34 +166,19 @@ export function reportClips(db: DbLike, uploadsDir: string, job: JobDetail): Rep
     '  Start quiet: set your speakers or headphones low before playing them and raise them slowly; loud sound, above all through headphones, harms hearing for good.',
   ];
 
-  const render = (): ClipAttachment[] => {
-    let clips: [Float32Array, Float32Array];
-    let rate: number;
-    const afterR = instrumentResponses(buildLayoutNetlist(after.layout, after.config), afterKnobs);
-    const beforeR = instrumentResponses(buildLayoutNetlist(before.layout, before.config), beforeKnobs);
-    if (source.kind === 'recording') {
-      const wav = readWav(source.bytes);
-      rate = wav.sampleRate;
-      const mono = monoHead(wav.channels, rate, CLIP_MAX_SECONDS);
-      const h = chainOf(before, chain);
-      clips = [renderChannels([mono], rate, beforeR.total, h)[0]!, renderChannels([mono], rate, afterR.total, h)[0]!];
-    } else {
-      rate = CLIP_PHRASE_RATE;
-      clips = phraseClips(beforeR, afterR, rate);
-    }
-    let peak = 0;
-    for (const c of clips) for (let i = 0; i < c.length; i++) peak = Math.max(peak, Math.abs(c[i]!));
-    const gain = peak > 0 ? Math.min(MAX_GAIN, CLIP_PEAK / peak) : 1;
-    return clips.map((c, k) => {
-      for (let i = 0; i < c.length; i++) c[i]! *= gain;
-      return {
-        filename: k === 0 ? names.before : names.after,
-        content: Buffer.from(writeWav([c], rate, 'pcm16')),
-        contentType: 'audio/wav',
-      };
-    });
+  const input: ClipRenderInput = {
+    before: { netlist: buildLayoutNetlist(before.layout, before.config), knobs: beforeKnobs },
+    after: { netlist: buildLayoutNetlist(after.layout, after.config), knobs: afterKnobs },
+    ...(source.kind === 'recording' ? { recording: { wav: source.bytes, chain: chainOf(before, chain) } } : {}),
   };
-  return { text: lines.join('\n'), attachments: render };
+  const attachmentsOf = async (render: ClipRenderer = (i) => Promise.resolve(renderClips(i))): Promise<ClipAttachment[]> => {
+    const [b, a] = await render(input);
+    return [
+      { filename: names.before, content: Buffer.from(b.buffer, b.byteOffset, b.byteLength), contentType: 'audio/wav' },
+      { filename: names.after, content: Buffer.from(a.buffer, a.byteOffset, a.byteLength), contentType: 'audio/wav' },
+    ];
+  };
+  return { text: lines.join('\n'), attachments: attachmentsOf };
 }
 
 function phraseSeconds(): number {
@@ -213,8 +210,36 @@ function phraseClips(before: InstrumentResponses, after: InstrumentResponses, ra
   return [one(before), one(after)];
 }
 
-/** The clips as the report's attachment source: their paragraph and, when they can be made, the two WAV files. */
-export const soundClips: ReportAttachmentSource = ({ db, job, uploadsDir }) => {
+/**
+ * The before and after clips as 16-bit mono WAV bytes, through one common gain so the louder peaks
+ * at CLIP_PEAK: a recording (its first CLIP_MAX_SECONDS, mono) through H(design)/H(chain), else the
+ * built-in phrase with each pickup hearing the string at its own place. Pure computation: the pool runs it.
+ */
+export function renderClips(input: ClipRenderInput): [Uint8Array, Uint8Array] {
+  let clips: [Float32Array, Float32Array];
+  let rate: number;
+  const afterR = instrumentResponses(input.after.netlist, input.after.knobs);
+  const beforeR = instrumentResponses(input.before.netlist, input.before.knobs);
+  if (input.recording) {
+    const wav = readWav(input.recording.wav);
+    rate = wav.sampleRate;
+    const mono = monoHead(wav.channels, rate, CLIP_MAX_SECONDS);
+    const h = harnessResponse(input.recording.chain.netlist, input.recording.chain.knobs);
+    clips = [renderChannels([mono], rate, beforeR.total, h)[0]!, renderChannels([mono], rate, afterR.total, h)[0]!];
+  } else {
+    rate = CLIP_PHRASE_RATE;
+    clips = phraseClips(beforeR, afterR, rate);
+  }
+  let peak = 0;
+  for (const c of clips) for (let i = 0; i < c.length; i++) peak = Math.max(peak, Math.abs(c[i]!));
+  const gain = peak > 0 ? Math.min(MAX_GAIN, CLIP_PEAK / peak) : 1;
+  for (const c of clips) for (let i = 0; i < c.length; i++) c[i]! *= gain;
+  return [writeWav([clips[0]], rate, 'pcm16'), writeWav([clips[1]], rate, 'pcm16')];
+}
+
+/** The clips as the report's attachment source: their paragraph and, when they can be made, the two WAV files (rendered in the job pool). */
+export const soundClips: ReportAttachmentSource = async ({ db, job, uploadsDir, pool }) => {
   const clips = reportClips(db, uploadsDir, job);
-  return { attachments: clips.attachments(), lines: clips.text ? [clips.text] : [] };
+  const render: ClipRenderer = (input) => pool.run('reportClips', input);
+  return { attachments: await clips.attachments(render), lines: clips.text ? [clips.text] : [] };
 };

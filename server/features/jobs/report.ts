@@ -17,6 +17,7 @@ import { lawMid, TAPER_LAW_LABEL, type TaperLaw } from '@shared/taper/law';
 import { formatValue } from '@shared/units/format';
 import { QUANTITY_UNIT } from '@shared/units/quantities';
 import type { JobDetail } from './repository';
+import type { JobPool } from '@server/pool';
 import { soundClips } from './clips';
 import { designOf, slotValues, type SlotQuantity } from './slots';
 
@@ -276,6 +277,8 @@ export interface ReportInput {
   prediction: Prediction | null;
   /** Where the job's stored files (its recording) are. */
   uploadsDir: string;
+  /** The job pool, for attachments that take heavy computation (the sound clips). */
+  pool: JobPool;
 }
 
 /** Adds attachments to the report, with the lines the text says about them. */
@@ -311,12 +314,13 @@ export interface ReportMessage {
 export async function composeReport(
   db: DbLike,
   job: JobDetail,
-  opts: { to?: string; message?: string; uploadsDir: string },
+  opts: { to?: string; message?: string; uploadsDir: string; pool: JobPool },
 ): Promise<ReportMessage> {
   const partLines = job.parts.map((p) => partLine(db, p));
   const prediction = predictJob(db, job);
   const extras = [];
-  for (const source of REPORT_ATTACHMENT_SOURCES) extras.push(await source({ db, job, prediction, uploadsDir: opts.uploadsDir }));
+  for (const source of REPORT_ATTACHMENT_SOURCES)
+    extras.push(await source({ db, job, prediction, uploadsDir: opts.uploadsDir, pool: opts.pool }));
   const attachmentLines = extras.flatMap((e) => e.lines);
   const text = [
     `Hello ${job.customer},`,

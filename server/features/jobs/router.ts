@@ -235,14 +235,14 @@ export function jobRoutes(ctx: AppContext) {
   api.get('/:id/report', {
     schemas: { params: IdParamsSchema, query: JobReportInputSchema },
     handle: async ({ params, query }) =>
-      previewOf(await composeReport(db, mustFind(params.id), { ...query, uploadsDir: ctx.config.uploadsDir })),
+      previewOf(await composeReport(db, mustFind(params.id), { ...query, uploadsDir: ctx.config.uploadsDir, pool: ctx.pool })),
   });
 
   api.post('/:id/report', {
     schemas: { params: IdParamsSchema, body: JobReportInputSchema },
     handle: async ({ params, body, user }) => {
       const job = mustFind(params.id);
-      const report = await composeReport(db, job, { ...body, uploadsDir: ctx.config.uploadsDir });
+      const report = await composeReport(db, job, { ...body, uploadsDir: ctx.config.uploadsDir, pool: ctx.pool });
       const to = report.to;
       if (!to) throw unprocessable('The job has no customer e-mail; give one.', { to: 'Required: the job has no customer e-mail.' });
       // Only to the job's customer or a member: the server is not a relay for arbitrary addresses.
