@@ -1,5 +1,4 @@
 import { queryOptions, useMutation, useQuery } from '@tanstack/react-query';
-import type { InstallPartInput } from '@shared/schemas/jobs';
 import type { Part } from '@shared/schemas/parts';
 import { api } from '@/lib/api-client';
 import { queryKeys } from '@/data/query-keys';
@@ -8,7 +7,6 @@ import type { JobDetail } from './types';
 /** Finds a part by its printed label (the install form's look-up). */
 export const getPartByLabel = (label: string) => api.get<Part>(`/api/parts/by-label/${encodeURIComponent(label)}`);
 
-export const installPart = ({ id, input }: { id: number; input: InstallPartInput }) => api.post<JobDetail>(`/api/jobs/${id}/parts`, input);
 export const removePart = ({ id, partId }: { id: number; partId: number }) => api.delete<JobDetail>(`/api/jobs/${id}/parts/${partId}`);
 
 /** Puts an installed part in a slot of the job's design, or takes it out (slot null). */
@@ -17,9 +15,7 @@ export const assignSlot = ({ id, partId, slot }: { id: number; partId: number; s
 
 export const useAssignSlot = () => useMutation({ mutationFn: assignSlot, meta: { invalidates: [queryKeys.jobs.all()] } });
 
-// Installing and removing change the part's status too: the parts lists go stale.
-export const useInstallPart = () =>
-  useMutation({ mutationFn: installPart, meta: { invalidates: [queryKeys.jobs.all(), queryKeys.parts.all()] } });
+// Removing changes the part's status too: the parts lists go stale.
 export const useRemovePart = () =>
   useMutation({ mutationFn: removePart, meta: { invalidates: [queryKeys.jobs.all(), queryKeys.parts.all()] } });
 

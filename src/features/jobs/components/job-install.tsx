@@ -15,7 +15,8 @@ import { paths } from '@/config/paths';
 import { useDebouncedValue } from '@/hooks/use-debounced-value';
 import { isApiError } from '@/lib/api-client';
 import { formatNominal } from '@/lib/format';
-import { partByLabelQueryOptions, useInstallPart, usePartByLabel } from '../api/job-parts';
+import { useInstallPart } from '@/data/jobs';
+import { partByLabelQueryOptions, usePartByLabel } from '../api/job-parts';
 
 interface Refusal {
   partId: number;

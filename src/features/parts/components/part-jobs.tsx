@@ -13,7 +13,7 @@ import { formatDateTime } from '@/lib/format';
 import { applyServerError } from '@/lib/form';
 import type { PartDetail } from '@shared/schemas/parts';
 import { useJobs } from '@/data/jobs';
-import { useInstallPart } from '../api/jobs';
+import { useInstallPart } from '@/data/jobs';
 
 const Schema = z.object({ jobId: z.string().min(1, 'Choose a job.'), position: InstallPartInputSchema.shape.position });
 type Values = z.input<typeof Schema>;
@@ -30,7 +30,7 @@ function InstallForm({ part, onDone }: { part: PartDetail; onDone: () => void })
 
   const onSubmit = form.handleSubmit(async (v) => {
     try {
-      await install.mutateAsync({ jobId: Number(v.jobId), partId: part.id, position: v.position });
+      await install.mutateAsync({ id: Number(v.jobId), input: { partId: part.id, position: v.position } });
       onDone();
     } catch (err) {
       applyServerError(err, form.setError, ['jobId', 'position']);
