@@ -73,7 +73,7 @@ export function DesignListen({ design, before, panelId }: { design: ListenableDe
       panelId={panelId}
       designs={designs}
       chainFor={(inputR, cable) => instrumentChainOf(asInstrument(present, {}), inputR, cable)}
-      instrument={designs.B?.label}
+      instrument={designs.A && designs.B ? `${designs.A.label} as A and ${designs.B.label} as B` : designs.B?.label}
     >
       <fieldset className="mt-3">
         <legend className="mb-1 text-sm font-medium">
