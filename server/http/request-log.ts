@@ -17,7 +17,10 @@ export function requestLogger(destination: NodeJS.WritableStream): RequestHandle
       res: (res: { statusCode: number }) => ({ status: res.statusCode }),
       err: (err: Error) => ({ type: err.name }),
     },
-    customProps: (req) => {
+    // pino-http asks for these props when the request starts and again when the answer has gone;
+    // only the second knows the route and the user, so the first gives none (else each key is written twice).
+    customProps: (req, res) => {
+      if (!res.writableEnded) return {};
       const r = req as unknown as { route?: { path?: string }; user?: { id: string } | null; path?: string };
       return { route: r.route?.path ?? '(no route)', userId: r.user?.id ?? null };
     },

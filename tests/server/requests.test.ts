@@ -108,6 +108,8 @@ describe('request logs', () => {
     expect(entries[1]).toMatchObject({ req: { method: 'GET' }, route: '/api/parts/by-label/:label' });
     expect(entries[2]!.userId).toEqual(expect.any(String));
     for (const e of entries) expect(e.durationMs).toEqual(expect.any(Number));
+    // each key once per line (a JSON reader keeps only the last of a repeated key)
+    for (const line of logLines) for (const key of ['"route":', '"userId":']) expect(line.split(key)).toHaveLength(2);
     const all = logLines.join('\n');
     expect(all).not.toContain(TEST_PASSWORD);
     expect(all).not.toContain('query-value');
