@@ -8,6 +8,7 @@ import { synthesizePhrase } from '@shared/audio/phrase';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { Panel } from '@/components/ui/page-header';
+import { RecordingChainFields } from './recording-chain-fields';
 import { useListenAudio, type ListenDesign, type ListenSource, type Slot } from './use-listen-audio';
 
 export interface ListenPanelProps {
@@ -39,7 +40,7 @@ export function ListenPanel({ designs, chainFor, instrument, panelId = 'harness-
   const [file, setFile] = useState<File | null>(null);
   const [inputKOhm, setInputKOhm] = useState('1000');
   const [cableM, setCableM] = useState('3');
-  const ids = { level: useId(), meter: useId(), file: useId(), input: useId(), cable: useId(), caution: useId() };
+  const ids = { level: useId(), meter: useId(), file: useId(), caution: useId() };
   const inputR = Number(inputKOhm) * 1e3;
   const cable = Number(cableM);
   const chainOk = Number.isFinite(inputR) && inputR >= 1e3 && inputR <= 1e8 && Number.isFinite(cable) && cable >= 0 && cable <= 100;
@@ -109,34 +110,7 @@ export function ListenPanel({ designs, chainFor, instrument, panelId = 'harness-
                 The recording already carries the instrument&apos;s present wiring. It is filtered by this design divided by that wiring at
                 full volume and tone into your recorder (at most +12 dB of boost), so the pickup is not counted twice.
               </p>
-              <div className="flex flex-wrap gap-3">
-                <label htmlFor={ids.input} className="grid gap-0.5">
-                  Recorder input (kΩ)
-                  <input
-                    id={ids.input}
-                    type="number"
-                    min={1}
-                    max={100000}
-                    step="any"
-                    value={inputKOhm}
-                    onChange={(e) => setInputKOhm(e.currentTarget.value)}
-                    className="w-28 rounded border border-paper-edge px-2 py-1"
-                  />
-                </label>
-                <label htmlFor={ids.cable} className="grid gap-0.5">
-                  Cable to the recorder (m)
-                  <input
-                    id={ids.cable}
-                    type="number"
-                    min={0}
-                    max={100}
-                    step="any"
-                    value={cableM}
-                    onChange={(e) => setCableM(e.currentTarget.value)}
-                    className="w-28 rounded border border-paper-edge px-2 py-1"
-                  />
-                </label>
-              </div>
+              <RecordingChainFields inputKOhm={inputKOhm} cableM={cableM} onInputKOhm={setInputKOhm} onCableM={setCableM} />
               {!chainOk && <p className="text-xs text-fail">The recorder input goes from 1 kΩ to 100 MΩ and the cable from 0 to 100 m.</p>}
             </div>
           )}

@@ -4,6 +4,7 @@
 // attaches the same pair as clips (server/features/jobs/clips.ts).
 import { useId, useState } from 'react';
 import { DesignListen, type ListenableDesign } from '@/components/listen/design-listen';
+import { RecordingChainFields } from '@/components/listen/recording-chain-fields';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { formatDateTime } from '@/lib/format';
@@ -17,7 +18,7 @@ function BeforeControls({ job }: { job: JobDetail }) {
   const harnesses = useHarnesses();
   const set = useSetJobBefore();
   const upload = useUploadJobRecording();
-  const ids = { before: useId(), copy: useId(), file: useId(), input: useId(), cable: useId() };
+  const ids = { before: useId(), copy: useId(), file: useId() };
   const [copy, setCopy] = useState(false);
   const [inputKOhm, setInputKOhm] = useState(String((job.recordingChain?.inputR ?? 1e6) / 1e3));
   const [cableM, setCableM] = useState(String(job.recordingChain?.cableLength ?? 3));
@@ -82,32 +83,7 @@ function BeforeControls({ job }: { job: JobDetail }) {
             }}
           />
         </div>
-        <label htmlFor={ids.input} className="grid gap-0.5 text-sm">
-          Recorder input (kΩ)
-          <input
-            id={ids.input}
-            type="number"
-            min={1}
-            max={100000}
-            step="any"
-            value={inputKOhm}
-            onChange={(e) => setInputKOhm(e.currentTarget.value)}
-            className="w-28 rounded border border-paper-edge px-2 py-1"
-          />
-        </label>
-        <label htmlFor={ids.cable} className="grid gap-0.5 text-sm">
-          Cable to the recorder (m)
-          <input
-            id={ids.cable}
-            type="number"
-            min={0}
-            max={100}
-            step="any"
-            value={cableM}
-            onChange={(e) => setCableM(e.currentTarget.value)}
-            className="w-28 rounded border border-paper-edge px-2 py-1"
-          />
-        </label>
+        <RecordingChainFields inputKOhm={inputKOhm} cableM={cableM} onInputKOhm={setInputKOhm} onCableM={setCableM} className="contents" />
         <Button
           size="sm"
           disabled={set.isPending}
