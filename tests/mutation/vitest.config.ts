@@ -29,6 +29,8 @@ export default defineConfig({
       'node_modules/**',
     ],
     setupFiles: ['tests/setup/console.ts', 'tests/setup/fast-check.ts'],
+    // Smaller sizes for the slowest tests (tests/support/mutation-run.ts) and a fixed fast-check seed.
+    env: { LUGBOOK_MUTATION_RUN: '1' },
     testTimeout: 60_000,
   },
 });

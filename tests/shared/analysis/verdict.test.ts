@@ -3,6 +3,7 @@ import fc from 'fast-check';
 import { readFileSync } from 'node:fs';
 import { accuracyAt, instrumentUncertainty, judge, limitsFromTolerance, meterRange } from '@shared/analysis/verdict';
 import { parseValue } from '@shared/units/parse';
+import { sized } from '../../support/mutation-run';
 
 function readSeries(name: string): number[] {
   const text = readFileSync(new URL(`../../fixtures/iec/iec60063-${name}.txt`, import.meta.url), 'utf8');
@@ -54,7 +55,7 @@ describe('a reading exactly on a decimal tolerance limit conforms (simple accept
           expect(v.verdict, `${typed} on ${nominal} ± ${tenths / 10} %`).toBe('pass');
         },
       ),
-      { numRuns: 2000 },
+      { numRuns: sized(2000, 300) },
     );
   });
 });
