@@ -43,15 +43,17 @@ const taper = (g: KnobGrid) => VOLUMES.map((_, vi) => g.volumeTaperDb[(TONES.len
 const at5 = (xs: number[]) => xs[VOLUMES.indexOf(5)]!;
 const rms = (a: number[], b: number[]) => Math.sqrt(a.reduce((s, x, i) => s + (x - b[i]!) ** 2, 0) / a.length);
 
-const independent = sweep('independent-tone');
-const interactive = sweep('interactive-tone');
-const capBleed = sweep('bleed-cap');
-const parallelBleed = sweep('bleed-cap-parallel-r');
-const seriesBleed = sweep('bleed-cap-series-r');
+// Computed inside each test, never while the file loads: the mutation runs count what a test
+// covers only while it runs (tests/mutation/vitest.config.ts).
+const independent = () => sweep('independent-tone');
+const interactive = () => sweep('interactive-tone');
+const capBleed = () => sweep('bleed-cap');
+const parallelBleed = () => sweep('bleed-cap-parallel-r');
+const seriesBleed = () => sweep('bleed-cap-series-r');
 
 describe('behaviours of the trade — common practice (no published source)', () => {
   it('independent tone: rolling the volume down loses treble', () => {
-    const r = retention(independent);
+    const r = retention(independent());
     for (let i = 0; i < VOLUMES.length - 1; i++) expect(r[i]!).toBeLessThan(-0.5);
     // harness-behaviours.txt figure: about −3.8 dB at volume 5
     expect(at5(r)).toBeCloseTo(-3.8, 0);
@@ -59,15 +61,15 @@ describe('behaviours of the trade — common practice (no published source)', ()
   });
 
   it('a capacitor-only treble bleed is brighter than full volume as the volume goes down', () => {
-    const r = retention(capBleed);
+    const r = retention(capBleed());
     for (let i = 1; i < VOLUMES.length - 1; i++) expect(r[i]!).toBeGreaterThan(1);
     // harness-behaviours.txt: about +11 dB at volume 5
     expect(Math.abs(at5(r) - 11)).toBeLessThan(0.5);
   });
 
   it('the parallel resistor keeps the treble balance more even', () => {
-    const cap = retention(capBleed);
-    const par = retention(parallelBleed);
+    const cap = retention(capBleed());
+    const par = retention(parallelBleed());
     const zeros = VOLUMES.map(() => 0);
     expect(rms(par, zeros)).toBeLessThan(rms(cap, zeros) / 3);
     for (let i = 1; i < VOLUMES.length - 1; i++) expect(Math.abs(par[i]!)).toBeLessThan(Math.abs(cap[i]!));
@@ -76,25 +78,25 @@ describe('behaviours of the trade — common practice (no published source)', ()
   });
 
   it("with the resistor in series instead, the volume taper stays closer to the bare pot's", () => {
-    const bare = taper(independent);
-    const dSeries = rms(taper(seriesBleed), bare);
-    const dParallel = rms(taper(parallelBleed), bare);
+    const bare = taper(independent());
+    const dSeries = rms(taper(seriesBleed()), bare);
+    const dParallel = rms(taper(parallelBleed()), bare);
     expect(dSeries).toBeLessThan(dParallel);
     // and it still keeps some treble: harness-behaviours.txt gives about +3 dB at volume 5
-    expect(Math.abs(at5(retention(seriesBleed)) - 3)).toBeLessThan(0.5);
+    expect(Math.abs(at5(retention(seriesBleed())) - 3)).toBeLessThan(0.5);
   });
 
   it('interactive tone keeps more treble than independent tone at reduced volume', () => {
-    const ind = retention(independent);
-    const int = retention(interactive);
+    const ind = retention(independent());
+    const int = retention(interactive());
     for (let i = 0; i < VOLUMES.length - 1; i++) expect(int[i]!).toBeGreaterThan(ind[i]!);
     // harness-behaviours.txt: about −3.2 dB at volume 5 (against −3.8 dB independent)
     expect(Math.abs(at5(int) - -3.2)).toBeLessThan(0.2);
   });
 
   it("interactive tone: the volume and tone settings change each other's effect", () => {
-    expect(interactive.interactionIndexDb).toBeGreaterThan(1);
-    expect(interactive.interactionIndexDb).toBeGreaterThan(5 * independent.interactionIndexDb);
+    expect(interactive().interactionIndexDb).toBeGreaterThan(1);
+    expect(interactive().interactionIndexDb).toBeGreaterThan(5 * independent().interactionIndexDb);
   });
 
   it('a floor resistor Rf makes tone 0 exactly a plain tone branch with a resistance of Rf', () => {
@@ -133,17 +135,17 @@ describe('behaviours of the trade — common practice (no published source)', ()
 
   it('reports the figures it reproduced', () => {
     const figures = {
-      independent: at5(retention(independent)),
-      interactive: at5(retention(interactive)),
-      capBleed: at5(retention(capBleed)),
-      parallel: at5(retention(parallelBleed)),
-      series: at5(retention(seriesBleed)),
-      interactionIndependent: independent.interactionIndexDb,
-      interactionInteractive: interactive.interactionIndexDb,
+      independent: at5(retention(independent())),
+      interactive: at5(retention(interactive())),
+      capBleed: at5(retention(capBleed())),
+      parallel: at5(retention(parallelBleed())),
+      series: at5(retention(seriesBleed())),
+      interactionIndependent: independent().interactionIndexDb,
+      interactionInteractive: interactive().interactionIndexDb,
       cornerPlain: simulate(net('independent-tone'), { volume: 10, tone: 0 }).metrics.cornerHz,
       cornerDual: simulate(net('dual-cap-tone'), { volume: 10, tone: 0 }).metrics.cornerHz,
-      taperRmsSeries: rms(taper(seriesBleed), taper(independent)),
-      taperRmsParallel: rms(taper(parallelBleed), taper(independent)),
+      taperRmsSeries: rms(taper(seriesBleed()), taper(independent())),
+      taperRmsParallel: rms(taper(parallelBleed()), taper(independent())),
     };
     console.info('§6 figures at volume 5, tone 10 (dB) and corners (Hz):', JSON.stringify(figures));
     // The grid's treble retention is its definition: (L(3 kHz) − L(200 Hz)) at volume 5 minus the

@@ -9,11 +9,13 @@ import { compileHarness } from '@shared/circuit/solver';
 import { MIN_POT_RESISTANCE } from '@shared/circuit/netlist';
 
 describe('toSpiceNetlist', () => {
-  const preset = getPreset('interactive-tone')!;
-  const text = toSpiceNetlist(preset.build(preset.defaults), { volume: 3, tone: 8 });
-  const lines = text.trim().split('\n');
+  // Built inside each test, never while the file loads: the mutation runs count what a test covers
+  // only while it runs.
+  const preset = () => getPreset('interactive-tone')!;
+  const deckLines = () => toSpiceNetlist(preset().build(preset().defaults), { volume: 3, tone: 8 }).trim().split('\n');
 
   it('is a SPICE3 deck: title first, an AC 1 source, .ac dec 50 20 20k, .end last', () => {
+    const lines = deckLines();
     expect(lines[0]).toMatch(/^Interactive tone harness/);
     expect(lines.some((l) => /^V\S+ \S+ 0 DC 0 AC 1$/.test(l))).toBe(true);
     expect(lines).toContain('.ac dec 50 20 20000');
@@ -22,7 +24,8 @@ describe('toSpiceNetlist', () => {
   });
 
   it('writes the pot halves at the knob setting with 12 significant digits', () => {
-    const y = lawValue(preset.defaults.volumeLaw, 0.3);
+    const lines = deckLines();
+    const y = lawValue(preset().defaults.volumeLaw, 0.3);
     const toGround = lines.find((l) => l.startsWith('Rvolume_aw '))!;
     expect(toGround.split(' ')).toEqual(['Rvolume_aw', '0', 'out', spiceNumber(500e3 * y)]);
     expect(Number(toGround.split(' ')[3]) / (500e3 * y)).toBeCloseTo(1, 11);
@@ -32,14 +35,14 @@ describe('toSpiceNetlist', () => {
   });
 
   it('clamps a pot at its end stop to MIN_POT_RESISTANCE rather than writing 0', () => {
-    const t = toSpiceNetlist(preset.build(preset.defaults), { volume: 10, tone: 0 });
+    const t = toSpiceNetlist(preset().build(preset().defaults), { volume: 10, tone: 0 });
     expect(t).toContain(`Rvolume_wb out n_hot ${spiceNumber(MIN_POT_RESISTANCE)}`);
     expect(t).toContain(`Rtone_aw out n_tone ${spiceNumber(MIN_POT_RESISTANCE)}`);
   });
 
   it('honours the frequency options', () => {
     expect(
-      toSpiceNetlist(preset.build(preset.defaults), { volume: 3, tone: 8 }, { fStart: 10, fStop: 40000, pointsPerDecade: 20 }),
+      toSpiceNetlist(preset().build(preset().defaults), { volume: 3, tone: 8 }, { fStart: 10, fStop: 40000, pointsPerDecade: 20 }),
     ).toContain('.ac dec 20 10 40000');
   });
 });
