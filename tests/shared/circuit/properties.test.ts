@@ -7,6 +7,7 @@ import { compileHarness, setKnobs, solve, solvePoint } from '@shared/circuit/sol
 import { DEFAULT_FREQUENCIES } from '@shared/circuit/metrics';
 import type { Netlist, Part } from '@shared/circuit/netlist';
 import type { TaperLaw } from '@shared/taper/law';
+import { sized } from '../../support/mutation-run';
 
 /** Log-uniform positive value between lo and hi. */
 const logUniform = (lo: number, hi: number) => fc.double({ min: 0, max: 1, noNaN: true }).map((u) => lo * (hi / lo) ** u);
@@ -49,7 +50,7 @@ describe('harness properties', () => {
           expect(power).toBeLessThanOrEqual((1 / (4 * v.pickupR)) * (1 + 1e-9));
         }
       }),
-      { numRuns: 200 },
+      { numRuns: sized(200, 25) },
     );
   });
 
@@ -59,7 +60,7 @@ describe('harness properties', () => {
         const h = solve(compileHarness(p.build(v)), { volume: 0, tone }, FREQS);
         for (let k = 0; k < FREQS.length; k++) expect(10 * Math.log10(h.re[k]! ** 2 + h.im[k]! ** 2)).toBeLessThan(-100);
       }),
-      { numRuns: 100 },
+      { numRuns: sized(100, 25) },
     );
   });
 
@@ -91,7 +92,7 @@ describe('harness properties', () => {
           expect(Math.hypot(a.re[i]! - b.re[i]!, a.im[i]! - b.im[i]!)).toBeLessThan(1e-8 * mag);
         }
       }),
-      { numRuns: 100 },
+      { numRuns: sized(100, 25) },
     );
   });
 
@@ -118,7 +119,7 @@ describe('harness properties', () => {
           expect(Math.hypot(a.re[i]! - b.re[i]!, a.im[i]! - b.im[i]!)).toBeLessThanOrEqual(1e-8 * mag);
         }
       }),
-      { numRuns: 100 },
+      { numRuns: sized(100, 25) },
     );
   });
 
@@ -144,7 +145,7 @@ describe('harness properties', () => {
           expect(Math.hypot(a.re[i]! - b.re[i]!, a.im[i]! - b.im[i]!)).toBeLessThanOrEqual(1e-9 * mag + 1e-12);
         }
       }),
-      { numRuns: 100 },
+      { numRuns: sized(100, 25) },
     );
   });
 
@@ -161,7 +162,7 @@ describe('harness properties', () => {
           expect(Math.hypot(c.hRe - fast.re[k]!, c.hIm - fast.im[k]!)).toBeLessThan(1e-6 * mag);
         }
       }),
-      { numRuns: 100 },
+      { numRuns: sized(100, 25) },
     );
   });
 });
