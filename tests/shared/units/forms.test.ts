@@ -313,3 +313,46 @@ describe('formatValue and formatPercent: the display forms', () => {
     expect(formatSi(0.5, 'ratio')).toBe('0.5');
   });
 });
+
+describe('cases the mutation run found untested', () => {
+  it('RKM with R or r and no quantity reads as ohms (IEC 60062), and m as milli where milli is allowed', () => {
+    expect(parseValue('3r3')).toStrictEqual({ value: 3.3, unit: 'Ω' });
+    expect(parseValue('4R7')).toStrictEqual({ value: 4.7, unit: 'Ω' });
+    expect(messageOf('3r3', 'capacitance')).toBe(
+      'unit-mismatch: "3r3" uses R (ohm) as its decimal point, which marks a resistance, not a capacitance.',
+    );
+    expect(parseValue('4m7', 'inductance')).toStrictEqual({ value: 4.7e-3, unit: 'H' });
+  });
+
+  it('a prefix with a lower-case f is a farad, and white space between prefix and unit is allowed', () => {
+    expect(parseValue('22pf')).toStrictEqual({ value: 22e-12, unit: 'F' });
+    expect(parseValue('5 k Ω')).toStrictEqual({ value: 5000, unit: 'Ω' });
+  });
+
+  it('an RKM code must start the text, and a no-break space does not join digit groups', () => {
+    expect(messageOf('x4k7')).toMatch(/^syntax: "x4k7" is not a value: it should start with a number/);
+    expect(tryParseValue('1\u00A0000').ok).toBe(false);
+  });
+
+  it('answers carry readAs only when a bare decimal was read in µF, and the error has its own name', () => {
+    expect(parseValue('22n', 'capacitance')).toStrictEqual({ value: 22e-9, unit: 'F' });
+    expect(tryParseValue('22n', 'capacitance')).toStrictEqual({ ok: true, value: 22e-9, unit: 'F' });
+    let caught: unknown;
+    try {
+      parseValue('abc');
+    } catch (e) {
+      caught = e;
+    }
+    expect((caught as Error).name).toBe('ValueParseError');
+    // Only the reader's own refusals become messages; anything else is a fault and is thrown.
+    expect(() => tryParseValue(Symbol('not text') as unknown as string)).toThrow(TypeError);
+  });
+
+  it('display: exponent forms keep the asked digits, a percentage takes no prefix, 17 digits show the double', () => {
+    expect(formatValue(1.23456e-18, 'F')).toBe('1.23e-18 F');
+    expect(formatValue(2.5e-7, '')).toBe('2.5e-7');
+    expect(formatValue(0.005, '%')).toBe('0.005 %');
+    // The double 47.12345678901234436… (the one nearest 47.123456789012344) to 17 significant digits.
+    expect(formatValue(47.123456789012344, 'Ω', { digits: 17 })).toBe('47.123456789012344 Ω');
+  });
+});
