@@ -469,7 +469,14 @@ export function handLayoutCases(): HandLayoutCase[] {
       add('default options', {});
       add('default options, other values', {}, HAND_LAYOUT_OTHER_VALUES[id]);
       if (id !== 'three-pickups-5way' || selector === 1 || selector >= 3) {
-        for (const [option, choices] of options) for (const choice of choices.slice(1)) add(`${option} ${choice}`, { [option]: choice });
+        for (const [option, choices] of options) {
+          for (const choice of choices.slice(1)) {
+            add(`${option} ${choice}`, { [option]: choice });
+            // which pickup or coil is switched shows best with unlike ones
+            if (option === 'coils' || option === 'phase')
+              add(`${option} ${choice}, other values`, { [option]: choice }, HAND_LAYOUT_OTHER_VALUES[id]);
+          }
+        }
       }
       add('every option at its last choice', Object.fromEntries(options.map(([o, ch]) => [o, ch.at(-1)!])), HAND_LAYOUT_OTHER_VALUES[id]);
       const mixed = Object.fromEntries(options.map(([o, ch], i) => [o, ch[(selector + i + 1) % ch.length]!]));

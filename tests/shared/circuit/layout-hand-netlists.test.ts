@@ -247,6 +247,15 @@ describe('the seven presets are the one-pickup layout with the matching options'
     }
   });
 
+  it('part for part: the same parts, ids, nodes and values (the bleed finder and the export name parts by id)', () => {
+    const layout = layoutOf('one-pickup');
+    const byId = (parts: readonly { id: string }[]) => [...parts].sort((a, b) => (a.id < b.id ? -1 : 1));
+    for (const preset of HARNESS_PRESETS) {
+      const { config } = resolveLayoutConfig(layout, { options: PRESET_AS_LAYOUT[preset.id] });
+      expect(byId(buildLayoutNetlist(layout, config).parts), preset.id).toEqual(byId(getPreset(preset.id)!.build(preset.defaults).parts));
+    }
+  });
+
   it('the preset options are told apart: no two presets give the same network', () => {
     const layout = layoutOf('one-pickup');
     const levels = HARNESS_PRESETS.map((p) => {
@@ -365,6 +374,23 @@ describe('resolveLayoutConfig: defaults filled in', () => {
       'neck.volumeLaw': { kind: 'linear' },
     });
   });
+});
+
+describe('buildLayoutNetlist: a choice it is not given, or does not know, counts as the first (the default)', () => {
+  // DEVELOPERS.md, "The whole instrument": the first choice of an option is its default.
+  const netOf = (id: HandLayoutId, selector: number, options: Record<string, string>) =>
+    buildLayoutNetlist(layoutOf(id), { ...resolveLayoutConfig(layoutOf(id), { selector }).config, options });
+  for (const id of HAND_LAYOUT_IDS) {
+    it(id, () => {
+      HAND_POSITIONS[id].forEach((_, selector) => {
+        const resolved = resolveLayoutConfig(layoutOf(id), { selector }).config;
+        const expected = buildLayoutNetlist(layoutOf(id), resolved);
+        expect(netOf(id, selector, {}), `${id} ${selector}: no options`).toEqual(expected);
+        const unknown = Object.fromEntries(Object.keys(HAND_LAYOUT_OPTIONS[id]).map((o) => [o, 'no-such-choice']));
+        expect(netOf(id, selector, unknown), `${id} ${selector}: unknown choices`).toEqual(expected);
+      });
+    });
+  }
 });
 
 describe('resolveLayoutConfig: refusals name their path (DEVELOPERS.md, "The whole instrument")', () => {
