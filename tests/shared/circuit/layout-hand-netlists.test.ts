@@ -337,6 +337,8 @@ describe('cancellation and each pickup: identical pickups wired against each oth
     expect(emfOf('three-pickups-5way', 3, { phase: 'reversed' })).toEqual({ middle: -1, bridge: 1 });
     expect(emfOf('dual-coil', 0, { coils: 'series-reversed' })).toEqual({ north: 1, south: -1 });
     expect(emfOf('dual-coil', 0, { coils: 'parallel' })).toEqual({ north: 1, south: 1 });
+    // one coil: the north coil alone (the hand-written netlist keeps the north coil too)
+    expect(emfOf('dual-coil', 0, { coils: 'single' })).toEqual({ north: 1 });
   });
 });
 
@@ -617,6 +619,45 @@ describe("the layouts' tables", () => {
         `${l.id} values`,
         l.values.map((v) => v.name),
       );
+    }
+  });
+
+  it("every value's name says what it is and, where the layout has several, whose it is", () => {
+    // The Harness screen lists a layout's values in one list, so a name is "group: what" or "what":
+    // the what is never empty; a pickup's (or coil's) values name their pickup or coil; a value of
+    // a pickup's or a tone's controls (neck.volumeR, tone1.toneC) names the group its knob's name
+    // starts with; an ungrouped control's group, if any, is a word of the layout's description (the
+    // five-way layout's master volume); with several pickups every part value (not the load's) names
+    // its group.
+    const loadKeys = new Set(['cableCapPerMetre', 'cableLength', 'ampR', 'ampC', 'bufferR', 'cableBeforeBuffer', 'pedalR']);
+    for (const l of LAYOUTS) {
+      for (const v of l.values) {
+        const where = `${l.id} ${v.key}: "${v.name}"`;
+        const parts = v.name.split(': ');
+        expect(parts.length, where).toBeLessThanOrEqual(2);
+        const what = parts.at(-1)!;
+        const group = parts.length === 2 ? parts[0]! : null;
+        expect(what, where).toMatch(/^\p{L}/u);
+        if (group !== null) expect(group, where).toMatch(/^\p{L}/u);
+        const [prefix, last] = v.key.includes('.') ? v.key.split('.') : [null, v.key];
+        if (loadKeys.has(v.key)) {
+          expect(group, where).toBeNull();
+        } else if (last!.startsWith('pickup')) {
+          const owner =
+            prefix === null
+              ? l.pickups[0]!
+              : (l.pickups.find((p) => p.id === prefix) ?? l.pickups.flatMap((p) => p.coils).find((c) => c.id === prefix)!);
+          expect(group, where).not.toBeNull();
+          expect(group!.startsWith(owner.name), where).toBe(true);
+        } else if (prefix !== null) {
+          const knobNames = l.knobs.filter((k) => k.id === prefix || k.id.startsWith(`${prefix}.`)).map((k) => k.name);
+          expect(knobNames.length, where).toBeGreaterThan(0);
+          expect(group !== null && knobNames.every((n) => n.startsWith(group)), where).toBe(true);
+        } else {
+          if (group !== null) expect(l.description.toLowerCase().split(/\W+/), where).toContain(group.toLowerCase());
+          if (l.pickups.length > 1) expect(group, where).not.toBeNull();
+        }
+      }
     }
   });
 
