@@ -553,6 +553,9 @@ describe('resolveLayoutConfig: refusals name their path (DEVELOPERS.md, "The who
 });
 
 describe("the layouts' tables", () => {
+  // What each layout is: DEVELOPERS.md, "The whole instrument" (layouts, pickups and coils, knob
+  // ids, options with the first choice as default, dot-separated value keys) and each layout's own
+  // description (which pickups a selector position joins).
   it('the four layouts, in order, found by id; an unknown id finds none', () => {
     expect(LAYOUT_IDS).toEqual(HAND_LAYOUT_IDS);
     expect(LAYOUTS.map((l) => l.id)).toEqual(HAND_LAYOUT_IDS);
@@ -709,6 +712,8 @@ describe("the layouts' tables", () => {
   });
 
   it('volumeKnobs and toneKnobs: the knobs named volume and tone (or toneN), alone or after a pickup', () => {
+    // the knob ids of DEVELOPERS.md ('volume', 'tone', 'neck.volume', 'tone1' …); the first of each
+    // are the sweeps' axes, so no other knob may be taken for one
     expect(volumeKnobs(layoutOf('one-pickup'))).toEqual(['volume']);
     expect(toneKnobs(layoutOf('one-pickup'))).toEqual(['tone']);
     expect(volumeKnobs(layoutOf('two-pickups-3way'))).toEqual(['neck.volume', 'bridge.volume']);
@@ -727,6 +732,7 @@ describe("the layouts' tables", () => {
   });
 
   it('the netlist title names the layout and the selector position', () => {
+    // the title is the first line of the SPICE export, where it says what was exported
     for (const id of HAND_LAYOUT_IDS) {
       const layout = layoutOf(id);
       for (const pos of layout.selector.positions) {
