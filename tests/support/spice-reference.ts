@@ -13,21 +13,41 @@ export interface SpiceElement {
   a: string;
   b: string;
   value: number;
+  /** a source's AC phase in degrees (`AC 1 180`: a reversed source); 0 when not written */
+  phaseDeg: number;
 }
 
-/** Reads element lines `Rname a b value` (value in plain or e-notation); V lines `Vname a b DC 0 AC v`. */
+const SCALE: Record<string, number> = { t: 1e12, g: 1e9, meg: 1e6, k: 1e3, m: 1e-3, u: 1e-6, n: 1e-9, p: 1e-12, f: 1e-15 };
+
+/**
+ * A SPICE number: plain or e-notation, optionally with a scale suffix (T, G, MEG, K, M = milli, U,
+ * N, P, F, case-insensitive; letters after it ignored, as SPICE3 reads `22nF` or `1Meg`).
+ */
+export function spiceNumber(text: string): number {
+  const m = /^([+-]?(?:\d+\.?\d*|\.\d+)(?:e[+-]?\d+)?)(meg|[tgkmunpf])?[a-z]*$/i.exec(text);
+  if (!m) return NaN;
+  return Number(m[1]) * (m[2] ? SCALE[m[2].toLowerCase()]! : 1);
+}
+
+/**
+ * Reads element lines `Rname a b value` (value in plain or e-notation, or with a scale suffix); V lines `Vname a b DC 0 AC v`
+ * or `… AC v phase` (phase in degrees, as SPICE3 writes an AC source's phase).
+ */
 export function parseSpice(text: string): SpiceElement[] {
   const out: SpiceElement[] = [];
-  for (const raw of text.split('\n')) {
+  // SPICE reads the first line as the title, whatever it holds
+  for (const raw of text.split('\n').slice(1)) {
     const line = raw.trim();
     if (line === '' || line.startsWith('*') || line.startsWith('.')) continue;
     const kind = line[0]!.toUpperCase();
-    if (kind !== 'R' && kind !== 'C' && kind !== 'L' && kind !== 'V') continue; // title line
+    if (kind !== 'R' && kind !== 'C' && kind !== 'L' && kind !== 'V') throw new Error(`spice-reference: no element "${line}"`);
     const f = line.split(/\s+/);
-    if (f.length < 4) continue;
-    const value = kind === 'V' ? Number(f[f.indexOf('AC') + 1]) : Number(f[3]);
-    if (!Number.isFinite(value)) throw new Error(`spice-reference: cannot read "${line}"`);
-    out.push({ kind, name: f[0]!, a: f[1]!.toLowerCase(), b: f[2]!.toLowerCase(), value });
+    if (f.length < 4) throw new Error(`spice-reference: cannot read "${line}"`);
+    const ac = f.indexOf('AC');
+    const value = spiceNumber((kind === 'V' ? f[ac + 1] : f[3]) ?? '');
+    const phaseDeg = kind === 'V' && f[ac + 2] !== undefined ? spiceNumber(f[ac + 2]!) : 0;
+    if (!Number.isFinite(value) || !Number.isFinite(phaseDeg)) throw new Error(`spice-reference: cannot read "${line}"`);
+    out.push({ kind, name: f[0]!, a: f[1]!.toLowerCase(), b: f[2]!.toLowerCase(), value, phaseDeg });
   }
   return out;
 }
@@ -72,7 +92,12 @@ export function solveAc(elements: SpiceElement[], frequencies: readonly number[]
         add(k, a, 1, 0);
         add(k, b, -1, 0);
         if (e.kind === 'L') add(k, k, 0, -w * e.value);
-        else br[k] = e.value;
+        else {
+          // E = v·e^(jφ); at a multiple of 180° the imaginary part is exactly 0 (sin π rounds to 1.2e-16)
+          const phi = (e.phaseDeg * Math.PI) / 180;
+          br[k] = e.value * Math.cos(phi);
+          bi[k] = e.phaseDeg % 180 === 0 ? 0 : e.value * Math.sin(phi);
+        }
         k++;
       }
     }

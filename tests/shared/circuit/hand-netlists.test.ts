@@ -1,6 +1,6 @@
 // The engine against the hand-written netlists of hand-netlists.ts, solved by the test's own
 // modified-nodal solver (tests/support/spice-reference.ts) — no ngspice, so this file also runs in
-// the mutation runs. ngspice-hand-netlists.test.ts checks the same netlists, and this solver, with
+// the mutation runs. ngspice-agreement.test.ts checks the same netlists, and this solver, with
 // ngspice. Limit: 1e-5 dB and 1e-4° wherever the level is above −150 dB.
 import { afterAll, describe, expect, it } from 'vitest';
 import { HARNESS_PRESETS, getPreset } from '@shared/circuit/presets';

@@ -1,5 +1,5 @@
 // Hand-written SPICE netlists of every harness preset, the independent reference for the engine
-// (used by hand-netlists.test.ts without ngspice and by ngspice-hand-netlists.test.ts with it).
+// (used by hand-netlists.test.ts without ngspice and by ngspice-agreement.test.ts with it).
 // Nothing here comes from shared/circuit: the pot halves are computed from the published law, the
 // part values are typed below, and each preset's wiring is written out element by element from
 // its description.
@@ -21,11 +21,18 @@ export function audioY(ym: number, x: number): number {
 }
 
 /** A pot law as the test describes it: by its mid-rotation value y(0.5). */
-export type HandLaw = { kind: 'linear' } | { kind: 'audio'; mid: number } | { kind: 'reverse'; mid: number };
+export type HandLaw =
+  { kind: 'linear' } | { kind: 'audio'; mid: number } | { kind: 'reverse'; mid: number } | { kind: 'two-segment'; mid: number };
 
+/**
+ * y(x) of a law. Two-segment: two straight tracks meeting at (0.5, y(0.5)), as many carbon audio
+ * tracks are made (common practice, no published source): y = 2·mid·x up to mid-rotation, then the
+ * straight line from (0.5, mid) to (1, 1).
+ */
 export function lawY(law: HandLaw, x: number): number {
   if (law.kind === 'linear') return x;
   if (law.kind === 'audio') return audioY(law.mid, x);
+  if (law.kind === 'two-segment') return x <= 0.5 ? 2 * law.mid * x : law.mid + ((1 - law.mid) * (x - 0.5)) / 0.5;
   return 1 - audioY(1 - law.mid, 1 - x);
 }
 
@@ -66,9 +73,11 @@ export function engineReverseM(mid: number): number {
   return mid;
 }
 
-function engineLaw(law: HandLaw): HarnessValues['volumeLaw'] {
+/** A law in the engine's form (m = y(0.5) for every law). */
+export function engineLaw(law: HandLaw): HarnessValues['volumeLaw'] {
   if (law.kind === 'linear') return { kind: 'linear' };
   if (law.kind === 'audio') return { kind: 'audio', m: law.mid };
+  if (law.kind === 'two-segment') return { kind: 'two-segment', m: law.mid };
   return { kind: 'reverse', m: engineReverseM(law.mid) };
 }
 

@@ -2,15 +2,17 @@
 // instance for this file). Every layout × selector position × option choice (one non-default
 // choice at a time, plus one combination with the last choice of every option) at several knob
 // settings: within 1e-5 dB and 1e-4° wherever the level is above −150 dB; below that (a cancelled
-// or nearly cancelled output) the complex values are compared with an absolute floor. Some
-// netlists are written by hand below, not exported by the engine, so the export is checked too.
+// or nearly cancelled output) the complex values are compared with an absolute floor. The
+// hand-written netlists of hand-layout-netlists.ts (not exported by the engine) are run too, and
+// the tests' reference solver is checked against ngspice on them. The presets-as-layout check and
+// the same netlists without ngspice are in layout-hand-netlists.test.ts (it runs in the mutation runs).
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Ngspice } from '../../support/ngspice';
 import { buildLayoutNetlist, getLayout, LAYOUTS, layoutKnobs, resolveLayoutConfig, type LayoutDef } from '@shared/circuit/layouts';
-import { simulate, simulateInstrument } from '@shared/circuit/metrics';
-import { getPreset, HARNESS_PRESETS } from '@shared/circuit/presets';
-import { PRESET_AS_LAYOUT } from '@shared/circuit/layouts';
 import { compileHarness, solve } from '@shared/circuit/solver';
+import { parseSpice, solveAc } from '../../support/spice-reference';
+import { engineLaw } from './hand-netlists';
+import { HAND_LAYOUT_IDS, WRITTEN_OUT_NETLISTS, handLayoutCases, handLayoutNetlist, type HandLayoutCase } from './hand-layout-netlists';
 import { toSpiceNetlist } from '@shared/circuit/spice';
 import type { Netlist } from '@shared/circuit/netlist';
 
@@ -93,164 +95,60 @@ describe('every layout × position × option choice agrees with ngspice (1e-5 dB
   }
 });
 
-describe('hand-written netlists (not exported by the engine) agree with the layouts', () => {
-  // Linear pots at knob 5 are two 250 kΩ halves; at 10 the near half is the engine's 1 mΩ clamp,
-  // written here as 1m. Values are the layouts' defaults, typed in by hand.
+describe('hand-written netlists (hand-layout-netlists.ts, not exported by the engine) agree with the layouts and with the reference solver', () => {
+  // The same netlists layout-hand-netlists.test.ts solves with the tests' own solver: here ngspice
+  // checks the engine on them, and checks that solver (tests/support/spice-reference.ts) too.
+  const ref = { worst: 0, below: 0 };
+  afterAll(() => {
+    console.info(
+      `reference solver against ngspice on the hand-written layout netlists: max |ΔH|/|H| = ${ref.worst.toExponential(2)}, max |ΔH| below −150 dB = ${ref.below.toExponential(2)}`,
+    );
+  });
+
   async function check(
     label: string,
     text: string,
-    layoutId: string,
-    selector: number,
-    options: Record<string, string>,
-    values: Record<string, unknown>,
+    c: Pick<HandLayoutCase, 'layoutId' | 'selector' | 'options' | 'values'>,
     knobs: Record<string, number>,
   ) {
-    const layout = getLayout(layoutId)!;
-    const { config, problems } = resolveLayoutConfig(layout, { selector, options, values });
+    const layout = getLayout(c.layoutId)!;
+    const values = Object.fromEntries(Object.entries(c.values).map(([k, v]) => [k, typeof v === 'object' ? engineLaw(v) : v]));
+    const { config, problems } = resolveLayoutConfig(layout, { selector: c.selector, options: { ...c.options }, values });
     expect(problems).toEqual([]);
     const result = await ng.runAc(text);
     worst.runs++;
     const h = solve(compileHarness(buildLayoutNetlist(layout, config)), knobs, result.frequencies);
     agree(label, result.nodes.out!, h.re, h.im);
-    return { result, h };
+    // the reference solver on the same text: relative to the level above −150 dB, absolutely below
+    const own = solveAc(parseSpice(text), result.frequencies);
+    result.nodes.out!.forEach((z, k) => {
+      const az = Math.hypot(z.re, z.im);
+      const d = Math.hypot(own[k]!.re - z.re, own[k]!.im - z.im);
+      if (az > LEVEL_FLOOR) {
+        ref.worst = Math.max(ref.worst, d / az);
+        expect(d / az, `${label}: reference solver at point ${k}`).toBeLessThan(1e-6);
+      } else {
+        ref.below = Math.max(ref.below, d);
+        expect(d, `${label}: reference solver at point ${k}, below −150 dB`).toBeLessThan(ABS_FLOOR);
+      }
+    });
+    return result;
   }
 
-  it('two pickups, both, bridge reversed, neck volume 5 (linear), bridge volume 10, tones at 10', async () => {
-    const text = `two pickups in both, bridge reversed
-Vneck en 0 DC 0 AC 1
-Rneck en cn 7200
-Lneck cn nh 3.9
-Cneck nh 0 110p
-Vbridge eb 0 DC 0 AC 1 180
-Rbridge eb cb 8600
-Lbridge cb bh 4.8
-Cbridge bh 0 130p
-* neck volume: lug 3 on the pickup, wiper to the output, linear at 5
-Rnv1 0 out 250k
-Rnv2 out nh 250k
-* bridge volume at 10 (audio law: all of it to ground, the clamp between lug 3 and wiper)
-Rbv1 0 out 500k
-Rbv2 out bh 1m
-* tones at 10 (audio law) from each pickup hot
-Rnt nh nt 500k
-Cnt nt 0 22n
-Rbt bh bt 500k
-Cbt bt 0 22n
-Ccable out 0 300p
-Ramp out 0 1meg
-.ac dec 50 20 20k
-.end
-`;
-    const { h } = await check(
-      'two pickups reversed',
-      text,
-      'two-pickups-3way',
-      1,
-      { phase: 'reversed' },
-      { 'neck.volumeLaw': { kind: 'linear' } },
-      { 'neck.volume': 5 },
-    );
-    expect(h.re.length).toBe(151);
-  });
+  for (const w of WRITTEN_OUT_NETLISTS) {
+    it(w.label, async () => {
+      const result = await check(w.label, w.text, w, w.knobs);
+      expect(result.frequencies.length).toBe(151);
+      // ngspice sees a cancellation too: what is left is rounding, far below −150 dB
+      if (w.cancels) for (const z of result.nodes.out!) expect(Math.hypot(z.re, z.im)).toBeLessThan(LEVEL_FLOOR);
+    });
+  }
 
-  it('dual-coil, series with one coil reversed: identical coils cancel (complex compare with the floor)', async () => {
-    const text = `dual coil, series, south reversed
-Vnorth en 0 DC 0 AC 1
-Rnorth en cn 4000
-Lnorth cn mid 2.2
-Cnorth mid 0 240p
-Vsouth es mid DC 0 AC 1 180
-Rsouth es cs 4000
-Lsouth cs hot 2.2
-Csouth hot mid 240p
-Rv1 0 out 500k
-Rv2 out hot 1m
-Rt hot t 500k
-Ct t 0 22n
-Ccable out 0 300p
-Ramp out 0 1meg
-.ac dec 50 20 20k
-.end
-`;
-    const { result } = await check('series reversed', text, 'dual-coil', 0, { coils: 'series-reversed' }, {}, {});
-    // ngspice sees the cancellation too: what is left is rounding, far below −150 dB.
-    for (const z of result.nodes.out!) expect(Math.hypot(z.re, z.im)).toBeLessThan(LEVEL_FLOOR);
-  });
-
-  it('three pickups, middle and bridge, tone 2 serving both, interactive, into a low-impedance pedal', async () => {
-    const text = `three pickups, middle and bridge
-Vmid em 0 DC 0 AC 1
-Rmid em cm 6000
-Lmid cm hot 2.5
-Cmid hot 0 100p
-Vbr eb 0 DC 0 AC 1
-Rbr eb cb 6600
-Lbr cb hot 2.9
-Cbr hot 0 110p
-* master volume linear at 5
-Rv1 0 out 250k
-Rv2 out hot 250k
-* tone 2 from the wiper (interactive), at 10
-Rt out t 500k
-Ct t 0 22n
-Ccable out 0 300p
-Rpedal out 0 10k
-.ac dec 50 20 20k
-.end
-`;
-    await check(
-      'three pickups into a pedal',
-      text,
-      'three-pickups-5way',
-      3,
-      { tone2Serves: 'middle-bridge', toneWiring: 'interactive', load: 'low-impedance-pedal' },
-      { volumeLaw: { kind: 'linear' } },
-      { volume: 5 },
-    );
-  });
-
-  it('one pickup into a buffer: only the cable before it loads the pickup; an amplifier capacitance adds to the cable', async () => {
-    const buffer = `one pickup into a buffer after 1 m of cable
-V1 e 0 DC 0 AC 1
-Rp e c 8000
-Lp c hot 4.4
-Cp hot 0 120p
-Rv1 0 out 500k
-Rv2 out hot 1m
-Rt hot t 500k
-Ct t 0 22n
-Ccable out 0 100p
-Rbuf out 0 1meg
-.ac dec 50 20 20k
-.end
-`;
-    await check('buffer', buffer, 'one-pickup', 0, { load: 'buffer' }, { cableBeforeBuffer: 1 }, {});
-    const amp = buffer.replace('Rbuf out 0 1meg', 'Ramp out 0 1meg\nCamp out 0 150p').replace('Ccable out 0 100p', 'Ccable out 0 300p');
-    await check('amp with input capacitance', amp, 'one-pickup', 0, {}, { ampC: 150e-12 }, {});
-  });
-});
-
-describe('the seven presets are the one-pickup layout with the matching options', () => {
-  it('equal to 1e-9 dB at several knob settings', () => {
-    const layout = getLayout('one-pickup')!;
-    for (const preset of HARNESS_PRESETS) {
-      const { config, problems } = resolveLayoutConfig(layout, { options: PRESET_AS_LAYOUT[preset.id] });
-      expect(problems).toEqual([]);
-      const fromLayout = compileHarness(buildLayoutNetlist(layout, config));
-      const fromPreset = compileHarness(getPreset(preset.id)!.build(preset.defaults));
-      for (const knobs of [
-        { volume: 10, tone: 10 },
-        { volume: 5, tone: 3 },
-        { volume: 0.7, tone: 9.2 },
-        { volume: 0, tone: 0 },
-      ]) {
-        const a = simulateInstrument(fromLayout, knobs);
-        const b = simulate(fromPreset, knobs);
-        let worstDb = 0;
-        a.magnitudeDb.forEach((v, k) => (worstDb = Math.max(worstDb, Math.abs(v - b.magnitudeDb[k]!))));
-        expect(worstDb, `${preset.id} ${JSON.stringify(knobs)}`).toBeLessThan(1e-9);
-        expect(a.metrics!.level1kDb).toBeCloseTo(b.metrics.level1kDb, 9);
+  for (const id of HAND_LAYOUT_IDS) {
+    it(`${id}: every generated case at two knob settings`, { timeout: 240_000 }, async () => {
+      for (const c of handLayoutCases().filter((x) => x.layoutId === id)) {
+        for (const knobs of c.knobs.slice(1, 3)) await check(`${c.label} ${JSON.stringify(knobs)}`, handLayoutNetlist(c, knobs), c, knobs);
       }
-    }
-  });
+    });
+  }
 });
