@@ -80,6 +80,9 @@ describe('judgeReading: which limit applies', () => {
     expect(r.upper).toBeCloseTo(2.75, 12);
     expect(r.deviationPct).toBeCloseTo(12, 9);
     expect(judgeReading({ ...pickup, kind: 'resistor' }, { quantity: 'inductance', value: 2.8 }, { profile: pickupProfile })).toBeNull();
+    // The inductance rule judges only inductance: a pickup's Q or self-capacitance reading stays information.
+    expect(judgeReading(pickup, { quantity: 'q', value: 2.8 }, { profile: pickupProfile })).toBeNull();
+    expect(judgeReading(pickup, { quantity: 'capacitance', value: 2.8e-10 }, { profile: pickupProfile })).toBeNull();
     const noTolerance = { ...pickupProfile, rules: { inductanceNominal: 2.5 } };
     expect(judgeReading(pickup, { quantity: 'inductance', value: 2.8 }, { profile: noTolerance })).toBeNull();
     const noNominal = { ...pickupProfile, rules: { inductanceTolerancePct: 10 } };
