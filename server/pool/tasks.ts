@@ -16,6 +16,7 @@ import { renderClips, type ClipRenderInput } from '@server/features/jobs/clips';
 import type { LotRow } from '@server/features/lots/repository';
 import { lotValues } from '@server/features/lots/repository';
 import { lotResults, refreshLotStats, type StoredLotResults } from '@server/features/lots/stored-stats';
+import { ingestLot, type LotIngestInput, type LotIngestResult } from '@server/features/lots/ingest';
 
 export interface HarnessSweepInput {
   netlist: Netlist;
@@ -152,11 +153,19 @@ export function lotFreshResults(input: LotResultsInput): StoredLotResults {
   });
 }
 
-/** Every job by name: the pool's typed front (server/pool/index.ts) takes its types from here. */
+/**
+ * A lot upload's parse, insert (one transaction on the worker's own connection, the file moved into place
+ * as its last step) and statistics (server/features/lots/ingest.ts).
+ */
+export function lotIngest(input: LotIngestInput): Promise<LotIngestResult> {
+  return ingestLot(input);
+}
+
 /** A job's report clips (server/features/jobs/clips.ts): the before and after designs as two 16-bit WAV files. */
 export function reportClips(input: ClipRenderInput): [Uint8Array, Uint8Array] {
   return renderClips(input);
 }
 
-export const TASKS = { harnessSweep, bleedFinder, render, coilFit, lotStats, lotFreshResults, reportClips } as const;
+/** Every job by name: the pool's typed front (server/pool/index.ts) takes its types from here. */
+export const TASKS = { harnessSweep, bleedFinder, render, coilFit, lotStats, lotFreshResults, reportClips, lotIngest } as const;
 export type TaskName = keyof typeof TASKS;
