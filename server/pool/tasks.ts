@@ -17,6 +17,7 @@ import type { LotRow } from '@server/features/lots/repository';
 import { lotValues } from '@server/features/lots/repository';
 import { lotResults, refreshLotStats, type StoredLotResults } from '@server/features/lots/stored-stats';
 import { ingestLot, type LotIngestInput, type LotIngestResult } from '@server/features/lots/ingest';
+import { encodeLotItems, type EncodedItems } from '@server/features/lots/items-encoded';
 
 export interface HarnessSweepInput {
   netlist: Netlist;
@@ -161,11 +162,26 @@ export function lotIngest(input: LotIngestInput): Promise<LotIngestResult> {
   return ingestLot(input);
 }
 
+/** A lot's items answer compressed (gzip, brotli) and kept beside its stored columns (items-encoded.ts). */
+export function lotItemsEncode(input: { dbFile: string; lotId: number }): EncodedItems | null {
+  return withDb(input.dbFile, (sqlite) => encodeLotItems(sqlite, input.lotId));
+}
+
 /** A job's report clips (server/features/jobs/clips.ts): the before and after designs as two 16-bit WAV files. */
 export function reportClips(input: ClipRenderInput): [Uint8Array, Uint8Array] {
   return renderClips(input);
 }
 
 /** Every job by name: the pool's typed front (server/pool/index.ts) takes its types from here. */
-export const TASKS = { harnessSweep, bleedFinder, render, coilFit, lotStats, lotFreshResults, reportClips, lotIngest } as const;
+export const TASKS = {
+  harnessSweep,
+  bleedFinder,
+  render,
+  coilFit,
+  lotStats,
+  lotFreshResults,
+  reportClips,
+  lotIngest,
+  lotItemsEncode,
+} as const;
 export type TaskName = keyof typeof TASKS;
