@@ -28,7 +28,7 @@ export default async function runJob({ name, input, started }: JobMessage): Prom
   started.close();
   try {
     const value = await (TASKS[name] as (input: unknown) => unknown)(input);
-    // A rendered file is moved to the main thread, not copied.
+    // A rendered file is moved to the main thread, not copied (as are the buffers a job names: transfer.ts).
     return value instanceof Uint8Array ? move(value) : value;
   } catch (err) {
     const known = refusal(err);

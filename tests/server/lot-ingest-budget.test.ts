@@ -7,6 +7,7 @@
 // environment they are given when the pool is made) for longer than the budget.
 import fs from 'node:fs';
 import path from 'node:path';
+import Database from 'better-sqlite3';
 import { afterEach, describe, expect, test } from 'vitest';
 import type { PausePoint } from '@server/http/pause-point';
 import { incomingDir } from '@server/uploads/store';
@@ -93,5 +94,25 @@ describe('a lot ingest past its time budget', () => {
       }
     ).h;
     expect(fs.existsSync(path.join(app.ctx.config.uploadsDir, hash.slice(0, 2), hash))).toBe(true);
+  });
+});
+
+describe('a write on the request thread that finds the database locked', () => {
+  test('past the busy timeout (5 s) it is 503 busy with Retry-After, not a fault', async () => {
+    const app = (t = await createTestApp());
+    const tech = await app.as('tech');
+    // Another connection holds the write lock, as a pool worker does while it stores a lot.
+    const other = new Database(app.ctx.sqlite.name);
+    try {
+      other.exec('BEGIN IMMEDIATE');
+      const res = await tech.post('/api/lots').send({ kind: 'capacitor', marking: '473J' });
+      expect(res.status).toBe(503);
+      expect(res.body.error.code).toBe('busy');
+      expect(res.headers['retry-after']).toBe('1');
+      other.exec('ROLLBACK');
+      await tech.post('/api/lots').send({ kind: 'capacitor', marking: '473J' }).expect(201);
+    } finally {
+      other.close();
+    }
   });
 });

@@ -157,18 +157,16 @@ export function lotRoutes(ctx: AppContext) {
     schemas: { params: IdParamsSchema, query: LotStatsQuerySchema },
     handle: async ({ params, query, req, res }) => {
       const lot = mustFind(params.id);
-      // The stored columns' bytes go out as they are kept (no 9 MB string parsed, built or hashed for an ETag).
-      const {
-        count,
-        bytes: columns,
-        computedAt,
-      } = isDefaultMatching(query)
-        ? await statsJobs.columnBytes(lot)
-        : await statsJobs.fresh(lot, query).then((r) => ({ count: r.count, bytes: Buffer.from(r.columnsJson), computedAt: undefined }));
+      const fresh = !isDefaultMatching(query);
+      let state = fresh ? null : statsJobs.columnsState(lot);
+      if (!fresh && !state) {
+        await statsJobs.refresh(lot);
+        state = statsJobs.columnsState(lot);
+      }
       // The whole answer compressed once in the pool (items-encoded.ts), when the client takes brotli or gzip.
       const enc = req.acceptsEncodings('br') ? 'br' : req.acceptsEncodings('gzip') ? 'gzip' : null;
-      if (enc && computedAt !== undefined) {
-        const encoded = await statsJobs.encodedItems(lot.id, { computedAt, count }, enc);
+      if (enc && state) {
+        const encoded = await statsJobs.encodedItems(lot.id, state, enc);
         if (encoded) {
           res.status(200).type('json').setHeader('Content-Encoding', enc).setHeader('Content-Length', encoded.length);
           res.vary('Accept-Encoding');
@@ -178,6 +176,10 @@ export function lotRoutes(ctx: AppContext) {
         // None to be had now: the answer goes out uncompressed rather than compressed on this thread.
         res.setHeader('Cache-Control', 'no-transform');
       }
+      // The stored columns' bytes go out as they are kept (no 9 MB string parsed, built or hashed for an ETag).
+      const { count, bytes: columns } = fresh
+        ? await statsJobs.fresh(lot, query).then((r) => ({ count: r.count, bytes: Buffer.from(r.columnsJson) }))
+        : await statsJobs.columnBytes(lot, state);
       // Which items became parts is read on every request: a promotion changes it, not the readings.
       // The answer is a LotItems (shared/schemas/lots.ts): partIds, then the stored columns.
       const partIdsJson = lotItemPartIdsJson(db, sqlite, lot.id, count);

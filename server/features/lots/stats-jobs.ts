@@ -6,7 +6,7 @@ import type { AppContext } from '@server/context';
 import { findLot, type LotRow } from './repository';
 import { HttpError } from '@server/http/errors';
 import { itemsKey, readLotItemsEncoded, type EncodedItems, type ItemsEncoding } from './items-encoded';
-import { ColumnCache, readStoredColumnBytes, readStoredLotStats, type StoredLotResults } from './stored-stats';
+import { ColumnCache, readStoredColumnsState, readStoredLotStats, type StoredLotResults } from './stored-stats';
 
 /**
  * A lot's statistics are bounded by the upload's 100,000 rows, not by anything a request chooses, and a
@@ -99,10 +99,24 @@ function makeLotStatsJobs(ctx: AppContext) {
       return readStoredLotStats(sqlite, lot, part) ?? (await refresh(lot));
     },
     encode,
-    /** The default matching's item columns as the bytes of their JSON text; `computedAt` when they are the stored ones. */
-    async columnBytes(lot: LotRow): Promise<{ count: number; bytes: Buffer; computedAt?: number }> {
-      const stored = readStoredColumnBytes(sqlite, lot, columnCache);
-      if (stored) return stored;
+    /** The state of the lot's stored item columns (null when missing or out of date). */
+    columnsState: (lot: LotRow) => readStoredColumnsState(sqlite, lot),
+    /**
+     * The default matching's item columns as the bytes of their JSON text, for the state `state` names
+     * (columnsState): from memory, else read in the pool (moved here, not copied); else computed.
+     */
+    async columnBytes(lot: LotRow, state: { count: number; computedAt: number } | null): Promise<{ count: number; bytes: Buffer }> {
+      if (state) {
+        const key = `${state.computedAt}:${state.count}`;
+        const hit = columnCache.get(lot.id, key);
+        if (hit) return hit;
+        const read = await pool.run('lotColumnBytes', { dbFile, lotId: lot.id }, { budgetMs });
+        if (read) {
+          const bytes = toBuffer(read.bytes);
+          columnCache.set(lot.id, `${read.computedAt}:${read.count}`, read.count, bytes);
+          return { count: read.count, bytes };
+        }
+      }
       const computed = await refresh(lot);
       return { count: computed.count, bytes: Buffer.from(computed.columnsJson) };
     },

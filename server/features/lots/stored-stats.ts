@@ -187,16 +187,8 @@ export class ColumnCache {
   }
 }
 
-/**
- * The stored item columns as the bytes of their JSON text, when up to date; else null. The bytes come
- * from `cache` while the row is the one they were read from (its computed_at), else from SQLite (as
- * they are kept: no string made of ~9 MB) and go into the cache.
- */
-export function readStoredColumnBytes(
-  sqlite: Database.Database,
-  lot: LotRow,
-  cache: ColumnCache,
-): { count: number; bytes: Buffer; computedAt: number } | null {
+/** The stored item columns' state (when they were computed, how many items), when up to date; else null. */
+export function readStoredColumnsState(sqlite: Database.Database, lot: LotRow): { count: number; computedAt: number } | null {
   const row = sqlite
     .prepare('select engine_version, nominal, tolerance_pct, second_limit, count, computed_at from lot_stats where lot_id = ?')
     .get(lot.id) as (Omit<Row, 'columns' | 'detail'> & { computed_at: number }) | undefined;
@@ -209,14 +201,14 @@ export function readStoredColumnBytes(
   ) {
     return null;
   }
-  const key = `${row.computed_at}:${row.count}`;
-  const hit = cache.get(lot.id, key);
-  if (hit) return { count: hit.count, bytes: hit.bytes, computedAt: row.computed_at };
-  const read = sqlite.prepare('select count, computed_at, cast(columns as blob) as columns from lot_stats where lot_id = ?').get(lot.id) as
+  return { count: row.count, computedAt: row.computed_at };
+}
+
+/** The stored item columns as the bytes of their JSON text, as kept (no string made of ~9 MB); null without a row. */
+export function readColumnBytes(sqlite: Database.Database, lotId: number): { count: number; computedAt: number; bytes: Buffer } | null {
+  const read = sqlite.prepare('select count, computed_at, cast(columns as blob) as columns from lot_stats where lot_id = ?').get(lotId) as
     { count: number; computed_at: number; columns: Buffer } | undefined;
-  if (!read) return null;
-  cache.set(lot.id, `${read.computed_at}:${read.count}`, read.count, read.columns);
-  return { count: read.count, bytes: read.columns, computedAt: read.computed_at };
+  return read ? { count: read.count, computedAt: read.computed_at, bytes: read.columns } : null;
 }
 
 /** True when a request asks for the default matching (so the stored results answer it). */
