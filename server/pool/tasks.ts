@@ -18,7 +18,7 @@ import { lotValues } from '@server/features/lots/repository';
 import { lotResults, readColumnBytes, refreshLotStats, type StoredLotResults } from '@server/features/lots/stored-stats';
 import { withTransfer } from './transfer';
 import { ingestLot, type LotIngestInput, type LotIngestResult } from '@server/features/lots/ingest';
-import { encodeLotItems, type EncodedItems } from '@server/features/lots/items-encoded';
+import { encodeLotItems, freshItemsEncoded, type EncodedItems, type ItemsEncoding } from '@server/features/lots/items-encoded';
 
 export interface HarnessSweepInput {
   netlist: Netlist;
@@ -163,6 +163,11 @@ export function lotIngest(input: LotIngestInput): Promise<LotIngestResult> {
   return ingestLot(input);
 }
 
+/** The items answer of another matching than the stored one, compressed, for one request (items-encoded.ts). */
+export function lotFreshItemsEncoded(input: LotResultsInput & { encoding: ItemsEncoding }): Uint8Array {
+  return withDb(input.dbFile, (sqlite) => freshItemsEncoded(sqlite, input.lot, input.matching, input.encoding));
+}
+
 /** A lot's items answer compressed (gzip, brotli) and kept beside its stored columns (items-encoded.ts). */
 export function lotItemsEncode(input: { dbFile: string; lotId: number }): EncodedItems | null {
   return withDb(input.dbFile, (sqlite) => encodeLotItems(sqlite, input.lotId));
@@ -199,5 +204,6 @@ export const TASKS = {
   lotIngest,
   lotItemsEncode,
   lotColumnBytes,
+  lotFreshItemsEncoded,
 } as const;
 export type TaskName = keyof typeof TASKS;

@@ -131,6 +131,23 @@ describe('the compressed items answer', () => {
     expect(keptMark(lotId)).not.toBeNull();
   });
 
+  test('another matching than the stored one is compressed for its request and decodes to its uncompressed answer', async () => {
+    const lotId = await newLot();
+    await (await t.as('qa')).post(`/api/lots/${lotId}/readings`).attach('file', lotCsv(600), 'lot.csv').expect(201);
+    const query = '?matchPct=0.5&setSize=3';
+    const plain = await getItems(lotId, 'identity', query);
+    expect(plain.status).toBe(200);
+    const stored = await getItems(lotId, 'identity');
+    // Another matching: other sets than the stored answer.
+    expect(plain.body.equals(stored.body)).toBe(false);
+    for (const enc of ['gzip', 'br'] as const) {
+      const res = await getItems(lotId, enc, query);
+      expect(res.headers['content-encoding']).toBe(enc);
+      expect(Number(res.headers['content-length'])).toBe(res.body.length);
+      expect(DECODE[enc](res.body).equals(plain.body)).toBe(true);
+    }
+  });
+
   test('an upload to an empty lot is sent compressed from its first read', async () => {
     const lotId = await newLot();
     await (await t.as('qa')).post(`/api/lots/${lotId}/readings`).attach('file', lotCsv(50), 'lot.csv').expect(201);

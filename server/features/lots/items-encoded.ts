@@ -14,6 +14,8 @@ import type Database from 'better-sqlite3';
 import { drizzle } from 'drizzle-orm/better-sqlite3';
 import * as schema from '@server/db/schema';
 import { lotItemPartIdsJson } from './promoted';
+import { lotValues, type LotRow } from './repository';
+import { lotResults } from './stored-stats';
 
 export type ItemsEncoding = 'gzip' | 'br';
 
@@ -48,6 +50,34 @@ export function readLotItemsEncoded(sqlite: Database.Database, lotId: number, ke
   return row && row.mark === key && row.bytes ? row.bytes : null;
 }
 
+/** gzip at level 6; brotli at quality 4 (about the cost of gzip's level 6 here, and smaller; higher qualities take seconds). */
+export function compressItems(answer: Buffer, encoding: ItemsEncoding): Buffer {
+  if (encoding === 'gzip') return zlib.gzipSync(answer, { level: 6 });
+  return zlib.brotliCompressSync(answer, {
+    params: {
+      [zlib.constants.BROTLI_PARAM_MODE]: zlib.constants.BROTLI_MODE_TEXT,
+      [zlib.constants.BROTLI_PARAM_QUALITY]: 4,
+      [zlib.constants.BROTLI_PARAM_SIZE_HINT]: answer.length,
+    },
+  });
+}
+
+/**
+ * The items answer for another matching than the stored one, computed and compressed for one request (run
+ * in a pool worker): the request thread neither builds nor compresses its megabytes.
+ */
+export function freshItemsEncoded(
+  sqlite: Database.Database,
+  lot: LotRow,
+  matching: { matchPct?: number; setSize?: number },
+  encoding: ItemsEncoding,
+): Buffer {
+  const r = lotResults(lot, lotValues(sqlite, lot.id), matching);
+  const db = drizzle(sqlite, { schema });
+  const parts = itemsAnswerParts(lotItemPartIdsJson(db, sqlite, lot.id, r.count), Buffer.from(JSON.stringify(r.columns)));
+  return compressItems(Buffer.concat(parts), encoding);
+}
+
 export interface EncodedItems {
   key: string;
   gzip: Uint8Array;
@@ -72,15 +102,8 @@ export function encodeLotItems(sqlite: Database.Database, lotId: number): Encode
   })();
   if (!read) return null;
   const answer = Buffer.concat(read.parts);
-  const gzip = zlib.gzipSync(answer, { level: 6 });
-  // Quality 4: about the cost of gzip's level 6 here, and smaller; the higher qualities cost seconds.
-  const br = zlib.brotliCompressSync(answer, {
-    params: {
-      [zlib.constants.BROTLI_PARAM_MODE]: zlib.constants.BROTLI_MODE_TEXT,
-      [zlib.constants.BROTLI_PARAM_QUALITY]: 4,
-      [zlib.constants.BROTLI_PARAM_SIZE_HINT]: answer.length,
-    },
-  });
+  const gzip = compressItems(answer, 'gzip');
+  const br = compressItems(answer, 'br');
   const kept = sqlite
     .transaction(() => {
       const now = sqlite.prepare('select computed_at as computedAt, count from lot_stats where lot_id = ?').get(lotId) as

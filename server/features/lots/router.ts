@@ -165,8 +165,9 @@ export function lotRoutes(ctx: AppContext) {
       }
       // The whole answer compressed once in the pool (items-encoded.ts), when the client takes brotli or gzip.
       const enc = req.acceptsEncodings('br') ? 'br' : req.acceptsEncodings('gzip') ? 'gzip' : null;
-      if (enc && state) {
-        const encoded = await statsJobs.encodedItems(lot.id, state, enc);
+      if (enc && (state || fresh)) {
+        // The stored state's copy, or (another matching) one made for this request.
+        const encoded = state ? await statsJobs.encodedItems(lot.id, state, enc) : await statsJobs.freshItemsEncoded(lot, query, enc);
         if (encoded) {
           res.status(200).type('json').setHeader('Content-Encoding', enc).setHeader('Content-Length', encoded.length);
           res.vary('Accept-Encoding');

@@ -147,6 +147,10 @@ function makeLotStatsJobs(ctx: AppContext) {
       encodedCache.br.set(lotId, key, stored.count, bytes.br);
       return bytes[enc];
     },
+    /** The items answer of another matching, computed and compressed for this request only. */
+    async freshItemsEncoded(lot: LotRow, matching: { matchPct?: number; setSize?: number }, enc: ItemsEncoding): Promise<Buffer> {
+      return toBuffer(await pool.run('lotFreshItemsEncoded', { dbFile, lot, matching, encoding: enc }, { budgetMs }));
+    },
     /** Another matching, computed for this request only. */
     fresh(lot: LotRow, matching: { matchPct?: number; setSize?: number }): Promise<StoredLotResults> {
       return pool.run('lotFreshResults', { dbFile, lot, matching }, { budgetMs });
