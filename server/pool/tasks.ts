@@ -13,6 +13,7 @@ import { getLayout, type LayoutConfig } from '@shared/circuit/layouts';
 import { sweepKnobs } from '@shared/circuit/metrics';
 import type { Netlist } from '@shared/circuit/netlist';
 import { renderClips, type ClipRenderInput } from '@server/features/jobs/clips';
+import { compress, type Encoding } from '@server/http/encoded';
 import type { LotRow } from '@server/features/lots/repository';
 import { lotValues } from '@server/features/lots/repository';
 import { lotResults, readColumnBytes, refreshLotStats, type StoredLotResults } from '@server/features/lots/stored-stats';
@@ -28,6 +29,15 @@ export interface HarnessSweepInput {
   volumeKnob: string;
   toneKnob: string;
   knobs: Record<string, number>;
+}
+
+/**
+ * POST /api/harness/sweep's answer as JSON bytes, compressed as the client accepts: the request thread
+ * neither serialises nor compresses it.
+ */
+export function harnessSweepJson(input: HarnessSweepInput & { encoding: Encoding | null }): Uint8Array {
+  const json = Buffer.from(JSON.stringify(harnessSweep(input)));
+  return input.encoding ? compress(json, input.encoding) : json;
 }
 
 /** POST /api/harness/sweep: the knob grid, as the route answers it. */
@@ -195,6 +205,7 @@ export function reportClips(input: ClipRenderInput): [Uint8Array, Uint8Array] {
 /** Every job by name: the pool's typed front (server/pool/index.ts) takes its types from here. */
 export const TASKS = {
   harnessSweep,
+  harnessSweepJson,
   bleedFinder,
   render,
   coilFit,

@@ -9,15 +9,15 @@
 // the statistics writes the row anew without it, and a promotion clears it (`clearLotItemsEncoded`, in the
 // promotion's transaction). Whatever clears it, a copy of another state is never sent: the route compares
 // the key it read with the copy's.
-import zlib from 'node:zlib';
 import type Database from 'better-sqlite3';
 import { drizzle } from 'drizzle-orm/better-sqlite3';
 import * as schema from '@server/db/schema';
+import { compress, type Encoding } from '@server/http/encoded';
 import { lotItemPartIdsJson } from './promoted';
 import { lotValues, type LotRow } from './repository';
 import { lotResults } from './stored-stats';
 
-export type ItemsEncoding = 'gzip' | 'br';
+export type ItemsEncoding = Encoding;
 
 /** The lot's promoted parts as they bear on its items answer (parts are never deleted; ids never reused). */
 export function promotedMark(sqlite: Database.Database, lotId: number): string {
@@ -50,18 +50,6 @@ export function readLotItemsEncoded(sqlite: Database.Database, lotId: number, ke
   return row && row.mark === key && row.bytes ? row.bytes : null;
 }
 
-/** gzip at level 6; brotli at quality 4 (about the cost of gzip's level 6 here, and smaller; higher qualities take seconds). */
-export function compressItems(answer: Buffer, encoding: ItemsEncoding): Buffer {
-  if (encoding === 'gzip') return zlib.gzipSync(answer, { level: 6 });
-  return zlib.brotliCompressSync(answer, {
-    params: {
-      [zlib.constants.BROTLI_PARAM_MODE]: zlib.constants.BROTLI_MODE_TEXT,
-      [zlib.constants.BROTLI_PARAM_QUALITY]: 4,
-      [zlib.constants.BROTLI_PARAM_SIZE_HINT]: answer.length,
-    },
-  });
-}
-
 /**
  * The items answer for another matching than the stored one, computed and compressed for one request (run
  * in a pool worker): the request thread neither builds nor compresses its megabytes.
@@ -75,7 +63,7 @@ export function freshItemsEncoded(
   const r = lotResults(lot, lotValues(sqlite, lot.id), matching);
   const db = drizzle(sqlite, { schema });
   const parts = itemsAnswerParts(lotItemPartIdsJson(db, sqlite, lot.id, r.count), Buffer.from(JSON.stringify(r.columns)));
-  return compressItems(Buffer.concat(parts), encoding);
+  return compress(Buffer.concat(parts), encoding);
 }
 
 export interface EncodedItems {
@@ -102,8 +90,8 @@ export function encodeLotItems(sqlite: Database.Database, lotId: number): Encode
   })();
   if (!read) return null;
   const answer = Buffer.concat(read.parts);
-  const gzip = compressItems(answer, 'gzip');
-  const br = compressItems(answer, 'br');
+  const gzip = compress(answer, 'gzip');
+  const br = compress(answer, 'br');
   const kept = sqlite
     .transaction(() => {
       const now = sqlite.prepare('select computed_at as computedAt, count from lot_stats where lot_id = ?').get(lotId) as

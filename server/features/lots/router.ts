@@ -5,6 +5,7 @@ import { audit } from '@server/audit';
 import type { AppContext } from '@server/context';
 import { instruments, lots, lotWatchers, users } from '@server/db/schema';
 import { conflict, unprocessable } from '@server/http/errors';
+import { acceptedEncoding, sendJsonBytes } from '@server/http/encoded';
 import { ApiRouter } from '@server/http/router';
 import { lotHistory } from './history';
 import { itemsAnswerParts } from './items-encoded';
@@ -164,14 +165,12 @@ export function lotRoutes(ctx: AppContext) {
         state = statsJobs.columnsState(lot);
       }
       // The whole answer compressed once in the pool (items-encoded.ts), when the client takes brotli or gzip.
-      const enc = req.acceptsEncodings('br') ? 'br' : req.acceptsEncodings('gzip') ? 'gzip' : null;
+      const enc = acceptedEncoding(req);
       if (enc && (state || fresh)) {
         // The stored state's copy, or (another matching) one made for this request.
         const encoded = state ? await statsJobs.encodedItems(lot.id, state, enc) : await statsJobs.freshItemsEncoded(lot, query, enc);
         if (encoded) {
-          res.status(200).type('json').setHeader('Content-Encoding', enc).setHeader('Content-Length', encoded.length);
-          res.vary('Accept-Encoding');
-          res.end(encoded);
+          sendJsonBytes(res, encoded, enc);
           return;
         }
         // None to be had now: the answer goes out uncompressed rather than compressed on this thread.

@@ -1,8 +1,10 @@
-// The lot's items answer is compressed once in the pool and kept (server/features/lots/items-encoded.ts):
+// Large answers compressed off the request thread (server/http/encoded.ts). The lot's items answer is
+// compressed once in the pool and kept (server/features/lots/items-encoded.ts):
 // a client that takes gzip or brotli gets that copy with its Content-Encoding and Content-Length, and it
 // decodes to exactly the bytes of the uncompressed answer; an upload, a replace and a promotion make the
-// kept copy go, and the next answer decodes to the lot's new state. Raw bytes are read with node:http
-// (supertest and fetch would decode them on the way).
+// kept copy go, and the next answer decodes to the lot's new state. A harness sweep's answer is serialised
+// and compressed by its pool worker. Raw bytes are read with node:http (supertest and fetch would decode
+// them on the way).
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import zlib from 'node:zlib';
@@ -39,24 +41,24 @@ interface Raw {
 
 /** The items answer's bytes as they were sent. */
 function getItems(lotId: number, acceptEncoding: string, query = ''): Promise<Raw> {
+  return send('GET', `/api/lots/${lotId}/items${query}`, acceptEncoding);
+}
+
+/** A request's answer bytes as they were sent. */
+function send(method: string, path: string, acceptEncoding: string, json?: unknown): Promise<Raw> {
   const { port } = server.address() as AddressInfo;
   return new Promise((resolve, reject) => {
-    http
-      .get(
-        {
-          host: '127.0.0.1',
-          port,
-          path: `/api/lots/${lotId}/items${query}`,
-          headers: { Host: HOST, Cookie: cookie, 'Accept-Encoding': acceptEncoding },
-        },
-        (res) => {
-          const chunks: Buffer[] = [];
-          res.on('data', (c: Buffer) => chunks.push(c));
-          res.on('end', () => resolve({ status: res.statusCode!, headers: res.headers, body: Buffer.concat(chunks) }));
-          res.on('error', reject);
-        },
-      )
+    const headers: Record<string, string> = { Host: HOST, Cookie: cookie, 'Accept-Encoding': acceptEncoding };
+    if (json !== undefined) Object.assign(headers, { 'Content-Type': 'application/json', Origin: ORIGIN });
+    const req = http
+      .request({ host: '127.0.0.1', port, method, path, headers }, (res) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c: Buffer) => chunks.push(c));
+        res.on('end', () => resolve({ status: res.statusCode!, headers: res.headers, body: Buffer.concat(chunks) }));
+        res.on('error', reject);
+      })
       .on('error', reject);
+    req.end(json === undefined ? undefined : JSON.stringify(json));
   });
 }
 
@@ -154,5 +156,24 @@ describe('the compressed items answer', () => {
     const res = await getItems(lotId, 'gzip');
     expect(res.headers['content-encoding']).toBe('gzip');
     expect(JSON.parse(zlib.gunzipSync(res.body).toString()).items).toHaveLength(50);
+  });
+});
+
+describe('the harness sweep answer', () => {
+  test('is serialised and compressed in the worker, and decodes to exactly the uncompressed answer', async () => {
+    const body = { preset: 'bleed-cap' };
+    const plain = await send('POST', '/api/harness/sweep', 'identity', body);
+    expect(plain.status).toBe(200);
+    expect(plain.headers['content-encoding']).toBeUndefined();
+    const grid = JSON.parse(plain.body.toString());
+    expect(grid.magnitudeDb.length).toBe(grid.volume.length * grid.tone.length * grid.frequencies.length);
+    for (const enc of ['gzip', 'br'] as const) {
+      const res = await send('POST', '/api/harness/sweep', enc, body);
+      expect(res.status).toBe(200);
+      expect(res.headers['content-encoding']).toBe(enc);
+      expect(res.headers.vary).toMatch(/Accept-Encoding/i);
+      expect(Number(res.headers['content-length'])).toBe(res.body.length);
+      expect(DECODE[enc](res.body).equals(plain.body)).toBe(true);
+    }
   });
 });
