@@ -14,8 +14,13 @@ import { incomingDir } from '@server/uploads/store';
 import { createTestApp, type TestApp } from '../support/app';
 
 let t: TestApp | undefined;
-afterEach(() => {
-  t?.close();
+afterEach(async () => {
+  // The pool's workers (one of them perhaps still held at a pause point) are gone before the next app or the end of the file.
+  if (t) {
+    await t.ctx.pool.close();
+    t.ctx.sqlite.close();
+    fs.rmSync(t.dataDir, { recursive: true, force: true });
+  }
   t = undefined;
   delete process.env.LUGBOOK_PAUSE_AT;
   delete process.env.LUGBOOK_PAUSE_MS;
