@@ -156,6 +156,14 @@ export const lotStats = sqliteTable('lot_stats', {
   detail: text('detail').notNull(),
   columns: text('columns').notNull(),
   computedAt: integer('computed_at').notNull(),
+  /**
+   * The items answer (partIds and these columns) compressed once in the pool, gzip and brotli, for the
+   * lot's state `items_mark` names (computed_at, count and the promoted parts); null until made, and
+   * cleared by a promotion (server/features/lots/items-encoded.ts).
+   */
+  itemsMark: text('items_mark'),
+  itemsGzip: blob('items_gzip', { mode: 'buffer' }),
+  itemsBr: blob('items_br', { mode: 'buffer' }),
 });
 
 export const lotWatchers = sqliteTable(

@@ -65,6 +65,12 @@ export function errorHandler(log: (message: string, err: unknown) => void): Erro
       // A reference the handler did not check by name (those answer with their field): still the client's input.
       status = 422;
       body = { error: { code: 'invalid', message: 'The request refers to a record that does not exist.' } };
+    } else if (isSqliteBusy(err)) {
+      // Another connection (a pool worker storing a lot) held the write lock past the busy timeout: not a
+      // fault of the request, and over in a moment.
+      status = 503;
+      res.setHeader('Retry-After', '1');
+      body = { error: { code: 'busy', message: 'The database is busy with another write; try again in a moment.' } };
     } else if (isClientError(err)) {
       // Errors from Express and its parsers that carry a 4xx status (http-errors): the client's fault.
       status = err.status;
@@ -86,6 +92,12 @@ function isClientError(err: unknown): err is { status: number; message: string; 
   if (typeof err !== 'object' || err === null) return false;
   const status = (err as { status?: unknown }).status;
   return typeof status === 'number' && status >= 400 && status < 500;
+}
+
+/** SQLITE_BUSY and its extended codes (SQLITE_BUSY_SNAPSHOT, …). */
+function isSqliteBusy(err: unknown): boolean {
+  const code = typeof err === 'object' && err !== null ? (err as { code?: unknown }).code : undefined;
+  return typeof code === 'string' && /^SQLITE_BUSY/.test(code);
 }
 
 function isSqliteConstraint(err: unknown, code: string): boolean {

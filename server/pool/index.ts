@@ -19,7 +19,7 @@ import type { JobMessage } from './worker';
 
 type Tasks = typeof TASKS;
 export type JobInput<K extends TaskName> = Parameters<Tasks[K]>[0];
-export type JobResult<K extends TaskName> = ReturnType<Tasks[K]>;
+export type JobResult<K extends TaskName> = Awaited<ReturnType<Tasks[K]>>;
 
 export interface PoolOptions {
   /** Worker threads. */
@@ -71,6 +71,11 @@ export interface RunOptions {
   /** Buffers moved to the worker (not copied). */
   transfer?: ArrayBuffer[];
   budgetMs?: number;
+  /**
+   * Asked when the budget runs out: false leaves the job to finish (a lot ingest past its commit, whose
+   * readings are stored whatever happens, is answered rather than cancelled). Cancelled when absent.
+   */
+  cancellable?: () => boolean;
 }
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
@@ -107,7 +112,9 @@ export function createJobPool(options: PoolOptions = DEFAULT_POOL_OPTIONS): JobP
     const { port1, port2 } = new MessageChannel();
     let timer: NodeJS.Timeout | undefined;
     port1.once('message', () => {
-      timer = setTimeout(() => controller.abort(new BudgetExceeded()), budgetMs);
+      timer = setTimeout(() => {
+        if (opts.cancellable?.() !== false) controller.abort(new BudgetExceeded());
+      }, budgetMs);
     });
     try {
       const result = await piscina.run(

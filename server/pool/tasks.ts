@@ -13,9 +13,13 @@ import { getLayout, type LayoutConfig } from '@shared/circuit/layouts';
 import { sweepKnobs } from '@shared/circuit/metrics';
 import type { Netlist } from '@shared/circuit/netlist';
 import { renderClips, type ClipRenderInput } from '@server/features/jobs/clips';
+import { compress, type Encoding } from '@server/http/encoded';
 import type { LotRow } from '@server/features/lots/repository';
 import { lotValues } from '@server/features/lots/repository';
-import { lotResults, refreshLotStats, type StoredLotResults } from '@server/features/lots/stored-stats';
+import { lotResults, readColumnBytes, refreshLotStats, type StoredLotResults } from '@server/features/lots/stored-stats';
+import { withTransfer } from './transfer';
+import { ingestLot, type LotIngestInput, type LotIngestResult } from '@server/features/lots/ingest';
+import { encodeLotItems, freshItemsEncoded, type EncodedItems, type ItemsEncoding } from '@server/features/lots/items-encoded';
 
 export interface HarnessSweepInput {
   netlist: Netlist;
@@ -25,6 +29,15 @@ export interface HarnessSweepInput {
   volumeKnob: string;
   toneKnob: string;
   knobs: Record<string, number>;
+}
+
+/**
+ * POST /api/harness/sweep's answer as JSON bytes, compressed as the client accepts: the request thread
+ * neither serialises nor compresses it.
+ */
+export function harnessSweepJson(input: HarnessSweepInput & { encoding: Encoding | null }): Uint8Array {
+  const json = Buffer.from(JSON.stringify(harnessSweep(input)));
+  return input.encoding ? compress(json, input.encoding) : json;
 }
 
 /** POST /api/harness/sweep: the knob grid, as the route answers it. */
@@ -152,11 +165,56 @@ export function lotFreshResults(input: LotResultsInput): StoredLotResults {
   });
 }
 
-/** Every job by name: the pool's typed front (server/pool/index.ts) takes its types from here. */
+/**
+ * A lot upload's parse, insert (one transaction on the worker's own connection, the file moved into place
+ * as its last step) and statistics (server/features/lots/ingest.ts).
+ */
+export function lotIngest(input: LotIngestInput): Promise<LotIngestResult> {
+  return ingestLot(input);
+}
+
+/** The items answer of another matching than the stored one, compressed, for one request (items-encoded.ts). */
+export function lotFreshItemsEncoded(input: LotResultsInput & { encoding: ItemsEncoding }): Uint8Array {
+  return withDb(input.dbFile, (sqlite) => freshItemsEncoded(sqlite, input.lot, input.matching, input.encoding));
+}
+
+/** A lot's items answer compressed (gzip, brotli) and kept beside its stored columns (items-encoded.ts). */
+export function lotItemsEncode(input: { dbFile: string; lotId: number }): EncodedItems | null {
+  return withDb(input.dbFile, (sqlite) => encodeLotItems(sqlite, input.lotId));
+}
+
+/**
+ * A lot's stored item columns as bytes, read here rather than on the request thread (9 MB out of SQLite
+ * takes tens of milliseconds), and moved, not copied, to it.
+ */
+export function lotColumnBytes(input: { dbFile: string; lotId: number }): { count: number; computedAt: number; bytes: Uint8Array } | null {
+  return withDb(input.dbFile, (sqlite) => {
+    const read = readColumnBytes(sqlite, input.lotId);
+    if (!read) return null;
+    // A copy of the database's buffer, which this thread owns and can give away.
+    const bytes = new Uint8Array(read.bytes);
+    return withTransfer({ count: read.count, computedAt: read.computedAt, bytes }, [bytes.buffer]);
+  });
+}
+
 /** A job's report clips (server/features/jobs/clips.ts): the before and after designs as two 16-bit WAV files. */
 export function reportClips(input: ClipRenderInput): [Uint8Array, Uint8Array] {
   return renderClips(input);
 }
 
-export const TASKS = { harnessSweep, bleedFinder, render, coilFit, lotStats, lotFreshResults, reportClips } as const;
+/** Every job by name: the pool's typed front (server/pool/index.ts) takes its types from here. */
+export const TASKS = {
+  harnessSweep,
+  harnessSweepJson,
+  bleedFinder,
+  render,
+  coilFit,
+  lotStats,
+  lotFreshResults,
+  reportClips,
+  lotIngest,
+  lotItemsEncode,
+  lotColumnBytes,
+  lotFreshItemsEncoded,
+} as const;
 export type TaskName = keyof typeof TASKS;

@@ -6,7 +6,7 @@ import { move } from 'piscina';
 import { WavError } from '@shared/audio/wav';
 import { HarnessUnsolvableError } from '@shared/circuit/solver';
 import { TASKS, type TaskName } from './tasks';
-import type { JobRefusal } from './refusal';
+import { JobRefusalError, type JobRefusal } from './refusal';
 
 export interface JobMessage {
   name: TaskName;
@@ -16,18 +16,19 @@ export interface JobMessage {
 }
 
 function refusal(err: unknown): JobRefusal | null {
+  if (err instanceof JobRefusalError) return err.refusal;
   if (err instanceof HarnessUnsolvableError) return { jobRefused: { kind: 'unsolvable', message: err.message } };
   if (err instanceof WavError) return { jobRefused: { kind: 'wav', message: err.message } };
   if (err instanceof RangeError) return { jobRefused: { kind: 'range', message: err.message } };
   return null;
 }
 
-export default function runJob({ name, input, started }: JobMessage): unknown {
+export default async function runJob({ name, input, started }: JobMessage): Promise<unknown> {
   started.postMessage('started');
   started.close();
   try {
-    const value = (TASKS[name] as (input: unknown) => unknown)(input);
-    // A rendered file is moved to the main thread, not copied.
+    const value = await (TASKS[name] as (input: unknown) => unknown)(input);
+    // A rendered file is moved to the main thread, not copied (as are the buffers a job names: transfer.ts).
     return value instanceof Uint8Array ? move(value) : value;
   } catch (err) {
     const known = refusal(err);

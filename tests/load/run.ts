@@ -1,20 +1,30 @@
-// `npm run load`: a bounded load figure anyone can reproduce. Starts the app (tsx server/index.ts) on a
-// temporary data folder with the demo workshop, on loopback only, then runs each scenario for a fixed
+// `npm run load`: a bounded load figure anyone can reproduce. Starts the app (server/index.ts through tsx)
+// on a temporary data folder with the demo workshop, on loopback only, then runs each scenario for a fixed
 // duration at a fixed concurrency while one probe calls /api/health every 50 ms. Prints req/s, p50/p99
 // of the scenario and p50/p99 of /api/health. Nothing is sent anywhere but 127.0.0.1.
+// The probe runs in a thread of its own, so the clients' work here (reading megabytes of answers) does not
+// delay its timer and count as the server's; GETs read the answer's bytes as sent (a compressed answer is
+// not decoded here, as a browser decodes on its own machine).
+// LOAD_SECONDS (10) sets the duration, LOAD_CLIENTS (8) the concurrency; LOAD_ONLY=<words> runs the scenarios whose name holds them;
+// LOAD_NODE_ARGS adds options to the server's node (e.g. `--cpu-prof --cpu-prof-dir=/tmp/prof`).
 import { spawn } from 'node:child_process';
 import fs from 'node:fs';
+import http from 'node:http';
 import os from 'node:os';
 import path from 'node:path';
+import { Worker } from 'node:worker_threads';
 
 const PORT = 3900 + Math.floor(Math.random() * 90);
 const BASE = `http://127.0.0.1:${PORT}`;
 const DURATION_MS = Number(process.env.LOAD_SECONDS ?? 10) * 1000;
-const CONCURRENCY = 8;
+const CONCURRENCY = Number(process.env.LOAD_CLIENTS ?? 8);
 const PASSWORD = 'load-test-passphrase';
 
 const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'lugbook-load-'));
-const child = spawn('npx', ['tsx', 'server/index.ts'], {
+// The server itself (not an npx wrapper), so that stopping it here stops it.
+const ONLY = process.env.LOAD_ONLY;
+const NODE_ARGS = (process.env.LOAD_NODE_ARGS ?? '').split(' ').filter(Boolean);
+const child = spawn(process.execPath, [...NODE_ARGS, '--import', 'tsx', 'server/index.ts'], {
   env: {
     ...process.env,
     PORT: String(PORT),
@@ -24,13 +34,21 @@ const child = spawn('npx', ['tsx', 'server/index.ts'], {
     PUBLIC_URL: BASE,
     NODE_ENV: 'development',
   },
-  stdio: ['ignore', 'pipe', 'inherit'],
+  // Its errors show here; its own lines (serving on…, closing) do not.
+  stdio: ['ignore', 'ignore', 'inherit'],
 });
-const stop = () => {
+const exited = new Promise((resolve) => child.once('exit', resolve));
+const removeData = () => fs.rmSync(dataDir, { recursive: true, force: true });
+process.on('exit', () => {
   child.kill('SIGTERM');
-  fs.rmSync(dataDir, { recursive: true, force: true });
-};
-process.on('exit', stop);
+  removeData();
+});
+/** Stops the server and waits for it (it writes a CPU profile on the way out when LOAD_NODE_ARGS asks). */
+async function stop() {
+  child.kill('SIGTERM');
+  await exited;
+  removeData();
+}
 
 async function waitForServer() {
   for (let i = 0; i < 600; i++) {
@@ -47,9 +65,54 @@ async function waitForServer() {
 const pct = (sorted: number[], p: number) =>
   sorted.length ? sorted[Math.min(sorted.length - 1, Math.floor((p / 100) * sorted.length))]! : NaN;
 
-async function scenario(name: string, call: () => Promise<Response>) {
+const agent = new http.Agent({ keepAlive: true, maxSockets: CONCURRENCY * 2 });
+
+/** A GET whose answer is read as bytes, as sent (compressed or not): its status and size. */
+function get(url: string, headers: Record<string, string>): Promise<{ ok: boolean; bytes: number }> {
+  return new Promise((resolve, reject) => {
+    http
+      .get(url, { agent, headers }, (res) => {
+        let bytes = 0;
+        res.on('data', (c: Buffer) => (bytes += c.length));
+        res.on('end', () => resolve({ ok: res.statusCode! >= 200 && res.statusCode! < 300, bytes }));
+        res.on('error', reject);
+      })
+      .on('error', reject);
+  });
+}
+
+/** Calls /api/health every 50 ms for `ms` in a thread of its own; answers the sorted times. */
+function healthProbe(ms: number): Promise<number[]> {
+  const code = `
+    const { parentPort, workerData } = require('node:worker_threads');
+    const http = require('node:http');
+    const agent = new http.Agent({ keepAlive: true, maxSockets: 1 });
+    const once = () => new Promise((resolve, reject) => {
+      const t0 = performance.now();
+      http.get(workerData.url, { agent }, (res) => { res.resume(); res.on('end', () => resolve(performance.now() - t0)); }).on('error', reject);
+    });
+    (async () => {
+      const times = [];
+      const until = performance.now() + workerData.ms;
+      while (performance.now() < until) {
+        times.push(await once());
+        await new Promise((r) => setTimeout(r, 50));
+      }
+      parentPort.postMessage(times.sort((a, b) => a - b));
+    })();`;
+  return new Promise((resolve, reject) => {
+    const w = new Worker(code, { eval: true, workerData: { url: `${BASE}/api/health`, ms } });
+    w.once('message', (times: number[]) => {
+      resolve(times);
+      void w.terminate();
+    });
+    w.once('error', reject);
+  });
+}
+
+async function scenario(name: string, call: () => Promise<{ ok: boolean }>) {
+  if (ONLY && !name.includes(ONLY)) return;
   const times: number[] = [];
-  const health: number[] = [];
   let errors = 0;
   const until = performance.now() + DURATION_MS;
   const worker = async () => {
@@ -57,7 +120,6 @@ async function scenario(name: string, call: () => Promise<Response>) {
       const t0 = performance.now();
       try {
         const res = await call();
-        await res.arrayBuffer();
         if (!res.ok) errors++;
       } catch {
         // A reset or refused connection counts as an error, with its time.
@@ -66,21 +128,23 @@ async function scenario(name: string, call: () => Promise<Response>) {
       times.push(performance.now() - t0);
     }
   };
-  const probe = async () => {
-    while (performance.now() < until) {
-      const t0 = performance.now();
-      await (await fetch(`${BASE}/api/health`)).arrayBuffer();
-      health.push(performance.now() - t0);
-      await new Promise((r) => setTimeout(r, 50));
-    }
-  };
-  await Promise.all([...Array.from({ length: CONCURRENCY }, worker), probe()]);
+  const [health] = await Promise.all([healthProbe(DURATION_MS), ...Array.from({ length: CONCURRENCY }, worker)]);
   times.sort((a, b) => a - b);
-  health.sort((a, b) => a - b);
   const f = (x: number) => x.toFixed(1).padStart(8);
+  const load = os
+    .loadavg()
+    .map((x) => x.toFixed(2))
+    .join(' ');
   console.log(
-    `${name.padEnd(28)} ${(times.length / (DURATION_MS / 1000)).toFixed(1).padStart(8)} req/s  p50 ${f(pct(times, 50))} ms  p99 ${f(pct(times, 99))} ms  errors ${errors}   /api/health p50 ${f(pct(health, 50))} ms  p99 ${f(pct(health, 99))} ms`,
+    `${name.padEnd(28)} ${(times.length / (DURATION_MS / 1000)).toFixed(1).padStart(8)} req/s  p50 ${f(pct(times, 50))} ms  p99 ${f(pct(times, 99))} ms  errors ${errors}   /api/health p50 ${f(pct(health, 50))} ms  p99 ${f(pct(health, 99))} ms   load average ${load}`,
   );
+}
+
+/** A fetch whose answer is read to its end. */
+async function done(res: Promise<Response>): Promise<{ ok: boolean }> {
+  const r = await res;
+  await r.arrayBuffer();
+  return r;
 }
 
 async function main() {
@@ -98,15 +162,17 @@ async function main() {
   console.log(
     `Lugbook load: ${CONCURRENCY} concurrent clients, ${DURATION_MS / 1000} s per scenario, loopback; big lot ${big.id} with ${big.count} items; ${os.cpus().length} CPUs`,
   );
-  await scenario('GET /api/parts', () => fetch(`${BASE}/api/parts`, { headers }));
-  await scenario(`GET /api/lots/:id (${big.count})`, () => fetch(`${BASE}/api/lots/${big.id}`, { headers }));
-  await scenario('GET /api/lots/:id/items', () => fetch(`${BASE}/api/lots/${big.id}/items`, { headers }));
+  await scenario('GET /api/parts', () => get(`${BASE}/api/parts`, headers));
+  await scenario(`GET /api/lots/:id (${big.count})`, () => get(`${BASE}/api/lots/${big.id}`, headers));
+  await scenario('GET /api/lots/:id/items', () => get(`${BASE}/api/lots/${big.id}/items`, headers));
   await scenario('POST /api/harness/sweep', () =>
-    fetch(`${BASE}/api/harness/sweep`, {
-      method: 'POST',
-      headers: { ...headers, 'Content-Type': 'application/json' },
-      body: JSON.stringify({ preset: 'bleed-cap' }),
-    }),
+    done(
+      fetch(`${BASE}/api/harness/sweep`, {
+        method: 'POST',
+        headers: { ...headers, 'Content-Type': 'application/json' },
+        body: JSON.stringify({ preset: 'bleed-cap' }),
+      }),
+    ),
   );
   const csv = ['Item,C (nF)', ...Array.from({ length: 2000 }, (_, i) => `${i + 1},${(47 * (1 + 0.02 * Math.sin(i))).toFixed(4)}`)].join(
     '\n',
@@ -121,11 +187,12 @@ async function main() {
     ).json()) as { id: number };
     const form = new FormData();
     form.append('file', new Blob([csv], { type: 'text/csv' }), 'lot.csv');
-    return fetch(`${BASE}/api/lots/${lot.id}/readings`, { method: 'POST', headers, body: form });
+    return done(fetch(`${BASE}/api/lots/${lot.id}/readings`, { method: 'POST', headers, body: form }));
   });
 }
 
 main()
+  .then(stop)
   .then(() => process.exit(0))
   .catch((err) => {
     console.error(err);

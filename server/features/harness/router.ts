@@ -5,6 +5,7 @@ import type { AppContext } from '@server/context';
 import { harnesses } from '@server/db/schema';
 import type { DbLike } from '@server/db/client';
 import { forbidden, notFound, unprocessable } from '@server/http/errors';
+import { acceptedEncoding, sendJsonBytes } from '@server/http/encoded';
 import { ApiRouter } from '@server/http/router';
 import {
   buildLayoutNetlist,
@@ -240,7 +241,7 @@ export function harnessRoutes(ctx: AppContext) {
 
   engine.post('/sweep', {
     schemas: { body: SweepRequestSchema },
-    handle: async ({ body }) => {
+    handle: async ({ body, req, res }) => {
       const { netlist, layout } = sourceOf(body);
       const volumeKnob = body.volumeKnob ?? (layout ? volumeKnobs(layout)[0]! : 'volume');
       const toneKnob = body.toneKnob ?? (layout ? toneKnobs(layout)[0]! : 'tone');
@@ -251,9 +252,12 @@ export function harnessRoutes(ctx: AppContext) {
         (body.volume ?? DIAL).length * (body.tone ?? DIAL).length,
         body.frequencies?.length ?? DEFAULT_FREQUENCIES.length,
       );
-      // In a worker (server/pool): a grid at the limit takes seconds on a busy machine.
-      return solvedAsync(body.netlist ? 'netlist' : 'preset', () =>
-        pool.run('harnessSweep', {
+      // In a worker (server/pool): a grid at the limit takes seconds on a busy machine. The worker also
+      // serialises and compresses the answer (server/http/encoded.ts), so this thread only sends it.
+      const encoding = acceptedEncoding(req);
+      const bytes = await solvedAsync(body.netlist ? 'netlist' : 'preset', () =>
+        pool.run('harnessSweepJson', {
+          encoding,
           netlist,
           volume: body.volume ?? DIAL,
           tone: body.tone ?? DIAL,
@@ -263,6 +267,7 @@ export function harnessRoutes(ctx: AppContext) {
           knobs: knobsOf(layout, body.knobs),
         }),
       );
+      sendJsonBytes(res, bytes, encoding);
     },
   });
 

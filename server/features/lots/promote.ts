@@ -7,6 +7,7 @@ import { parts, partStatusEvents } from '@server/db/schema';
 import { recordReading } from '@server/features/readings/service';
 import { conflict, unprocessable } from '@server/http/errors';
 import type { PromoteInput } from '@shared/schemas/lots';
+import { clearLotItemsEncoded } from './items-encoded';
 import { lotStats, lotValues, type LotRow } from './repository';
 
 const SECOND_READING = { dissipation: 'dissipation', esr: 'esr' } as const;
@@ -95,6 +96,8 @@ export function promoteToParts(ctx: AppContext, lot: LotRow, input: PromoteInput
         );
       return part.id;
     });
+    // The items answer names each item's part: its compressed copies describe the lot before this promotion.
+    clearLotItemsEncoded(sqlite, lot.id);
     audit(tx, { userId, action: 'lot.promote', entity: 'lot', entityId: lot.id, detail: { parts: created.length, selection: input } });
     return { created: created.length, partIds: created };
   });

@@ -5,8 +5,10 @@ import { audit } from '@server/audit';
 import type { AppContext } from '@server/context';
 import { instruments, lots, lotWatchers, users } from '@server/db/schema';
 import { conflict, unprocessable } from '@server/http/errors';
+import { acceptedEncoding, sendJsonBytes } from '@server/http/encoded';
 import { ApiRouter } from '@server/http/router';
 import { lotHistory } from './history';
+import { itemsAnswerParts } from './items-encoded';
 import { lotItemPartIdsJson } from './promoted';
 import { assertWatcherChange, registerWatcherRoutes } from './watchers';
 import { decodeMarking } from '@shared/markings/decode';
@@ -154,18 +156,35 @@ export function lotRoutes(ctx: AppContext) {
   // Every item with what the table needs, as columns (compact for 100,000 rows).
   api.get('/:id/items', {
     schemas: { params: IdParamsSchema, query: LotStatsQuerySchema },
-    handle: async ({ params, query, res }) => {
+    handle: async ({ params, query, req, res }) => {
       const lot = mustFind(params.id);
+      const fresh = !isDefaultMatching(query);
+      let state = fresh ? null : statsJobs.columnsState(lot);
+      if (!fresh && !state) {
+        await statsJobs.refresh(lot);
+        state = statsJobs.columnsState(lot);
+      }
+      // The whole answer compressed once in the pool (items-encoded.ts), when the client takes brotli or gzip.
+      const enc = acceptedEncoding(req);
+      if (enc && (state || fresh)) {
+        // The stored state's copy, or (another matching) one made for this request.
+        const encoded = state ? await statsJobs.encodedItems(lot.id, state, enc) : await statsJobs.freshItemsEncoded(lot, query, enc);
+        if (encoded) {
+          sendJsonBytes(res, encoded, enc);
+          return;
+        }
+        // None to be had now: the answer goes out uncompressed rather than compressed on this thread.
+        res.setHeader('Cache-Control', 'no-transform');
+      }
       // The stored columns' bytes go out as they are kept (no 9 MB string parsed, built or hashed for an ETag).
-      const { count, bytes: columns } = isDefaultMatching(query)
-        ? await statsJobs.columnBytes(lot)
-        : await statsJobs.fresh(lot, query).then((r) => ({ count: r.count, bytes: Buffer.from(r.columnsJson) }));
+      const { count, bytes: columns } = fresh
+        ? await statsJobs.fresh(lot, query).then((r) => ({ count: r.count, bytes: Buffer.from(r.columnsJson) }))
+        : await statsJobs.columnBytes(lot, state);
       // Which items became parts is read on every request: a promotion changes it, not the readings.
       // The answer is a LotItems (shared/schemas/lots.ts): partIds, then the stored columns.
       const partIdsJson = lotItemPartIdsJson(db, sqlite, lot.id, count);
       // The columns object, with partIds put in front of its first key.
-      const head = Buffer.from(`{"partIds":${partIdsJson},`);
-      const rest = columns.subarray(1);
+      const [head, rest] = itemsAnswerParts(partIdsJson, columns);
       res
         .status(200)
         .type('json')

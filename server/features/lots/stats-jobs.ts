@@ -4,7 +4,9 @@
 // results missing while one runs wait for it.
 import type { AppContext } from '@server/context';
 import { findLot, type LotRow } from './repository';
-import { ColumnCache, readStoredColumnBytes, readStoredLotStats, type StoredLotResults } from './stored-stats';
+import { HttpError } from '@server/http/errors';
+import { itemsKey, readLotItemsEncoded, type EncodedItems, type ItemsEncoding } from './items-encoded';
+import { ColumnCache, readStoredColumnsState, readStoredLotStats, type StoredLotResults } from './stored-stats';
 
 /**
  * A lot's statistics are bounded by the upload's 100,000 rows, not by anything a request chooses, and a
@@ -36,7 +38,13 @@ export async function computeMissingLotStats(ctx: AppContext): Promise<number> {
   let computed = 0;
   for (const id of ids) {
     const lot = findLot(ctx.db, id);
-    if (!lot || readStoredLotStats(ctx.sqlite, lot, 'detail')) continue;
+    if (!lot) continue;
+    if (readStoredLotStats(ctx.sqlite, lot, 'detail')) {
+      // Statistics kept before their compressed items answer was (an older version): made now.
+      const missing = ctx.sqlite.prepare('select items_mark is null as missing from lot_stats where lot_id = ?').pluck().get(id);
+      if (missing) await jobs.encode(lot.id).catch(() => null);
+      continue;
+    }
     await jobs.refresh(lot);
     computed++;
   }
@@ -49,6 +57,21 @@ function makeLotStatsJobs(ctx: AppContext) {
   const dbFile = sqlite.name;
   const computing = new Map<number, Promise<StoredLotResults>>();
   const columnCache = new ColumnCache();
+  // The compressed items answers last sent, by lot (items-encoded.ts); keyed by the state they were made from.
+  const encodedCache = { gzip: new ColumnCache(32 * 1024 * 1024), br: new ColumnCache(32 * 1024 * 1024) };
+  const encoding = new Map<number, Promise<EncodedItems | null>>();
+
+  /** Makes and keeps the lot's compressed items answer in the pool; one job per lot at a time. */
+  function encode(lotId: number): Promise<EncodedItems | null> {
+    let job = encoding.get(lotId);
+    if (!job) {
+      job = pool.run('lotItemsEncode', { dbFile, lotId }, { budgetMs }).finally(() => {
+        if (encoding.get(lotId) === job) encoding.delete(lotId);
+      });
+      encoding.set(lotId, job);
+    }
+    return job;
+  }
 
   /**
    * Computes and keeps the lot's results when a read finds them missing, or (`changed`) after an upload
@@ -58,6 +81,9 @@ function makeLotStatsJobs(ctx: AppContext) {
     let job = changed ? undefined : computing.get(lot.id);
     if (!job) {
       const started = pool.run('lotStats', { dbFile, lot }, { budgetMs });
+      // The compressed items answer of the new columns, made in the background (nobody waits for it here;
+      // an items read that comes first waits for this same job).
+      void started.then((r) => (r.kept ? encode(lot.id) : null)).catch(() => null);
       job = started.finally(() => {
         if (computing.get(lot.id) === job) computing.delete(lot.id);
       });
@@ -72,16 +98,67 @@ function makeLotStatsJobs(ctx: AppContext) {
     async stored(lot: LotRow, part: 'detail' | 'columns'): Promise<StoredLotResults> {
       return readStoredLotStats(sqlite, lot, part) ?? (await refresh(lot));
     },
-    /** The default matching's item columns as the bytes of their JSON text. */
-    async columnBytes(lot: LotRow): Promise<{ count: number; bytes: Buffer }> {
-      const stored = readStoredColumnBytes(sqlite, lot, columnCache);
-      if (stored) return stored;
+    encode,
+    /** The state of the lot's stored item columns (null when missing or out of date). */
+    columnsState: (lot: LotRow) => readStoredColumnsState(sqlite, lot),
+    /**
+     * The default matching's item columns as the bytes of their JSON text, for the state `state` names
+     * (columnsState): from memory, else read in the pool (moved here, not copied); else computed.
+     */
+    async columnBytes(lot: LotRow, state: { count: number; computedAt: number } | null): Promise<{ count: number; bytes: Buffer }> {
+      if (state) {
+        const key = `${state.computedAt}:${state.count}`;
+        const hit = columnCache.get(lot.id, key);
+        if (hit) return hit;
+        const read = await pool.run('lotColumnBytes', { dbFile, lotId: lot.id }, { budgetMs });
+        if (read) {
+          const bytes = toBuffer(read.bytes);
+          columnCache.set(lot.id, `${read.computedAt}:${read.count}`, read.count, bytes);
+          return { count: read.count, bytes };
+        }
+      }
       const computed = await refresh(lot);
       return { count: computed.count, bytes: Buffer.from(computed.columnsJson) };
+    },
+    /**
+     * The items answer for the stored columns read (`stored`), compressed in `enc`: from memory, else from
+     * lot_stats, else made in the pool (the request waits for it). Null when none of that state can be had
+     * (the pool busy, or the lot changed meanwhile): the route then sends the answer uncompressed.
+     */
+    async encodedItems(lotId: number, stored: { computedAt: number; count: number }, enc: ItemsEncoding): Promise<Buffer | null> {
+      const key = itemsKey(sqlite, lotId, stored);
+      const hit = encodedCache[enc].get(lotId, key);
+      if (hit) return hit.bytes;
+      const kept = readLotItemsEncoded(sqlite, lotId, key, enc);
+      if (kept) {
+        encodedCache[enc].set(lotId, key, stored.count, kept);
+        return kept;
+      }
+      let made: EncodedItems | null;
+      try {
+        made = await encode(lotId);
+      } catch (err) {
+        if (err instanceof HttpError && err.status === 503) return null;
+        throw err;
+      }
+      if (!made || made.key !== key) return null;
+      const bytes = { gzip: toBuffer(made.gzip), br: toBuffer(made.br) };
+      encodedCache.gzip.set(lotId, key, stored.count, bytes.gzip);
+      encodedCache.br.set(lotId, key, stored.count, bytes.br);
+      return bytes[enc];
+    },
+    /** The items answer of another matching, computed and compressed for this request only. */
+    async freshItemsEncoded(lot: LotRow, matching: { matchPct?: number; setSize?: number }, enc: ItemsEncoding): Promise<Buffer> {
+      return toBuffer(await pool.run('lotFreshItemsEncoded', { dbFile, lot, matching, encoding: enc }, { budgetMs }));
     },
     /** Another matching, computed for this request only. */
     fresh(lot: LotRow, matching: { matchPct?: number; setSize?: number }): Promise<StoredLotResults> {
       return pool.run('lotFreshResults', { dbFile, lot, matching }, { budgetMs });
     },
   };
+}
+
+/** The bytes a worker sent (a Uint8Array once across the thread boundary), as a Buffer without a copy. */
+function toBuffer(a: Uint8Array): Buffer {
+  return Buffer.from(a.buffer, a.byteOffset, a.byteLength);
 }

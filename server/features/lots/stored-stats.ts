@@ -109,7 +109,8 @@ export function refreshLotStats(sqlite: Database.Database, lot: LotRow): StoredL
        values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)
        on conflict (lot_id) do update set engine_version = excluded.engine_version, nominal = excluded.nominal,
          tolerance_pct = excluded.tolerance_pct, tolerance_plus_pct = excluded.tolerance_plus_pct, second_limit = excluded.second_limit, count = excluded.count,
-         detail = excluded.detail, columns = excluded.columns, computed_at = excluded.computed_at`,
+         detail = excluded.detail, columns = excluded.columns, computed_at = excluded.computed_at,
+         items_mark = null, items_gzip = null, items_br = null`,
         )
         .run(
           lot.id,
@@ -186,12 +187,8 @@ export class ColumnCache {
   }
 }
 
-/**
- * The stored item columns as the bytes of their JSON text, when up to date; else null. The bytes come
- * from `cache` while the row is the one they were read from (its computed_at), else from SQLite (as
- * they are kept: no string made of ~9 MB) and go into the cache.
- */
-export function readStoredColumnBytes(sqlite: Database.Database, lot: LotRow, cache: ColumnCache): { count: number; bytes: Buffer } | null {
+/** The stored item columns' state (when they were computed, how many items), when up to date; else null. */
+export function readStoredColumnsState(sqlite: Database.Database, lot: LotRow): { count: number; computedAt: number } | null {
   const row = sqlite
     .prepare('select engine_version, nominal, tolerance_pct, second_limit, count, computed_at from lot_stats where lot_id = ?')
     .get(lot.id) as (Omit<Row, 'columns' | 'detail'> & { computed_at: number }) | undefined;
@@ -204,14 +201,14 @@ export function readStoredColumnBytes(sqlite: Database.Database, lot: LotRow, ca
   ) {
     return null;
   }
-  const key = `${row.computed_at}:${row.count}`;
-  const hit = cache.get(lot.id, key);
-  if (hit) return hit;
-  const read = sqlite.prepare('select count, computed_at, cast(columns as blob) as columns from lot_stats where lot_id = ?').get(lot.id) as
+  return { count: row.count, computedAt: row.computed_at };
+}
+
+/** The stored item columns as the bytes of their JSON text, as kept (no string made of ~9 MB); null without a row. */
+export function readColumnBytes(sqlite: Database.Database, lotId: number): { count: number; computedAt: number; bytes: Buffer } | null {
+  const read = sqlite.prepare('select count, computed_at, cast(columns as blob) as columns from lot_stats where lot_id = ?').get(lotId) as
     { count: number; computed_at: number; columns: Buffer } | undefined;
-  if (!read) return null;
-  cache.set(lot.id, `${read.computed_at}:${read.count}`, read.count, read.columns);
-  return { count: read.count, bytes: read.columns };
+  return read ? { count: read.count, computedAt: read.computed_at, bytes: read.columns } : null;
 }
 
 /** True when a request asks for the default matching (so the stored results answer it). */

@@ -1,28 +1,31 @@
-// Uploading a lot's readings: the file goes to a temporary file under uploads/incoming, is read back
-// as a stream into typed columns, and the rows go in through one prepared statement in one transaction.
+// Uploading a lot's readings: the file goes to a temporary file under uploads/incoming; the request is
+// checked here, and the parse, the insert (one transaction) and the statistics run in a pool worker
+// (ingest.ts), so this thread only receives the file and answers.
 import fs from 'node:fs';
-import path from 'node:path';
 import type { RequestHandler } from 'express';
 import multer from 'multer';
 import { z } from 'zod';
-import { audit } from '@server/audit';
 import type { AppContext } from '@server/context';
 import { conflict, HttpError, unprocessable } from '@server/http/errors';
 import type { ApiRouter } from '@server/http/router';
 import type { AuthUser } from '@server/auth/session';
-import { pausePoint } from '@server/http/pause-point';
 import { guardedUpload } from '@server/uploads/multipart';
-import { fileRefused } from '@server/uploads/refusal';
-import { contentPath, incomingDir, storedName } from '@server/uploads/store';
+import { contentPath, incomingDir } from '@server/uploads/store';
 import { IdParamsSchema } from '@shared/schemas/common';
 import { MappingFieldSchema } from '@shared/schemas/sweeps';
-import { lotFinder, lotKind, lotSummary, QUANTITY } from './common';
-import { readLotFile } from './read-upload';
-import { lotStats } from './repository';
+import { lotFinder, lotSummary } from './common';
+import { ingestProgress, INGEST_STAGE, readIngestProgress, type LotIngestResult } from './ingest';
 import type { lotStatsJobs } from './stats-jobs';
-import { invalidateLotStats } from './stored-stats';
 
 const MAX_LOT_BYTES = 25 * 1024 * 1024;
+/**
+ * An ingest's size is bounded by the 100,000-row upload limit, not by anything a request chooses: it gets
+ * six of the pool's budgets (30 s by default), as lot statistics do (stats-jobs.ts). One that is still
+ * reading or inserting when they run out is cancelled: its worker is terminated (its transaction rolls
+ * back), the file is removed (`removeUncommittedFile`, and the temporary file by the handler), and the
+ * answer is 503 over_budget with Retry-After.
+ */
+const INGEST_BUDGETS = 6;
 
 const UploadFields = z.object({
   replace: z
@@ -53,10 +56,29 @@ function lotFileUpload(tmpDir: string): RequestHandler {
 }
 
 export function lotUploadRoutes(api: ApiRouter, ctx: AppContext, statsJobs: ReturnType<typeof lotStatsJobs>) {
-  const { db, sqlite } = ctx;
+  const { sqlite } = ctx;
   const mustFind = lotFinder(ctx);
   const tmpDir = incomingDir(ctx.config.uploadsDir);
   fs.mkdirSync(tmpDir, { recursive: true });
+  const ingestBudgetMs = ctx.pool.options.budgetMs * INGEST_BUDGETS;
+
+  /**
+   * After an ingest failed or was cancelled before its commit: the worker rolled back (a terminated worker's
+   * connection closes, which rolls its transaction back), but a cancelled one may have moved the file into
+   * place already. It is removed unless a committed row names its content (the same file uploaded before).
+   * The check and the removal hold the write lock, so no other ingest can meanwhile find the file and
+   * commit a row for it.
+   */
+  function removeUncommittedFile(progress: SharedArrayBuffer) {
+    const { stage, contentHash } = readIngestProgress(progress);
+    if (stage !== INGEST_STAGE.writing || !contentHash) return;
+    sqlite
+      .transaction(() => {
+        const named = sqlite.prepare('select 1 from attachments where content_hash = ? limit 1').get(contentHash);
+        if (!named) fs.rmSync(contentPath(ctx.config.uploadsDir, contentHash), { force: true });
+      })
+      .immediate();
+  }
 
   api.post('/:id/readings', {
     status: 201,
@@ -81,58 +103,30 @@ export function lotUploadRoutes(api: ApiRouter, ctx: AppContext, statsJobs: Retu
     const existing = (sqlite.prepare('select count(*) as n from lot_readings where lot_id = ?').get(lot.id) as { n: number }).n;
     if (existing > 0 && !body.replace) throw conflict(`The lot has ${existing} readings already; send replace=true to replace them.`);
     const started = performance.now();
-    const read = await readLotFile(file.path, { quantity: QUANTITY[lotKind(lot)], mapping: body.mapping });
-    if (!read.ok) throw fileRefused(read);
-    const { data } = read;
-    const parsedAt = performance.now();
-    const stored = contentPath(ctx.config.uploadsDir, data.contentHash);
-    let created = false;
-    const insert = sqlite.prepare(
-      'insert into lot_readings (lot_id, item, value, second_value, frequency, source_row) values (?, ?, ?, ?, ?, ?)',
-    );
+    // Parse, insert and statistics in a worker (ingest.ts); this thread waits without work.
+    const progress = ingestProgress();
+    let result: LotIngestResult;
     try {
-      // One transaction through one prepared statement: all rows or none. The file is moved into
-      // place as the transaction's last step: a crash before the commit leaves an unreferenced file,
-      // which the sweep at start removes (server/uploads/sweep.ts); a rollback removes it here.
-      db.transaction((tx) => {
-        if (body.replace) sqlite.prepare('delete from lot_readings where lot_id = ?').run(lot.id);
-        // The stored statistics describe the old readings: gone with them, or not at all.
-        invalidateLotStats(sqlite, lot.id);
-        const half = Math.floor(data.n / 2);
-        for (let i = 0; i < data.n; i++) {
-          if (i === half) pausePoint('lot-upload:mid-insert');
-          const s = data.second[i]!;
-          const f = data.frequency[i]!;
-          insert.run(lot.id, data.items[i]!, data.values[i]!, Number.isNaN(s) ? null : s, Number.isNaN(f) ? null : f, data.lines[i]!);
-        }
-        sqlite
-          .prepare(
-            "insert into attachments (owner_type, owner_id, purpose, original_name, content_hash, mime, size, created_by) values ('lot', ?, 'lot-readings', ?, ?, 'text/csv', ?, ?)",
-          )
-          .run(lot.id, storedName(file.originalname), data.contentHash, file.size, user.id);
-        audit(tx, {
+      result = await ctx.pool.run(
+        'lotIngest',
+        {
+          dbFile: sqlite.name,
+          uploadsDir: ctx.config.uploadsDir,
+          lot,
+          file: { path: file.path, originalName: file.originalname, size: file.size },
+          replace: body.replace,
+          ...(body.mapping ? { mapping: body.mapping } : {}),
           userId: user.id,
-          action: body.replace ? 'lot.readings-replaced' : 'lot.readings-uploaded',
-          entity: 'lot',
-          entityId: lot.id,
-          detail: { rows: data.n, file: file.originalname, columns: data.columns, ignoredColumns: data.ignored },
-        });
-        if (!fs.existsSync(stored)) {
-          fs.mkdirSync(path.dirname(stored), { recursive: true });
-          fs.renameSync(file.path, stored);
-          created = true;
-        }
-        pausePoint('lot-upload:file-moved');
-      });
+          progress,
+        },
+        // Past its commit an ingest is finished and answered, never cancelled.
+        { budgetMs: ingestBudgetMs, cancellable: () => readIngestProgress(progress).stage !== INGEST_STAGE.committed },
+      );
     } catch (err) {
-      if (created) fs.rmSync(stored, { force: true });
+      removeUncommittedFile(progress);
       throw err;
     }
-    pausePoint('lot-upload:committed');
-    const storedAt = performance.now();
-    // From the columns already in memory (a replace leaves exactly these rows); the lot page asks for sets itself.
-    const stats = lotStats(lot, data, { sets: false });
-    const done = performance.now();
+    const ingestedAt = performance.now();
     // The lot page's statistics, matched sets and item columns, kept for its reads (stored-stats.ts), computed
     // in the pool. The readings are committed whatever happens here: a busy pool or an overrun leaves the
     // results to the lot's next read.
@@ -144,13 +138,15 @@ export function lotUploadRoutes(api: ApiRouter, ctx: AppContext, statsJobs: Retu
     const keptAt = performance.now();
     return {
       lot: lotSummary(lot),
-      rows: data.n,
-      columns: data.columns,
+      rows: result.rows,
+      columns: result.columns,
       // Columns of the file that no role uses: listed back, never dropped silently (as sweeps do).
-      ignoredColumns: data.ignored,
-      stats: stats && { ...stats, deviationsPct: undefined },
-      // Where the time went, for the benchmark and for anyone wondering about a large lot.
-      timings: { parseMs: parsedAt - started, storeMs: storedAt - parsedAt, statsMs: done - storedAt, storedStatsMs: keptAt - done },
+      ignoredColumns: result.ignoredColumns,
+      stats: result.stats,
+      // Where the time went, for the benchmark and for anyone wondering about a large lot: in the worker
+      // (parse, store, stats), the whole ingest job as this thread waited for it (queue and transfer
+      // included), and the stored statistics.
+      timings: { ...result.timings, ingestMs: ingestedAt - started, storedStatsMs: keptAt - ingestedAt },
     };
   }
 }
