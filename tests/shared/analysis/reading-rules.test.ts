@@ -200,6 +200,8 @@ describe('tolerances as typed and as written', () => {
     ['-0/+10', 0, 10],
     ['-10.5 / +20.25', 10.5, 20.25],
     ['-100/+1000', 100, 1000],
+    ['-10.25/+20', 10.25, 20],
+    ['-5/+0', 5, 0],
     ['  5  ', 5, 5],
   ])('%s reads as −%d %/+%d %', (text, minus, plus) => {
     expect(parseToleranceText(text)).toEqual({ ok: true, value: { minusPct: minus, plusPct: plus } });
