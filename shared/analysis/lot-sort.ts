@@ -16,14 +16,15 @@ const MAX_INDEX_BITS = 24;
 /**
  * Sort `x` (finite values) ascending. Returns the sorted values and `order`, the original index of
  * each sorted value (sorted[i] === x[order[i]]). Equal values keep no particular order.
+ * `maxIndexBits` is for the tests, which reach the large-lot path with a handful of values.
  */
-export function sortWithIndex(x: Float64Array): { sorted: Float64Array; order: Uint32Array } {
+export function sortWithIndex(x: Float64Array, maxIndexBits = MAX_INDEX_BITS): { sorted: Float64Array; order: Uint32Array } {
   const n = x.length;
   const sorted = new Float64Array(n);
   const order = new Uint32Array(n);
   if (n === 0) return { sorted, order };
   const bits = Math.max(1, Math.ceil(Math.log2(n)));
-  if (bits > MAX_INDEX_BITS) {
+  if (bits > maxIndexBits) {
     // Very large lots: fall back to a comparator sort of the indices (slower, still n log n).
     for (let i = 0; i < n; i++) order[i] = i;
     order.sort((a, b) => x[a]! - x[b]!);

@@ -31,6 +31,17 @@ describe('sortWithIndex', () => {
     }
   });
 
+  it('past the index bits a lot may carry (2^24 values; lowered here) the comparator sort gives the same answer', () => {
+    const x = Float64Array.from([3, -1, 2.5, 0, 9, 2.5, -7]); // 7 values need 3 index bits
+    for (const maxIndexBits of [2, 3]) {
+      const { sorted, order } = sortWithIndex(x, maxIndexBits);
+      expect(Array.from(sorted)).toEqual([-7, -1, 0, 2.5, 2.5, 3, 9]);
+      expect(Array.from(order).sort((a, b) => a - b)).toEqual([0, 1, 2, 3, 4, 5, 6]);
+      for (let i = 0; i < x.length; i++) expect(sorted[i]).toBe(x[order[i]!]);
+      expect([order[0], order[1], order[2], order[5], order[6]]).toEqual([6, 1, 3, 0, 4]);
+    }
+  });
+
   it('negative, zero and mixed magnitudes', () => {
     expectSortedWithIndex(Float64Array.from([3, -1, 0, -1e-300, 1e300, -2.5, 0, 7]));
     expectSortedWithIndex(Float64Array.from([1]));
