@@ -3,6 +3,7 @@
 // Content-Encoding, Content-Length and Vary, so that the compression middleware leaves them alone.
 import zlib from 'node:zlib';
 import type { Request, Response } from 'express';
+import { sendInSlices } from './send-slices';
 
 export type Encoding = 'gzip' | 'br';
 
@@ -23,10 +24,10 @@ export function compress(bytes: Uint8Array, encoding: Encoding): Buffer {
   });
 }
 
-/** Sends JSON bytes as they are, compressed in `encoding` (or not, when null). */
-export function sendJsonBytes(res: Response, bytes: Uint8Array, encoding: Encoding | null): void {
+/** Sends JSON bytes as they are, compressed in `encoding` (or not, when null), a slice per turn of the event loop. */
+export function sendJsonBytes(res: Response, bytes: Uint8Array, encoding: Encoding | null): Promise<void> {
   res.status(200).type('json').setHeader('Content-Length', bytes.length);
   if (encoding) res.setHeader('Content-Encoding', encoding);
   res.vary('Accept-Encoding');
-  res.end(bytes);
+  return sendInSlices(res, [bytes]);
 }

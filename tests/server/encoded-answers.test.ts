@@ -9,8 +9,10 @@ import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import zlib from 'node:zlib';
 import request from 'supertest';
-import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import { afterAll, beforeAll, describe, expect, test, vi } from 'vitest';
 import { DEMO_USERS } from '@server/demo/seed';
+import { clearLotItemsEncoded } from '@server/features/lots/items-encoded';
+import { HttpError } from '@server/http/errors';
 import { createTestApp, HOST, ORIGIN, TEST_PASSWORD, type TestApp } from '../support/app';
 
 let t: TestApp;
@@ -156,6 +158,40 @@ describe('the compressed items answer', () => {
     const res = await getItems(lotId, 'gzip');
     expect(res.headers['content-encoding']).toBe('gzip');
     expect(JSON.parse(zlib.gunzipSync(res.body).toString()).items).toHaveLength(50);
+  });
+});
+
+describe('the items answer when no compressed copy can be had', () => {
+  test('the pool refusing (busy): sent uncompressed and whole, marked no-transform, never compressed on the request thread', async () => {
+    const lotId = await newLot();
+    await (await t.as('qa')).post(`/api/lots/${lotId}/readings`).attach('file', lotCsv(800), 'lot.csv').expect(201);
+    // The copy the upload has made in the background, then taken away (as a promotion does).
+    await expect.poll(() => keptMark(lotId), { timeout: 15_000 }).not.toBeNull();
+    const plain = await getItems(lotId, 'identity');
+    clearLotItemsEncoded(t.ctx.sqlite, lotId);
+    // The pool refuses the compression job as it does with every worker busy and its queue full.
+    const run = t.ctx.pool.run.bind(t.ctx.pool);
+    const refused: string[] = [];
+    const spy = vi.spyOn(t.ctx.pool, 'run').mockImplementation(((name, input, opts) => {
+      if (name !== 'lotItemsEncode') return run(name, input, opts);
+      refused.push(name);
+      return Promise.reject(new HttpError(503, 'busy', 'The server is busy.', undefined, undefined, { 'Retry-After': '5' }));
+    }) as typeof t.ctx.pool.run);
+    try {
+      const res = await getItems(lotId, 'gzip, br');
+      expect(refused).toEqual(['lotItemsEncode']);
+      expect(res.status).toBe(200);
+      expect(res.headers['content-encoding']).toBeUndefined();
+      expect(res.headers['cache-control']).toMatch(/no-transform/);
+      expect(Number(res.headers['content-length'])).toBe(res.body.length);
+      expect(res.body.equals(plain.body)).toBe(true);
+    } finally {
+      spy.mockRestore();
+    }
+    // With the pool free again, the next read makes and sends the copy.
+    const after = await getItems(lotId, 'gzip');
+    expect(after.headers['content-encoding']).toBe('gzip');
+    expect(zlib.gunzipSync(after.body).equals(plain.body)).toBe(true);
   });
 });
 

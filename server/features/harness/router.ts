@@ -267,7 +267,7 @@ export function harnessRoutes(ctx: AppContext) {
           knobs: knobsOf(layout, body.knobs),
         }),
       );
-      sendJsonBytes(res, bytes, encoding);
+      await sendJsonBytes(res, bytes, encoding);
     },
   });
 

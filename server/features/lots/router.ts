@@ -7,6 +7,7 @@ import { instruments, lots, lotWatchers, users } from '@server/db/schema';
 import { conflict, unprocessable } from '@server/http/errors';
 import { acceptedEncoding, sendJsonBytes } from '@server/http/encoded';
 import { ApiRouter } from '@server/http/router';
+import { sendInSlices } from '@server/http/send-slices';
 import { lotHistory } from './history';
 import { itemsAnswerParts } from './items-encoded';
 import { lotItemPartIdsJson } from './promoted';
@@ -170,7 +171,7 @@ export function lotRoutes(ctx: AppContext) {
         // The stored state's copy, or (another matching) one made for this request.
         const encoded = state ? await statsJobs.encodedItems(lot.id, state, enc) : await statsJobs.freshItemsEncoded(lot, query, enc);
         if (encoded) {
-          sendJsonBytes(res, encoded, enc);
+          await sendJsonBytes(res, encoded, enc);
           return;
         }
         // None to be had now: the answer goes out uncompressed rather than compressed on this thread.
@@ -189,8 +190,7 @@ export function lotRoutes(ctx: AppContext) {
         .status(200)
         .type('json')
         .setHeader('Content-Length', head.length + rest.length);
-      res.write(head);
-      res.end(rest);
+      await sendInSlices(res, [head, rest]);
     },
   });
 
