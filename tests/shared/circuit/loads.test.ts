@@ -1,7 +1,17 @@
 import { describe, expect, it } from 'vitest';
 import { buildLayoutNetlist, getLayout, LAYOUTS, resolveLayoutConfig } from '@shared/circuit/layouts';
 import { loadedResponse } from '@shared/circuit/loaded-response';
-import { DEFAULT_CABLE, LOAD_IDS, LOAD_VALUES, LOADS, loadSettingOf, loadValueKeys } from '@shared/circuit/loads';
+import {
+  ampLoad,
+  DEFAULT_CABLE,
+  isLoadId,
+  LOAD_IDS,
+  LOAD_VALUES,
+  LOADS,
+  loadParts,
+  loadSettingOf,
+  loadValueKeys,
+} from '@shared/circuit/loads';
 import { simulate } from '@shared/circuit/metrics';
 import { DEFAULT_HARNESS_VALUES, getPreset } from '@shared/circuit/presets';
 
@@ -74,5 +84,44 @@ describe('one load definition', () => {
     const a = simulate(buildLayoutNetlist(layout, config), { volume: 6, tone: 4 });
     const b = simulate(getPreset('independent-tone')!.build(DEFAULT_HARNESS_VALUES), { volume: 6, tone: 4 });
     for (let k = 0; k < a.magnitudeDb.length; k++) expect(Math.abs(a.magnitudeDb[k]! - b.magnitudeDb[k]!)).toBeLessThan(1e-9);
+  });
+});
+
+describe('the load table', () => {
+  it('each load under its own id; isLoadId knows exactly these', () => {
+    for (const id of LOAD_IDS) {
+      expect(LOADS[id].id).toBe(id);
+      expect(isLoadId(id)).toBe(true);
+    }
+    for (const other of ['pedal', 'Amp', '', 42, undefined, null]) expect(isLoadId(other)).toBe(false);
+  });
+
+  it('the value keys of each load, and the parts it adds with their ids', () => {
+    expect(loadValueKeys('amp')).toEqual(['cableCapPerMetre', 'cableLength', 'ampR', 'ampC']);
+    expect(loadValueKeys('buffer')).toEqual(['cableCapPerMetre', 'cableBeforeBuffer', 'bufferR']);
+    expect(loadValueKeys('low-impedance-pedal')).toEqual(['cableCapPerMetre', 'cableLength', 'pedalR']);
+    expect(loadParts({ id: 'amp', R: 1e6, C: 150e-12, cableC: 300e-12 }).map((p) => p.id)).toEqual(['cable', 'amp', 'amp-c']);
+    expect(loadParts({ id: 'buffer', R: 1e6, C: 0, cableC: 100e-12 }).map((p) => p.id)).toEqual(['cable', 'buffer']);
+    expect(loadParts({ id: 'low-impedance-pedal', R: 10e3, C: 0, cableC: 0 }).map((p) => p.id)).toEqual(['pedal']);
+  });
+
+  it('values left out, or not finite numbers, take their defaults', () => {
+    // 3 m at 100 pF/m (the default cable) into 1 MΩ
+    expect(loadSettingOf('amp', {})).toEqual({ id: 'amp', R: 1e6, C: 0, cableC: 3 * 100e-12 });
+    for (const bad of ['2e6', Number.NaN, Number.POSITIVE_INFINITY, null]) {
+      expect(loadSettingOf('amp', { ampR: bad, ampC: bad, cableLength: bad, cableCapPerMetre: bad })).toEqual(loadSettingOf('amp', {}));
+    }
+    expect(loadSettingOf('amp', { ampR: 2e6, ampC: 50e-12, cableLength: 5, cableCapPerMetre: 80e-12 })).toEqual({
+      id: 'amp',
+      R: 2e6,
+      C: 50e-12,
+      cableC: 5 * 80e-12,
+    });
+    expect(loadSettingOf('low-impedance-pedal', {}).R).toBe(10e3);
+  });
+
+  it('ampLoad: an amplifier input through the default cable, or the one given', () => {
+    expect(ampLoad(2e6)).toEqual({ id: 'amp', R: 2e6, C: 0, cableC: DEFAULT_CABLE.lengthM * DEFAULT_CABLE.capPerMetre });
+    expect(ampLoad(1e6, { lengthM: 2, capPerMetre: 150e-12 }).cableC).toBeCloseTo(300e-12, 24);
   });
 });
