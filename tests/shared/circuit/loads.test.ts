@@ -39,6 +39,20 @@ describe('loaded resonance of a measured pickup (harness engine)', () => {
     expect(short / long).toBeCloseTo(Math.sqrt(700 / 200), 0);
   });
 
+  it('a measured loss resistance is part of the model: the same as the independent-tone preset with that Rp', () => {
+    const withLoss = loadedResponse({ ...pickup, Rp: 150e3 });
+    const p = getPreset('independent-tone')!;
+    const values = { ...DEFAULT_HARNESS_VALUES, pickupR: 6e3, pickupL: 2.5, pickupC: 100e-12, pickupRp: 150e3 };
+    const preset = simulate(p.build(values), { volume: 10, tone: 10 }).metrics;
+    expect(withLoss.peak.levelDb).toBeCloseTo(preset.peak.levelDb, 9);
+    expect(withLoss.peak.levelDb).toBeLessThan(loadedResponse(pickup).peak.levelDb - 0.5);
+    expect(loadedResponse({ ...pickup, Rp: null }).peak.levelDb).toBe(loadedResponse(pickup).peak.levelDb);
+  });
+
+  it("a pickup the layout refuses is refused with the layout check's words", () => {
+    expect(() => loadedResponse({ ...pickup, R: -1 })).toThrow('Must be more than zero.');
+  });
+
   it('a low-impedance pedal input damps the peak away', () => {
     const m = loadedResponse(pickup, { load: 'low-impedance-pedal' });
     expect(m.peakRiseDb).toBeLessThan(1);

@@ -3,7 +3,7 @@
 // the load: cable, amplifier, pedal) is some slot's.
 import { describe, expect, test } from 'vitest';
 import { buildLayoutNetlist, LAYOUTS, resolveLayoutConfig } from '@shared/circuit/layouts';
-import { designSlots, slotPartKind, slotRefusal } from '@shared/circuit/slots';
+import { capacitorSlots, designSlots, slotPartKind, slotRefusal } from '@shared/circuit/slots';
 
 const LOAD_PARTS = new Set(['cable', 'amp', 'amp-c', 'buffer', 'pedal']);
 
@@ -71,5 +71,56 @@ describe('design slots', () => {
     const slot = designSlots(LAYOUTS.find((l) => l.id === 'two-pickups-3way')!).find((s) => s.key === 'neck.toneC')!;
     expect(slotRefusal(slot, 'capacitor')).toBeNull();
     expect(slotRefusal(slot, 'resistor')).toBe('Neck: tone capacitor (neck.toneC) takes a capacitor, not a resistor.');
+  });
+});
+
+describe('the slots of one design, as the rules in slots.ts state them', () => {
+  const nameOf = (layoutId: string, key: string) => {
+    const n = LAYOUTS.find((l) => l.id === layoutId)!.values.find((v) => v.key === key)!.name;
+    return n.charAt(0).toUpperCase() + n.slice(1);
+  };
+
+  test('one pickup, a bleed with a resistor, a tone network with a floor resistor and a second capacitor', () => {
+    const layout = LAYOUTS.find((l) => l.id === 'one-pickup')!;
+    const n = (key: string) => nameOf('one-pickup', key);
+    expect(designSlots(layout, { bleed: 'cap-series-r', toneNetwork: 'floor-and-second-cap' })).toEqual([
+      {
+        key: 'pickup',
+        name: 'Pickup',
+        accepts: 'pickup',
+        values: { resistance: 'pickupR', inductance: 'pickupL', capacitance: 'pickupC', lossResistance: 'pickupRp' },
+      },
+      { key: 'volumeR', name: n('volumeR'), accepts: 'pot', values: { resistance: 'volumeR', law: 'volumeLaw' } },
+      { key: 'bleedC', name: n('bleedC'), accepts: 'capacitor', values: { capacitance: 'bleedC' } },
+      { key: 'bleedR', name: n('bleedR'), accepts: 'resistor', values: { resistance: 'bleedR' } },
+      { key: 'toneR', name: n('toneR'), accepts: 'pot', values: { resistance: 'toneR', law: 'toneLaw' } },
+      { key: 'toneC', name: n('toneC'), accepts: 'capacitor', values: { capacitance: 'toneC' } },
+      { key: 'floorR', name: n('floorR'), accepts: 'resistor', values: { resistance: 'floorR' } },
+      { key: 'secondC', name: n('secondC'), accepts: 'capacitor', values: { capacitance: 'secondC' } },
+    ]);
+  });
+
+  test('left out, the options take their defaults: no bleed, the plain tone network', () => {
+    const layout = LAYOUTS.find((l) => l.id === 'one-pickup')!;
+    expect(designSlots(layout).map((s) => s.key)).toEqual(['pickup', 'volumeR', 'toneR', 'toneC']);
+  });
+
+  test('with several pickups each pickup slot is named by its pickup and keyed by its prefix', () => {
+    const layout = LAYOUTS.find((l) => l.id === 'two-pickups-3way')!;
+    const pickups = designSlots(layout).filter((s) => s.accepts === 'pickup');
+    expect(pickups.map((s) => [s.key, s.name, s.values.resistance])).toEqual(
+      layout.pickups.map((p) => [`${p.id}.pickup`, `${p.name} pickup`, `${p.id}.pickupR`]),
+    );
+  });
+
+  test('value keys read by their last segment; the amplifier input capacitance is a capacitor value', () => {
+    expect(slotPartKind('ampC')).toBe('capacitor');
+    expect(slotPartKind('neck.bleedR')).toBe('resistor');
+    expect(slotPartKind('cableLength')).toBeNull();
+    expect(capacitorSlots(['toneC', 'neck.bleedC', 'volumeR', 'ampC', 'cableLength', 'north.pickupC'])).toEqual([
+      'toneC',
+      'neck.bleedC',
+      'ampC',
+    ]);
   });
 });
