@@ -1,7 +1,6 @@
-import { DrizzleSQLiteAdapter } from '@lucia-auth/adapter-drizzle';
 import { Lucia, TimeSpan } from 'lucia';
 import type { Db } from '@server/db/client';
-import { sessions, users } from '@server/db/schema';
+import { SessionAdapter } from './session-adapter';
 import type { Role } from '@shared/schemas/common';
 
 export interface AuthUser {
@@ -16,7 +15,7 @@ export const SESSION_IDLE = new TimeSpan(12, 'h');
 export const SESSION_ABSOLUTE_MS = 7 * 24 * 3600 * 1000;
 
 export function createLucia(db: Db, opts: { production: boolean }) {
-  const adapter = new DrizzleSQLiteAdapter(db, sessions, users);
+  const adapter = new SessionAdapter(db);
   return new Lucia(adapter, {
     sessionExpiresIn: SESSION_IDLE,
     sessionCookie: {

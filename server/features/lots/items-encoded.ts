@@ -12,6 +12,7 @@
 import type Database from 'better-sqlite3';
 import { drizzle } from 'drizzle-orm/better-sqlite3';
 import * as schema from '@server/db/schema';
+import { statement } from '@server/db/statements';
 import { compress, type Encoding } from '@server/http/encoded';
 import { lotItemPartIdsJson } from './promoted';
 import { lotValues, type LotRow } from './repository';
@@ -21,9 +22,10 @@ export type ItemsEncoding = Encoding;
 
 /** The lot's promoted parts as they bear on its items answer (parts are never deleted; ids never reused). */
 export function promotedMark(sqlite: Database.Database, lotId: number): string {
-  const r = sqlite
-    .prepare('select count(*) as n, coalesce(max(id), 0) as last from parts where lot_id = ? and lot_item is not null')
-    .get(lotId) as { n: number; last: number };
+  const r = statement(
+    sqlite,
+    'select count(*) as n, coalesce(max(id), 0) as last from parts where lot_id = ? and lot_item is not null',
+  ).get(lotId) as { n: number; last: number };
   return `${r.n}:${r.last}`;
 }
 
@@ -44,9 +46,10 @@ export function clearLotItemsEncoded(sqlite: Database.Database, lotId: number): 
 
 /** The stored copy in that encoding when it was made from the state `key` names, else null. */
 export function readLotItemsEncoded(sqlite: Database.Database, lotId: number, key: string, encoding: ItemsEncoding): Buffer | null {
-  const row = sqlite
-    .prepare(`select items_mark as mark, ${encoding === 'br' ? 'items_br' : 'items_gzip'} as bytes from lot_stats where lot_id = ?`)
-    .get(lotId) as { mark: string | null; bytes: Buffer | null } | undefined;
+  const row = statement(
+    sqlite,
+    `select items_mark as mark, ${encoding === 'br' ? 'items_br' : 'items_gzip'} as bytes from lot_stats where lot_id = ?`,
+  ).get(lotId) as { mark: string | null; bytes: Buffer | null } | undefined;
   return row && row.mark === key && row.bytes ? row.bytes : null;
 }
 

@@ -1,13 +1,22 @@
 import type Database from 'better-sqlite3';
 import { eq, sql } from 'drizzle-orm';
 import type { DbLike } from '@server/db/client';
+import { preparedPer } from '@server/db/statements';
 import { lots, lotWatchers, users } from '@server/db/schema';
 import { lotStatistics, type LotStatistics } from '@shared/analysis/lot-stats';
 
 export type LotRow = typeof lots.$inferSelect;
 
+const lotById = preparedPer((db: DbLike) =>
+  db
+    .select()
+    .from(lots)
+    .where(eq(lots.id, sql.placeholder('id')))
+    .prepare(),
+);
+
 export function findLot(db: DbLike, id: number): LotRow | undefined {
-  return db.select().from(lots).where(eq(lots.id, id)).get();
+  return lotById(db).get({ id });
 }
 
 export function listLots(db: DbLike) {

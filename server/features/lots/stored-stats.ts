@@ -5,6 +5,7 @@
 // computed again right after it commits; a lot without a row (one from before the table existed),
 // a row of another engine version, or one computed against other limits, is computed on its next read.
 import type Database from 'better-sqlite3';
+import { statement } from '@server/db/statements';
 import { ANALYSIS_ENGINE_VERSION } from '@shared/analysis/engine-version';
 import { lotStats, lotValues, type LotRow, type LotValues } from './repository';
 
@@ -136,11 +137,10 @@ export function refreshLotStats(sqlite: Database.Database, lot: LotRow): StoredL
  * (the columns are ~9 MB for 100,000 items; the detail needs none of them); the other comes back empty.
  */
 export function readStoredLotStats(sqlite: Database.Database, lot: LotRow, part: 'detail' | 'columns'): StoredLotResults | null {
-  const row = sqlite
-    .prepare(
-      `select engine_version, nominal, tolerance_pct, tolerance_plus_pct, second_limit, count, ${part === 'detail' ? "detail, '' as columns" : "'' as detail, columns"} from lot_stats where lot_id = ?`,
-    )
-    .get(lot.id) as Row | undefined;
+  const row = statement(
+    sqlite,
+    `select engine_version, nominal, tolerance_pct, tolerance_plus_pct, second_limit, count, ${part === 'detail' ? "detail, '' as columns" : "'' as detail, columns"} from lot_stats where lot_id = ?`,
+  ).get(lot.id) as Row | undefined;
   if (
     row &&
     row.engine_version === ANALYSIS_ENGINE_VERSION &&
@@ -189,9 +189,10 @@ export class ColumnCache {
 
 /** The stored item columns' state (when they were computed, how many items), when up to date; else null. */
 export function readStoredColumnsState(sqlite: Database.Database, lot: LotRow): { count: number; computedAt: number } | null {
-  const row = sqlite
-    .prepare('select engine_version, nominal, tolerance_pct, second_limit, count, computed_at from lot_stats where lot_id = ?')
-    .get(lot.id) as (Omit<Row, 'columns' | 'detail'> & { computed_at: number }) | undefined;
+  const row = statement(
+    sqlite,
+    'select engine_version, nominal, tolerance_pct, second_limit, count, computed_at from lot_stats where lot_id = ?',
+  ).get(lot.id) as (Omit<Row, 'columns' | 'detail'> & { computed_at: number }) | undefined;
   if (
     !row ||
     row.engine_version !== ANALYSIS_ENGINE_VERSION ||

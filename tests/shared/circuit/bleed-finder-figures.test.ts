@@ -78,14 +78,18 @@ describe('the finder’s figures, from their definitions', () => {
     return { layout, config, knobs, spread, deviation, score: weight * spread + (1 - weight) * deviation, x, ref };
   }
 
-  const cases = [
-    { layoutId: 'one-pickup', options: {}, bleed: { topology: 'cap' as const, bleedC: 1.5e-9 } },
+  const cases: {
+    layoutId: string;
+    options: Record<string, string>;
+    bleed: { topology: BleedTopology; bleedC: number; bleedR?: number };
+  }[] = [
+    { layoutId: 'one-pickup', options: {}, bleed: { topology: 'cap', bleedC: 1.5e-9 } },
     {
       layoutId: 'one-pickup',
       options: { bleed: 'cap', load: 'low-impedance-pedal' },
-      bleed: { topology: 'cap-series-r' as const, bleedC: 680e-12, bleedR: 220e3 },
+      bleed: { topology: 'cap-series-r', bleedC: 680e-12, bleedR: 220e3 },
     },
-    { layoutId: 'two-pickups-3way', options: {}, bleed: { topology: 'cap-parallel-r' as const, bleedC: 1e-9, bleedR: 150e3 } },
+    { layoutId: 'two-pickups-3way', options: {}, bleed: { topology: 'cap-parallel-r', bleedC: 1e-9, bleedR: 150e3 } },
   ];
 
   for (const c of cases) {
