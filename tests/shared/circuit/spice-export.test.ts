@@ -64,7 +64,28 @@ describe('the exported netlist solves as the engine', () => {
     expect(lines).toContain('Vneck_a_2 n_neck_a_emf_2 0 DC 0 AC 0.5 180');
     expect(lines).toContain('Rneck_a_dc_2 n_neck_a_emf_2 n_n_1_2 5000');
     expect(lines).toContain('Lchoke n_mid out 0.5');
+    expect(lines).toContain('Rneck_a_dc n_neck_a_emf n_neck_a_coil 4000');
+    expect(lines).toContain('Lneck_a n_neck_a_coil n_n_1 2');
+    expect(lines).toContain('Cneck_a_self n_n_1 0 9e-11');
+    expect(lines).toContain('Rneck_a_loss n_n_1 0 400000');
+    // The ideal resistive source has no L and no C line, not lines of 0 H and 0 F.
+    expect(lines.filter((l) => /^(Lneck_a_2|Cneck_a_self_2) /.test(l))).toEqual([]);
     expect(lines.slice(-3)).toEqual(['.ac dec 50 20 20000', '.end', '']);
+  });
+
+  it('names that collide three times are numbered in order; a group named as its pickup is not repeated', () => {
+    const parts: Part[] = [
+      { kind: 'pickup', id: 'p', hot: 'x.y', cold: '0', R: 6e3, L: 2.5, C: 0, group: 'p' },
+      { kind: 'resistor', id: 'a.b', a: 'x.y', b: 'x-y', R: 1e3 },
+      { kind: 'resistor', id: 'a-b', a: 'x-y', b: 'x_y', R: 2e3 },
+      { kind: 'resistor', id: 'a_b', a: 'x_y', b: 'out', R: 3e3 },
+      { kind: 'resistor', id: 'load', a: 'out', b: '0', R: 1e6 },
+    ];
+    const lines = expectExportSolvesAsEngine({ parts }, {}).split('\n');
+    expect(lines).toContain('Ra_b n_x_y n_x_y_2 1000');
+    expect(lines).toContain('Ra_b_2 n_x_y_2 n_x_y_3 2000');
+    expect(lines).toContain('Ra_b_3 n_x_y_3 out 3000');
+    expect(lines).toContain('* pickup p: EMF in series with R and L from cold to hot, C (and Rp) across');
   });
 });
 
@@ -87,6 +108,10 @@ describe('the text', () => {
   it('refuses a netlist the engine would refuse, in its words', () => {
     const bad: Netlist = { parts: [{ kind: 'resistor', id: 'rl', a: 'out', b: '0', R: 1e6 }] };
     expect(() => toSpiceNetlist(bad, {})).toThrow('invalid harness netlist: no pickup (source) in the netlist');
+    const twoFaults: Netlist = { parts: [{ kind: 'resistor', id: 'rl', a: 'out', b: '0', R: -1 }] };
+    expect(() => toSpiceNetlist(twoFaults, {})).toThrow(
+      'invalid harness netlist: rl: R must be a positive finite number (got -1); no pickup (source) in the netlist',
+    );
   });
 
   it('numbers to 12 significant digits, without trailing zeros; never a number SPICE cannot read', () => {
@@ -97,6 +122,8 @@ describe('the text', () => {
     expect(spiceNumber(100)).toBe('100');
     expect(spiceNumber(1 / 3)).toBe('0.333333333333');
     expect(spiceNumber(2.5e12)).toBe('2.5e+12');
+    // twelve digits and no decimal point: nothing to trim
+    expect(spiceNumber(100000000000)).toBe('100000000000');
     expect(() => spiceNumber(Number.NaN)).toThrow('SPICE export: value NaN is not finite');
     expect(() => spiceNumber(Number.POSITIVE_INFINITY)).toThrow('not finite');
   });
