@@ -138,9 +138,10 @@ export const lotReadings = sqliteTable(
 
 /**
  * A lot's statistics as of its current readings and limits (server/features/lots/stored-stats.ts),
- * kept so reads do not recompute them: the detail answer (without the per-item columns) and the
- * items route's columns, both as JSON text. Deleted in the transaction that changes the readings;
- * a row of another engine version is recomputed on its next read.
+ * kept so reads do not recompute them: the detail answer (without the per-item columns) as JSON text.
+ * Deleted in the transaction that changes the readings; a row of another engine version is recomputed
+ * on its next read. The items' columns and the compressed items answer are kept in tables of their own
+ * (below): in this row, megabytes before `computed_at` made every read of the small fields walk them.
  */
 export const lotStats = sqliteTable('lot_stats', {
   lotId: integer('lot_id')
@@ -154,16 +155,29 @@ export const lotStats = sqliteTable('lot_stats', {
   secondLimit: real('second_limit'),
   count: integer('count').notNull(),
   detail: text('detail').notNull(),
-  columns: text('columns').notNull(),
   computedAt: integer('computed_at').notNull(),
-  /**
-   * The items answer (partIds and these columns) compressed once in the pool, gzip and brotli, for the
-   * lot's state `items_mark` names (computed_at, count and the promoted parts); null until made, and
-   * cleared by a promotion (server/features/lots/items-encoded.ts).
-   */
-  itemsMark: text('items_mark'),
-  itemsGzip: blob('items_gzip', { mode: 'buffer' }),
-  itemsBr: blob('items_br', { mode: 'buffer' }),
+});
+
+/** The items route's columns of a lot's stored statistics, as JSON text (~9 MB for 100,000 items). */
+export const lotStatsColumns = sqliteTable('lot_stats_columns', {
+  lotId: integer('lot_id')
+    .primaryKey()
+    .references(() => lots.id, { onDelete: 'cascade' }),
+  columns: text('columns').notNull(),
+});
+
+/**
+ * The items answer (partIds and the stored columns) compressed once in the pool, gzip and brotli, for
+ * the lot's state `mark` names (computed_at, count and the promoted parts); deleted by an upload, a
+ * refresh of the statistics and a promotion (server/features/lots/items-encoded.ts).
+ */
+export const lotItemsEncoded = sqliteTable('lot_items_encoded', {
+  lotId: integer('lot_id')
+    .primaryKey()
+    .references(() => lots.id, { onDelete: 'cascade' }),
+  mark: text('mark').notNull(),
+  gzip: blob('gzip', { mode: 'buffer' }).notNull(),
+  br: blob('br', { mode: 'buffer' }).notNull(),
 });
 
 export const lotWatchers = sqliteTable(

@@ -90,10 +90,9 @@ async function expectEncodedEqualsPlain(lotId: number): Promise<Buffer> {
   return plain.body;
 }
 
-/** The copy kept in lot_stats: the state it was made from, or null. */
+/** The copy kept in lot_items_encoded: the state it was made from, or null. */
 const keptMark = (lotId: number) =>
-  (t.ctx.sqlite.prepare('select items_mark as m from lot_stats where lot_id = ?').get(lotId) as { m: string | null } | undefined)?.m ??
-  null;
+  (t.ctx.sqlite.prepare('select mark as m from lot_items_encoded where lot_id = ?').get(lotId) as { m: string } | undefined)?.m ?? null;
 
 async function newLot(): Promise<number> {
   const res = await (await t.as('qa')).post('/api/lots').send({ kind: 'capacitor', marking: '473J' });

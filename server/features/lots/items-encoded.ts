@@ -1,12 +1,12 @@
 // The lot's items answer (GET /api/lots/:id/items: partIds, then the stored item columns; ~9 MB of JSON
 // for 100,000 items) compressed once, gzip and brotli, in a pool worker (server/pool/tasks.ts
-// `lotItemsEncode`), and kept in lot_stats beside the columns it was made from. The route sends the copy
+// `lotItemsEncode`), and kept in lot_items_encoded beside the columns it was made from. The route sends the copy
 // the client accepts as it is (Content-Encoding, Content-Length), so the compression middleware leaves it
 // alone and the request thread never compresses megabytes.
 //
 // A copy is named by the state it was made from (`itemsKey`: the stored columns' computed_at and count,
-// and the lot's promoted parts): an upload or a replace deletes the lot_stats row with it, a refresh of
-// the statistics writes the row anew without it, and a promotion clears it (`clearLotItemsEncoded`, in the
+// and the lot's promoted parts): an upload or a replace deletes it with the stored statistics, a refresh
+// of the statistics deletes it, and a promotion deletes it (`clearLotItemsEncoded`, in the
 // promotion's transaction). Whatever clears it, a copy of another state is never sent: the route compares
 // the key it read with the copy's.
 import type Database from 'better-sqlite3';
@@ -41,15 +41,14 @@ export function itemsAnswerParts(partIdsJson: string, columns: Buffer): [Buffer,
 
 /** Forget a lot's compressed copies; call inside the transaction that promotes its items. */
 export function clearLotItemsEncoded(sqlite: Database.Database, lotId: number): void {
-  sqlite.prepare('update lot_stats set items_mark = null, items_gzip = null, items_br = null where lot_id = ?').run(lotId);
+  statement(sqlite, 'delete from lot_items_encoded where lot_id = ?').run(lotId);
 }
 
 /** The stored copy in that encoding when it was made from the state `key` names, else null. */
 export function readLotItemsEncoded(sqlite: Database.Database, lotId: number, key: string, encoding: ItemsEncoding): Buffer | null {
-  const row = statement(
-    sqlite,
-    `select items_mark as mark, ${encoding === 'br' ? 'items_br' : 'items_gzip'} as bytes from lot_stats where lot_id = ?`,
-  ).get(lotId) as { mark: string | null; bytes: Buffer | null } | undefined;
+  const row = statement(sqlite, `select mark, ${encoding === 'br' ? 'br' : 'gzip'} as bytes from lot_items_encoded where lot_id = ?`).get(
+    lotId,
+  ) as { mark: string | null; bytes: Buffer | null } | undefined;
   return row && row.mark === key && row.bytes ? row.bytes : null;
 }
 
@@ -86,7 +85,9 @@ export function encodeLotItems(sqlite: Database.Database, lotId: number): Encode
   const db = drizzle(sqlite, { schema });
   const read = sqlite.transaction(() => {
     const row = sqlite
-      .prepare('select computed_at as computedAt, count, cast(columns as blob) as columns from lot_stats where lot_id = ?')
+      .prepare(
+        'select s.computed_at as computedAt, s.count, cast(c.columns as blob) as columns from lot_stats s join lot_stats_columns c on c.lot_id = s.lot_id where s.lot_id = ?',
+      )
       .get(lotId) as { computedAt: number; count: number; columns: Buffer } | undefined;
     if (!row) return null;
     return { key: itemsKey(sqlite, lotId, row), parts: itemsAnswerParts(lotItemPartIdsJson(db, sqlite, lotId, row.count), row.columns) };
@@ -100,7 +101,11 @@ export function encodeLotItems(sqlite: Database.Database, lotId: number): Encode
       const now = sqlite.prepare('select computed_at as computedAt, count from lot_stats where lot_id = ?').get(lotId) as
         { computedAt: number; count: number } | undefined;
       if (!now || itemsKey(sqlite, lotId, now) !== read.key) return false;
-      sqlite.prepare('update lot_stats set items_mark = ?, items_gzip = ?, items_br = ? where lot_id = ?').run(read.key, gzip, br, lotId);
+      sqlite
+        .prepare(
+          'insert into lot_items_encoded (lot_id, mark, gzip, br) values (?, ?, ?, ?) on conflict (lot_id) do update set mark = excluded.mark, gzip = excluded.gzip, br = excluded.br',
+        )
+        .run(lotId, read.key, gzip, br);
       return true;
     })
     .immediate();

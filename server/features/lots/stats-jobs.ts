@@ -41,7 +41,7 @@ export async function computeMissingLotStats(ctx: AppContext): Promise<number> {
     if (!lot) continue;
     if (readStoredLotStats(ctx.sqlite, lot, 'detail')) {
       // Statistics kept before their compressed items answer was (an older version): made now.
-      const missing = ctx.sqlite.prepare('select items_mark is null as missing from lot_stats where lot_id = ?').pluck().get(id);
+      const missing = !ctx.sqlite.prepare('select 1 from lot_items_encoded where lot_id = ?').pluck().get(id);
       if (missing) await jobs.encode(lot.id).catch(() => null);
       continue;
     }
@@ -122,7 +122,7 @@ function makeLotStatsJobs(ctx: AppContext) {
     },
     /**
      * The items answer for the stored columns read (`stored`), compressed in `enc`: from memory, else from
-     * lot_stats, else made in the pool (the request waits for it). Null when none of that state can be had
+     * lot_items_encoded, else made in the pool (the request waits for it). Null when none of that state can be had
      * (the pool busy, or the lot changed meanwhile): the route then sends the answer uncompressed.
      */
     async encodedItems(lotId: number, stored: { computedAt: number; count: number }, enc: ItemsEncoding): Promise<Buffer | null> {

@@ -1,5 +1,5 @@
 // A lot's statistics, matched sets and per-item columns, computed once when its readings change and
-// kept in lot_stats, so the detail and items routes send stored JSON instead of recomputing
+// kept (lot_stats; the columns in lot_stats_columns), so the detail and items routes send stored JSON instead of recomputing
 // (a 100,000-item lot costs ~150–230 ms of statistics and matched sets per read otherwise).
 // The row is deleted in the transaction that changes the readings (an upload or a replace) and
 // computed again right after it commits; a lot without a row (one from before the table existed),
@@ -77,9 +77,13 @@ interface Row {
   columns: string;
 }
 
-/** Forget a lot's stored results; call inside the transaction that changes its readings. */
+/**
+ * Forget a lot's stored results (the statistics, the items' columns and the compressed items answer);
+ * call inside the transaction that changes its readings.
+ */
 export function invalidateLotStats(sqlite: Database.Database, lotId: number): void {
-  sqlite.prepare('delete from lot_stats where lot_id = ?').run(lotId);
+  for (const table of ['lot_items_encoded', 'lot_stats_columns', 'lot_stats'])
+    statement(sqlite, `delete from ${table} where lot_id = ?`).run(lotId);
 }
 
 /** What identifies a lot's readings: an upload or a replace changes the count or the last row id. */
@@ -106,12 +110,11 @@ export function refreshLotStats(sqlite: Database.Database, lot: LotRow): StoredL
       if (readingsMark(sqlite, lot.id) !== read.mark) return false;
       sqlite
         .prepare(
-          `insert into lot_stats (lot_id, engine_version, nominal, tolerance_pct, tolerance_plus_pct, second_limit, count, detail, columns, computed_at)
-       values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)
+          `insert into lot_stats (lot_id, engine_version, nominal, tolerance_pct, tolerance_plus_pct, second_limit, count, detail, computed_at)
+       values (?, ?, ?, ?, ?, ?, ?, ?, ?)
        on conflict (lot_id) do update set engine_version = excluded.engine_version, nominal = excluded.nominal,
          tolerance_pct = excluded.tolerance_pct, tolerance_plus_pct = excluded.tolerance_plus_pct, second_limit = excluded.second_limit, count = excluded.count,
-         detail = excluded.detail, columns = excluded.columns, computed_at = excluded.computed_at,
-         items_mark = null, items_gzip = null, items_br = null`,
+         detail = excluded.detail, computed_at = excluded.computed_at`,
         )
         .run(
           lot.id,
@@ -122,9 +125,15 @@ export function refreshLotStats(sqlite: Database.Database, lot: LotRow): StoredL
           lot.secondLimit,
           stored.count,
           stored.statsJson,
-          stored.columnsJson,
           Date.now(),
         );
+      sqlite
+        .prepare(
+          'insert into lot_stats_columns (lot_id, columns) values (?, ?) on conflict (lot_id) do update set columns = excluded.columns',
+        )
+        .run(lot.id, stored.columnsJson);
+      // The compressed copy described the results replaced here.
+      sqlite.prepare('delete from lot_items_encoded where lot_id = ?').run(lot.id);
       return true;
     })
     .immediate();
@@ -139,7 +148,10 @@ export function refreshLotStats(sqlite: Database.Database, lot: LotRow): StoredL
 export function readStoredLotStats(sqlite: Database.Database, lot: LotRow, part: 'detail' | 'columns'): StoredLotResults | null {
   const row = statement(
     sqlite,
-    `select engine_version, nominal, tolerance_pct, tolerance_plus_pct, second_limit, count, ${part === 'detail' ? "detail, '' as columns" : "'' as detail, columns"} from lot_stats where lot_id = ?`,
+    part === 'detail'
+      ? "select engine_version, nominal, tolerance_pct, tolerance_plus_pct, second_limit, count, detail, '' as columns from lot_stats where lot_id = ?"
+      : `select s.engine_version, s.nominal, s.tolerance_pct, s.tolerance_plus_pct, s.second_limit, s.count, '' as detail, c.columns
+         from lot_stats s join lot_stats_columns c on c.lot_id = s.lot_id where s.lot_id = ?`,
   ).get(lot.id) as Row | undefined;
   if (
     row &&
@@ -207,8 +219,10 @@ export function readStoredColumnsState(sqlite: Database.Database, lot: LotRow): 
 
 /** The stored item columns as the bytes of their JSON text, as kept (no string made of ~9 MB); null without a row. */
 export function readColumnBytes(sqlite: Database.Database, lotId: number): { count: number; computedAt: number; bytes: Buffer } | null {
-  const read = sqlite.prepare('select count, computed_at, cast(columns as blob) as columns from lot_stats where lot_id = ?').get(lotId) as
-    { count: number; computed_at: number; columns: Buffer } | undefined;
+  const read = statement(
+    sqlite,
+    'select s.count, s.computed_at, cast(c.columns as blob) as columns from lot_stats s join lot_stats_columns c on c.lot_id = s.lot_id where s.lot_id = ?',
+  ).get(lotId) as { count: number; computed_at: number; columns: Buffer } | undefined;
   return read ? { count: read.count, computedAt: read.computed_at, bytes: read.columns } : null;
 }
 
