@@ -132,6 +132,9 @@ describe('the load table', () => {
       cableC: 5 * 80e-12,
     });
     expect(loadSettingOf('low-impedance-pedal', {}).R).toBe(10e3);
+    // One of the two cable values given, the other its default: 5 m at 100 pF/m, 2 m of 150 pF/m.
+    expect(loadSettingOf('amp', { cableLength: 5 }).cableC).toBeCloseTo(500e-12, 24);
+    expect(loadSettingOf('buffer', { cableCapPerMetre: 150e-12 }).cableC).toBeCloseTo(450e-12, 24);
   });
 
   it('ampLoad: an amplifier input through the default cable, or the one given', () => {
