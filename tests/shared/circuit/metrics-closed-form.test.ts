@@ -102,6 +102,8 @@ describe('response figures against the closed form of a pickup into C ∥ Rl', (
     const divider = 20 * Math.log10(1000 / 4000);
     s.magnitudeDb.forEach((x) => expect(x).toBeCloseTo(divider, 12));
     expect(s.metrics.peak.interior).toBe(false);
+    // Every point is as high as the first: the first is the peak.
+    expect(s.metrics.peak.frequency).toBe(20);
     expect(s.metrics.peakRiseDb).toBeCloseTo(0, 12);
     expect(s.metrics.cornerHz).toBeNull();
   });
