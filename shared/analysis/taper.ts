@@ -160,7 +160,7 @@ function ssrOf(law: TaperLawKind, m: number, x: number[], y: number[]): number {
 }
 
 /** Brent's bounded minimisation of f on [a, b] (Brent 1973, ch. 5, "localmin"). */
-function brentMinimise(f: (t: number) => number, lo: number, hi: number, tol: number): { t: number; value: number } {
+export function brentMinimise(f: (t: number) => number, lo: number, hi: number, tol: number): { t: number; value: number } {
   const golden = (3 - Math.sqrt(5)) / 2;
   let a = lo;
   let b = hi;
