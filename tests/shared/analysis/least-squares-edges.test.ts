@@ -110,6 +110,60 @@ describe('fitLeastSquares: weights, degrees of freedom and covariance', () => {
   });
 });
 
+describe('fitLeastSquares: stationary starts, a lower bound and a model that is not finite', () => {
+  it('started at the closed-form solution it is already stationary: converged with no iterations', () => {
+    const ref = lineFit(
+      X,
+      Y,
+      X.map(() => 1),
+    );
+    const r = fitLeastSquares({ observed: Y, model: line, initial: [ref.a, ref.b] });
+    expect(r.converged).toBe(true);
+    expect(r.iterations).toBe(0);
+    expect(r.gradientCosine).toBeLessThan(1e-9);
+  });
+
+  it('an exact fit has no residual, so its gradient cosine is 0 (not 0/0)', () => {
+    const r = fitLeastSquares({ observed: [0, 0, 0], model: (p) => (i) => p[0]! * i, initial: [0] });
+    expect(r.ssr).toBe(0);
+    expect(r.gradientCosine).toBe(0);
+    expect(r.converged).toBe(true);
+  });
+
+  it('a lower bound above the free optimum holds the slope at the bound', () => {
+    const r = fitLeastSquares({ observed: Y, model: line, initial: [0, 3], min: [-Infinity, 2.5], max: [Infinity, Infinity] });
+    expect(r.params[1]!).toBeCloseTo(2.5, 9);
+    expect(
+      lineFit(
+        X,
+        Y,
+        X.map(() => 1),
+      ).b,
+    ).toBeLessThan(2.1);
+  });
+
+  it('fewer points than parameters: negative degrees of freedom give no s² and no covariance', () => {
+    const r = fitLeastSquares({ observed: [5], model: (p) => () => p[0]! + p[1]!, initial: [0, 0] });
+    expect(r.dof).toBe(-1);
+    expect(r.sigma2).toBeNaN();
+    expect(r.covariance).toBeNull();
+  });
+
+  it('a model that is not finite away from the start: a few heavier-damped retries, then it gives up well inside the budget', () => {
+    const r = fitLeastSquares({
+      observed: [1, 2, 3, 4],
+      initial: [1, 2],
+      model: (p) => (i) => (p[0] === 1 && p[1] === 2 ? p[0] + p[1] * i : NaN),
+    });
+    expect(r.converged).toBe(false);
+    expect(r.params).toEqual([1, 2]);
+    // SSR at the start: residuals 0, −1, −2, −3.
+    expect(r.ssr).toBe(14);
+    expect(r.iterations).toBeGreaterThan(0);
+    expect(r.iterations).toBeLessThan(100);
+  });
+});
+
 describe('invertSpd against the cofactor inverse', () => {
   it('a 3 × 3 symmetric positive-definite matrix, and one with diagonal entries 1e-4…1e8 apart', () => {
     const inv3 = (m: number[][]) => {
@@ -136,6 +190,16 @@ describe('invertSpd against the cofactor inverse', () => {
       const ref = inv3(a);
       for (let i = 0; i < 3; i++) for (let j = 0; j < 3; j++) expect(rel(got[i]![j]!, ref[i]![j]!)).toBeLessThan(1e-12);
     }
+  });
+
+  it('scales to unit diagonal first: a well-conditioned matrix with entries near 1e-10 is inverted', () => {
+    const got = invertSpd([
+      [2e-10, 1e-10],
+      [1e-10, 2e-10],
+    ])!;
+    // Inverse of [[2, 1], [1, 2]]·1e-10 is [[2, −1], [−1, 2]]/3·1e10 (cofactors).
+    expect(rel(got[0]![0]!, (2 / 3) * 1e10)).toBeLessThan(1e-12);
+    expect(rel(got[0]![1]!, (-1 / 3) * 1e10)).toBeLessThan(1e-12);
   });
 
   it('null for a zero or negative diagonal entry and for a singular or indefinite matrix', () => {
