@@ -89,6 +89,10 @@ describe('fitLeastSquares: weights, degrees of freedom and covariance', () => {
     expect(r.sigma2).toBeNaN();
     expect(r.covariance).toBeNull();
     expect(r.stderr.every((v) => Number.isNaN(v))).toBe(true);
+    // Also when the points cannot be met (y = p² against −1): SSR > 0 with no degrees of freedom.
+    const unmet = fitLeastSquares({ observed: [-1, -1], model: (p) => (i) => p[i]! ** 2, initial: [1, 1] });
+    expect(unmet.ssr).toBeGreaterThan(1.9);
+    expect(unmet.sigma2).toBeNaN();
   });
 
   it('a parameter with no effect makes JᵀJ singular: not converged, no covariance', () => {
@@ -96,6 +100,8 @@ describe('fitLeastSquares: weights, degrees of freedom and covariance', () => {
     expect(r.converged).toBe(false);
     expect(r.covariance).toBeNull();
     expect(r.stderr.every((v) => Number.isNaN(v))).toBe(true);
+    // The dead column is left out of the gradient test (its cosine would be 0/0).
+    expect(r.gradientCosine).toBeLessThan(1e-6);
   });
 
   it('an upper bound below the free optimum holds the slope at the bound', () => {
@@ -117,9 +123,13 @@ describe('fitLeastSquares: stationary starts, a lower bound and a model that is 
       Y,
       X.map(() => 1),
     );
-    const r = fitLeastSquares({ observed: Y, model: line, initial: [ref.a, ref.b] });
+    const initial = [ref.a, ref.b];
+    const r = fitLeastSquares({ observed: Y, model: line, initial });
     expect(r.converged).toBe(true);
     expect(r.iterations).toBe(0);
+    // The result is a copy: changing it leaves the caller's start alone.
+    r.params[0] = 99;
+    expect(initial).toEqual([ref.a, ref.b]);
     expect(r.gradientCosine).toBeLessThan(1e-9);
   });
 
