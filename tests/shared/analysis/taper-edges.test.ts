@@ -268,3 +268,61 @@ describe('fitTaper: values at their edges', () => {
     expect(fit.candidates[0]!.rmsPct).toBeCloseTo(Math.sqrt(ssrLin / 11) * 100, 10);
   });
 });
+
+describe('fitTaper: readings that are missing or not finite, and the law checks', () => {
+  it('an R13 column with a reading that is not finite: the mean of the others', () => {
+    const n = normaliseTaper({
+      points: [
+        { rotation: 0, resistance: 0, total: 99_000 },
+        { rotation: 100, resistance: 30_000, total: Number.NaN },
+        { rotation: 200, resistance: 60_000, total: 101_000 },
+      ],
+      rotationUnit: 'deg',
+    });
+    expect(n.totalSource).toBe('sweep-r13');
+    expect(n.total).toBe(100_000);
+  });
+
+  it('a last reading whose RW3 is not finite falls back to R13 − R1W; with no end reading and a high start, only the start is named', () => {
+    const pts = sweep('linear', 0.5, 11, 100_000).map((p) => ({ ...p, total: 100_000 }));
+    const last = pts.length - 1;
+    const nanEnd = pts.map((p, i) => (i === last ? { ...p, resistance: 99_400, resistanceW3: Number.NaN } : p));
+    expect(fitTaper({ points: nanEnd, rotationUnit: 'deg' }).endResistance.end).toBe(600);
+    // Full rotation from the sweep itself: the end resistance is unknown (null) and not reported.
+    const noEnd = sweep('linear', 0.5, 11, 100_000).map((p, i) => (i === 0 ? { ...p, resistance: 3000 } : p));
+    const fit = fitTaper({ points: noEnd, rotationUnit: 'deg', profile: { maxEndResistance: 1000 } });
+    expect(fit.endResistance.end).toBeNull();
+    expect(flag(fit, 'end-resistance-high')).toBe('End resistance too high (start 3 kΩ; limit 1 kΩ).');
+  });
+
+  it('the half-sum mismatch skips a first reading whose RW3 is not finite, and is 0 (not null) when the halves add up exactly', () => {
+    const pts: TaperPoint[] = [
+      { rotation: 0, resistance: 0, resistanceW3: Number.NaN, total: 100_000 },
+      { rotation: 150, resistance: 50_000, resistanceW3: 50_300, total: 100_000 },
+      { rotation: 300, resistance: 100_000, total: 100_000 },
+    ];
+    expect(fitTaper({ points: pts, rotationUnit: 'deg' }).halfSumMismatch).toBe(300);
+    const exact = pts.map((p) => ({ ...p, resistanceW3: 100_000 - p.resistance }));
+    expect(fitTaper({ points: exact, rotationUnit: 'deg' }).halfSumMismatch).toBe(0);
+  });
+
+  it('the largest residual of the reported law, in % of R13 (here linear, worked by hand)', () => {
+    // Readings 0, 30 %, 45 %, 80 %, 100 % at 0, 25 %, 50 %, 75 %, 100 % rotation; linear residuals 0, 5, −5, 5, 0 %.
+    const pts = [0, 30_000, 45_000, 80_000, 100_000].map((resistance, i) => ({ rotation: 75 * i, resistance }));
+    const fit = fitTaper({ points: pts, rotationUnit: 'deg', forceLaw: 'linear' });
+    expect(fit.maxPct).toBeCloseTo(5, 9);
+    expect(fit.rmsPct).toBeCloseTo(Math.sqrt((3 * 25) / 5), 9);
+  });
+
+  it('exact two-segment readings: SSR 0 for that law, so it is chosen over linear; audio-any accepts it, a reverse profile does not', () => {
+    // m = 0.25: y = 2·0.25·x up to one half, then 0.25 + 1.5·(x − 0.5): 0, 12.5, 25, 62.5, 100 % (by hand).
+    const pts = [0, 12_500, 25_000, 62_500, 100_000].map((resistance, i) => ({ rotation: 75 * i, resistance }));
+    const fit = fitTaper({ points: pts, rotationUnit: 'deg', profile: { law: 'audio-any' } });
+    expect(fit.law).toBe('two-segment');
+    expect(fit.m).toBe(0.25);
+    expect(fit.rmsPct).toBe(0);
+    expect(fit.flags).toEqual([]);
+    expect(codes(fitTaper({ points: pts, rotationUnit: 'deg', profile: { law: 'reverse' } }))).toEqual(['law-outside-profile']);
+    expect(codes(fitTaper({ points: pts, rotationUnit: 'deg', profile: { law: 'two-segment' } }))).toEqual([]);
+  });
+});
