@@ -326,3 +326,24 @@ describe('fitTaper: readings that are missing or not finite, and the law checks'
     expect(codes(fitTaper({ points: pts, rotationUnit: 'deg', profile: { law: 'two-segment' } }))).toEqual([]);
   });
 });
+
+describe('fitTaper: the F test with the degrees of freedom of the actual readings', () => {
+  it('five readings whose F lies between the 99.9 % points of F(1, 6) and F(1, 4): linear', () => {
+    // An audio law with m = 0.42 plus ±3 % of R13 at the inner readings (made up for the test).
+    const pts = [0, 1, 2, 3, 4].map((i) => ({
+      rotation: 75 * i,
+      resistance: 100_000 * (taperLawValue('audio', 0.42, i / 4) + [0, 0.03, -0.03, 0.03, 0][i]!),
+    }));
+    const fit = fitTaper({ points: pts, rotationUnit: 'deg' });
+    // F = (SSR_lin − SSR_best)/(SSR_best/(n − 1)) from the candidates' RMS (SSR = n·RMS²).
+    const ssr = fit.candidates.map((c) => 5 * (c.rmsPct / 100) ** 2);
+    const best = Math.min(...ssr.slice(1));
+    const F = (ssr[0]! - best) / (best / 4);
+    // 99.9 % points: F(1, 4) = 74.14, F(1, 6) = 35.51 (published F tables, from memory; taper.test.ts
+    // checks fCritical against the table).
+    // The case separates n − 1 from n + 1 degrees of freedom: with 6 the same data give F·6/4, above 35.51.
+    expect((F * 6) / 4).toBeGreaterThan(35.51);
+    expect(F).toBeLessThan(74.14);
+    expect(fit.law).toBe('linear');
+  });
+});
