@@ -14,6 +14,7 @@ import {
   normalisedCurve,
   rotationGrid,
   taperDistanceDb,
+  volumeNetlist,
   type ComparePot,
 } from '@shared/analysis/compare';
 
@@ -80,11 +81,14 @@ describe('interpolateOnGrid', () => {
 
   it('a grid point within 1e-9 of the measured range is inside it; further out it is empty', () => {
     const c = { x: [0.2, 0.8], y: [0.2, 0.8] };
-    const y = interpolateOnGrid(c, [0.2 - 5e-10, 0.2 - 1e-8, 0.8 + 5e-10, 0.8 + 1e-8]);
+    const y = interpolateOnGrid(c, [0.2 - 5e-10, 0.2 - 1e-8, 0.8 + 5e-10, 0.8 + 1e-8, 0.2 - 1e-9, 0.8 + 1e-9]);
     expect(y[0]).toBeCloseTo(0.2, 12);
     expect(y[1]).toBeNull();
     expect(y[2]).toBeCloseTo(0.8, 12);
     expect(y[3]).toBeNull();
+    // Exactly 1e-9 outside (the same floating-point sums) is still inside.
+    expect(y[4]).toBeCloseTo(0.2, 12);
+    expect(y[5]).toBeCloseTo(0.8, 12);
   });
 
   it('one reading gives its value at its own rotation only; no reading gives nothing', () => {
@@ -117,6 +121,10 @@ describe('curveEnvelope', () => {
     expect(env.lower2Sd[1]).toBeNull();
     expect(env.min[2]).toBe(0.4);
     expect(env.max[2]).toBe(0.4);
+    // A grid point where no curve has a value: nothing at all there.
+    const empty = curveEnvelope([[null, 1]], 2);
+    expect(empty.n).toEqual([0, 1]);
+    expect([empty.mean[0], empty.min[0], empty.max[0], empty.lower2Sd[0], empty.upper2Sd[0]]).toEqual([null, null, null, null, null]);
   });
 });
 
@@ -188,6 +196,21 @@ describe('taperDistanceDb and matchLoadedTapers', () => {
     expect(matchLoadedTapers([[-70], [-90]], { toleranceDb: 1, setSize: 2, floorDb: -80 })).toEqual([]);
   });
 
+  it('the spread of a set of four is its largest pairwise distance, even when the last member added is close to all', () => {
+    // Two-point curves (dB): the distance is the larger |difference| of the two points. 1 and 2 are
+    // 0.4 from 0 and 0.8 apart; 3 is 0.45 from each of 0, 1 and 2 (all by hand).
+    const curves = [
+      [0, 0],
+      [0.4, 0],
+      [-0.4, 0],
+      [0, 0.45],
+    ];
+    let widest = 0;
+    for (let i = 0; i < 4; i++) for (let j = i + 1; j < 4; j++) widest = Math.max(widest, taperDistanceDb(curves[i]!, curves[j]!));
+    expect(widest).toBeCloseTo(0.8, 14);
+    expect(matchLoadedTapers(curves, { toleranceDb: 1, setSize: 4 })).toEqual([{ indices: [0, 1, 2, 3], spreadDb: widest }]);
+  });
+
   it('equally tight sets: the one with the lower seed first; neighbours at equal distance taken by index', () => {
     expect(matchLoadedTapers([[4], [4.25], [0], [0.25]], { toleranceDb: 1, setSize: 2 }).map((s) => s.indices)).toEqual([
       [0, 1],
@@ -195,5 +218,27 @@ describe('taperDistanceDb and matchLoadedTapers', () => {
     ]);
     // Seed 0 has two neighbours at 0.5 (1 and 2): the lower index joins.
     expect(matchLoadedTapers([[0], [0.5], [-0.5]], { toleranceDb: 0.6, setSize: 2 })[0]).toEqual({ indices: [0, 1], spreadDb: 0.5 });
+  });
+});
+
+describe('volumeNetlist', () => {
+  it('the pickup across hot and ground, the volume pot from ground (lug 1) over hot (lug 3) with its wiper at the output, then the load', () => {
+    const net = volumeNetlist(
+      { R: 6000, L: 2.5, C: 100e-12 },
+      { R: 250e3, law: { kind: 'linear' } },
+      { id: 'amp', R: 1e6, C: 0, cableC: 500e-12 },
+    );
+    expect(net.title).toBe('Loaded volume taper');
+    expect(net.parts.slice(0, 2)).toEqual([
+      { kind: 'pickup', id: 'pickup', hot: 'hot', cold: '0', R: 6000, L: 2.5, C: 100e-12 },
+      { kind: 'pot', id: 'volume', a: '0', b: 'hot', w: 'out', R: 250e3, law: { kind: 'linear' }, knob: 'volume' },
+    ]);
+    // A parallel loss is carried only when there is one.
+    const lossy = volumeNetlist(
+      { R: 6000, L: 2.5, C: 100e-12, Rp: 2e5 },
+      { R: 250e3, law: { kind: 'linear' } },
+      { id: 'amp', R: 1e6, C: 0, cableC: 0 },
+    );
+    expect(lossy.parts[0]).toMatchObject({ Rp: 2e5 });
   });
 });
