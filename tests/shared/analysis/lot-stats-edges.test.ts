@@ -20,6 +20,7 @@ describe('input checks and their messages', () => {
     for (const t of [
       { tolerancePct: Number.NaN },
       { tolerancePct: 5, tolerancePlusPct: Infinity },
+      { tolerancePct: Infinity, tolerancePlusPct: 5 },
       { tolerancePct: -1, tolerancePlusPct: 5 },
       { tolerancePct: 5, tolerancePlusPct: -1 },
     ])
