@@ -216,6 +216,16 @@ function startFromData(samples: Sample[]): { R: number; L: number; C: number; Rp
   return { R, L, C, Rp, peakIndex };
 }
 
+/**
+ * The fit's starting values (docs/computation.md §4) for a sweep with at least one point of positive
+ * frequency: R from the real part at the lowest frequency, L from Im Z/ω below a third of the peak
+ * with the (1 − (f/f0)²) correction, C from the peak's frequency, Rp from the peak's height.
+ */
+export function coilStartValues(points: CoilPoint[]): { R: number; L: number; C: number; Rp: number } {
+  const { R, L, C, Rp } = startFromData(toSamples(points));
+  return { R, L, C, Rp };
+}
+
 interface RawFit {
   theta: number[];
   ssr: number;
