@@ -1,8 +1,5 @@
 // Saved designs from before the layouts (a preset and its values) open after the migration as the
 // one-pickup layout with the preset's options, on a populated database.
-import fs from 'node:fs';
-import os from 'node:os';
-import path from 'node:path';
 import Database from 'better-sqlite3';
 import { drizzle } from 'drizzle-orm/better-sqlite3';
 import { afterAll, expect, test } from 'vitest';
@@ -11,22 +8,9 @@ import * as schema from '@server/db/schema';
 import { buildLayoutNetlist, getLayout, PRESET_AS_LAYOUT, resolveLayoutConfig } from '@shared/circuit/layouts';
 import { simulate, simulateInstrument } from '@shared/circuit/metrics';
 import { getPreset, HARNESS_PRESETS, type HarnessValues } from '@shared/circuit/presets';
+import { migrationsUpTo, removeMigrationCopies } from '../../support/migrations';
 
-const dirs: string[] = [];
-afterAll(() => dirs.forEach((d) => fs.rmSync(d, { recursive: true, force: true })));
-
-/** The committed migrations up to and including `lastTag`. */
-function migrationsUpTo(lastTag: string): string {
-  const folder = fs.mkdtempSync(path.join(os.tmpdir(), 'lugbook-designs-'));
-  dirs.push(folder);
-  fs.cpSync(MIGRATIONS_DIR, folder, { recursive: true });
-  const journalFile = path.join(folder, 'meta', '_journal.json');
-  const journal = JSON.parse(fs.readFileSync(journalFile, 'utf8'));
-  const end = journal.entries.findIndex((e: { tag: string }) => e.tag === lastTag);
-  journal.entries = journal.entries.slice(0, end + 1);
-  fs.writeFileSync(journalFile, JSON.stringify(journal));
-  return folder;
-}
+afterAll(removeMigrationCopies);
 
 test('designs saved with a preset become the one-pickup layout with the same network', () => {
   const sqlite = new Database(':memory:');

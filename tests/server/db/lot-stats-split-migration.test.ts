@@ -1,27 +1,14 @@
 // Migration 0013 moves a lot's stored item columns and its compressed items answer out of lot_stats into
 // tables of their own (lot_stats_columns, lot_items_encoded): every stored value arrives unchanged, a row
 // without a compressed copy gets none, and lot_stats keeps its small fields.
-import fs from 'node:fs';
-import os from 'node:os';
-import path from 'node:path';
 import Database from 'better-sqlite3';
 import { drizzle } from 'drizzle-orm/better-sqlite3';
-import { expect, test } from 'vitest';
+import { afterAll, expect, test } from 'vitest';
 import { applyMigrations, MIGRATIONS_DIR } from '@server/db/client';
 import * as schema from '@server/db/schema';
+import { migrationsUpTo, removeMigrationCopies } from '../../support/migrations';
 
-/** A migrations folder holding the journal up to and including `tag`. */
-function migrationsUpTo(tag: string): string {
-  const folder = fs.mkdtempSync(path.join(os.tmpdir(), 'lugbook-migrations-'));
-  fs.cpSync(MIGRATIONS_DIR, folder, { recursive: true });
-  const journalFile = path.join(folder, 'meta', '_journal.json');
-  const journal = JSON.parse(fs.readFileSync(journalFile, 'utf8')) as { entries: { tag: string }[] };
-  const end = journal.entries.findIndex((e) => e.tag === tag);
-  expect(end).toBeGreaterThanOrEqual(0);
-  journal.entries = journal.entries.slice(0, end + 1);
-  fs.writeFileSync(journalFile, JSON.stringify(journal));
-  return folder;
-}
+afterAll(removeMigrationCopies);
 
 test('stored columns and compressed copies move to their tables unchanged', () => {
   const sqlite = new Database(':memory:');

@@ -13,6 +13,9 @@ import { applyMigrations, MIGRATIONS_DIR, openDatabase } from '@server/db/client
 import * as schema from '@server/db/schema';
 import { seedDemo } from '@server/demo/seed';
 import { lawValue, type TaperLaw } from '@shared/taper/law';
+import { migrationsUpTo, removeMigrationCopies } from '../../support/migrations';
+
+afterAll(removeMigrationCopies);
 
 const dirs: string[] = [];
 const tempDir = () => {
@@ -99,19 +102,6 @@ describe('migrations keep every row', () => {
   });
 });
 
-/** The committed migrations up to and including `tag`, as a database that has not had the later ones saw them. */
-function foldersUpTo(tag: string): string {
-  const folder = tempDir();
-  fs.cpSync(MIGRATIONS_DIR, folder, { recursive: true });
-  const journalFile = path.join(folder, 'meta', '_journal.json');
-  const journal = JSON.parse(fs.readFileSync(journalFile, 'utf8')) as { entries: { tag: string }[] };
-  const last = journal.entries.findIndex((e) => e.tag === tag);
-  expect(last).toBeGreaterThanOrEqual(0);
-  journal.entries = journal.entries.slice(0, last + 1);
-  fs.writeFileSync(journalFile, JSON.stringify(journal));
-  return folder;
-}
-
 describe('0001: the reverse law’s m becomes its mid-rotation value y(0.5)', () => {
   // Before 0001 a saved design's reverse law {kind: 'reverse', m} meant y = 1 − f(1 − x), f the
   // audio law of mid value m (so y(0.5) = 1 − m). Written out here, independent of shared/taper/law.ts.
@@ -120,7 +110,7 @@ describe('0001: the reverse law’s m becomes its mid-rotation value y(0.5)', ()
 
   test('saved designs keep their curves and every other row is untouched', () => {
     const sqlite = new Database(path.join(tempDir(), 'lugbook.db'));
-    migrate(drizzle(sqlite, { schema }), { migrationsFolder: foldersUpTo('0000_initial') });
+    migrate(drizzle(sqlite, { schema }), { migrationsFolder: migrationsUpTo('0000_initial') });
     sqlite.prepare("insert into users (id, email, name, role, password_hash) values ('u1', 'a@example.org', 'A', 'tech', 'x')").run();
     const designs: [string, Record<string, unknown>][] = [
       ['reverse volume', { volumeR: 500e3, volumeLaw: { kind: 'reverse', m: 0.15 }, toneLaw: { kind: 'audio', m: 0.2 } }],
@@ -176,7 +166,7 @@ describe('0001: the reverse law’s m becomes its mid-rotation value y(0.5)', ()
 describe('0009: jobs record the wiring before the work', () => {
   test('existing jobs keep every column and start with no before wiring; a design named as before can still be deleted', () => {
     const sqlite = new Database(path.join(tempDir(), 'lugbook.db'));
-    migrate(drizzle(sqlite, { schema }), { migrationsFolder: foldersUpTo('0007_lot_stats') });
+    migrate(drizzle(sqlite, { schema }), { migrationsFolder: migrationsUpTo('0007_lot_stats') });
     sqlite.prepare("insert into users (id, email, name, role, password_hash) values ('u1', 'a@example.org', 'A', 'tech', 'x')").run();
     sqlite
       .prepare(
@@ -233,7 +223,7 @@ test('the full demo scenario seeds: lots with sweeps and fits, a 100,000-item lo
 describe('0008: job parts get a slot, outbox messages their attachments', () => {
   test('installed parts and messages keep their rows; slots start empty and one part fills a slot', () => {
     const sqlite = new Database(path.join(tempDir(), 'lugbook.db'));
-    migrate(drizzle(sqlite, { schema }), { migrationsFolder: foldersUpTo('0007_lot_stats') });
+    migrate(drizzle(sqlite, { schema }), { migrationsFolder: migrationsUpTo('0007_lot_stats') });
     sqlite.prepare("insert into users (id, email, name, role, password_hash) values ('u1', 'a@example.org', 'A', 'tech', 'x')").run();
     const part = sqlite.prepare('insert into parts (kind, label, nominal) values (?, ?, ?)');
     part.run('pot', 'POT-1', 500e3);

@@ -1,31 +1,14 @@
 // Tolerances stored before they had two sides keep their limits after migrations 0010 and 0011: on a populated
 // database every part and lot tolerance is symmetric, so its upper side is its lower side, and the
 // stored lot statistics (computed against those limits) stay in place instead of being recomputed.
-import fs from 'node:fs';
-import os from 'node:os';
-import path from 'node:path';
 import Database from 'better-sqlite3';
 import { drizzle } from 'drizzle-orm/better-sqlite3';
 import { afterAll, expect, test } from 'vitest';
 import { applyMigrations, MIGRATIONS_DIR } from '@server/db/client';
 import * as schema from '@server/db/schema';
+import { migrationsUpTo, removeMigrationCopies } from '../../support/migrations';
 
-const dirs: string[] = [];
-afterAll(() => dirs.forEach((d) => fs.rmSync(d, { recursive: true, force: true })));
-
-/** The committed migrations up to and including `lastTag`. */
-function migrationsUpTo(lastTag: string): string {
-  const folder = fs.mkdtempSync(path.join(os.tmpdir(), 'lugbook-tolerance-'));
-  dirs.push(folder);
-  fs.cpSync(MIGRATIONS_DIR, folder, { recursive: true });
-  const journalFile = path.join(folder, 'meta', '_journal.json');
-  const journal = JSON.parse(fs.readFileSync(journalFile, 'utf8'));
-  const end = journal.entries.findIndex((e: { tag: string }) => e.tag === lastTag);
-  expect(end).toBeGreaterThanOrEqual(0);
-  journal.entries = journal.entries.slice(0, end + 1);
-  fs.writeFileSync(journalFile, JSON.stringify(journal));
-  return folder;
-}
+afterAll(removeMigrationCopies);
 
 test('existing part and lot tolerances become the same value on both sides; stored lot statistics are kept', () => {
   const sqlite = new Database(':memory:');
