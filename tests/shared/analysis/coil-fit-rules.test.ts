@@ -7,34 +7,23 @@
 import { describe, expect, it } from 'vitest';
 import { seededNormals } from '@shared/random/seeded';
 import { coilFromTwoResonances, fitCoil, lcrNote, type CoilPoint } from '@shared/analysis/coil';
+import { textbookZ, type Complex, type CoilNetwork } from '../../support/coil-network';
 
-type Complex = { re: number; im: number };
-type Net = { R: number; L: number; C: number; Rp?: number };
-
-function textbookZ(p: Net, f: number): Complex {
-  const w = 2 * Math.PI * f;
-  // 1/Z = 1/(R + jωL) + jωC + 1/Rp
-  const d = p.R * p.R + w * w * p.L * p.L;
-  const yRe = p.R / d + (p.Rp === undefined ? 0 : 1 / p.Rp);
-  const yIm = -(w * p.L) / d + w * p.C;
-  const yy = yRe * yRe + yIm * yIm;
-  return { re: yRe / yy, im: -yIm / yy };
-}
 const deg = (z: Complex) => (Math.atan2(z.im, z.re) * 180) / Math.PI;
-const polar = (p: Net, freqs: number[]): CoilPoint[] =>
+const polar = (p: CoilNetwork, freqs: number[]): CoilPoint[] =>
   freqs.map((frequency) => {
     const z = textbookZ(p, frequency);
     return { frequency, magnitude: Math.hypot(z.re, z.im), phaseDeg: deg(z) };
   });
-const f0Of = (p: Net) => 1 / (2 * Math.PI * Math.sqrt(p.L * p.C));
+const f0Of = (p: CoilNetwork) => 1 / (2 * Math.PI * Math.sqrt(p.L * p.C));
 /** 100 points a decade from 10 Hz. */
 const grid = (n: number) => Array.from({ length: n }, (_, i) => 10 * 10 ** (i / 100));
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 const codes = (fit: { flags: { code: string }[] }) => fit.flags.map((f) => f.code);
 
 // Typical pickup values — common practice (no published source); Rp is a value chosen for the test.
-const SINGLE: Net = { R: 6000, L: 2.5, C: 100e-12 };
-const DOUBLE: Net = { R: 8000, L: 4.4, C: 120e-12, Rp: 250e3 };
+const SINGLE: CoilNetwork = { R: 6000, L: 2.5, C: 100e-12 };
+const DOUBLE: CoilNetwork = { R: 8000, L: 4.4, C: 120e-12, Rp: 250e3 };
 
 describe('fitCoil flags at their edges', () => {
   it('open coil: a lowest point at exactly −45° is not capacitive enough; a hair beyond is', () => {
@@ -81,7 +70,7 @@ describe('fitCoil flags at their edges', () => {
     // Q = ω0L/R = 1: the largest |Z| of the network lies near 0.86·f0 (below f0 for any Q; derived
     // from the textbook network), so the highest point is not the sweep's largest.
     const f0 = f0Of(SINGLE);
-    const lowQ: Net = { R: 2 * Math.PI * f0 * SINGLE.L, L: SINGLE.L, C: SINGLE.C };
+    const lowQ: CoilNetwork = { R: 2 * Math.PI * f0 * SINGLE.L, L: SINGLE.L, C: SINGLE.C };
     const freqs = Array.from({ length: 199 }, (_, i) => f0 * 10 ** ((i - 200) / 100));
     const points = polar(lowQ, freqs);
     const mags = points.map((p) => ('magnitude' in p ? p.magnitude : 0));

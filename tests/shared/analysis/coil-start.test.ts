@@ -10,19 +10,9 @@
 import { describe, expect, it } from 'vitest';
 import { seededNormals } from '@shared/random/seeded';
 import { coilStartValues, type CoilPoint } from '@shared/analysis/coil';
+import { textbookZ, type Complex } from '../../support/coil-network';
 
-type Complex = { re: number; im: number };
 type Pt = { frequency: number } & Complex;
-
-function textbookZ(p: { R: number; L: number; C: number; Rp?: number }, f: number): Complex {
-  const w = 2 * Math.PI * f;
-  // 1/Z = 1/(R + jωL) + jωC + 1/Rp
-  const d = p.R * p.R + w * w * p.L * p.L;
-  const yRe = p.R / d + (p.Rp === undefined ? 0 : 1 / p.Rp);
-  const yIm = -(w * p.L) / d + w * p.C;
-  const yy = yRe * yRe + yIm * yIm;
-  return { re: yRe / yy, im: -yIm / yy };
-}
 
 /** The documented method, written out independently of the engine. */
 function reference(points: Pt[]): { R: number; L: number; C: number; Rp: number; inductive: number } {
