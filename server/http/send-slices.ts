@@ -17,8 +17,11 @@ export function sendInSlices(res: ServerResponse, parts: readonly Uint8Array[], 
   return new Promise((resolve) => {
     let part = 0;
     let offset = 0;
+    // A drain after a write the kernel took at once comes in a nextTick of that write: going on there
+    // would write slice after slice in one turn. The next slice waits for the next turn either way.
+    const onDrain = () => setImmediate(next);
     const done = () => {
-      res.off('drain', next);
+      res.off('drain', onDrain);
       res.off('close', done);
       resolve();
     };
@@ -38,7 +41,7 @@ export function sendInSlices(res: ServerResponse, parts: readonly Uint8Array[], 
       // Past the socket's mark: go on when it drains; else on the next turn, after other requests.
       if (res.write(slice)) setImmediate(next);
     }
-    res.on('drain', next);
+    res.on('drain', onDrain);
     res.once('close', done);
     next();
   });
