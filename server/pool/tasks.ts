@@ -20,6 +20,11 @@ import { lotResults, readColumnBytes, refreshLotStats, type StoredLotResults } f
 import { withTransfer } from './transfer';
 import { ingestLot, type LotIngestInput, type LotIngestResult } from '@server/features/lots/ingest';
 import { encodeLotItems, freshItemsEncoded, type EncodedItems, type ItemsEncoding } from '@server/features/lots/items-encoded';
+import { promoteToParts, type PromoteResult } from '@server/features/lots/promote';
+import type { PromoteInput } from '@shared/schemas/lots';
+import { drizzle } from 'drizzle-orm/better-sqlite3';
+import * as schema from '@server/db/schema';
+import { lotExportCsv as buildLotExportCsv, type LotExportMatching } from '@server/features/lots/export-csv';
 
 export interface HarnessSweepInput {
   netlist: Netlist;
@@ -197,6 +202,31 @@ export function lotColumnBytes(input: { dbFile: string; lotId: number }): { coun
   });
 }
 
+export interface LotExportInput extends LotStatsInput {
+  matching: LotExportMatching;
+  /** When the export was asked for (ms since 1970): the file's `made` line. */
+  madeAt: number;
+}
+
+/** A lot's CSV file (server/features/lots/export-csv.ts) as UTF-8 bytes. */
+export function lotExportCsv(input: LotExportInput): Uint8Array {
+  return withDb(input.dbFile, (sqlite) =>
+    new TextEncoder().encode(buildLotExportCsv(sqlite, input.lot, input.matching, new Date(input.madeAt))),
+  );
+}
+
+export interface LotPromoteInput {
+  dbFile: string;
+  lot: LotRow;
+  input: PromoteInput;
+  userId: string;
+}
+
+/** Items of a lot become parts (server/features/lots/promote.ts), written through this worker's connection. */
+export function lotPromote({ dbFile, lot, input, userId }: LotPromoteInput): PromoteResult {
+  return withDb(dbFile, (sqlite) => promoteToParts({ db: drizzle(sqlite, { schema }), sqlite }, lot, input, userId));
+}
+
 /** A job's report clips (server/features/jobs/clips.ts): the before and after designs as two 16-bit WAV files. */
 export function reportClips(input: ClipRenderInput): [Uint8Array, Uint8Array] {
   return renderClips(input);
@@ -216,5 +246,7 @@ export const TASKS = {
   lotItemsEncode,
   lotColumnBytes,
   lotFreshItemsEncoded,
+  lotExportCsv,
+  lotPromote,
 } as const;
 export type TaskName = keyof typeof TASKS;

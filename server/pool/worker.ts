@@ -1,10 +1,11 @@
 // The pool worker's entry (Piscina loads it with the tsx loader: server/pool/index.ts). It tells the
 // main thread when a job starts (its time budget counts from then), runs the job, and sends the
-// engine's own refusals back as data so that the main thread can answer them as the inline code did.
+// engine's own refusals (and 4xx HttpErrors) back as data so that the main thread can answer them as the inline code did.
 import type { MessagePort } from 'node:worker_threads';
 import { move } from 'piscina';
 import { WavError } from '@shared/audio/wav';
 import { HarnessUnsolvableError } from '@shared/circuit/solver';
+import { HttpError } from '@server/http/errors';
 import { TASKS, type TaskName } from './tasks';
 import { JobRefusalError, type JobRefusal } from './refusal';
 
@@ -20,6 +21,11 @@ function refusal(err: unknown): JobRefusal | null {
   if (err instanceof HarnessUnsolvableError) return { jobRefused: { kind: 'unsolvable', message: err.message } };
   if (err instanceof WavError) return { jobRefused: { kind: 'wav', message: err.message } };
   if (err instanceof RangeError) return { jobRefused: { kind: 'range', message: err.message } };
+  // A refusal of the request (4xx) keeps its status, code and fields; a fault stays a fault (500).
+  if (err instanceof HttpError && err.status >= 400 && err.status < 500) {
+    const { status, code, message, fields } = err;
+    return { jobRefused: { kind: 'http', status, code, message, ...(fields ? { fields } : {}) } };
+  }
   return null;
 }
 

@@ -7,24 +7,27 @@ import { lots } from '@server/db/schema';
 import { conflict } from '@server/http/errors';
 import type { ApiRouter } from '@server/http/router';
 import { IdParamsSchema } from '@shared/schemas/common';
-import { DispositionInputSchema, ReopenInputSchema } from '@shared/schemas/lots';
+import { DispositionInputSchema, ReopenInputSchema, type LotStats } from '@shared/schemas/lots';
 import { formatValue } from '@shared/units/format';
 import { lotFinder, lotKind, lotSummary, UNIT } from './common';
-import { lotStats, lotValues, lotWatcherRows } from './repository';
+import { lotWatcherRows } from './repository';
+import { lotStatsJobs } from './stats-jobs';
 import { notifyReopen } from './watchers';
 
 export function lotDispositionRoutes(api: ApiRouter, ctx: AppContext) {
-  const { db, sqlite } = ctx;
+  const { db } = ctx;
   const mustFind = lotFinder(ctx);
+  const statsJobs = lotStatsJobs(ctx);
 
   api.post('/:id/disposition', {
     schemas: { params: IdParamsSchema, body: DispositionInputSchema },
     handle: async ({ params, body, user }) => {
       const lot = mustFind(params.id);
       if (lot.status !== 'open') throw conflict(`The lot was ${lot.status} already; an admin must reopen it first.`);
-      const data = lotValues(sqlite, lot.id);
-      if (data.values.length === 0) throw conflict('The lot has no readings yet.');
-      const stats = lotStats(lot, data, { sets: false })!;
+      // The stored statistics (computed in the pool when missing), not a 100,000-item computation here.
+      const stored = await statsJobs.stored(lot, 'detail');
+      const stats = JSON.parse(stored.statsJson) as LotStats | null;
+      if (stored.count === 0 || !stats) throw conflict('The lot has no readings yet.');
       db.transaction((tx) => {
         tx.update(lots)
           .set({ status: body.status, dispositionReason: body.reason, disposedBy: user.id, disposedAt: Date.now() })

@@ -1,52 +1,30 @@
-// The lot as a CSV file: the conditions as `# key: value` lines, then every item with its deviation,
-// bin, matched set and verdict (formula cells escaped).
-import Papa from 'papaparse';
+// GET /api/lots/:id/export.csv: the lot's CSV file (export-csv.ts), built in a pool worker and sent a
+// slice at a time.
 import type { AppContext } from '@server/context';
 import type { ApiRouter } from '@server/http/router';
-import { lotConditions, withConditions } from '@shared/csv/conditions';
+import { sendInSlices } from '@server/http/send-slices';
 import { IdParamsSchema } from '@shared/schemas/common';
 import { LotStatsQuerySchema } from '@shared/schemas/lots';
 import { lotFinder } from './common';
-import { lotStats, lotValues } from './repository';
+
+/** Building the file is bounded by the upload's 100,000 rows, not by the request: two of the pool's budgets. */
+const EXPORT_BUDGETS = 2;
 
 export function lotExportRoutes(api: ApiRouter, ctx: AppContext) {
-  const { sqlite } = ctx;
+  const { sqlite, pool } = ctx;
   const mustFind = lotFinder(ctx);
 
   api.get('/:id/export.csv', {
     schemas: { params: IdParamsSchema, query: LotStatsQuerySchema },
-    handle: ({ params, query, res }) => {
+    handle: async ({ params, query, res }) => {
       const lot = mustFind(params.id);
-      const data = lotValues(sqlite, lot.id);
-      const stats = lotStats(lot, data, { ...query, withBinIndices: true });
-      const n = data.values.length;
-      const binOf = new Array<string>(n).fill('');
-      stats?.bins.forEach((b) => b.indices?.forEach((i) => (binOf[i] = b.label)));
-      const setOf = new Array<string>(n).fill('');
-      stats?.matchedSets.forEach((s, si) => s.indices.forEach((i) => (setOf[i] = `S${si + 1}`)));
-      const rows = Array.from({ length: n }, (_, i) => {
-        const v = data.values[i]!;
-        const verdict = stats ? (v < stats.lower || v > stats.upper ? 'fail' : 'pass') : '';
-        return {
-          item: data.items[i],
-          value: v,
-          deviation_pct: stats ? Number(stats.deviationsPct[i]!.toFixed(4)) : '',
-          bin: binOf[i],
-          set: setOf[i],
-          verdict,
-        };
-      });
-      const conditions = lotConditions(lot, {
-        readings: n,
-        matchPct: query.matchPct ?? 1,
-        setSize: query.setSize ?? 2,
-        madeAt: new Date(),
-      });
-      const body = Papa.unparse(rows, { escapeFormulae: true, newline: '\n' });
-      res
-        .type('text/csv')
-        .attachment(`${lot.code}.csv`)
-        .send(withConditions(conditions, `${body}\n`));
+      const bytes = await pool.run(
+        'lotExportCsv',
+        { dbFile: sqlite.name, lot, matching: query, madeAt: Date.now() },
+        { budgetMs: pool.options.budgetMs * EXPORT_BUDGETS },
+      );
+      res.status(200).type('text/csv').attachment(`${lot.code}.csv`).setHeader('Content-Length', bytes.length);
+      await sendInSlices(res, [bytes]);
       return undefined;
     },
   });

@@ -30,8 +30,10 @@ import { lotExportRoutes } from './export';
 import { listLots, lotWatcherRows } from './repository';
 import { lotStatsJobs } from './stats-jobs';
 import { isDefaultMatching } from './stored-stats';
-import { promoteToParts } from './promote';
 import { lotUploadRoutes } from './upload';
+
+/** A promotion writes at most 1,000 parts with their readings (about two seconds): two of the pool's budgets. */
+const PROMOTE_BUDGETS = 2;
 
 export function lotRoutes(ctx: AppContext) {
   const { db, sqlite } = ctx;
@@ -220,9 +222,14 @@ export function lotRoutes(ctx: AppContext) {
   api.post('/:id/promote', {
     status: 201,
     schemas: { params: IdParamsSchema, body: PromoteInputSchema },
-    handle: ({ params, body, user }) => {
+    // In the pool (promote.ts); its writes are bounded by 1,000 items: two of the pool's budgets.
+    handle: async ({ params, body, user }) => {
       const lot = mustFind(params.id);
-      return promoteToParts(ctx, lot, body, user.id);
+      return ctx.pool.run(
+        'lotPromote',
+        { dbFile: sqlite.name, lot, input: body, userId: user.id },
+        { budgetMs: ctx.pool.options.budgetMs * PROMOTE_BUDGETS },
+      );
     },
   });
 

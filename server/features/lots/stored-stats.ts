@@ -87,7 +87,7 @@ export function invalidateLotStats(sqlite: Database.Database, lotId: number): vo
 }
 
 /** What identifies a lot's readings: an upload or a replace changes the count or the last row id. */
-function readingsMark(sqlite: Database.Database, lotId: number): string {
+export function readingsMark(sqlite: Database.Database, lotId: number): string {
   const r = sqlite.prepare('select count(*) as n, coalesce(max(id), 0) as last from lot_readings where lot_id = ?').get(lotId) as {
     n: number;
     last: number;
