@@ -50,6 +50,8 @@ function featureRouters(ctx: AppContext): ApiRouter[] {
 
 export function createApp(ctx: AppContext): Express {
   const app = express();
+  // The routes take a write turn before a change (server/http/router.ts).
+  app.locals.writeTurns = ctx.writeTurns;
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
   if (ctx.config.requestLog) app.use(requestLogger(ctx.config.requestLog));

@@ -1,3 +1,4 @@
+import { WriteTurns } from '@server/db/write-turns';
 import fs from 'node:fs';
 import { createLucia } from '@server/auth/session';
 import { openDatabase } from '@server/db/client';
@@ -35,12 +36,14 @@ export function createContext(opts: ContextOptions): AppContext {
   for (const clash of labelClashes(db)) {
     log(`Part labels differ only in case (rename one): ${clash.parts.map((p) => `${p.label} (id ${p.id})`).join(', ')}`);
   }
+  const writeTurns = new WriteTurns();
   return {
     db,
     sqlite,
-    lucia: createLucia(db, { production: opts.production ?? false }),
-    pool: createJobPool(opts.pool ?? poolOptionsFromEnv()),
-    mailer: createMailer(db, { smtpUrl: opts.smtpUrl, from: opts.mailFrom ?? 'Lugbook <no-reply@lugbook.test>' }),
+    lucia: createLucia(db, { production: opts.production ?? false, writeTurns }),
+    pool: createJobPool(opts.pool ?? poolOptionsFromEnv(), writeTurns),
+    writeTurns,
+    mailer: createMailer(db, { smtpUrl: opts.smtpUrl, from: opts.mailFrom ?? 'Lugbook <no-reply@lugbook.test>', writeTurns }),
     config: {
       production: opts.production ?? false,
       publicUrl: opts.publicUrl ?? 'http://localhost:3000',

@@ -4,6 +4,7 @@ import type { Db } from '@server/db/client';
 import type { SignInLimits } from '@server/features/auth/sign-in-limiter';
 import type { Mailer } from '@server/mail/mailer';
 import type { JobPool } from '@server/pool';
+import type { WriteTurns } from '@server/db/write-turns';
 
 /** What the features need from the outside world; built in server/index.ts or by a test. */
 export interface AppContext {
@@ -13,6 +14,8 @@ export interface AppContext {
   mailer: Mailer;
   /** Worker threads for heavy computation (server/pool). */
   pool: JobPool;
+  /** Keeps the request thread's writes and the pool's apart (server/db/write-turns.ts). */
+  writeTurns: WriteTurns;
   config: {
     production: boolean;
     publicUrl: string;

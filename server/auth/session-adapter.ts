@@ -1,17 +1,22 @@
 // Lucia's Drizzle adapter with the one read every signed-in request makes (its session and its user)
 // kept as prepared queries: the adapter builds and prepares that query anew on each call, which was
-// the largest part of a small request's time on the request thread. Every other call is the adapter's own.
+// the largest part of a small request's time on the request thread. Every other call is the adapter's own,
+// its writes after a write turn (server/db/write-turns.ts): a session's renewal comes on any request.
 import { DrizzleSQLiteAdapter } from '@lucia-auth/adapter-drizzle';
 import { eq, getTableColumns, sql } from 'drizzle-orm';
 import type { DatabaseSession, DatabaseUser } from 'lucia';
 import type { Db } from '@server/db/client';
+import type { WriteTurns } from '@server/db/write-turns';
 import { sessions, users } from '@server/db/schema';
 
 export class SessionAdapter extends DrizzleSQLiteAdapter {
   private readonly sessionById;
   private readonly userBySessionId;
 
-  constructor(db: Db) {
+  constructor(
+    db: Db,
+    private readonly writeTurns?: WriteTurns,
+  ) {
     super(db, sessions, users);
     this.sessionById = db
       .select()
@@ -24,6 +29,27 @@ export class SessionAdapter extends DrizzleSQLiteAdapter {
       .innerJoin(users, eq(sessions.userId, users.id))
       .where(eq(sessions.id, sql.placeholder('id')))
       .prepare();
+  }
+
+  override async setSession(session: DatabaseSession): Promise<void> {
+    await this.writeTurns?.take();
+    return super.setSession(session);
+  }
+  override async updateSessionExpiration(sessionId: string, expiresAt: Date): Promise<void> {
+    await this.writeTurns?.take();
+    return super.updateSessionExpiration(sessionId, expiresAt);
+  }
+  override async deleteSession(sessionId: string): Promise<void> {
+    await this.writeTurns?.take();
+    return super.deleteSession(sessionId);
+  }
+  override async deleteUserSessions(userId: string): Promise<void> {
+    await this.writeTurns?.take();
+    return super.deleteUserSessions(userId);
+  }
+  override async deleteExpiredSessions(): Promise<void> {
+    await this.writeTurns?.take();
+    return super.deleteExpiredSessions();
   }
 
   override async getSessionAndUser(sessionId: string): Promise<[session: DatabaseSession | null, user: DatabaseUser | null]> {

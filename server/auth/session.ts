@@ -1,5 +1,6 @@
 import { Lucia, TimeSpan } from 'lucia';
 import type { Db } from '@server/db/client';
+import type { WriteTurns } from '@server/db/write-turns';
 import { SessionAdapter } from './session-adapter';
 import type { Role } from '@shared/schemas/common';
 
@@ -14,8 +15,8 @@ export interface AuthUser {
 export const SESSION_IDLE = new TimeSpan(12, 'h');
 export const SESSION_ABSOLUTE_MS = 7 * 24 * 3600 * 1000;
 
-export function createLucia(db: Db, opts: { production: boolean }) {
-  const adapter = new SessionAdapter(db);
+export function createLucia(db: Db, opts: { production: boolean; writeTurns?: WriteTurns }) {
+  const adapter = new SessionAdapter(db, opts.writeTurns);
   return new Lucia(adapter, {
     sessionExpiresIn: SESSION_IDLE,
     sessionCookie: {

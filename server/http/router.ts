@@ -1,6 +1,7 @@
 import { Router, type Request, type RequestHandler, type Response } from 'express';
 import { authorize } from '@server/auth/middleware';
 import type { AuthUser } from '@server/auth/session';
+import type { WriteTurns } from '@server/db/write-turns';
 import { validate, type Out, type Schemas } from './validate';
 
 type Method = 'get' | 'post' | 'patch' | 'put' | 'delete';
@@ -22,6 +23,11 @@ interface RouteSpec<S extends Schemas> {
   /** Returns the JSON body (status 200, or `status`), or undefined after answering through ctx.res. */
   handle: (ctx: Ctx<S>) => unknown;
   status?: number;
+}
+
+/** Waits until the request thread may write (a no-op in an app without write turns). */
+export function takeWriteTurn(req: Request): Promise<void> {
+  return (req.app.locals.writeTurns as WriteTurns | undefined)?.take() ?? Promise.resolve();
 }
 
 /**
@@ -55,6 +61,9 @@ export class ApiRouter {
     const key = `${method.toUpperCase()} ${fullPath}`;
     const handler: RequestHandler = async (req, res) => {
       const valid = req.valid ?? {};
+      // A change writes in its first synchronous steps: it takes a write turn first, so it never meets a
+      // pool worker's write lock (server/db/write-turns.ts). Writes after an await take their own turn.
+      if (method !== 'get') await takeWriteTurn(req);
       const result = await spec.handle({
         req,
         res,

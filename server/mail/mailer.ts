@@ -1,4 +1,5 @@
 import nodemailer, { type Transporter } from 'nodemailer';
+import type { WriteTurns } from '@server/db/write-turns';
 import type { Db } from '@server/db/client';
 import { outbox, outboxAttachments } from '@server/db/schema';
 
@@ -21,7 +22,7 @@ export interface Mailer {
  * local stand-in keeps the built message (RFC 5322 source) in the outbox table, where admins
  * read it on the Outbox screen. Either way the outbox row is the record of what was sent.
  */
-export function createMailer(db: Db, opts: { smtpUrl?: string; from: string }): Mailer {
+export function createMailer(db: Db, opts: { smtpUrl?: string; from: string; writeTurns?: WriteTurns }): Mailer {
   const builder: Transporter = nodemailer.createTransport({ streamTransport: true, buffer: true, newline: 'unix' });
   const smtp: Transporter | null = opts.smtpUrl ? nodemailer.createTransport(opts.smtpUrl) : null;
 
@@ -41,6 +42,7 @@ export function createMailer(db: Db, opts: { smtpUrl?: string; from: string }): 
         }
       }
       // The message and its attachments in one transaction: the Outbox lists them and serves them back.
+      await opts.writeTurns?.take();
       db.transaction((tx) => {
         const row = tx
           .insert(outbox)

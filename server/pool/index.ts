@@ -16,6 +16,7 @@ import { HttpError } from '@server/http/errors';
 import { isJobRefusal, refusalError } from './refusal';
 import type { TASKS, TaskName } from './tasks';
 import type { JobMessage } from './worker';
+import type { WriteTurns } from '@server/db/write-turns';
 
 type Tasks = typeof TASKS;
 export type JobInput<K extends TaskName> = Parameters<Tasks[K]>[0];
@@ -85,7 +86,7 @@ const TSX_LOADER = pathToFileURL(createRequire(import.meta.url).resolve('tsx')).
 
 class BudgetExceeded extends Error {}
 
-export function createJobPool(options: PoolOptions = DEFAULT_POOL_OPTIONS): JobPool {
+export function createJobPool(options: PoolOptions = DEFAULT_POOL_OPTIONS, writeTurns?: WriteTurns): JobPool {
   const piscina = new Piscina<JobMessage, unknown>({
     filename: WORKER,
     execArgv: ['--import', TSX_LOADER],
@@ -110,6 +111,8 @@ export function createJobPool(options: PoolOptions = DEFAULT_POOL_OPTIONS): JobP
     pending++;
     const controller = new AbortController();
     const { port1, port2 } = new MessageChannel();
+    // The job's writes take turns with the request thread's (server/db/write-turns.ts).
+    const flag = writeTurns?.jobFlag();
     let timer: NodeJS.Timeout | undefined;
     port1.once('message', () => {
       timer = setTimeout(() => {
@@ -118,7 +121,7 @@ export function createJobPool(options: PoolOptions = DEFAULT_POOL_OPTIONS): JobP
     });
     try {
       const result = await piscina.run(
-        { name, input, started: port2 },
+        { name, input, started: port2, ...(writeTurns && flag ? { turns: { main: writeTurns.main, flag } } : {}) },
         { signal: controller.signal, transferList: [port2, ...(opts.transfer ?? [])] },
       );
       if (isJobRefusal(result)) throw refusalError(result);
@@ -137,6 +140,7 @@ export function createJobPool(options: PoolOptions = DEFAULT_POOL_OPTIONS): JobP
       throw err;
     } finally {
       pending--;
+      if (flag) writeTurns!.settled(flag);
       clearTimeout(timer);
       port1.close();
     }

@@ -6,6 +6,7 @@ import { move } from 'piscina';
 import { WavError } from '@shared/audio/wav';
 import { HarnessUnsolvableError } from '@shared/circuit/solver';
 import { HttpError } from '@server/http/errors';
+import { useJobTurns, type JobTurns } from '@server/db/write-turns';
 import { TASKS, type TaskName } from './tasks';
 import { JobRefusalError, type JobRefusal } from './refusal';
 
@@ -14,6 +15,8 @@ export interface JobMessage {
   input: unknown;
   /** Gets one message as the job starts, then closes. */
   started: MessagePort;
+  /** The job's part in the write turns (server/db/write-turns.ts); absent for a pool without them. */
+  turns?: JobTurns;
 }
 
 function refusal(err: unknown): JobRefusal | null {
@@ -29,9 +32,10 @@ function refusal(err: unknown): JobRefusal | null {
   return null;
 }
 
-export default async function runJob({ name, input, started }: JobMessage): Promise<unknown> {
+export default async function runJob({ name, input, started, turns }: JobMessage): Promise<unknown> {
   started.postMessage('started');
   started.close();
+  useJobTurns(turns);
   try {
     const value = await (TASKS[name] as (input: unknown) => unknown)(input);
     // A rendered file is moved to the main thread, not copied (as are the buffers a job names: transfer.ts).
@@ -40,5 +44,7 @@ export default async function runJob({ name, input, started }: JobMessage): Prom
     const known = refusal(err);
     if (known) return known;
     throw err;
+  } finally {
+    useJobTurns(undefined);
   }
 }

@@ -12,6 +12,7 @@ import type { SignInLimits } from '@server/features/auth/sign-in-limiter';
 import type { Role } from '@shared/schemas/common';
 import { poolOptionsFromEnv, type PoolOptions } from '@server/pool';
 import { recordServerError } from './server-errors';
+import { checkWritesTakeTurns } from './write-check';
 
 export const TEST_PASSWORD = 'correct-horse-bench-staple';
 export const ORIGIN = 'http://lugbook.test';
@@ -63,6 +64,7 @@ export async function createTestApp(
   });
   await seedDemo(ctx, { password: TEST_PASSWORD, studies: opts.studies ?? false });
   const app = createApp(ctx);
+  checkWritesTakeTurns(app, ctx.sqlite, ctx.writeTurns);
   const agents = new Map<Role, TestAgent>();
   return {
     app,

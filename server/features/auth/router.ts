@@ -6,7 +6,7 @@ import { hashToken, newId, newToken } from '@server/auth/tokens';
 import type { AppContext } from '@server/context';
 import { invitations, passwordResets, users } from '@server/db/schema';
 import { HttpError, unprocessable } from '@server/http/errors';
-import { ApiRouter } from '@server/http/router';
+import { ApiRouter, takeWriteTurn } from '@server/http/router';
 import { AcceptInviteInputSchema, RequestResetInputSchema, ResetPasswordInputSchema, SignInInputSchema } from '@shared/schemas/auth';
 import { SignInBackoff, signInAddressLimiter, WindowCounter } from './sign-in-limiter';
 
@@ -45,6 +45,8 @@ export function authRoutes(ctx: AppContext) {
       const user = db.select().from(users).where(eq(users.email, body.email)).get();
       dummyHash ??= hashPassword(`no account ${newId()}`);
       const ok = await verifyPassword(user ? user.passwordHash : await dummyHash, body.password).then((r) => r && user !== undefined);
+      // The hash took a while: what follows writes (the refusal's audit line, the session) after a turn.
+      await takeWriteTurn(req);
       if (!user || !ok || user.disabledAt !== null) {
         backoff.recordFailure(body.email, address);
         refuse(!user ? 'unknown e-mail' : !ok ? 'wrong password' : 'account disabled');
@@ -53,6 +55,7 @@ export function authRoutes(ctx: AppContext) {
       backoff.clear(body.email, address);
       const session = await lucia.createSession(user.id, { createdAt: Date.now() });
       res.appendHeader('Set-Cookie', lucia.createSessionCookie(session.id).serialize());
+      await takeWriteTurn(req);
       audit(db, { userId: user.id, action: 'auth.sign-in', entity: 'user', entityId: user.id, detail: { ip: req.ip } });
       return { user: { id: user.id, email: user.email, name: user.name, role: user.role } };
     },
@@ -92,7 +95,7 @@ export function authRoutes(ctx: AppContext) {
 
   api.post('/accept-invite', {
     schemas: { body: AcceptInviteInputSchema },
-    handle: async ({ body, res }) => {
+    handle: async ({ body, req, res }) => {
       const problem = passwordProblem(body.password);
       if (problem) throw unprocessable(problem, { password: problem });
       const invite = openInvitation(body.token);
@@ -105,6 +108,7 @@ export function authRoutes(ctx: AppContext) {
       const id = newId();
       // The hash took a while: the invitation is checked again and spent in the same transaction as the
       // insert, so two requests with one token give one account (the second finds it used: 410).
+      await takeWriteTurn(req);
       db.transaction((tx) => {
         const spent = tx
           .update(invitations)
@@ -155,7 +159,7 @@ export function authRoutes(ctx: AppContext) {
 
   api.post('/reset-password', {
     schemas: { body: ResetPasswordInputSchema },
-    handle: async ({ body }) => {
+    handle: async ({ body, req }) => {
       const problem = passwordProblem(body.password);
       if (problem) throw unprocessable(problem, { password: problem });
       const reset = db
@@ -167,6 +171,7 @@ export function authRoutes(ctx: AppContext) {
         .get();
       if (!reset) throw new HttpError(410, 'token_invalid', 'This reset link is unknown, used or expired. Ask for a new one.');
       const passwordHash = await hashPassword(body.password);
+      await takeWriteTurn(req);
       db.transaction((tx) => {
         tx.update(users).set({ passwordHash }).where(eq(users.id, reset.userId)).run();
         // Using one link ends every other outstanding link of the account.

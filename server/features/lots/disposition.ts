@@ -28,6 +28,7 @@ export function lotDispositionRoutes(api: ApiRouter, ctx: AppContext) {
       const stored = await statsJobs.stored(lot, 'detail');
       const stats = JSON.parse(stored.statsJson) as LotStats | null;
       if (stored.count === 0 || !stats) throw conflict('The lot has no readings yet.');
+      await ctx.writeTurns.take();
       db.transaction((tx) => {
         tx.update(lots)
           .set({ status: body.status, dispositionReason: body.reason, disposedBy: user.id, disposedAt: Date.now() })

@@ -15,6 +15,7 @@ import Database from 'better-sqlite3';
 import { drizzle } from 'drizzle-orm/better-sqlite3';
 import { audit } from '@server/audit';
 import * as schema from '@server/db/schema';
+import { workerWrite } from '@server/db/write-turns';
 import { pausePoint } from '@server/http/pause-point';
 import { JobRefusalError } from '@server/pool/refusal';
 import { contentPath, storedName } from '@server/uploads/store';
@@ -93,54 +94,57 @@ export async function ingestLot(input: LotIngestInput): Promise<LotIngestResult>
       // One transaction through one prepared statement: all rows or none. The file is moved into place as
       // the transaction's last step: a crash before the commit leaves an unreferenced file, which the sweep
       // at start removes (server/uploads/sweep.ts); a rollback removes it here; a cancel, upload.ts.
-      sqlite
-        .transaction(() => {
-          // Checked again under the write lock (the request thread checked first): the lot may have been
-          // closed, or been given readings by another upload, since.
-          const now = sqlite.prepare('select status from lots where id = ?').get(lot.id) as { status: string } | undefined;
-          if (!now) throw new JobRefusalError({ kind: 'conflict', message: 'The lot was deleted meanwhile.' });
-          if (now.status !== 'open')
-            throw new JobRefusalError({
-              kind: 'conflict',
-              message: `The lot is ${now.status}; an admin must reopen it before new readings.`,
-            });
-          if (!input.replace) {
-            const existing = (sqlite.prepare('select count(*) as n from lot_readings where lot_id = ?').get(lot.id) as { n: number }).n;
-            if (existing > 0)
+      // In a write turn: the request thread's writes wait for it without blocking (server/db/write-turns.ts).
+      workerWrite(() =>
+        sqlite
+          .transaction(() => {
+            // Checked again under the write lock (the request thread checked first): the lot may have been
+            // closed, or been given readings by another upload, since.
+            const now = sqlite.prepare('select status from lots where id = ?').get(lot.id) as { status: string } | undefined;
+            if (!now) throw new JobRefusalError({ kind: 'conflict', message: 'The lot was deleted meanwhile.' });
+            if (now.status !== 'open')
               throw new JobRefusalError({
                 kind: 'conflict',
-                message: `The lot has ${existing} readings already; send replace=true to replace them.`,
+                message: `The lot is ${now.status}; an admin must reopen it before new readings.`,
               });
-          } else sqlite.prepare('delete from lot_readings where lot_id = ?').run(lot.id);
-          // The stored statistics describe the old readings: gone with them, or not at all.
-          invalidateLotStats(sqlite, lot.id);
-          const half = Math.floor(data.n / 2);
-          for (let i = 0; i < data.n; i++) {
-            if (i === half) pausePoint('lot-upload:mid-insert');
-            const s = data.second[i]!;
-            const f = data.frequency[i]!;
-            insert.run(lot.id, data.items[i]!, data.values[i]!, Number.isNaN(s) ? null : s, Number.isNaN(f) ? null : f, data.lines[i]!);
-          }
-          sqlite
-            .prepare(
-              "insert into attachments (owner_type, owner_id, purpose, original_name, content_hash, mime, size, created_by) values ('lot', ?, 'lot-readings', ?, ?, 'text/csv', ?, ?)",
-            )
-            .run(lot.id, storedName(file.originalName), data.contentHash, file.size, input.userId);
-          audit(db, {
-            userId: input.userId,
-            action: input.replace ? 'lot.readings-replaced' : 'lot.readings-uploaded',
-            entity: 'lot',
-            entityId: lot.id,
-            detail: { rows: data.n, file: file.originalName, columns: data.columns, ignoredColumns: data.ignored },
-          });
-          if (!fs.existsSync(stored)) {
-            fs.mkdirSync(path.dirname(stored), { recursive: true });
-            fs.renameSync(file.path, stored);
-            created = true;
-          }
-          pausePoint('lot-upload:file-moved');
-        })
-        .immediate();
+            if (!input.replace) {
+              const existing = (sqlite.prepare('select count(*) as n from lot_readings where lot_id = ?').get(lot.id) as { n: number }).n;
+              if (existing > 0)
+                throw new JobRefusalError({
+                  kind: 'conflict',
+                  message: `The lot has ${existing} readings already; send replace=true to replace them.`,
+                });
+            } else sqlite.prepare('delete from lot_readings where lot_id = ?').run(lot.id);
+            // The stored statistics describe the old readings: gone with them, or not at all.
+            invalidateLotStats(sqlite, lot.id);
+            const half = Math.floor(data.n / 2);
+            for (let i = 0; i < data.n; i++) {
+              if (i === half) pausePoint('lot-upload:mid-insert');
+              const s = data.second[i]!;
+              const f = data.frequency[i]!;
+              insert.run(lot.id, data.items[i]!, data.values[i]!, Number.isNaN(s) ? null : s, Number.isNaN(f) ? null : f, data.lines[i]!);
+            }
+            sqlite
+              .prepare(
+                "insert into attachments (owner_type, owner_id, purpose, original_name, content_hash, mime, size, created_by) values ('lot', ?, 'lot-readings', ?, ?, 'text/csv', ?, ?)",
+              )
+              .run(lot.id, storedName(file.originalName), data.contentHash, file.size, input.userId);
+            audit(db, {
+              userId: input.userId,
+              action: input.replace ? 'lot.readings-replaced' : 'lot.readings-uploaded',
+              entity: 'lot',
+              entityId: lot.id,
+              detail: { rows: data.n, file: file.originalName, columns: data.columns, ignoredColumns: data.ignored },
+            });
+            if (!fs.existsSync(stored)) {
+              fs.mkdirSync(path.dirname(stored), { recursive: true });
+              fs.renameSync(file.path, stored);
+              created = true;
+            }
+            pausePoint('lot-upload:file-moved');
+          })
+          .immediate(),
+      );
     } catch (err) {
       if (created) fs.rmSync(stored, { force: true });
       throw err;

@@ -13,6 +13,7 @@ import type Database from 'better-sqlite3';
 import { drizzle } from 'drizzle-orm/better-sqlite3';
 import * as schema from '@server/db/schema';
 import { statement } from '@server/db/statements';
+import { workerWrite } from '@server/db/write-turns';
 import { compress, type Encoding } from '@server/http/encoded';
 import { lotItemPartIdsJson } from './promoted';
 import { lotValues, type LotRow } from './repository';
@@ -96,18 +97,20 @@ export function encodeLotItems(sqlite: Database.Database, lotId: number): Encode
   const answer = Buffer.concat(read.parts);
   const gzip = compress(answer, 'gzip');
   const br = compress(answer, 'br');
-  const kept = sqlite
-    .transaction(() => {
-      const now = sqlite.prepare('select computed_at as computedAt, count from lot_stats where lot_id = ?').get(lotId) as
-        { computedAt: number; count: number } | undefined;
-      if (!now || itemsKey(sqlite, lotId, now) !== read.key) return false;
-      sqlite
-        .prepare(
-          'insert into lot_items_encoded (lot_id, mark, gzip, br) values (?, ?, ?, ?) on conflict (lot_id) do update set mark = excluded.mark, gzip = excluded.gzip, br = excluded.br',
-        )
-        .run(lotId, read.key, gzip, br);
-      return true;
-    })
-    .immediate();
+  const kept = workerWrite(() =>
+    sqlite
+      .transaction(() => {
+        const now = sqlite.prepare('select computed_at as computedAt, count from lot_stats where lot_id = ?').get(lotId) as
+          { computedAt: number; count: number } | undefined;
+        if (!now || itemsKey(sqlite, lotId, now) !== read.key) return false;
+        sqlite
+          .prepare(
+            'insert into lot_items_encoded (lot_id, mark, gzip, br) values (?, ?, ?, ?) on conflict (lot_id) do update set mark = excluded.mark, gzip = excluded.gzip, br = excluded.br',
+          )
+          .run(lotId, read.key, gzip, br);
+        return true;
+      })
+      .immediate(),
+  );
   return { key: read.key, gzip, br, kept };
 }

@@ -7,6 +7,7 @@
 import { inArray, sql } from 'drizzle-orm';
 import { audit } from '@server/audit';
 import type { Database_ } from '@server/db/client';
+import { workerWrite } from '@server/db/write-turns';
 import { parts, partStatusEvents } from '@server/db/schema';
 import { recordReading } from '@server/features/readings/service';
 import { conflict, unprocessable } from '@server/http/errors';
@@ -66,75 +67,78 @@ export function writePromotion(
 ): PromoteResult {
   const labels = indices.map((i) => `${lot.code}-${data.items[i]}`.slice(0, 60));
 
-  return db.transaction(
-    (tx) => {
-      if (readingsMark(sqlite, lot.id) !== mark)
-        throw conflict("The lot's readings changed meanwhile; look at the lot again and repeat the promotion.");
-      const taken = tx
-        .select({ label: parts.label })
-        .from(parts)
-        .where(
-          inArray(
-            sql`lower(${parts.label})`,
-            labels.map((l) => l.toLowerCase()),
-          ),
-        )
-        .all();
-      if (taken.length > 0) throw conflict(`Parts exist already for ${taken.length} of these items (e.g. ${taken[0]!.label}).`);
-      const created = indices.map((i, k) => {
-        const part = tx
-          .insert(parts)
-          .values({
-            kind: lot.kind,
-            label: labels[k]!,
-            nominal: lot.nominal,
-            tolerancePct: lot.tolerancePct,
-            tolerancePlusPct: lot.tolerancePlusPct ?? lot.tolerancePct,
-            marking: lot.marking,
-            supplier: lot.supplier,
-            lotId: lot.id,
-            lotItem: data.items[i]!,
-            createdBy: userId,
-          })
-          .returning()
-          .get();
-        tx.insert(partStatusEvents)
-          .values({ partId: part.id, toStatus: 'incoming', reason: `promoted from lot ${lot.code}`, userId })
-          .run();
-        // The lot's meter and test frequency go with each reading, when the lot has them.
-        const conditions = {
-          ...(lot.instrumentId != null ? { instrumentId: lot.instrumentId } : {}),
-          ...(lot.testFrequency != null ? { frequency: lot.testFrequency } : {}),
-        };
-        recordReading(
-          tx,
-          part,
-          { quantity: lot.kind === 'capacitor' ? 'capacitance' : 'resistance', value: data.values[i]!, ...conditions },
-          userId,
-          'lot',
-        );
-        const second = data.second[i]!;
-        const secondQuantity =
-          lot.secondQuantity === 'dissipation' || lot.secondQuantity === 'esr' ? SECOND_READING[lot.secondQuantity] : null;
-        if (secondQuantity && !Number.isNaN(second))
+  // In a write turn (server/db/write-turns.ts): the request thread's writes wait for it without blocking.
+  return workerWrite(() =>
+    db.transaction(
+      (tx) => {
+        if (readingsMark(sqlite, lot.id) !== mark)
+          throw conflict("The lot's readings changed meanwhile; look at the lot again and repeat the promotion.");
+        const taken = tx
+          .select({ label: parts.label })
+          .from(parts)
+          .where(
+            inArray(
+              sql`lower(${parts.label})`,
+              labels.map((l) => l.toLowerCase()),
+            ),
+          )
+          .all();
+        if (taken.length > 0) throw conflict(`Parts exist already for ${taken.length} of these items (e.g. ${taken[0]!.label}).`);
+        const created = indices.map((i, k) => {
+          const part = tx
+            .insert(parts)
+            .values({
+              kind: lot.kind,
+              label: labels[k]!,
+              nominal: lot.nominal,
+              tolerancePct: lot.tolerancePct,
+              tolerancePlusPct: lot.tolerancePlusPct ?? lot.tolerancePct,
+              marking: lot.marking,
+              supplier: lot.supplier,
+              lotId: lot.id,
+              lotItem: data.items[i]!,
+              createdBy: userId,
+            })
+            .returning()
+            .get();
+          tx.insert(partStatusEvents)
+            .values({ partId: part.id, toStatus: 'incoming', reason: `promoted from lot ${lot.code}`, userId })
+            .run();
+          // The lot's meter and test frequency go with each reading, when the lot has them.
+          const conditions = {
+            ...(lot.instrumentId != null ? { instrumentId: lot.instrumentId } : {}),
+            ...(lot.testFrequency != null ? { frequency: lot.testFrequency } : {}),
+          };
           recordReading(
             tx,
-            tx
-              .select()
-              .from(parts)
-              .where(inArray(parts.id, [part.id]))
-              .get()!,
-            { quantity: secondQuantity, value: second, ...conditions },
+            part,
+            { quantity: lot.kind === 'capacitor' ? 'capacitance' : 'resistance', value: data.values[i]!, ...conditions },
             userId,
             'lot',
           );
-        return part.id;
-      });
-      // The items answer names each item's part: its compressed copies describe the lot before this promotion.
-      clearLotItemsEncoded(sqlite, lot.id);
-      audit(tx, { userId, action: 'lot.promote', entity: 'lot', entityId: lot.id, detail: { parts: created.length, selection: input } });
-      return { created: created.length, partIds: created };
-    },
-    { behavior: 'immediate' },
+          const second = data.second[i]!;
+          const secondQuantity =
+            lot.secondQuantity === 'dissipation' || lot.secondQuantity === 'esr' ? SECOND_READING[lot.secondQuantity] : null;
+          if (secondQuantity && !Number.isNaN(second))
+            recordReading(
+              tx,
+              tx
+                .select()
+                .from(parts)
+                .where(inArray(parts.id, [part.id]))
+                .get()!,
+              { quantity: secondQuantity, value: second, ...conditions },
+              userId,
+              'lot',
+            );
+          return part.id;
+        });
+        // The items answer names each item's part: its compressed copies describe the lot before this promotion.
+        clearLotItemsEncoded(sqlite, lot.id);
+        audit(tx, { userId, action: 'lot.promote', entity: 'lot', entityId: lot.id, detail: { parts: created.length, selection: input } });
+        return { created: created.length, partIds: created };
+      },
+      { behavior: 'immediate' },
+    ),
   );
 }

@@ -6,6 +6,7 @@
 // a row of another engine version, or one computed against other limits, is computed on its next read.
 import type Database from 'better-sqlite3';
 import { statement } from '@server/db/statements';
+import { workerWrite } from '@server/db/write-turns';
 import { ANALYSIS_ENGINE_VERSION } from '@shared/analysis/engine-version';
 import { lotStats, lotValues, type LotRow, type LotValues } from './repository';
 
@@ -105,38 +106,40 @@ export function refreshLotStats(sqlite: Database.Database, lot: LotRow): StoredL
   const read = sqlite.transaction(() => ({ mark: readingsMark(sqlite, lot.id), data: lotValues(sqlite, lot.id) }))();
   const results = lotResults(lot, read.data, DEFAULT_MATCHING);
   const stored = { count: results.count, statsJson: JSON.stringify(results.stats), columnsJson: JSON.stringify(results.columns) };
-  const kept = sqlite
-    .transaction(() => {
-      if (readingsMark(sqlite, lot.id) !== read.mark) return false;
-      sqlite
-        .prepare(
-          `insert into lot_stats (lot_id, engine_version, nominal, tolerance_pct, tolerance_plus_pct, second_limit, count, detail, computed_at)
+  const kept = workerWrite(() =>
+    sqlite
+      .transaction(() => {
+        if (readingsMark(sqlite, lot.id) !== read.mark) return false;
+        sqlite
+          .prepare(
+            `insert into lot_stats (lot_id, engine_version, nominal, tolerance_pct, tolerance_plus_pct, second_limit, count, detail, computed_at)
        values (?, ?, ?, ?, ?, ?, ?, ?, ?)
        on conflict (lot_id) do update set engine_version = excluded.engine_version, nominal = excluded.nominal,
          tolerance_pct = excluded.tolerance_pct, tolerance_plus_pct = excluded.tolerance_plus_pct, second_limit = excluded.second_limit, count = excluded.count,
          detail = excluded.detail, computed_at = excluded.computed_at`,
-        )
-        .run(
-          lot.id,
-          ANALYSIS_ENGINE_VERSION,
-          lot.nominal,
-          lot.tolerancePct,
-          lot.tolerancePlusPct ?? lot.tolerancePct,
-          lot.secondLimit,
-          stored.count,
-          stored.statsJson,
-          Date.now(),
-        );
-      sqlite
-        .prepare(
-          'insert into lot_stats_columns (lot_id, columns) values (?, ?) on conflict (lot_id) do update set columns = excluded.columns',
-        )
-        .run(lot.id, stored.columnsJson);
-      // The compressed copy described the results replaced here.
-      sqlite.prepare('delete from lot_items_encoded where lot_id = ?').run(lot.id);
-      return true;
-    })
-    .immediate();
+          )
+          .run(
+            lot.id,
+            ANALYSIS_ENGINE_VERSION,
+            lot.nominal,
+            lot.tolerancePct,
+            lot.tolerancePlusPct ?? lot.tolerancePct,
+            lot.secondLimit,
+            stored.count,
+            stored.statsJson,
+            Date.now(),
+          );
+        sqlite
+          .prepare(
+            'insert into lot_stats_columns (lot_id, columns) values (?, ?) on conflict (lot_id) do update set columns = excluded.columns',
+          )
+          .run(lot.id, stored.columnsJson);
+        // The compressed copy described the results replaced here.
+        sqlite.prepare('delete from lot_items_encoded where lot_id = ?').run(lot.id);
+        return true;
+      })
+      .immediate(),
+  );
   return { ...stored, kept };
 }
 

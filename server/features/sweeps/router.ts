@@ -5,7 +5,7 @@ import type { AppContext } from '@server/context';
 import { attachments, fits, sweeps } from '@server/db/schema';
 import { findPart } from '@server/features/parts/repository';
 import { notFound, unprocessable } from '@server/http/errors';
-import { ApiRouter } from '@server/http/router';
+import { ApiRouter, takeWriteTurn } from '@server/http/router';
 import { fileRefused } from '@server/uploads/refusal';
 import { checkFileType, singleFileUpload, withStoredFile, storedName } from '@server/uploads/store';
 import { IdParamsSchema } from '@shared/schemas/common';
@@ -79,6 +79,7 @@ export function sweepRoutes(ctx: AppContext) {
         // A coil fit runs in the job pool before anything is stored; a taper fit (a millisecond) inside the transaction.
         const fitted =
           body.kind === 'impedance' ? await coilFitInPool(ctx.pool, db, part, fitInput('impedance', stored) as CoilPoint[]) : undefined;
+        await takeWriteTurn(req);
         return withStoredFile(ctx.config.uploadsDir, file.buffer, (content) =>
           db.transaction((tx) => {
             const attachment = tx
@@ -137,7 +138,7 @@ export function sweepRoutes(ctx: AppContext) {
   // Runs the current engine again over a stored sweep; the previous fit stays in the history.
   api.post('/sweeps/:sweepId/refit', {
     schemas: { params: IdParamsSchema.extend({ sweepId: z.coerce.number().int().positive() }), body: RefitInputSchema },
-    handle: async ({ params, body, user }): Promise<RefitResult> => {
+    handle: async ({ params, body, req, user }): Promise<RefitResult> => {
       const part = findPart(db, params.id);
       const sweep = db
         .select()
@@ -147,6 +148,7 @@ export function sweepRoutes(ctx: AppContext) {
       if (!part || !sweep) throw notFound('That sweep');
       const fitted =
         sweep.kind === 'impedance' ? await coilFitInPool(ctx.pool, db, part, sweepInput(db, sweep) as CoilPoint[], body) : undefined;
+      await takeWriteTurn(req);
       return db.transaction((tx) => {
         const fit = fitAndStore(tx, part, sweep, user.id, { choices: body, ...(fitted ? { fit: fitted } : {}) });
         audit(tx, {
