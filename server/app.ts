@@ -71,7 +71,9 @@ export function createApp(ctx: AppContext): Express {
     next();
   });
 
-  app.use('/api', express.json({ limit: '5mb' }), originCheck, authenticate(ctx.lucia));
+  // JSON bodies are read by each route after its permission check (server/http/router.ts): no one parses
+  // megabytes for a request that is refused anyway.
+  app.use('/api', originCheck, authenticate(ctx.lucia));
   for (const api of featureRouters(ctx)) app.use(api.router);
   app.use('/api', apiNotFound);
 

@@ -1,4 +1,4 @@
-import { Router, type Request, type RequestHandler, type Response } from 'express';
+import express, { Router, type Request, type RequestHandler, type Response } from 'express';
 import { authorize } from '@server/auth/middleware';
 import type { AuthUser } from '@server/auth/session';
 import type { WriteTurns } from '@server/db/write-turns';
@@ -20,10 +20,18 @@ interface RouteSpec<S extends Schemas> {
   schemas?: S;
   /** Middleware that runs after the permission check and before validation (e.g. multer). */
   before?: RequestHandler[];
+  /** The largest JSON body the route reads (`BODY_LIMIT` unless it takes whole sweeps or lots of values). */
+  bodyLimit?: string;
   /** Returns the JSON body (status 200, or `status`), or undefined after answering through ctx.res. */
   handle: (ctx: Ctx<S>) => unknown;
   status?: number;
 }
+
+/**
+ * The JSON body a route reads unless it says otherwise: enough for every form and design (a 60-part
+ * netlist, 2,000 frequencies, 1,000 reading ids), small enough to parse in a few milliseconds.
+ */
+export const BODY_LIMIT = '256kb';
 
 /** Waits until the request thread may write (a no-op in an app without write turns). */
 export function takeWriteTurn(req: Request): Promise<void> {
@@ -75,7 +83,9 @@ export class ApiRouter {
       if (result !== undefined && !res.headersSent) res.status(spec.status ?? 200).json(result);
       else if (!res.headersSent) res.status(spec.status ?? 204).end();
     };
-    this.router[method](fullPath, authorize(key), ...(spec.before ?? []), validate(spec.schemas ?? {}), handler);
+    // The body is parsed only after the permission check has let the request through.
+    const body = express.json({ limit: spec.bodyLimit ?? BODY_LIMIT });
+    this.router[method](fullPath, authorize(key), body, ...(spec.before ?? []), validate(spec.schemas ?? {}), handler);
     return this;
   }
 }

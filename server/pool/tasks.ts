@@ -3,6 +3,8 @@
 // the database opens its own better-sqlite3 connection to the same file (WAL lets it read while the
 // main thread writes) and closes it when the job ends.
 import Database from 'better-sqlite3';
+import { fitTaper, type TaperInput } from '@shared/analysis/taper';
+import { lotStatistics, type LotInput } from '@shared/analysis/lot-stats';
 import { coilFlags, fitCoil, type CoilFit, type CoilSpec, type CoilPoint } from '@shared/analysis/coil';
 import { harnessResponse, instrumentResponses } from '@shared/audio/impulse';
 import { pickupPositionOf, synthesizePhrase } from '@shared/audio/phrase';
@@ -227,6 +229,17 @@ export function lotPromote({ dbFile, lot, input, userId }: LotPromoteInput): Pro
   return withDb(dbFile, (sqlite) => promoteToParts({ db: drizzle(sqlite, { schema }), sqlite }, lot, input, userId));
 }
 
+/** POST /api/analysis/taper: a taper fit of up to 20,000 points. */
+export function taperFit(input: TaperInput) {
+  return fitTaper(input);
+}
+
+/** POST /api/analysis/lot: a lot's statistics for up to 200,000 values, as the JSON text of the answer. */
+export function lotStatisticsJson(input: LotInput): Uint8Array {
+  const stats = lotStatistics(input);
+  return new TextEncoder().encode(JSON.stringify({ ...stats, deviationsPct: Array.from(stats.deviationsPct) }));
+}
+
 /** A job's report clips (server/features/jobs/clips.ts): the before and after designs as two 16-bit WAV files. */
 export function reportClips(input: ClipRenderInput): [Uint8Array, Uint8Array] {
   return renderClips(input);
@@ -248,5 +261,7 @@ export const TASKS = {
   lotFreshItemsEncoded,
   lotExportCsv,
   lotPromote,
+  taperFit,
+  lotStatisticsJson,
 } as const;
 export type TaskName = keyof typeof TASKS;

@@ -1,9 +1,8 @@
 // Stateless analysis: the measurement engine of shared/analysis behind HTTP, for any signed-in role.
 import type { AppContext } from '@server/context';
 import { unprocessable } from '@server/http/errors';
+import { sendJsonBytes } from '@server/http/encoded';
 import { ApiRouter } from '@server/http/router';
-import { lotStatistics } from '@shared/analysis/lot-stats';
-import { fitTaper } from '@shared/analysis/taper';
 import { decodeMarking } from '@shared/markings/decode';
 import { MarkingError } from '@shared/markings/tolerance-letters';
 import {
@@ -17,9 +16,9 @@ import { parseValue, ValueParseError } from '@shared/units/parse';
 import type { Quantity } from '@shared/units/quantities';
 
 /** The engine's own refusals (RangeError, parse and marking errors) become a 422 naming the field. */
-function asUnprocessable<T>(field: string, run: () => T): T {
+async function asUnprocessable<T>(field: string, run: () => T | Promise<T>): Promise<T> {
   try {
-    return run();
+    return await run();
   } catch (err) {
     if (err instanceof RangeError || err instanceof ValueParseError || err instanceof MarkingError) {
       throw unprocessable(err.message, { [field]: err.message });
@@ -41,14 +40,17 @@ export function analysisRoutes({ pool }: AppContext) {
     handle: ({ body }) => asUnprocessable('code', () => decodeMarking(body.code)),
   });
 
+  // In the job pool (server/pool), as are the coil fit and the lot statistics: up to 20,000 points.
   api.post('/taper', {
     schemas: { body: TaperRequestSchema },
-    handle: ({ body }) => asUnprocessable('points', () => fitTaper(body)),
+    bodyLimit: '2mb',
+    handle: ({ body }) => asUnprocessable('points', () => pool.run('taperFit', body)),
   });
 
-  // In the job pool (server/pool): up to 20,000 points.
+  // Up to 5,000 points.
   api.post('/coil', {
     schemas: { body: CoilRequestSchema },
+    bodyLimit: '1mb',
     handle: async ({ body }) => {
       try {
         return await pool.run('coilFit', body);
@@ -59,16 +61,20 @@ export function analysisRoutes({ pool }: AppContext) {
     },
   });
 
+  // Up to 200,000 values (and their second readings): the answer, with a deviation per value, is made
+  // as JSON text in the worker and sent in slices.
   api.post('/lot', {
     schemas: { body: LotRequestSchema },
-    handle: ({ body }) => {
+    bodyLimit: '5mb',
+    handle: async ({ body, res }) => {
       if (body.second && body.second.values.length !== body.values.length) {
         throw unprocessable('second.values must have one value per part.', {
           'second.values': `Expected ${body.values.length} values, got ${body.second.values.length}.`,
         });
       }
-      const stats = asUnprocessable('values', () => lotStatistics(body));
-      return { ...stats, deviationsPct: Array.from(stats.deviationsPct) };
+      const bytes = await asUnprocessable('values', () => pool.run('lotStatisticsJson', body));
+      await sendJsonBytes(res, bytes, null);
+      return undefined;
     },
   });
 
