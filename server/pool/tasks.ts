@@ -16,6 +16,7 @@ import { sweepKnobs } from '@shared/circuit/metrics';
 import type { Netlist } from '@shared/circuit/netlist';
 import { renderClips, type ClipRenderInput } from '@server/features/jobs/clips';
 import { compress, type Encoding } from '@server/http/encoded';
+import { simulationAnswer, type SimulateInput } from '@server/features/harness/simulate';
 import type { LotRow } from '@server/features/lots/repository';
 import { lotValues } from '@server/features/lots/repository';
 import { lotResults, readColumnBytes, refreshLotStats, type StoredLotResults } from '@server/features/lots/stored-stats';
@@ -229,6 +230,11 @@ export function lotPromote({ dbFile, lot, input, userId }: LotPromoteInput): Pro
   return withDb(dbFile, (sqlite) => promoteToParts({ db: drizzle(sqlite, { schema }), sqlite }, lot, input, userId));
 }
 
+/** POST /api/harness/simulate for a large design (server/features/harness/simulate.ts). */
+export function harnessSimulate(input: SimulateInput) {
+  return simulationAnswer(input);
+}
+
 /** POST /api/analysis/taper: a taper fit of up to 20,000 points. */
 export function taperFit(input: TaperInput) {
   return fitTaper(input);
@@ -263,5 +269,6 @@ export const TASKS = {
   lotPromote,
   taperFit,
   lotStatisticsJson,
+  harnessSimulate,
 } as const;
 export type TaskName = keyof typeof TASKS;

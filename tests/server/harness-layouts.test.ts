@@ -1,10 +1,12 @@
 // The whole-instrument routes: layouts, simulate/netlist/sweep with a layout body, the bleed
 // finder, saved designs in the layout shape (and the older preset shape).
-import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import { afterAll, beforeAll, describe, expect, test, vi } from 'vitest';
 import { buildLayoutNetlist, getLayout, LAYOUT_IDS, layoutKnobs, resolveLayoutConfig } from '@shared/circuit/layouts';
 import { simulate, simulateInstrument } from '@shared/circuit/metrics';
 import { getPreset } from '@shared/circuit/presets';
 import { createTestApp, type TestApp } from '../support/app';
+import { INLINE_SIMULATION_WORK } from '@server/features/harness/simulate';
+import type { Netlist } from '@shared/circuit/netlist';
 
 let t: TestApp;
 beforeAll(async () => {
@@ -55,6 +57,43 @@ describe('layouts', () => {
     expect(res.body.perPickup[0].magnitudeDb).toEqual(Array.from(engine.perPickup[0]!.magnitudeDb));
     expect(res.body.signal).toBe('present');
     expect(res.body.metrics.level1kDb).toBe(engine.metrics!.level1kDb);
+  });
+
+  test('a large design is solved in the pool and answers as the engine; an ordinary one on the request thread', async () => {
+    const layout = getLayout('one-pickup')!;
+    const base = buildLayoutNetlist(layout, resolveLayoutConfig(layout, {}).config);
+    // The same design with a ladder of 50 resistors hanging from its output (60 parts, the limit's ten below).
+    const ladder = Array.from({ length: 50 }, (_, i) => ({
+      kind: 'resistor',
+      id: `L${i}`,
+      a: i === 0 ? 'out' : `l${i}`,
+      b: `l${i + 1}`,
+      R: 1e6,
+    }));
+    const netlist = { ...base, parts: [...base.parts, ...ladder, { kind: 'resistor', id: 'Lend', a: 'l50', b: '0', R: 1e6 }] };
+    const frequencies = Array.from({ length: 2000 }, (_, i) => 20 * 1000 ** (i / 1999));
+    expect(netlist.parts.length * frequencies.length).toBeGreaterThan(INLINE_SIMULATION_WORK);
+    const knobs = { volume: 8, tone: 6 };
+    const asked: string[] = [];
+    const run = t.ctx.pool.run.bind(t.ctx.pool);
+    const spy = vi.spyOn(t.ctx.pool, 'run').mockImplementation(((name, input, opts) => {
+      asked.push(name);
+      return run(name, input, opts);
+    }) as typeof t.ctx.pool.run);
+    const agent = await t.as('viewer');
+    try {
+      const large = await agent.post('/api/harness/simulate').send({ netlist, knobs, frequencies });
+      expect(large.status).toBe(200);
+      const engine = simulateInstrument(netlist as Netlist, knobs, frequencies);
+      expect(large.body.magnitudeDb).toEqual(Array.from(engine.magnitudeDb));
+      expect(large.body.metrics.level1kDb).toBe(engine.metrics!.level1kDb);
+      expect(asked).toEqual(['harnessSimulate']);
+      const ordinary = await agent.post('/api/harness/simulate').send({ netlist: base, knobs });
+      expect(ordinary.status).toBe(200);
+      expect(asked).toEqual(['harnessSimulate']);
+    } finally {
+      spy.mockRestore();
+    }
   });
 
   test('a cancelled output answers "no signal (cancelled)" without figures', async () => {

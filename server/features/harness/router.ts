@@ -18,7 +18,7 @@ import {
   volumeKnobs,
   type LayoutDef,
 } from '@shared/circuit/layouts';
-import { DEFAULT_FREQUENCIES, simulateInstrument } from '@shared/circuit/metrics';
+import { DEFAULT_FREQUENCIES } from '@shared/circuit/metrics';
 import { validateNetlist, type Netlist } from '@shared/circuit/netlist';
 import {
   DEFAULT_HARNESS_VALUES,
@@ -31,6 +31,7 @@ import {
 import { HarnessUnsolvableError } from '@shared/circuit/solver';
 import { toSpiceNetlist } from '@shared/circuit/spice';
 import { checkPartRefs } from './part-refs';
+import { INLINE_SIMULATION_WORK, simulationAnswer } from './simulate';
 import { IdParamsSchema } from '@shared/schemas/common';
 import {
   BleedFinderRequestSchema,
@@ -217,25 +218,15 @@ export function harnessRoutes(ctx: AppContext) {
 
   engine.post('/simulate', {
     schemas: { body: SimulateRequestSchema },
-    handle: ({ body }) => {
+    handle: async ({ body }) => {
       const { netlist, layout } = sourceOf(body);
-      assertWorkSize(netlist, 1, body.frequencies?.length ?? DEFAULT_FREQUENCIES.length);
-      const r = solved(body.netlist ? 'netlist' : 'preset', () =>
-        simulateInstrument(netlist, knobsOf(layout, body.knobs), body.frequencies ?? DEFAULT_FREQUENCIES),
-      );
-      return {
-        frequencies: Array.from(r.frequencies),
-        magnitudeDb: Array.from(r.magnitudeDb),
-        phaseDeg: Array.from(r.phaseDeg),
-        metrics: r.metrics,
-        signal: r.signal,
-        note: r.note,
-        perPickup: r.perPickup.map((p) => ({
-          pickupId: p.pickupId,
-          magnitudeDb: Array.from(p.magnitudeDb),
-          phaseDeg: Array.from(p.phaseDeg),
-        })),
-      };
+      const frequencies = body.frequencies ?? Array.from(DEFAULT_FREQUENCIES);
+      assertWorkSize(netlist, 1, frequencies.length);
+      const input = { netlist, knobs: knobsOf(layout, body.knobs), frequencies };
+      const what = body.netlist ? 'netlist' : 'preset';
+      // An ordinary design answers at once; a large one is solved in the pool.
+      if (netlist.parts.length * frequencies.length <= INLINE_SIMULATION_WORK) return solved(what, () => simulationAnswer(input));
+      return solvedAsync(what, () => pool.run('harnessSimulate', input));
     },
   });
 
