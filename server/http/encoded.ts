@@ -25,8 +25,8 @@ export function compress(bytes: Uint8Array, encoding: Encoding): Buffer {
 }
 
 /** Sends JSON bytes as they are, compressed in `encoding` (or not, when null), a slice per turn of the event loop. */
-export function sendJsonBytes(res: Response, bytes: Uint8Array, encoding: Encoding | null): Promise<void> {
-  res.status(200).type('json').setHeader('Content-Length', bytes.length);
+export function sendJsonBytes(res: Response, bytes: Uint8Array, encoding: Encoding | null, status = 200): Promise<void> {
+  res.status(status).type('json').setHeader('Content-Length', bytes.length);
   if (encoding) res.setHeader('Content-Encoding', encoding);
   res.vary('Accept-Encoding');
   return sendInSlices(res, [bytes]);

@@ -17,6 +17,7 @@ import type { Netlist } from '@shared/circuit/netlist';
 import { renderClips, type ClipRenderInput } from '@server/features/jobs/clips';
 import { compress, type Encoding } from '@server/http/encoded';
 import { simulationAnswer, type SimulateInput } from '@server/features/harness/simulate';
+import { ingestSweep, partSweepsJson, refitSweep, type SweepIngestInput, type SweepRefitInput } from '@server/features/sweeps/jobs';
 import type { LotRow } from '@server/features/lots/repository';
 import { lotValues } from '@server/features/lots/repository';
 import { lotResults, readColumnBytes, refreshLotStats, type StoredLotResults } from '@server/features/lots/stored-stats';
@@ -230,6 +231,21 @@ export function lotPromote({ dbFile, lot, input, userId }: LotPromoteInput): Pro
   return withDb(dbFile, (sqlite) => promoteToParts({ db: drizzle(sqlite, { schema }), sqlite }, lot, input, userId));
 }
 
+/** A sweep upload: parse, fit and store (server/features/sweeps/jobs.ts); the answer as JSON text. */
+export function sweepIngest(input: SweepIngestInput): Uint8Array {
+  return withDb(input.dbFile, (sqlite) => ingestSweep(sqlite, input));
+}
+
+/** A part's sweeps with their points and current fits, as JSON text. */
+export function partSweeps(input: { dbFile: string; partId: number }): Uint8Array {
+  return withDb(input.dbFile, (sqlite) => partSweepsJson(sqlite, input.partId));
+}
+
+/** A stored sweep fitted again with the current engine, stored beside the older fits. */
+export function sweepRefit(input: SweepRefitInput) {
+  return withDb(input.dbFile, (sqlite) => refitSweep(sqlite, input));
+}
+
 /** POST /api/harness/simulate for a large design (server/features/harness/simulate.ts). */
 export function harnessSimulate(input: SimulateInput) {
   return simulationAnswer(input);
@@ -270,5 +286,8 @@ export const TASKS = {
   taperFit,
   lotStatisticsJson,
   harnessSimulate,
+  sweepIngest,
+  partSweeps,
+  sweepRefit,
 } as const;
 export type TaskName = keyof typeof TASKS;

@@ -1,7 +1,8 @@
 import crypto from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
-import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import { afterAll, beforeAll, describe, expect, test, vi } from 'vitest';
+import { HttpError } from '@server/http/errors';
 import { coilImpedance, fitCoil } from '@shared/analysis/coil';
 import { ANALYSIS_ENGINE_VERSION } from '@shared/analysis/engine-version';
 import { fitTaper } from '@shared/analysis/taper';
@@ -377,5 +378,34 @@ describe('Fit again with choices', () => {
     const off = await tech.post(`/api/parts/${pu}/sweeps/${coil.body.id}/refit`).send({ withRp: false });
     expect(off.body.fit.result.Rp).toBeNull();
     expect((await tech.post(`/api/parts/${pu}/sweeps/${coil.body.id}/refit`).send({ withRp: 'sometimes' })).status).toBe(422);
+  });
+});
+
+describe('the sweep routes work in the pool', () => {
+  test('listing, uploading and refitting ask the pool, and write nothing when it refuses', async () => {
+    const first = await upload(potId, 'taper', potCsv());
+    expect(first.status).toBe(201);
+    const before = snapshot();
+    const asked: string[] = [];
+    const spy = vi.spyOn(t.ctx.pool, 'run').mockImplementation(((name: string) => {
+      asked.push(name);
+      return Promise.reject(new HttpError(503, 'busy', 'The server is busy.', undefined, undefined, { 'Retry-After': '5' }));
+    }) as unknown as typeof t.ctx.pool.run);
+    try {
+      const tech = await t.as('tech');
+      expect((await tech.get(`/api/parts/${potId}/sweeps`)).status).toBe(503);
+      expect((await upload(potId, 'taper', potCsv(500))).status).toBe(503);
+      expect((await tech.post(`/api/parts/${potId}/sweeps/${first.body.id}/refit`).send({})).status).toBe(503);
+    } finally {
+      spy.mockRestore();
+    }
+    expect(asked).toEqual(['partSweeps', 'sweepIngest', 'sweepRefit']);
+    expect(snapshot()).toEqual(before);
+    // From the worker: the list holds the upload with the points as the engine takes them.
+    const list = await (await t.as('viewer')).get(`/api/parts/${potId}/sweeps`);
+    expect(list.status).toBe(200);
+    const listed = list.body.sweeps.find((s: { id: number }) => s.id === first.body.id);
+    expect(listed.points).toEqual(first.body.points);
+    expect(listed.fit.id).toBe(first.body.fit.id);
   });
 });

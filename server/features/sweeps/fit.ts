@@ -1,7 +1,6 @@
 // The server's fit of a stored sweep, with the part's nominal, tolerance and profile.
 import { and, desc, eq } from 'drizzle-orm';
 import type { DbLike } from '@server/db/client';
-import type { JobPool } from '@server/pool';
 import { fits, readings, sweepPoints, sweeps } from '@server/db/schema';
 import { setPartStatus, type PartRow } from '@server/features/parts/repository';
 import { profileForPart } from '@server/features/profiles/repository';
@@ -90,21 +89,6 @@ function coilSpec(db: DbLike, part: PartRow): CoilSpec {
         : undefined,
     minQ: rules.minQ,
   };
-}
-
-/**
- * A coil sweep's fit, computed in the job pool (an impedance sweep may hold 20,000 points) and judged
- * like `computeFit`; hand it to `fitAndStore` as `fit`. Taper fits (about a millisecond) stay inline: none here.
- */
-export async function coilFitInPool(
-  pool: JobPool,
-  db: DbLike,
-  part: PartRow,
-  points: CoilPoint[],
-  choices: RefitInput = {},
-): Promise<SweepFit> {
-  const result = await pool.run('coilFit', { points, withRp: choices.withRp ?? 'auto', rules: coilSpec(db, part) });
-  return { kind: 'coil', result };
 }
 
 /**
