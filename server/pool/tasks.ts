@@ -159,18 +159,26 @@ export interface LotStatsInput {
  * next read computes them again. Answers the results as computed.
  */
 export function lotStats(input: LotStatsInput): StoredLotResults & { kept: boolean } {
-  return withDb(input.dbFile, (sqlite) => refreshLotStats(sqlite, input.lot));
+  return withDb(input.dbFile, (sqlite) => {
+    const r = refreshLotStats(sqlite, input.lot);
+    return r.columns ? withTransfer(r, [r.columns.buffer as ArrayBuffer]) : r;
+  });
 }
 
 export interface LotResultsInput extends LotStatsInput {
   matching: { matchPct?: number; setSize?: number };
+  /** The detail needs the statistics only; the items route the columns too. */
+  part?: 'detail' | 'columns';
 }
 
 /** A lot's results for another matching than the stored one, for one request (nothing kept). */
 export function lotFreshResults(input: LotResultsInput): StoredLotResults {
   return withDb(input.dbFile, (sqlite) => {
     const r = lotResults(input.lot, lotValues(sqlite, input.lot.id), input.matching);
-    return { count: r.count, statsJson: JSON.stringify(r.stats), columnsJson: JSON.stringify(r.columns) };
+    const statsJson = JSON.stringify(r.stats);
+    if (input.part !== 'columns') return { count: r.count, statsJson, columns: null };
+    const columns = new TextEncoder().encode(JSON.stringify(r.columns));
+    return withTransfer({ count: r.count, statsJson, columns }, [columns.buffer as ArrayBuffer]);
   });
 }
 

@@ -139,7 +139,7 @@ export function lotRoutes(ctx: AppContext) {
     handle: async ({ params, query, res }) => {
       const lot = mustFind(params.id);
       // The default matching is stored (stored-stats.ts); another matching is computed for this request.
-      const results = isDefaultMatching(query) ? await statsJobs.stored(lot, 'detail') : await statsJobs.fresh(lot, query);
+      const results = isDefaultMatching(query) ? await statsJobs.stored(lot, 'detail') : await statsJobs.fresh(lot, query, 'detail');
       const disposedByName = lot.disposedBy
         ? (db.select({ name: users.name }).from(users).where(eq(users.id, lot.disposedBy)).get()?.name ?? null)
         : null;
@@ -181,7 +181,9 @@ export function lotRoutes(ctx: AppContext) {
       }
       // The stored columns' bytes go out as they are kept (no 9 MB string parsed, built or hashed for an ETag).
       const { count, bytes: columns } = fresh
-        ? await statsJobs.fresh(lot, query).then((r) => ({ count: r.count, bytes: Buffer.from(r.columnsJson) }))
+        ? await statsJobs
+            .fresh(lot, query, 'columns')
+            .then((r) => ({ count: r.count, bytes: Buffer.from(r.columns!.buffer, r.columns!.byteOffset, r.columns!.byteLength) }))
         : await statsJobs.columnBytes(lot, state);
       // Which items became parts is read on every request: a promotion changes it, not the readings.
       // The answer is a LotItems (shared/schemas/lots.ts): partIds, then the stored columns.

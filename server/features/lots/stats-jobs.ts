@@ -118,7 +118,7 @@ function makeLotStatsJobs(ctx: AppContext) {
         }
       }
       const computed = await refresh(lot);
-      return { count: computed.count, bytes: Buffer.from(computed.columnsJson) };
+      return { count: computed.count, bytes: toBuffer(computed.columns!) };
     },
     /**
      * The items answer for the stored columns read (`stored`), compressed in `enc`: from memory, else from
@@ -152,8 +152,8 @@ function makeLotStatsJobs(ctx: AppContext) {
       return toBuffer(await pool.run('lotFreshItemsEncoded', { dbFile, lot, matching, encoding: enc }, { budgetMs }));
     },
     /** Another matching, computed for this request only. */
-    fresh(lot: LotRow, matching: { matchPct?: number; setSize?: number }): Promise<StoredLotResults> {
-      return pool.run('lotFreshResults', { dbFile, lot, matching }, { budgetMs });
+    fresh(lot: LotRow, matching: { matchPct?: number; setSize?: number }, part: 'detail' | 'columns'): Promise<StoredLotResults> {
+      return pool.run('lotFreshResults', { dbFile, lot, matching, part }, { budgetMs });
     },
   };
 }
