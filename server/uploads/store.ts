@@ -114,6 +114,34 @@ export function storeContent(uploadsDir: string, content: Buffer): StoredFile {
   return { contentHash, size: content.length, created: true, path: file };
 }
 
+/** Bytes hashed per turn of the event loop by `storeContentAsync` (SHA-256 of 10 MB at once holds the thread ~25 ms). */
+const HASH_SLICE = 1024 * 1024;
+
+/** The content's SHA-256 (hex), a slice per turn of the event loop. */
+export async function sha256InSlices(content: Buffer): Promise<string> {
+  const hash = createHash('sha256');
+  for (let at = 0; at < content.length; at += HASH_SLICE) {
+    hash.update(content.subarray(at, at + HASH_SLICE));
+    if (at + HASH_SLICE < content.length) await new Promise((r) => setImmediate(r));
+  }
+  return hash.digest('hex');
+}
+
+/**
+ * `storeContent` for the request thread: the hash a megabyte per turn of the event loop, the file
+ * written by the thread pool. Same result, same atomic rename.
+ */
+export async function storeContentAsync(uploadsDir: string, content: Buffer): Promise<StoredFile> {
+  const contentHash = await sha256InSlices(content);
+  const file = contentPath(uploadsDir, contentHash);
+  if (fs.existsSync(file)) return { contentHash, size: content.length, created: false, path: file };
+  await fs.promises.mkdir(path.dirname(file), { recursive: true });
+  const tmp = `${file}.${process.pid}.${Date.now()}.tmp`;
+  await fs.promises.writeFile(tmp, content);
+  await fs.promises.rename(tmp, file);
+  return { contentHash, size: content.length, created: true, path: file };
+}
+
 /**
  * Stores the file, runs the database work, and removes the file again if that work throws,
  * so a refused upload leaves neither rows nor files behind.

@@ -5,8 +5,8 @@ import { audit } from '@server/audit';
 import type { AppContext } from '@server/context';
 import { attachments, jobs, lots, parts } from '@server/db/schema';
 import { HttpError, notFound, unprocessable } from '@server/http/errors';
-import { ApiRouter } from '@server/http/router';
-import { checkFileType, contentPath, singleFileUpload, withStoredFile, storedName } from '@server/uploads/store';
+import { ApiRouter, takeWriteTurn } from '@server/http/router';
+import { checkFileType, contentPath, singleFileUpload, storeContentAsync, storedName } from '@server/uploads/store';
 import { readWavHeader, WavError } from '@shared/audio/wav';
 import { IdParamsSchema } from '@shared/schemas/common';
 
@@ -53,7 +53,7 @@ export function attachmentRoutes(ctx: AppContext) {
       status: 201,
       before: [singleFileUpload(MAX_DOCUMENT_BYTES)],
       schemas: { params: IdParamsSchema, body: UploadFields },
-      handle: ({ params, body, req, user }) => {
+      handle: async ({ params, body, req, user }) => {
         if (!exists(params.id)) throw notFound('That record');
         if (body.purpose === 'recording' && owner.type !== 'job')
           throw unprocessable('Recordings are kept with jobs only.', { purpose: 'Use photo or certificate here.' });
@@ -69,8 +69,11 @@ export function attachmentRoutes(ctx: AppContext) {
             throw e;
           }
         }
-        return withStoredFile(ctx.config.uploadsDir, file.buffer, (content) =>
-          db.transaction((tx) => {
+        // Hashed and written without holding the request thread (up to 10 MB), then the rows after a write turn.
+        const content = await storeContentAsync(ctx.config.uploadsDir, file.buffer);
+        await takeWriteTurn(req);
+        try {
+          return db.transaction((tx) => {
             const row = tx
               .insert(attachments)
               .values({
@@ -93,8 +96,12 @@ export function attachmentRoutes(ctx: AppContext) {
               detail: { attachmentId: row.id, purpose: body.purpose, name: row.originalName },
             });
             return row;
-          }),
-        );
+          });
+        } catch (err) {
+          // A refused upload leaves neither rows nor files behind.
+          if (content.created) fs.rmSync(content.path, { force: true });
+          throw err;
+        }
       },
     });
     routers.push(api);

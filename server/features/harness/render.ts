@@ -3,9 +3,11 @@
 // channel count and length. The file's header and size are checked here; the rendering runs in the job
 // pool (server/pool), bounded by the size limits (60 s, 20 MB) and the pool's queue and time budget.
 import multer from 'multer';
+import type { Response } from 'express';
 import type { AppContext } from '@server/context';
 import { HttpError, unprocessable } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
+import { sendInSlices } from '@server/http/send-slices';
 import { readWavHeader, WavError } from '@shared/audio/wav';
 import { validateNetlist, type Netlist } from '@shared/circuit/netlist';
 import { HarnessUnsolvableError } from '@shared/circuit/solver';
@@ -42,6 +44,13 @@ function chainNetlistOf(
   return preset.build({ ...preset.defaults, ...(body.values ?? {}), ...override } as HarnessValues);
 }
 
+/** A rendered WAV file (up to ~23 MB) as a download, a slice per turn of the event loop. */
+function sendWav(res: Response, bytes: Uint8Array, name: string): Promise<void> {
+  res.status(200).type('audio/wav').setHeader('Content-Disposition', `attachment; filename="${name}"`);
+  res.setHeader('Content-Length', bytes.byteLength);
+  return sendInSlices(res, [bytes]);
+}
+
 const upload = multer({
   storage: multer.memoryStorage(),
   limits: { fileSize: RENDER_LIMITS.maxBytes, files: 1, fields: 5, parts: 6 },
@@ -65,8 +74,7 @@ export function renderRoutes({ pool }: AppContext) {
         const answer = await rendered(() =>
           pool.run('render', { netlist: source.netlist, knobs, phrase: { sampleRate: body.phrase!.sampleRate, seed: body.phrase!.seed } }),
         );
-        res.status(200).type('audio/wav').setHeader('Content-Disposition', 'attachment; filename="phrase.wav"');
-        res.end(Buffer.from(answer.buffer, answer.byteOffset, answer.byteLength));
+        await sendWav(res, answer, 'phrase.wav');
         return undefined;
       }
       if (!file)
@@ -94,17 +102,17 @@ export function renderRoutes({ pool }: AppContext) {
       const chain = body.chain
         ? chainNetlistOf(body.chain, 'chain', body.chain.netlist ? {} : { ampR: body.chain.inputR, cableLength: body.chain.cableLength })
         : undefined;
-      // The file's bytes are copied once and moved to the worker.
-      const wav = new Uint8Array(file.buffer);
+      // The file's bytes are moved to the worker; copied first only when they share memory with other data.
+      const own = file.buffer.byteOffset === 0 && file.buffer.byteLength === file.buffer.buffer.byteLength;
+      const wav = own ? new Uint8Array(file.buffer.buffer) : new Uint8Array(file.buffer);
       const answer = await rendered(() =>
         pool.run(
           'render',
           { netlist: source.netlist, knobs, wav, ...(chain ? { chain: { netlist: chain } } : {}) },
-          { transfer: [wav.buffer] },
+          { transfer: [wav.buffer as ArrayBuffer] },
         ),
       );
-      res.status(200).type('audio/wav').setHeader('Content-Disposition', 'attachment; filename="rendered.wav"');
-      res.end(Buffer.from(answer.buffer, answer.byteOffset, answer.byteLength));
+      await sendWav(res, answer, 'rendered.wav');
       return undefined;
     },
   });
