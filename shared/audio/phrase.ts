@@ -150,15 +150,20 @@ function pluck(
   }
 }
 
+/** The phrase's length in frames, without synthesising it (the last note plus 1.6 s of ring, unless `seconds` is given). */
+export function phraseFrames(options: Pick<PhraseOptions, 'sampleRate' | 'notes' | 'seconds'>): number {
+  const lastTime = (options.notes ?? DEFAULT_PHRASE).reduce((m, x) => Math.max(m, x.time), 0);
+  const seconds = options.seconds ?? lastTime + 1.6;
+  return Math.round(seconds * options.sampleRate);
+}
+
 /** Synthesises the phrase, one track per pickup position. */
 export function synthesizePhrase(options: PhraseOptions): Phrase {
   const sampleRate = options.sampleRate;
   const positions = [...(options.pickupPositions ?? [PICKUP_POSITIONS.middle])];
   const seed = options.seed ?? DEFAULT_PHRASE_SEED;
   const notes = [...(options.notes ?? DEFAULT_PHRASE)].sort((a, b) => a.time - b.time);
-  const lastTime = notes.reduce((m, x) => Math.max(m, x.time), 0);
-  const seconds = options.seconds ?? lastTime + 1.6;
-  const length = Math.round(seconds * sampleRate);
+  const length = phraseFrames(options);
   const tracks = positions.map(() => new Float64Array(length));
   const random = seededRandom(seed);
   const damp = Math.max(1, Math.round(DAMP_SECONDS * sampleRate));

@@ -15,7 +15,7 @@ import { attachments, harnesses } from '@server/db/schema';
 import { contentPath } from '@server/uploads/store';
 import { carryKnobs } from '@shared/audio/carry-knobs';
 import { harnessResponse, instrumentResponses, type InstrumentResponses } from '@shared/audio/impulse';
-import { pickupPositionOf, synthesizePhrase } from '@shared/audio/phrase';
+import { phraseFrames, pickupPositionOf, synthesizePhrase } from '@shared/audio/phrase';
 import { MAX_CHAIN_BOOST_DB, renderChannels, renderPickupTracks } from '@shared/audio/render';
 import { readWav, readWavHeader, WavError, writeWav } from '@shared/audio/wav';
 import { buildLayoutNetlist, getLayout, layoutKnobs, resolveLayoutConfig, type LayoutDef } from '@shared/circuit/layouts';
@@ -113,7 +113,7 @@ function monoHead(channels: Float32Array[], sampleRate: number, seconds: number)
 /**
  * The paragraph and the clips for a job's report. `uploadsDir` is where the job's recording is stored.
  */
-export function reportClips(db: DbLike, uploadsDir: string, job: JobDetail): ReportClips {
+export async function reportClips(db: DbLike, uploadsDir: string, job: JobDetail): Promise<ReportClips> {
   const none = (text: string | null): ReportClips => ({ text, attachments: () => Promise.resolve([]) });
   const hasBefore = job.beforeHarnessId != null || job.beforeDesign != null;
   if (!hasBefore) return none(null);
@@ -144,7 +144,9 @@ export function reportClips(db: DbLike, uploadsDir: string, job: JobDetail): Rep
   let sourceNote = '';
   if (recording) {
     try {
-      const bytes = new Uint8Array(fs.readFileSync(contentPath(uploadsDir, recording.contentHash)));
+      // Read by the thread pool (up to 10 MB), and later moved, not copied, to the worker that renders.
+      const file = await fs.promises.readFile(contentPath(uploadsDir, recording.contentHash));
+      const bytes = new Uint8Array(file.buffer, file.byteOffset, file.byteLength);
       const h = readWavHeader(bytes);
       source = { kind: 'recording', bytes, name: recording.originalName, seconds: h.frames / h.sampleRate, rate: h.sampleRate };
     } catch (e) {
@@ -181,9 +183,9 @@ export function reportClips(db: DbLike, uploadsDir: string, job: JobDetail): Rep
   return { text: lines.join('\n'), attachments: attachmentsOf };
 }
 
+/** The phrase's length, known without synthesising it (that takes ~0.1 s, in the worker that renders the clips). */
 function phraseSeconds(): number {
-  const p = synthesizePhraseCached();
-  return p.tracks[0]!.length / p.sampleRate;
+  return phraseFrames({ sampleRate: CLIP_PHRASE_RATE }) / CLIP_PHRASE_RATE;
 }
 
 let cached: ReturnType<typeof synthesizePhrase> | null = null;
@@ -239,7 +241,12 @@ export function renderClips(input: ClipRenderInput): [Uint8Array, Uint8Array] {
 
 /** The clips as the report's attachment source: their paragraph and, when they can be made, the two WAV files (rendered in the job pool). */
 export const soundClips: ReportAttachmentSource = async ({ db, job, uploadsDir, pool }) => {
-  const clips = reportClips(db, uploadsDir, job);
-  const render: ClipRenderer = (input) => pool.run('reportClips', input);
+  const clips = await reportClips(db, uploadsDir, job);
+  // The recording's bytes are moved to the worker (the clips are rendered once per report).
+  const render: ClipRenderer = (input) => {
+    const wav = input.recording?.wav;
+    const own = wav && wav.byteOffset === 0 && wav.byteLength === wav.buffer.byteLength;
+    return pool.run('reportClips', input, own ? { transfer: [wav.buffer as ArrayBuffer] } : {});
+  };
   return { attachments: await clips.attachments(render), lines: clips.text ? [clips.text] : [] };
 };

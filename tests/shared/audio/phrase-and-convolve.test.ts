@@ -4,7 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { convolve, renderSegments } from '@shared/audio/convolve';
 import { RealFft } from '@shared/audio/fft';
 import { harnessResponse, impulseResponse, type ImpulseResponse } from '@shared/audio/impulse';
-import { DEFAULT_PHRASE_SEED, synthesizePhrase } from '@shared/audio/phrase';
+import { DEFAULT_PHRASE_SEED, phraseFrames, synthesizePhrase } from '@shared/audio/phrase';
 import { getPreset } from '@shared/circuit/presets';
 import { seededRandom } from '@shared/random/seeded';
 
@@ -33,6 +33,25 @@ function peakNear(mag: Float64Array, f: number, fs: number, n: number): { f: num
 }
 
 describe('plucked-string phrase', () => {
+  it('phraseFrames gives the length the synthesis makes, without synthesising', () => {
+    for (const options of [
+      { sampleRate: 22050 },
+      { sampleRate: 48000 },
+      {
+        sampleRate: 44100,
+        notes: [
+          { string: 2, fret: 3, time: 0.75, velocity: 0.7 },
+          { string: 5, fret: 0, time: 0.1, velocity: 0.9 },
+        ],
+      },
+      { sampleRate: 22050, seconds: 1.25 },
+    ]) {
+      expect(phraseFrames(options)).toBe(synthesizePhrase(options).tracks[0]!.length);
+    }
+    // The last note at 0.75 s and 1.6 s of ring, at 44.1 kHz: round(2.35 × 44100).
+    expect(phraseFrames({ sampleRate: 44100, notes: [{ string: 2, fret: 3, time: 0.75, velocity: 0.7 }] })).toBe(103635);
+  });
+
   it('is the same for the same seed and differs for another', () => {
     const a = synthesizePhrase({ sampleRate: 22050, seed: 3 }).tracks[0]!;
     const b = synthesizePhrase({ sampleRate: 22050, seed: 3 }).tracks[0]!;
