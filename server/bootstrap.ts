@@ -37,13 +37,20 @@ export function createContext(opts: ContextOptions): AppContext {
     log(`Part labels differ only in case (rename one): ${clash.parts.map((p) => `${p.label} (id ${p.id})`).join(', ')}`);
   }
   const writeTurns = new WriteTurns();
+  const pool = createJobPool(opts.pool ?? poolOptionsFromEnv(), writeTurns);
   return {
     db,
     sqlite,
     lucia: createLucia(db, { production: opts.production ?? false, writeTurns }),
-    pool: createJobPool(opts.pool ?? poolOptionsFromEnv(), writeTurns),
+    pool,
     writeTurns,
-    mailer: createMailer(db, { smtpUrl: opts.smtpUrl, from: opts.mailFrom ?? 'Lugbook <no-reply@lugbook.test>', writeTurns }),
+    mailer: createMailer(db, {
+      smtpUrl: opts.smtpUrl,
+      from: opts.mailFrom ?? 'Lugbook <no-reply@lugbook.test>',
+      writeTurns,
+      pool,
+      dbFile: sqlite.name,
+    }),
     config: {
       production: opts.production ?? false,
       publicUrl: opts.publicUrl ?? 'http://localhost:3000',

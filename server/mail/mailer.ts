@@ -1,7 +1,9 @@
 import nodemailer, { type Transporter } from 'nodemailer';
 import type { WriteTurns } from '@server/db/write-turns';
 import type { Db } from '@server/db/client';
-import { outbox, outboxAttachments } from '@server/db/schema';
+import { HttpError } from '@server/http/errors';
+import type { JobPool } from '@server/pool';
+import { outboxRecordBytes, storeOutboxMessage, type OutboxRecord } from './outbox-store';
 
 export type MailTopic = 'invitation' | 'password-reset' | 'lot-disposition' | 'lot-reopen' | 'customer-report';
 
@@ -22,7 +24,13 @@ export interface Mailer {
  * local stand-in keeps the built message (RFC 5322 source) in the outbox table, where admins
  * read it on the Outbox screen. Either way the outbox row is the record of what was sent.
  */
-export function createMailer(db: Db, opts: { smtpUrl?: string; from: string; writeTurns?: WriteTurns }): Mailer {
+/** A message larger than this (source and files) is written to the outbox by a pool worker. */
+const LARGE_MESSAGE_BYTES = 256 * 1024;
+
+export function createMailer(
+  db: Db,
+  opts: { smtpUrl?: string; from: string; writeTurns?: WriteTurns; pool?: JobPool; dbFile?: string },
+): Mailer {
   const builder: Transporter = nodemailer.createTransport({ streamTransport: true, buffer: true, newline: 'unix' });
   const smtp: Transporter | null = opts.smtpUrl ? nodemailer.createTransport(opts.smtpUrl) : null;
 
@@ -41,36 +49,33 @@ export function createMailer(db: Db, opts: { smtpUrl?: string; from: string; wri
           error = err instanceof Error ? err.message : String(err);
         }
       }
+      const record: OutboxRecord = {
+        to: message.to,
+        subject: message.subject,
+        text: message.text,
+        topic: message.topic,
+        raw,
+        transport: smtp ? 'smtp' : 'outbox',
+        sentAt,
+        error,
+        attachments: (message.attachments ?? []).map((a) => ({
+          filename: a.filename,
+          contentType: a.contentType ?? 'application/octet-stream',
+          content: typeof a.content === 'string' ? Buffer.from(a.content, 'utf8') : a.content,
+        })),
+      };
       // The message and its attachments in one transaction: the Outbox lists them and serves them back.
-      await opts.writeTurns?.take();
-      db.transaction((tx) => {
-        const row = tx
-          .insert(outbox)
-          .values({
-            to: message.to,
-            subject: message.subject,
-            text: message.text,
-            topic: message.topic,
-            raw,
-            transport: smtp ? 'smtp' : 'outbox',
-            sentAt,
-            error,
-          })
-          .returning({ id: outbox.id })
-          .get();
-        for (const a of message.attachments ?? []) {
-          const content = typeof a.content === 'string' ? Buffer.from(a.content, 'utf8') : a.content;
-          tx.insert(outboxAttachments)
-            .values({
-              messageId: row.id,
-              filename: a.filename,
-              contentType: a.contentType ?? 'application/octet-stream',
-              size: content.length,
-              content,
-            })
-            .run();
+      // A large one is written by a pool worker; when the pool cannot take it now, here rather than not at all.
+      if (opts.pool && opts.dbFile && outboxRecordBytes(record) > LARGE_MESSAGE_BYTES) {
+        try {
+          await opts.pool.run('outboxStore', { dbFile: opts.dbFile, record });
+          return;
+        } catch (err) {
+          if (!(err instanceof HttpError && err.status === 503)) throw err;
         }
-      });
+      }
+      await opts.writeTurns?.take();
+      storeOutboxMessage(db, record);
     },
   };
 }

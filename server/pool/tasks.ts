@@ -17,6 +17,8 @@ import type { Netlist } from '@shared/circuit/netlist';
 import { renderClips, type ClipRenderInput } from '@server/features/jobs/clips';
 import { compress, type Encoding } from '@server/http/encoded';
 import { simulationAnswer, type SimulateInput } from '@server/features/harness/simulate';
+import { storeOutboxMessage, type OutboxRecord } from '@server/mail/outbox-store';
+import { workerWrite } from '@server/db/write-turns';
 import { ingestSweep, partSweepsJson, refitSweep, type SweepIngestInput, type SweepRefitInput } from '@server/features/sweeps/jobs';
 import type { LotRow } from '@server/features/lots/repository';
 import { lotValues } from '@server/features/lots/repository';
@@ -254,6 +256,11 @@ export function sweepRefit(input: SweepRefitInput) {
   return withDb(input.dbFile, (sqlite) => refitSweep(sqlite, input));
 }
 
+/** A large built message written to the outbox (server/mail/outbox-store.ts). */
+export function outboxStore(input: { dbFile: string; record: OutboxRecord }): void {
+  withDb(input.dbFile, (sqlite) => workerWrite(() => storeOutboxMessage(drizzle(sqlite, { schema }), input.record)));
+}
+
 /** POST /api/harness/simulate for a large design (server/features/harness/simulate.ts). */
 export function harnessSimulate(input: SimulateInput) {
   return simulationAnswer(input);
@@ -297,5 +304,6 @@ export const TASKS = {
   sweepIngest,
   partSweeps,
   sweepRefit,
+  outboxStore,
 } as const;
 export type TaskName = keyof typeof TASKS;

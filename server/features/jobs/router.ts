@@ -6,7 +6,7 @@ import { harnesses, jobParts, jobs, users } from '@server/db/schema';
 import { findPart, setPartStatus } from '@server/features/parts/repository';
 import { installCheck } from '@server/features/parts/evidence';
 import { conflict, HttpError, notFound, unprocessable } from '@server/http/errors';
-import { ApiRouter } from '@server/http/router';
+import { ApiRouter, takeWriteTurn } from '@server/http/router';
 import { IdParamsSchema } from '@shared/schemas/common';
 import {
   AssignSlotInputSchema,
@@ -240,7 +240,7 @@ export function jobRoutes(ctx: AppContext) {
 
   api.post('/:id/report', {
     schemas: { params: IdParamsSchema, body: JobReportInputSchema },
-    handle: async ({ params, body, user }) => {
+    handle: async ({ params, body, req, user }) => {
       const job = mustFind(params.id);
       const report = await composeReport(db, job, { ...body, uploadsDir: ctx.config.uploadsDir, pool: ctx.pool });
       const to = report.to;
@@ -259,6 +259,7 @@ export function jobRoutes(ctx: AppContext) {
         text: report.text,
         attachments: report.attachments.length ? report.attachments : undefined,
       });
+      await takeWriteTurn(req);
       audit(db, { userId: user.id, action: 'job.report-sent', entity: 'job', entityId: job.id, detail: { to } });
       return { ok: true, to };
     },
