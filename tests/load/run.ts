@@ -1,7 +1,8 @@
 // `npm run load`: a bounded load figure anyone can reproduce. Starts the app (server/index.ts through tsx)
 // on a temporary data folder with the demo workshop, on loopback only, then runs each scenario for a fixed
 // duration at a fixed concurrency while one probe calls /api/health every 50 ms. Prints req/s, p50/p99
-// of the scenario and p50/p99 of /api/health. Nothing is sent anywhere but 127.0.0.1.
+// of the scenario and p50/p99 of /api/health (the last scenario mixes one uploader of 100,000-row lots with
+// clients creating parts; its p50/p99 are of both kinds of call together). Nothing is sent anywhere but 127.0.0.1.
 // The probe runs in a thread of its own, so the clients' work here (reading megabytes of answers) does not
 // delay its timer and count as the server's; GETs read the answer's bytes as sent (a compressed answer is
 // not decoded here, as a browser decodes on its own machine).
@@ -110,16 +111,16 @@ function healthProbe(ms: number): Promise<number[]> {
   });
 }
 
-async function scenario(name: string, call: () => Promise<{ ok: boolean }>) {
+async function scenario(name: string, call: (client: number) => Promise<{ ok: boolean }>) {
   if (ONLY && !name.includes(ONLY)) return;
   const times: number[] = [];
   let errors = 0;
   const until = performance.now() + DURATION_MS;
-  const worker = async () => {
+  const worker = async (client: number) => {
     while (performance.now() < until) {
       const t0 = performance.now();
       try {
-        const res = await call();
+        const res = await call(client);
         if (!res.ok) errors++;
       } catch {
         // A reset or refused connection counts as an error, with its time.
@@ -128,7 +129,7 @@ async function scenario(name: string, call: () => Promise<{ ok: boolean }>) {
       times.push(performance.now() - t0);
     }
   };
-  const [health] = await Promise.all([healthProbe(DURATION_MS), ...Array.from({ length: CONCURRENCY }, worker)]);
+  const [health] = await Promise.all([healthProbe(DURATION_MS), ...Array.from({ length: CONCURRENCY }, (_, i) => worker(i))]);
   times.sort((a, b) => a - b);
   const f = (x: number) => x.toFixed(1).padStart(8);
   const load = os
@@ -193,6 +194,34 @@ async function main() {
     const form = new FormData();
     form.append('file', new Blob([csv], { type: 'text/csv' }), 'lot.csv');
     return done(fetch(`${BASE}/api/lots/${lot.id}/readings`, { method: 'POST', headers, body: form }));
+  });
+  // One client stores 100,000-row lots (a pool worker holds SQLite's write lock about a second each) while
+  // the others create parts, which write on the request thread: they take turns with the worker's writes.
+  const bigCsv = [
+    'Item,C (nF)',
+    ...Array.from({ length: 100_000 }, (_, i) => `${i + 1},${(47 * (1 + 0.02 * Math.sin(i))).toFixed(4)}`),
+  ].join('\n');
+  let made = 0;
+  await scenario('100,000-row upload + part edits', async (client) => {
+    if (client === 0) {
+      const lot = (await (
+        await fetch(`${BASE}/api/lots`, {
+          method: 'POST',
+          headers: { ...headers, 'Content-Type': 'application/json' },
+          body: JSON.stringify({ kind: 'capacitor', marking: '473J' }),
+        })
+      ).json()) as { id: number };
+      const form = new FormData();
+      form.append('file', new Blob([bigCsv], { type: 'text/csv' }), 'lot.csv');
+      return done(fetch(`${BASE}/api/lots/${lot.id}/readings`, { method: 'POST', headers, body: form }));
+    }
+    return done(
+      fetch(`${BASE}/api/parts`, {
+        method: 'POST',
+        headers: { ...headers, 'Content-Type': 'application/json' },
+        body: JSON.stringify({ kind: 'resistor', label: `LOAD-R-${++made}`, nominal: 10e3, tolerancePct: 5 }),
+      }),
+    );
   });
 }
 
