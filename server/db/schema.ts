@@ -117,6 +117,12 @@ export const lots = sqliteTable('lots', {
   notes: text('notes'),
   createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
   createdAt: createdAt(),
+  /**
+   * How many lot_readings rows the lot has, kept so the lot list reads it instead of counting 100,000
+   * rows per lot on every request. Written in the transaction that inserts or replaces the readings
+   * (the lot ingest, the demo seed); migration 0015 filled it for lots stored before.
+   */
+  readingCount: integer('reading_count').notNull().default(0),
 });
 
 export const lotReadings = sqliteTable(

@@ -67,6 +67,8 @@ function seedPotLot(s: Seeders, plan: PotLotPlan): void {
       supplier: plan.supplier,
       receivedOn: plan.receivedOn,
       expectedCount: plan.count,
+      // One reading per item, inserted below in this transaction.
+      readingCount: plan.count,
       secondQuantity: 'end-resistance',
       secondLimit: 500,
       createdBy: s.users.qa,
@@ -147,6 +149,8 @@ function seedCapacitorLot(
       supplier: opts.supplier,
       receivedOn: opts.receivedOn,
       expectedCount: opts.count,
+      // One reading per item, inserted below in this transaction.
+      readingCount: opts.count,
       secondQuantity: 'dissipation',
       secondLimit: 0.01,
       createdBy: s.users.qa,

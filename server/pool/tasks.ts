@@ -31,6 +31,12 @@ import type { PromoteInput } from '@shared/schemas/lots';
 import { drizzle } from 'drizzle-orm/better-sqlite3';
 import * as schema from '@server/db/schema';
 import { lotExportCsv as buildLotExportCsv, type LotExportMatching } from '@server/features/lots/export-csv';
+import {
+  comparisonCsv as buildComparisonCsv,
+  taperComparison,
+  type ComparisonCsvInput,
+  type TaperComparisonRequest,
+} from '@server/features/compare/compute';
 
 export interface HarnessSweepInput {
   netlist: Netlist;
@@ -282,6 +288,25 @@ export function reportClips(input: ClipRenderInput): [Uint8Array, Uint8Array] {
   return renderClips(input);
 }
 
+export interface CompareTapersInput {
+  dbFile: string;
+  request: TaperComparisonRequest;
+  encoding: Encoding | null;
+}
+
+/** POST /api/compare/tapers (server/features/compare/compute.ts): the answer as JSON bytes, compressed as the client accepts. */
+export function compareTapersJson(input: CompareTapersInput): Uint8Array {
+  return withDb(input.dbFile, (sqlite) => {
+    const json = Buffer.from(JSON.stringify(taperComparison(sqlite, input.request)));
+    return input.encoding ? compress(json, input.encoding) : json;
+  });
+}
+
+/** GET /api/comparisons/:id/export.csv (server/features/compare/compute.ts) as UTF-8 bytes. */
+export function comparisonCsv(input: ComparisonCsvInput & { dbFile: string }): Uint8Array {
+  return withDb(input.dbFile, (sqlite) => new TextEncoder().encode(buildComparisonCsv(sqlite, input)));
+}
+
 /** Every job by name: the pool's typed front (server/pool/index.ts) takes its types from here. */
 export const TASKS = {
   harnessSweep,
@@ -305,5 +330,7 @@ export const TASKS = {
   partSweeps,
   sweepRefit,
   outboxStore,
+  compareTapersJson,
+  comparisonCsv,
 } as const;
 export type TaskName = keyof typeof TASKS;

@@ -168,7 +168,7 @@ export interface CompareResult {
 }
 
 /** The group a pot belongs to, with a label for people. */
-export function groupOf(pot: ComparePot, groupBy: GroupBy): { key: string; label: string } {
+export function groupOf(pot: Pick<ComparePot, 'lotId' | 'lotCode' | 'supplier'>, groupBy: GroupBy): { key: string; label: string } {
   if (groupBy === 'lot')
     return pot.lotId !== null
       ? { key: `lot:${pot.lotId}`, label: pot.lotCode ?? `Lot ${pot.lotId}` }

@@ -43,6 +43,28 @@ export type TaperRequest = z.infer<typeof TaperRequestSchema>;
 const MagPhasePoint = z.object({ frequency: rangeNumber('frequency'), magnitude: nonNegative, phaseDeg: finite.min(-180).max(180) });
 const ReImPoint = z.object({ frequency: rangeNumber('frequency'), re: finite, im: finite });
 
+/**
+ * A list of points of one kind, with zod's type checks of that kind done first as a plain loop (every
+ * point an object, every field a finite number). A list that fails them would fail that union branch as
+ * a type error anyway, so the union answers as a plain one would, with the same messages; but it no
+ * longer reads 5,000 re/im points as magnitude/phase first, building two issues per point (tens of
+ * milliseconds on the request thread). Every field of a point kind must be a required number.
+ */
+const pointsOfKind = <P extends z.ZodObject>(point: P) => {
+  const fields = Object.keys(point.shape);
+  return z
+    .custom<unknown[]>((points) =>
+      (points as unknown[]).every(
+        (p) =>
+          typeof p === 'object' &&
+          p !== null &&
+          !Array.isArray(p) &&
+          fields.every((f) => Number.isFinite((p as Record<string, unknown>)[f])),
+      ),
+    )
+    .pipe(z.array(point));
+};
+
 export const CoilRequestSchema = z.object({
   // The count is checked before any point is read (a 5 MB body holds some 100,000 of them).
   points: z
@@ -51,7 +73,11 @@ export const CoilRequestSchema = z.object({
       error: (issue) =>
         `A coil fit takes at most ${MAX_SWEEP_POINTS.impedance.toLocaleString('en')} points, as many as an impedance sweep upload; this one has ${(issue.input as unknown[]).length.toLocaleString('en')}.`,
     })
-    .pipe(z.union([z.array(MagPhasePoint), z.array(ReImPoint)]).refine((p) => p.length >= 5, 'A coil fit needs at least five points.')),
+    .pipe(
+      z
+        .union([pointsOfKind(MagPhasePoint), pointsOfKind(ReImPoint)])
+        .refine((p) => p.length >= 5, 'A coil fit needs at least five points.'),
+    ),
   withRp: z.union([z.boolean(), z.literal('auto')]).optional(),
 });
 export type CoilRequest = z.infer<typeof CoilRequestSchema>;

@@ -72,6 +72,19 @@ describe('stateless analysis routes (any signed-in role)', () => {
     expect(res.body.L).toBeCloseTo(fitCoil({ points }).L, 10);
   });
 
+  test('coil: a point of the other kind or out of range is a 422 in the words the route always used', async () => {
+    const viewer = await t.as('viewer');
+    const points = Array.from({ length: 20 }, (_, i) => ({ frequency: 100 * (i + 1), re: 6000, im: 10 * i }));
+    const mixed = await viewer
+      .post('/api/analysis/coil')
+      .send({ points: points.map((p, i) => (i === 12 ? { frequency: p.frequency, magnitude: 6000, phaseDeg: 5 } : p)) });
+    expect(mixed.status).toBe(422);
+    expect(mixed.body.error).toEqual({ code: 'invalid', message: 'points: Invalid input', fields: { points: 'Invalid input' } });
+    const high = await viewer.post('/api/analysis/coil').send({ points: points.map((p, i) => (i === 5 ? { ...p, frequency: 2e6 } : p)) });
+    expect(high.status).toBe(422);
+    expect(high.body.error.fields).toEqual({ 'points.5.frequency': 'Must be a frequency from 1 Hz to 1 MHz.' });
+  });
+
   test('value: a bare decimal capacitance is µF and says so; a bare 100 is refused with a hint (common practice)', async () => {
     const viewer = await t.as('viewer');
     const ok = await viewer.post('/api/analysis/value').send({ text: '.022', quantity: 'capacitance' });

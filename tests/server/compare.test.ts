@@ -1,7 +1,10 @@
 import { readConditions } from '@shared/csv/conditions';
+import Database from 'better-sqlite3';
 import { eq } from 'drizzle-orm';
-import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import { afterAll, beforeAll, describe, expect, test, vi } from 'vitest';
 import { parts } from '@server/db/schema';
+import { comparisonCsv, taperComparison } from '@server/features/compare/compute';
+import { HttpError } from '@server/http/errors';
 import { summaryStatistics } from '@shared/analysis/lot-stats';
 import { taperLawValue, type TaperLawKind } from '@shared/taper/law';
 import { createTestApp, type TestApp } from '../support/app';
@@ -310,5 +313,72 @@ describe('saved comparisons', () => {
     ]);
     expect(body.nominals).toEqual(expect.arrayContaining([250e3, 500e3]));
     expect(body.tags).toEqual(expect.arrayContaining(['study', 'bright']));
+  });
+});
+
+/** While it runs, the pool refuses every job as it does with all workers busy and its queue full; answers the jobs asked for. */
+async function withPoolRefusing<T>(run: () => Promise<T>): Promise<{ result: T; asked: string[] }> {
+  const asked: string[] = [];
+  const spy = vi.spyOn(t.ctx.pool, 'run').mockImplementation(((name: string) => {
+    asked.push(name);
+    return Promise.reject(new HttpError(503, 'busy', 'The server is busy.', undefined, undefined, { 'Retry-After': '5' }));
+  }) as unknown as typeof t.ctx.pool.run);
+  try {
+    return { result: await run(), asked };
+  } finally {
+    spy.mockRestore();
+  }
+}
+
+describe('the work that grows with the sweeps runs in the pool', () => {
+  test('the taper comparison is made in a worker: refused there, it is a 503; its answer is the comparison of the same pots', async () => {
+    const viewer = await t.as('viewer');
+    const request = { selection: { lotIds: [lotIds.A!, lotIds.C!] }, groupBy: 'supplier' as const, gridPoints: 501 };
+    const refused = await withPoolRefusing(async () => viewer.post('/api/compare/tapers').send(request));
+    expect(refused.asked).toEqual(['compareTapersJson']);
+    expect(refused.result.status).toBe(503);
+    for (const encoding of ['identity', 'gzip']) {
+      const res = await viewer.post('/api/compare/tapers').set('Accept-Encoding', encoding).send(request);
+      expect(res.status).toBe(200);
+      expect(res.headers['content-encoding']).toBe(encoding === 'gzip' ? 'gzip' : undefined);
+      // The worker's answer is the comparison made here, on this thread's connection, of the same request.
+      expect(res.body).toEqual(JSON.parse(JSON.stringify(taperComparison(t.ctx.sqlite, request))));
+      expect(res.body.pots.map((p: Pot) => p.label).sort()).toEqual(['CMP-A1', 'CMP-A2', 'CMP-A3', 'CMP-C1', 'CMP-C2']);
+      expect(res.body.grid).toHaveLength(501);
+    }
+  });
+
+  test("a saved comparison's CSV is made in a worker from the fits alone, reading no sweep", async () => {
+    const tech = await t.as('tech');
+    const id = (
+      await tech
+        .post('/api/comparisons')
+        .send({ name: 'Lot B', selection: { lotIds: [lotIds.B] } })
+        .expect(201)
+    ).body.id;
+    const refused = await withPoolRefusing(async () => tech.get(`/api/comparisons/${id}/export.csv`));
+    expect(refused.asked).toEqual(['comparisonCsv']);
+    expect(refused.result.status).toBe(503);
+    const res = await tech.get(`/api/comparisons/${id}/export.csv`).set('Accept-Encoding', 'identity');
+    expect(res.status).toBe(200);
+    expect(res.headers['content-disposition']).toBe('attachment; filename=Lot-B.csv');
+    expect(Number(res.headers['content-length'])).toBe(Buffer.byteLength(res.text));
+    expect(res.text.split('\n').filter((l) => l.startsWith('CMP-B'))).toHaveLength(2);
+    // The same file made on a connection of its own, every statement it prepares recorded.
+    const sqlite = new Database(t.ctx.sqlite.name, { readonly: true });
+    try {
+      const prepare = vi.spyOn(sqlite, 'prepare');
+      const csv = comparisonCsv(sqlite, {
+        comparison: { id, name: 'Lot B', selection: { lotIds: [lotIds.B!] } },
+        groupBy: 'lot',
+        exportedAt: 0,
+      });
+      expect(csv.split('\n').filter((l) => l.startsWith('CMP-B'))).toHaveLength(2);
+      const statements = prepare.mock.calls.map(([sql]) => String(sql));
+      expect(statements.length).toBeGreaterThan(0);
+      expect(statements.filter((sql) => /sweep_points/.test(sql))).toEqual([]);
+    } finally {
+      sqlite.close();
+    }
   });
 });

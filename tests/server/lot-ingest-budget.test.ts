@@ -71,6 +71,8 @@ describe('a lot ingest past its time budget', () => {
       expect(Number(res.headers['retry-after'])).toBeGreaterThanOrEqual(1);
 
       expect(count(app, 'select count(*) as n from lot_readings where lot_id = ?', lotId)).toBe(0);
+      // The lot list's stored count went back with the rows.
+      expect(count(app, 'select reading_count as n from lots where id = ?', lotId)).toBe(0);
       expect(count(app, "select count(*) as n from attachments where owner_type = 'lot' and owner_id = ?", lotId)).toBe(0);
       expect(count(app, 'select count(*) as n from audit_log')).toBe(audits);
       expect(fs.readdirSync(incomingDir(app.ctx.config.uploadsDir))).toEqual([]);
@@ -92,6 +94,7 @@ describe('a lot ingest past its time budget', () => {
     expect(res.body.rows).toBe(2000);
     expect(res.body.stats.n).toBe(2000);
     expect(count(app, 'select count(*) as n from lot_readings where lot_id = ?', lotId)).toBe(2000);
+    expect(count(app, 'select reading_count as n from lots where id = ?', lotId)).toBe(2000);
     expect(fs.readdirSync(incomingDir(app.ctx.config.uploadsDir))).toEqual([]);
     const hash = (
       app.ctx.sqlite.prepare("select content_hash as h from attachments where owner_type = 'lot' and owner_id = ?").get(lotId) as {

@@ -1,8 +1,12 @@
-// Resolves a comparison's selection to the pots that have a current taper fit, with their
-// measured curves, and lists what a selection can be made of.
+// Resolves a comparison's selection to the pots that have a current taper fit, with their fitted
+// parameters and (for the taper comparison) their measured curves, and lists what a selection can be
+// made of. The curves read every selected pot's sweep (up to 20,000 points each): that runs in a pool
+// worker (compute.ts); the CSV export needs the fits only and reads no sweep.
+import type Database from 'better-sqlite3';
 import { and, desc, eq, inArray, isNull } from 'drizzle-orm';
 import type { DbLike } from '@server/db/client';
-import { fits, lots, parts, sweepPoints } from '@server/db/schema';
+import { fits, lots, parts } from '@server/db/schema';
+import { statement } from '@server/db/statements';
 import type { FitRow } from '@server/features/sweeps/fit';
 import { normalisedCurve, type ComparePot } from '@shared/analysis/compare';
 import type { CoilFit } from '@shared/analysis/coil';
@@ -73,49 +77,69 @@ function fittedPots(db: DbLike): { part: PartRow; lotCode: string | null; fit: F
   });
 }
 
+type FittedPot = ReturnType<typeof fittedPots>[number];
+
+/** A pot as a comparison shows it, without its measured curve. */
+export type ComparePotFit = Omit<ComparePot, 'curve'>;
+
 /**
  * The pots a selection names: those passing all its filters, plus any listed one by one. With no
  * filter and no part ids: every pot with a current taper fit. Pots without a current taper fit are
  * never included; `missing` lists part ids asked for one by one that have none (or are not pots).
  */
-export function resolveSelection(db: DbLike, selection: CompareSelection): { pots: ComparePot[]; missing: number[] } {
+function chosenPots(db: DbLike, selection: CompareSelection): { chosen: FittedPot[]; missing: number[] } {
   const all = fittedPots(db);
   const filtered = hasFilter(selection);
   const explicit = new Set(selection.partIds ?? []);
   const chosen = all.filter(({ part }) => (filtered ? matchesFilters(part, selection) : explicit.size === 0) || explicit.has(part.id));
   const found = new Set(all.map((r) => r.part.id));
   const missing = [...explicit].filter((id) => !found.has(id));
-  const pots = chosen.map(({ part, lotCode, fit }) => {
-    const result = fit.result as unknown as TaperFit;
-    const points = fit.sweepId
-      ? db
-          .select({ x: sweepPoints.x, r: sweepPoints.y })
-          .from(sweepPoints)
-          .where(eq(sweepPoints.sweepId, fit.sweepId))
-          .orderBy(sweepPoints.idx)
-          .all()
-      : [];
-    return {
-      partId: part.id,
-      label: part.label,
-      lotId: part.lotId,
-      lotCode,
-      supplier: part.supplier,
-      nominal: part.nominal,
-      taperClass: part.taperClass,
-      taperM: part.taperM,
-      fit: {
-        law: result.law,
-        m: result.m,
-        r2: result.r2,
-        rmsPct: result.rmsPct,
-        maxPct: result.maxPct,
-        total: result.total,
-        totalDeviationPct: result.totalDeviationPct,
-        endResistance: result.endResistance,
-      },
-      curve: normalisedCurve(points, result.total),
-    } satisfies ComparePot;
+  return { chosen, missing };
+}
+
+function potFit({ part, lotCode, fit }: FittedPot): ComparePotFit {
+  const result = fit.result as unknown as TaperFit;
+  return {
+    partId: part.id,
+    label: part.label,
+    lotId: part.lotId,
+    lotCode,
+    supplier: part.supplier,
+    nominal: part.nominal,
+    taperClass: part.taperClass,
+    taperM: part.taperM,
+    fit: {
+      law: result.law,
+      m: result.m,
+      r2: result.r2,
+      rmsPct: result.rmsPct,
+      maxPct: result.maxPct,
+      total: result.total,
+      totalDeviationPct: result.totalDeviationPct,
+      endResistance: result.endResistance,
+    },
+  };
+}
+
+/** The selection's pots with their fitted parameters only (the CSV export): no sweep is read. */
+export function resolveSelectionFits(db: DbLike, selection: CompareSelection): { pots: ComparePotFit[]; missing: number[] } {
+  const { chosen, missing } = chosenPots(db, selection);
+  return { pots: chosen.map(potFit), missing };
+}
+
+/**
+ * The selection's pots with their measured curves, each from its fit's sweep: rows read as they are
+ * (no ORM mapping of 20,000 points per pot). Run in a pool worker (compute.ts).
+ */
+export function resolveSelection(
+  { db, sqlite }: { db: DbLike; sqlite: Database.Database },
+  selection: CompareSelection,
+): { pots: ComparePot[]; missing: number[] } {
+  const { chosen, missing } = chosenPots(db, selection);
+  const points = statement(sqlite, 'select x, y as r from sweep_points where sweep_id = ? order by idx');
+  const pots = chosen.map((pot) => {
+    const rows = pot.fit.sweepId ? (points.all(pot.fit.sweepId) as { x: number; r: number }[]) : [];
+    return { ...potFit(pot), curve: normalisedCurve(rows, (pot.fit.result as unknown as TaperFit).total) } satisfies ComparePot;
   });
   return { pots, missing };
 }

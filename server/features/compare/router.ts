@@ -1,16 +1,15 @@
 // Compare (docs/screens.md, Compare): taper overlays of selected pots with group statistics, and saved
 // comparisons (a named selection with its settings) that anyone can open and export and the
 // owner (or qa/admin) can change.
-import { withConditions } from '@shared/csv/conditions';
 import { desc, eq } from 'drizzle-orm';
-import Papa from 'papaparse';
 import { audit } from '@server/audit';
 import { mayChangeOwned } from '@server/auth/ownership';
 import type { AppContext } from '@server/context';
 import { comparisons, users } from '@server/db/schema';
+import { acceptedEncoding, sendJsonBytes } from '@server/http/encoded';
 import { forbidden, notFound } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
-import { compareTapers, groupOf } from '@shared/analysis/compare';
+import { sendInSlices } from '@server/http/send-slices';
 import { IdParamsSchema } from '@shared/schemas/common';
 import {
   CompareTapersRequestSchema,
@@ -19,42 +18,22 @@ import {
   GroupBySchema,
   type CompareSelection,
 } from '@shared/schemas/compare';
-import { compareCandidates, resolveSelection } from './repository';
-
-const EXPORT_FIELDS = [
-  'part',
-  'group',
-  'lot',
-  'supplier',
-  'nominal_ohm',
-  'law',
-  'm',
-  'r2',
-  'max_deviation_pct',
-  'total_ohm',
-  'total_deviation_pct',
-  'end_resistance_start_ohm',
-  'end_resistance_end_ohm',
-];
+import { compareCandidates } from './repository';
 
 export function compareRoutes(ctx: AppContext) {
-  const { db } = ctx;
+  const { db, sqlite, pool } = ctx;
   const engine = new ApiRouter('/api/compare');
 
   engine.get('/candidates', { handle: () => compareCandidates(db) });
 
+  // In a worker (compute.ts): the selected pots' sweeps are read, compared, and the answer serialised and
+  // compressed there (a few megabytes with 20,000-point sweeps); this thread only sends it.
   engine.post('/tapers', {
     schemas: { body: CompareTapersRequestSchema },
-    handle: ({ body }) => {
-      const { pots, missing } = resolveSelection(db, body.selection);
-      const result = compareTapers(pots, body.groupBy, body.gridPoints);
-      return {
-        groupBy: body.groupBy,
-        grid: result.grid,
-        pots: pots.map((p, i) => ({ ...p, group: groupOf(p, body.groupBy).key, gridCurve: result.gridCurves[i] })),
-        groups: result.groups,
-        missing,
-      };
+    handle: async ({ body, req, res }) => {
+      const encoding = acceptedEncoding(req);
+      const bytes = await pool.run('compareTapersJson', { dbFile: sqlite.name, request: body, encoding });
+      await sendJsonBytes(res, bytes, encoding);
     },
   });
 
@@ -153,44 +132,26 @@ export function compareRoutes(ctx: AppContext) {
     },
   });
 
-  // The fitted parameters of the saved selection's pots, one row per pot (formula-escaped CSV).
+  // The fitted parameters of the saved selection's pots, one row per pot (formula-escaped CSV), made in a
+  // worker (compute.ts) from the fits alone.
   saved.get('/:id/export.csv', {
     schemas: { params: IdParamsSchema },
-    handle: ({ params, res }) => {
+    handle: async ({ params, res }) => {
       const row = mustFind(params.id);
       const groupBy = GroupBySchema.catch('lot').parse((row.settings as { groupBy?: unknown } | null)?.groupBy);
-      const { pots } = resolveSelection(db, row.selection as CompareSelection);
-      const rows = pots.map((p) => ({
-        part: p.label,
-        group: groupOf(p, groupBy).label,
-        lot: p.lotCode ?? '',
-        supplier: p.supplier ?? '',
-        nominal_ohm: p.nominal ?? '',
-        law: p.fit.law,
-        m: p.fit.m,
-        r2: p.fit.r2,
-        max_deviation_pct: p.fit.maxPct,
-        total_ohm: p.fit.total,
-        total_deviation_pct: p.fit.totalDeviationPct ?? '',
-        end_resistance_start_ohm: p.fit.endResistance.start,
-        end_resistance_end_ohm: p.fit.endResistance.end ?? '',
-      }));
+      const bytes = await pool.run('comparisonCsv', {
+        dbFile: sqlite.name,
+        comparison: { id: row.id, name: row.name, selection: row.selection as CompareSelection },
+        groupBy,
+        exportedAt: Date.now(),
+      });
       const safeName =
         row.name
           .replace(/[^A-Za-z0-9._-]+/g, '-')
           .replace(/^-+|-+$/g, '')
           .slice(0, 60) || `comparison-${row.id}`;
-      const conditions = withConditions(
-        [
-          { key: 'comparison', value: `${row.name} (#${row.id})` },
-          { key: 'selection', value: JSON.stringify(row.selection ?? {}) },
-          { key: 'grouped by', value: groupBy },
-          { key: 'pots', value: pots.length },
-          { key: 'exported', value: new Date().toISOString().replace(/\.\d{3}Z$/, 'Z') },
-        ],
-        `${Papa.unparse({ fields: EXPORT_FIELDS, data: rows }, { escapeFormulae: true, newline: '\n' })}\n`,
-      );
-      res.type('text/csv').attachment(`${safeName}.csv`).send(conditions);
+      res.status(200).type('text/csv').attachment(`${safeName}.csv`).setHeader('Content-Length', bytes.length);
+      await sendInSlices(res, [bytes]);
       return undefined;
     },
   });

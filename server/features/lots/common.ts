@@ -12,7 +12,9 @@ export const lotKind = (lot: LotRow) => lot.kind as LotKind;
 
 /** The lot as the API sends it (shared/schemas/lots.ts `Lot`). */
 export function lotSummary(lot: LotRow): Lot {
-  return { ...lot, kind: lotKind(lot), unit: UNIT[lotKind(lot)] };
+  // The stored reading count goes out as the answers' `count`, where a route gives one.
+  const { readingCount: _readingCount, ...row } = lot;
+  return { ...row, kind: lotKind(lot), unit: UNIT[lotKind(lot)] };
 }
 
 /** The lot with that id, or a 404. */

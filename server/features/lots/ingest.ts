@@ -124,6 +124,8 @@ export async function ingestLot(input: LotIngestInput): Promise<LotIngestResult>
               const f = data.frequency[i]!;
               insert.run(lot.id, data.items[i]!, data.values[i]!, Number.isNaN(s) ? null : s, Number.isNaN(f) ? null : f, data.lines[i]!);
             }
+            // The lot list reads the count from here (an empty lot or a replace: exactly these rows).
+            sqlite.prepare('update lots set reading_count = ? where id = ?').run(data.n, lot.id);
             sqlite
               .prepare(
                 "insert into attachments (owner_type, owner_id, purpose, original_name, content_hash, mime, size, created_by) values ('lot', ?, 'lot-readings', ?, ?, 'text/csv', ?, ?)",

@@ -19,17 +19,19 @@ export function findLot(db: DbLike, id: number): LotRow | undefined {
   return lotById(db).get({ id });
 }
 
-export function listLots(db: DbLike) {
-  return db
-    .select({
-      lot: lots,
-      // Written out in full: inside the subquery drizzle's bare "id" would name lot_readings.id.
-      count: sql<number>`(select count(*) from lot_readings r where r.lot_id = "lots"."id")`,
-    })
+/** Every lot, newest first, with its readings' count as stored beside it (no count over lot_readings per request). */
+const allLots = preparedPer((db: DbLike) =>
+  db
+    .select()
     .from(lots)
     .orderBy(sql`${lots.id} desc`)
+    .prepare(),
+);
+
+export function listLots(db: DbLike) {
+  return allLots(db)
     .all()
-    .map(({ lot, count }) => ({ ...lot, count }));
+    .map((lot) => ({ ...lot, count: lot.readingCount }));
 }
 
 export function lotWatcherRows(db: DbLike, lotId: number) {

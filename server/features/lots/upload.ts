@@ -100,7 +100,8 @@ export function lotUploadRoutes(api: ApiRouter, ctx: AppContext, statsJobs: Retu
     if (!file) throw unprocessable('Attach the lot export in the "file" field.', { file: 'No file was sent.' });
     if (!/\.(csv|tsv|txt)$/i.test(file.originalname))
       throw new HttpError(415, 'unsupported_type', 'Lot exports are CSV or TSV files.', { file: 'Use .csv or .tsv.' });
-    const existing = (sqlite.prepare('select count(*) as n from lot_readings where lot_id = ?').get(lot.id) as { n: number }).n;
+    // The stored count (lots.reading_count), not a count of 100,000 rows here; the worker checks again under the write lock.
+    const existing = lot.readingCount;
     if (existing > 0 && !body.replace) throw conflict(`The lot has ${existing} readings already; send replace=true to replace them.`);
     const started = performance.now();
     // Parse, insert and statistics in a worker (ingest.ts); this thread waits without work.

@@ -215,6 +215,12 @@ test('the full demo scenario seeds: lots with sweeps and fits, a 100,000-item lo
   expect(counts.jobs).toBe(2);
   const suppliers = ctx.sqlite.prepare("select count(distinct supplier) as n from lots where kind = 'pot'").get() as { n: number };
   expect(suppliers.n).toBe(2);
+  // Every seeded lot's stored reading count (the lot list's) is its readings' count.
+  const miscounted = ctx.sqlite
+    .prepare('select code from lots where reading_count != (select count(*) from lot_readings r where r.lot_id = lots.id)')
+    .all();
+  expect(miscounted).toEqual([]);
+  expect((ctx.sqlite.prepare('select max(reading_count) as n from lots').get() as { n: number }).n).toBe(100_000);
   // Seeding twice does nothing: the demo goes only into an empty database.
   expect(await seedDemo(ctx, { password: 'a-long-demo-passphrase' })).toBe(false);
   ctx.sqlite.close();

@@ -1,0 +1,1 @@
+ALTER TABLE `lots` ADD `reading_count` integer DEFAULT 0 NOT NULL;
