@@ -22,6 +22,11 @@ interface RouteSpec<S extends Schemas> {
   before?: RequestHandler[];
   /** The largest JSON body the route reads (`BODY_LIMIT` unless it takes whole sweeps or lots of values). */
   bodyLimit?: string;
+  /**
+   * The JSON body is not parsed here: the handler hands its bytes (`bodyBytes`) to a pool job that parses
+   * and validates it (server/http/json-body.ts). For bodies of megabytes; the route has no body schema.
+   */
+  jsonInWorker?: boolean;
   /** Returns the JSON body (status 200, or `status`), or undefined after answering through ctx.res. */
   handle: (ctx: Ctx<S>) => unknown;
   status?: number;
@@ -32,6 +37,11 @@ interface RouteSpec<S extends Schemas> {
  * netlist, 2,000 frequencies, 1,000 reading ids), small enough to parse in a few milliseconds.
  */
 export const BODY_LIMIT = '256kb';
+
+/** A `jsonInWorker` route's body as received (empty when it was not sent as JSON). */
+export function bodyBytes(req: Request): Uint8Array {
+  return Buffer.isBuffer(req.body) ? new Uint8Array(req.body.buffer, req.body.byteOffset, req.body.byteLength) : new Uint8Array(0);
+}
 
 /** Waits until the request thread may write (a no-op in an app without write turns). */
 export function takeWriteTurn(req: Request): Promise<void> {
@@ -84,7 +94,8 @@ export class ApiRouter {
       else if (!res.headersSent) res.status(spec.status ?? 204).end();
     };
     // The body is parsed only after the permission check has let the request through.
-    const body = express.json({ limit: spec.bodyLimit ?? BODY_LIMIT });
+    const limit = spec.bodyLimit ?? BODY_LIMIT;
+    const body = spec.jsonInWorker ? express.raw({ type: 'application/json', limit }) : express.json({ limit });
     this.router[method](fullPath, authorize(key), body, ...(spec.before ?? []), validate(spec.schemas ?? {}), handler);
     return this;
   }

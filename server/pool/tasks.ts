@@ -3,8 +3,7 @@
 // the database opens its own better-sqlite3 connection to the same file (WAL lets it read while the
 // main thread writes) and closes it when the job ends.
 import Database from 'better-sqlite3';
-import { fitTaper, type TaperInput } from '@shared/analysis/taper';
-import { lotStatistics, type LotInput } from '@shared/analysis/lot-stats';
+import { lotStatisticsOfBody, taperFitOfBody } from '@server/features/analysis/jobs';
 import { coilFlags, fitCoil, type CoilFit, type CoilSpec, type CoilPoint } from '@shared/analysis/coil';
 import { harnessResponse, instrumentResponses } from '@shared/audio/impulse';
 import { pickupPositionOf, synthesizePhrase } from '@shared/audio/phrase';
@@ -273,14 +272,13 @@ export function harnessSimulate(input: SimulateInput) {
 }
 
 /** POST /api/analysis/taper: a taper fit of up to 20,000 points. */
-export function taperFit(input: TaperInput) {
-  return fitTaper(input);
+export function taperFit(input: { body: Uint8Array }) {
+  return taperFitOfBody(input.body);
 }
 
 /** POST /api/analysis/lot: a lot's statistics for up to 200,000 values, as the JSON text of the answer. */
-export function lotStatisticsJson(input: LotInput): Uint8Array {
-  const stats = lotStatistics(input);
-  return new TextEncoder().encode(JSON.stringify({ ...stats, deviationsPct: Array.from(stats.deviationsPct) }));
+export function lotStatisticsJson(input: { body: Uint8Array }): Uint8Array {
+  return lotStatisticsOfBody(input.body);
 }
 
 /** A job's report clips (server/features/jobs/clips.ts): the before and after designs as two 16-bit WAV files. */

@@ -43,6 +43,28 @@ describe('request bodies', () => {
   });
 });
 
+describe('a body parsed in the worker', () => {
+  test('refuses as the request thread would: 400 for text that is not JSON, 422 naming the field', async () => {
+    const qa = await t.as('qa');
+    const notJson = await qa.post('/api/analysis/lot').set('Content-Type', 'application/json').send('{"values": [1, 2,');
+    expect(notJson.status).toBe(400);
+    expect(notJson.body.error).toEqual({ code: 'bad_request', message: 'The request body is not valid JSON.' });
+    // The same text to a route that parses here answers the same.
+    const here = await qa.post('/api/analysis/value').set('Content-Type', 'application/json').send('{"values": [1, 2,');
+    expect(here.body.error).toEqual(notJson.body.error);
+    const empty = await qa.post('/api/analysis/lot').send({ values: [], nominal: 47e-9, tolerancePct: 5 });
+    expect(empty.status).toBe(422);
+    expect(empty.body.error).toEqual({
+      code: 'invalid',
+      message: 'values: Give at least one value.',
+      fields: { values: 'Give at least one value.' },
+    });
+    const taper = await qa.post('/api/analysis/taper').send({ points: [{ rotation: 0, resistance: 1 }], rotationUnit: 'sideways' });
+    expect(taper.status).toBe(422);
+    expect(Object.keys(taper.body.error.fields).sort()).toEqual(['points', 'rotationUnit']);
+  });
+});
+
 describe('the analysis routes that take large inputs compute in the pool', () => {
   test('taper fit and lot statistics are refused (503) when the pool is, and their engine refusals stay 422', async () => {
     const asked: string[] = [];

@@ -2,16 +2,10 @@
 import type { AppContext } from '@server/context';
 import { unprocessable } from '@server/http/errors';
 import { sendJsonBytes } from '@server/http/encoded';
-import { ApiRouter } from '@server/http/router';
+import { ApiRouter, bodyBytes } from '@server/http/router';
 import { decodeMarking } from '@shared/markings/decode';
 import { MarkingError } from '@shared/markings/tolerance-letters';
-import {
-  CoilRequestSchema,
-  LotRequestSchema,
-  MarkingRequestSchema,
-  TaperRequestSchema,
-  ValueRequestSchema,
-} from '@shared/schemas/analysis';
+import { CoilRequestSchema, MarkingRequestSchema, ValueRequestSchema } from '@shared/schemas/analysis';
 import { parseValue, ValueParseError } from '@shared/units/parse';
 import type { Quantity } from '@shared/units/quantities';
 
@@ -41,10 +35,11 @@ export function analysisRoutes({ pool }: AppContext) {
   });
 
   // In the job pool (server/pool), as are the coil fit and the lot statistics: up to 20,000 points.
+  // Its body is parsed and validated there too (jobs.ts).
   api.post('/taper', {
-    schemas: { body: TaperRequestSchema },
+    jsonInWorker: true,
     bodyLimit: '2mb',
-    handle: ({ body }) => asUnprocessable('points', () => pool.run('taperFit', body)),
+    handle: ({ req }) => asUnprocessable('points', () => pool.run('taperFit', { body: bodyBytes(req) })),
   });
 
   // Up to 5,000 points.
@@ -64,15 +59,10 @@ export function analysisRoutes({ pool }: AppContext) {
   // Up to 200,000 values (and their second readings): the answer, with a deviation per value, is made
   // as JSON text in the worker and sent in slices.
   api.post('/lot', {
-    schemas: { body: LotRequestSchema },
+    jsonInWorker: true,
     bodyLimit: '5mb',
-    handle: async ({ body, res }) => {
-      if (body.second && body.second.values.length !== body.values.length) {
-        throw unprocessable('second.values must have one value per part.', {
-          'second.values': `Expected ${body.values.length} values, got ${body.second.values.length}.`,
-        });
-      }
-      const bytes = await asUnprocessable('values', () => pool.run('lotStatisticsJson', body));
+    handle: async ({ req, res }) => {
+      const bytes = await asUnprocessable('values', () => pool.run('lotStatisticsJson', { body: bodyBytes(req) }));
       await sendJsonBytes(res, bytes, null);
       return undefined;
     },
