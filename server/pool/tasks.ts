@@ -18,7 +18,14 @@ import { compress, type Encoding } from '@server/http/encoded';
 import { simulationAnswer, type SimulateInput } from '@server/features/harness/simulate';
 import { storeOutboxMessage, type OutboxRecord } from '@server/mail/outbox-store';
 import { workerWrite } from '@server/db/write-turns';
-import { ingestSweep, partSweepsJson, refitSweep, type SweepIngestInput, type SweepRefitInput } from '@server/features/sweeps/jobs';
+import {
+  ingestSweep,
+  partFitsJson,
+  partSweepsJson,
+  refitSweep,
+  type SweepIngestInput,
+  type SweepRefitInput,
+} from '@server/features/sweeps/jobs';
 import type { LotRow } from '@server/features/lots/repository';
 import { lotValues } from '@server/features/lots/repository';
 import { lotResults, readColumnBytes, refreshLotStats, type StoredLotResults } from '@server/features/lots/stored-stats';
@@ -256,6 +263,11 @@ export function partSweeps(input: { dbFile: string; partId: number }): Uint8Arra
   return withDb(input.dbFile, (sqlite) => partSweepsJson(sqlite, input.partId));
 }
 
+/** A part's fits, superseded ones included, as JSON text. */
+export function partFits(input: { dbFile: string; partId: number }): Uint8Array {
+  return withDb(input.dbFile, (sqlite) => partFitsJson(sqlite, input.partId));
+}
+
 /** A stored sweep fitted again with the current engine, stored beside the older fits. */
 export function sweepRefit(input: SweepRefitInput) {
   return withDb(input.dbFile, (sqlite) => refitSweep(sqlite, input));
@@ -327,6 +339,7 @@ export const TASKS = {
   sweepIngest,
   partSweeps,
   sweepRefit,
+  partFits,
   outboxStore,
   compareTapersJson,
   comparisonCsv,

@@ -396,10 +396,11 @@ describe('the sweep routes work in the pool', () => {
       expect((await tech.get(`/api/parts/${potId}/sweeps`)).status).toBe(503);
       expect((await upload(potId, 'taper', potCsv(500))).status).toBe(503);
       expect((await tech.post(`/api/parts/${potId}/sweeps/${first.body.id}/refit`).send({})).status).toBe(503);
+      expect((await tech.get(`/api/parts/${potId}/fits`)).status).toBe(503);
     } finally {
       spy.mockRestore();
     }
-    expect(asked).toEqual(['partSweeps', 'sweepIngest', 'sweepRefit']);
+    expect(asked).toEqual(['partSweeps', 'sweepIngest', 'sweepRefit', 'partFits']);
     expect(snapshot()).toEqual(before);
     // From the worker: the list holds the upload with the points as the engine takes them.
     const list = await (await t.as('viewer')).get(`/api/parts/${potId}/sweeps`);
@@ -407,5 +408,9 @@ describe('the sweep routes work in the pool', () => {
     const listed = list.body.sweeps.find((s: { id: number }) => s.id === first.body.id);
     expect(listed.points).toEqual(first.body.points);
     expect(listed.fit.id).toBe(first.body.fit.id);
+    // And the fits, newest first, the upload's among them as stored.
+    const fits = (await (await t.as('viewer')).get(`/api/parts/${potId}/fits`)).body.fits as { id: number }[];
+    expect(fits.map((f) => f.id)).toEqual([...fits.map((f) => f.id)].sort((a, b) => b - a));
+    expect(fits.find((f) => f.id === first.body.fit.id)).toEqual(first.body.fit);
   });
 });

@@ -19,7 +19,7 @@ import type { CoilPoint } from '@shared/analysis/coil';
 import type { TaperPoint } from '@shared/analysis/taper';
 import { parseSweepCsv } from '@shared/csv/sweeps';
 import type { ExplicitMapping } from '@shared/csv/columns';
-import type { RefitInput, RefitResult, Sweep, SweepKind, SweepUploadResult } from '@shared/schemas/sweeps';
+import type { Fit, RefitInput, RefitResult, Sweep, SweepKind, SweepUploadResult } from '@shared/schemas/sweeps';
 import { asFit, asSweep, computeFit, fitAndStore, fitInput, type SweepFit, type SweepRow } from './fit';
 import { insertSweep, toStoredPoints, type StoredPoint } from './store';
 
@@ -162,6 +162,13 @@ export function partSweepsJson(sqlite: Database.Database, partId: number): Uint8
       ),
     ),
   };
+  return json(answer);
+}
+
+/** GET /api/parts/:id/fits: every fit of the part, newest first, superseded ones included. */
+export function partFitsJson(sqlite: Database.Database, partId: number): Uint8Array {
+  const { db } = database(sqlite);
+  const answer: { fits: Fit[] } = { fits: db.select().from(fits).where(eq(fits.partId, partId)).orderBy(desc(fits.id)).all().map(asFit) };
   return json(answer);
 }
 

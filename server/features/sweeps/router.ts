@@ -1,16 +1,13 @@
 // A part's sweeps (rotation and impedance) and their fits: the heavy work runs in the pool (jobs.ts).
-import { desc, eq } from 'drizzle-orm';
 import { z } from 'zod';
 import type { AppContext } from '@server/context';
-import { fits } from '@server/db/schema';
 import { findPart } from '@server/features/parts/repository';
 import { sendJsonBytes } from '@server/http/encoded';
 import { notFound, unprocessable } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
 import { checkFileType, singleFileUpload } from '@server/uploads/store';
 import { IdParamsSchema } from '@shared/schemas/common';
-import { RefitInputSchema, SweepUploadFieldsSchema, type Fit, type RefitResult } from '@shared/schemas/sweeps';
-import { asFit } from './fit';
+import { RefitInputSchema, SweepUploadFieldsSchema, type RefitResult } from '@shared/schemas/sweeps';
 
 const MAX_SWEEP_BYTES = 2 * 1024 * 1024;
 const DEFAULT_FULL_ROTATION_DEG = 300;
@@ -62,11 +59,13 @@ export function sweepRoutes(ctx: AppContext) {
     },
   });
 
+  // Every fit with its history: a coil fit carries its curves, and refits add up, so read in the pool too.
   api.get('/fits', {
     schemas: { params: IdParamsSchema },
-    handle: ({ params }): { fits: Fit[] } => {
+    handle: async ({ params, res }) => {
       if (!findPart(db, params.id)) throw notFound('That part');
-      return { fits: db.select().from(fits).where(eq(fits.partId, params.id)).orderBy(desc(fits.id)).all().map(asFit) };
+      await sendJsonBytes(res, await pool.run('partFits', { dbFile: sqlite.name, partId: params.id }), null);
+      return undefined;
     },
   });
 
