@@ -180,10 +180,11 @@ async function main() {
       }),
     ),
   );
-  const csv = ['Item,C (nF)', ...Array.from({ length: 2000 }, (_, i) => `${i + 1},${(47 * (1 + 0.02 * Math.sin(i))).toFixed(4)}`)].join(
-    '\n',
-  );
-  await scenario('POST lot upload (2,000 rows)', async () => {
+  /** A capacitor lot's CSV of `rows` invented readings around 47 nF. */
+  const lotCsv = (rows: number) =>
+    ['Item,C (nF)', ...Array.from({ length: rows }, (_, i) => `${i + 1},${(47 * (1 + 0.02 * Math.sin(i))).toFixed(4)}`)].join('\n');
+  /** Creates a lot and uploads `csv` as its readings. */
+  const uploadToNewLot = async (csv: string) => {
     const lot = (await (
       await fetch(`${BASE}/api/lots`, {
         method: 'POST',
@@ -194,27 +195,15 @@ async function main() {
     const form = new FormData();
     form.append('file', new Blob([csv], { type: 'text/csv' }), 'lot.csv');
     return done(fetch(`${BASE}/api/lots/${lot.id}/readings`, { method: 'POST', headers, body: form }));
-  });
+  };
+  const csv = lotCsv(2000);
+  await scenario('POST lot upload (2,000 rows)', () => uploadToNewLot(csv));
   // One client stores 100,000-row lots (a pool worker holds SQLite's write lock about a second each) while
   // the others create parts, which write on the request thread: they take turns with the worker's writes.
-  const bigCsv = [
-    'Item,C (nF)',
-    ...Array.from({ length: 100_000 }, (_, i) => `${i + 1},${(47 * (1 + 0.02 * Math.sin(i))).toFixed(4)}`),
-  ].join('\n');
+  const bigCsv = lotCsv(100_000);
   let made = 0;
   await scenario('100,000-row upload + part edits', async (client) => {
-    if (client === 0) {
-      const lot = (await (
-        await fetch(`${BASE}/api/lots`, {
-          method: 'POST',
-          headers: { ...headers, 'Content-Type': 'application/json' },
-          body: JSON.stringify({ kind: 'capacitor', marking: '473J' }),
-        })
-      ).json()) as { id: number };
-      const form = new FormData();
-      form.append('file', new Blob([bigCsv], { type: 'text/csv' }), 'lot.csv');
-      return done(fetch(`${BASE}/api/lots/${lot.id}/readings`, { method: 'POST', headers, body: form }));
-    }
+    if (client === 0) return uploadToNewLot(bigCsv);
     return done(
       fetch(`${BASE}/api/parts`, {
         method: 'POST',

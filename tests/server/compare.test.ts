@@ -4,10 +4,10 @@ import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, test, vi } from 'vitest';
 import { parts } from '@server/db/schema';
 import { comparisonCsv, taperComparison } from '@server/features/compare/compute';
-import { HttpError } from '@server/http/errors';
 import { summaryStatistics } from '@shared/analysis/lot-stats';
 import { taperLawValue, type TaperLawKind } from '@shared/taper/law';
 import { createTestApp, type TestApp } from '../support/app';
+import { withPoolRefusing } from '../support/pool-refusing';
 
 let t: TestApp;
 const ids: Record<string, number> = {};
@@ -316,25 +316,11 @@ describe('saved comparisons', () => {
   });
 });
 
-/** While it runs, the pool refuses every job as it does with all workers busy and its queue full; answers the jobs asked for. */
-async function withPoolRefusing<T>(run: () => Promise<T>): Promise<{ result: T; asked: string[] }> {
-  const asked: string[] = [];
-  const spy = vi.spyOn(t.ctx.pool, 'run').mockImplementation(((name: string) => {
-    asked.push(name);
-    return Promise.reject(new HttpError(503, 'busy', 'The server is busy.', undefined, undefined, { 'Retry-After': '5' }));
-  }) as unknown as typeof t.ctx.pool.run);
-  try {
-    return { result: await run(), asked };
-  } finally {
-    spy.mockRestore();
-  }
-}
-
 describe('the work that grows with the sweeps runs in the pool', () => {
   test('the taper comparison is made in a worker: refused there, it is a 503; its answer is the comparison of the same pots', async () => {
     const viewer = await t.as('viewer');
     const request = { selection: { lotIds: [lotIds.A!, lotIds.C!] }, groupBy: 'supplier' as const, gridPoints: 501 };
-    const refused = await withPoolRefusing(async () => viewer.post('/api/compare/tapers').send(request));
+    const refused = await withPoolRefusing(t.ctx.pool, async () => viewer.post('/api/compare/tapers').send(request));
     expect(refused.asked).toEqual(['compareTapersJson']);
     expect(refused.result.status).toBe(503);
     for (const encoding of ['identity', 'gzip']) {
@@ -356,7 +342,7 @@ describe('the work that grows with the sweeps runs in the pool', () => {
         .send({ name: 'Lot B', selection: { lotIds: [lotIds.B] } })
         .expect(201)
     ).body.id;
-    const refused = await withPoolRefusing(async () => tech.get(`/api/comparisons/${id}/export.csv`));
+    const refused = await withPoolRefusing(t.ctx.pool, async () => tech.get(`/api/comparisons/${id}/export.csv`));
     expect(refused.asked).toEqual(['comparisonCsv']);
     expect(refused.result.status).toBe(503);
     const res = await tech.get(`/api/comparisons/${id}/export.csv`).set('Accept-Encoding', 'identity');

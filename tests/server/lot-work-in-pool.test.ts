@@ -3,12 +3,13 @@
 // with the pool refusing every job, each of them is refused (503) and nothing is written. A refusal a
 // promotion makes inside its worker comes back as the same 4xx, and a promotion whose readings changed
 // between its reading and its writing is refused instead of writing parts from readings no longer there.
-import { afterAll, beforeAll, describe, expect, test, vi } from 'vitest';
+import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { HttpError } from '@server/http/errors';
 import { findLot } from '@server/features/lots/repository';
 import { planPromotion, writePromotion } from '@server/features/lots/promote';
 import { invalidateLotStats } from '@server/features/lots/stored-stats';
 import { createTestApp, type TestApp } from '../support/app';
+import { withPoolRefusing } from '../support/pool-refusing';
 
 let t: TestApp;
 beforeAll(async () => {
@@ -30,24 +31,10 @@ async function lotWithReadings(n: number) {
   return lot;
 }
 
-/** While it runs, the pool refuses every job as it does with all workers busy and its queue full; answers the jobs asked for. */
-async function withPoolRefusing<T>(run: () => Promise<T>): Promise<{ result: T; asked: string[] }> {
-  const asked: string[] = [];
-  const spy = vi.spyOn(t.ctx.pool, 'run').mockImplementation(((name: string) => {
-    asked.push(name);
-    return Promise.reject(new HttpError(503, 'busy', 'The server is busy.', undefined, undefined, { 'Retry-After': '5' }));
-  }) as unknown as typeof t.ctx.pool.run);
-  try {
-    return { result: await run(), asked };
-  } finally {
-    spy.mockRestore();
-  }
-}
-
 describe('lot work that grows with the lot runs in the pool', () => {
   test('the CSV export is built in a worker', async () => {
     const lot = await lotWithReadings(40);
-    const refused = await withPoolRefusing(async () => (await t.as('viewer')).get(`/api/lots/${lot.id}/export.csv`));
+    const refused = await withPoolRefusing(t.ctx.pool, async () => (await t.as('viewer')).get(`/api/lots/${lot.id}/export.csv`));
     expect(refused.asked).toEqual(['lotExportCsv']);
     expect(refused.result.status).toBe(503);
     // From the worker, the whole file, its length declared.
@@ -67,7 +54,7 @@ describe('lot work that grows with the lot runs in the pool', () => {
     const ids = (await qa.get(`/api/lots/${lot.id}/items`)).body.ids as number[];
     const partsBefore = count('select count(*) as n from parts');
     for (const body of [{ readingIds: ids.slice(0, 3) }, { bin: 0 }, { set: 0 }]) {
-      const refused = await withPoolRefusing(async () => qa.post(`/api/lots/${lot.id}/promote`).send(body));
+      const refused = await withPoolRefusing(t.ctx.pool, async () => qa.post(`/api/lots/${lot.id}/promote`).send(body));
       expect(refused.asked).toEqual(['lotPromote']);
       expect(refused.result.status).toBe(503);
     }
@@ -96,7 +83,7 @@ describe('lot work that grows with the lot runs in the pool', () => {
     const lot = await lotWithReadings(25);
     invalidateLotStats(t.ctx.sqlite, lot.id);
     const body = { status: 'accepted', reason: 'Within tolerance on the incoming check.' };
-    const refused = await withPoolRefusing(async () => (await t.as('qa')).post(`/api/lots/${lot.id}/disposition`).send(body));
+    const refused = await withPoolRefusing(t.ctx.pool, async () => (await t.as('qa')).post(`/api/lots/${lot.id}/disposition`).send(body));
     expect(refused.asked).toEqual(['lotStats']);
     expect(refused.result.status).toBe(503);
     expect(findLot(t.ctx.db, lot.id)!.status).toBe('open');

@@ -2,10 +2,10 @@
 // unless it takes whole sweeps or lots of values; the analysis routes that take those run their engine
 // in the job pool, so neither the parse of a refused request nor a 200,000-value computation holds the
 // request thread.
-import { afterAll, beforeAll, describe, expect, test, vi } from 'vitest';
+import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { lotStatistics } from '@shared/analysis/lot-stats';
-import { HttpError } from '@server/http/errors';
 import { createTestApp, type TestApp } from '../support/app';
+import { withPoolRefusing } from '../support/pool-refusing';
 
 let t: TestApp;
 beforeAll(async () => {
@@ -67,19 +67,12 @@ describe('a body parsed in the worker', () => {
 
 describe('the analysis routes that take large inputs compute in the pool', () => {
   test('taper fit and lot statistics are refused (503) when the pool is, and their engine refusals stay 422', async () => {
-    const asked: string[] = [];
-    const spy = vi.spyOn(t.ctx.pool, 'run').mockImplementation(((name: string) => {
-      asked.push(name);
-      return Promise.reject(new HttpError(503, 'busy', 'The server is busy.', undefined, undefined, { 'Retry-After': '5' }));
-    }) as unknown as typeof t.ctx.pool.run);
     const qa = await t.as('qa');
     const points = Array.from({ length: 11 }, (_, i) => ({ rotation: i * 10, resistance: 10_000 * (i / 10) }));
-    try {
+    const { asked } = await withPoolRefusing(t.ctx.pool, async () => {
       expect((await qa.post('/api/analysis/taper').send({ points, rotationUnit: 'percent', total: 10_000 })).status).toBe(503);
       expect((await qa.post('/api/analysis/lot').send({ values: values.slice(0, 100), nominal: 47e-9, tolerancePct: 5 })).status).toBe(503);
-    } finally {
-      spy.mockRestore();
-    }
+    });
     expect(asked).toEqual(['taperFit', 'lotStatisticsJson']);
     // From the worker: the engine's refusal (bin edges out of order) is the same 422 naming the field.
     const edges = await qa.post('/api/analysis/lot').send({ values: [1, 2, 3], nominal: 2, tolerancePct: 5, binEdgesPct: [5, 1] });

@@ -1,13 +1,13 @@
 import crypto from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
-import { afterAll, beforeAll, describe, expect, test, vi } from 'vitest';
-import { HttpError } from '@server/http/errors';
+import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { coilImpedance, fitCoil } from '@shared/analysis/coil';
 import { ANALYSIS_ENGINE_VERSION } from '@shared/analysis/engine-version';
 import { fitTaper } from '@shared/analysis/taper';
 import { taperLawValue } from '@shared/taper/law';
 import { createTestApp, type TestApp } from '../support/app';
+import { withPoolRefusing } from '../support/pool-refusing';
 
 let t: TestApp;
 let potId: number;
@@ -386,20 +386,13 @@ describe('the sweep routes work in the pool', () => {
     const first = await upload(potId, 'taper', potCsv());
     expect(first.status).toBe(201);
     const before = snapshot();
-    const asked: string[] = [];
-    const spy = vi.spyOn(t.ctx.pool, 'run').mockImplementation(((name: string) => {
-      asked.push(name);
-      return Promise.reject(new HttpError(503, 'busy', 'The server is busy.', undefined, undefined, { 'Retry-After': '5' }));
-    }) as unknown as typeof t.ctx.pool.run);
-    try {
+    const { asked } = await withPoolRefusing(t.ctx.pool, async () => {
       const tech = await t.as('tech');
       expect((await tech.get(`/api/parts/${potId}/sweeps`)).status).toBe(503);
       expect((await upload(potId, 'taper', potCsv(500))).status).toBe(503);
       expect((await tech.post(`/api/parts/${potId}/sweeps/${first.body.id}/refit`).send({})).status).toBe(503);
       expect((await tech.get(`/api/parts/${potId}/fits`)).status).toBe(503);
-    } finally {
-      spy.mockRestore();
-    }
+    });
     expect(asked).toEqual(['partSweeps', 'sweepIngest', 'sweepRefit', 'partFits']);
     expect(snapshot()).toEqual(before);
     // From the worker: the list holds the upload with the points as the engine takes them.
