@@ -11,19 +11,12 @@ import Database from 'better-sqlite3';
 import { afterEach, describe, expect, test } from 'vitest';
 import type { PausePoint } from '@server/http/pause-point';
 import { incomingDir } from '@server/uploads/store';
-import { createTestApp, type TestApp } from '../support/app';
+import { closePausedApp, createTestApp, type TestApp } from '../support/app';
 
 let t: TestApp | undefined;
 afterEach(async () => {
-  // The pool's workers (one of them perhaps still held at a pause point) are gone before the next app or the end of the file.
-  if (t) {
-    await t.ctx.pool.close();
-    t.ctx.sqlite.close();
-    fs.rmSync(t.dataDir, { recursive: true, force: true });
-  }
+  await closePausedApp(t);
   t = undefined;
-  delete process.env.LUGBOOK_PAUSE_AT;
-  delete process.env.LUGBOOK_PAUSE_MS;
 });
 
 /** 200 ms per job: an ingest gets 1.2 s; the pause lasts 4 s. */

@@ -3,20 +3,13 @@
 // ingest takes about a second), a change sent to the request thread waits for it without blocking the
 // event loop, and is written after the ingest commits. Before the turns, that write waited in SQLite's
 // busy handler and the whole thread with it (/api/health measured at 450 ms during a 100,000-row upload).
-import fs from 'node:fs';
 import { afterEach, expect, test } from 'vitest';
-import { createTestApp, type TestApp } from '../support/app';
+import { closePausedApp, createTestApp, type TestApp } from '../support/app';
 
 let t: TestApp | undefined;
 afterEach(async () => {
-  if (t) {
-    await t.ctx.pool.close();
-    t.ctx.sqlite.close();
-    fs.rmSync(t.dataDir, { recursive: true, force: true });
-  }
+  await closePausedApp(t);
   t = undefined;
-  delete process.env.LUGBOOK_PAUSE_AT;
-  delete process.env.LUGBOOK_PAUSE_MS;
 });
 
 function csv(rows: number): Buffer {

@@ -88,3 +88,17 @@ export async function createTestApp(
     },
   };
 }
+
+/**
+ * Closes an app made at a pause point (LUGBOOK_PAUSE_AT, read by its pool's workers): its workers, one
+ * perhaps still held there, are gone before the next app or the end of the file, and the variables with them.
+ */
+export async function closePausedApp(t: TestApp | undefined): Promise<void> {
+  if (t) {
+    await t.ctx.pool.close();
+    t.ctx.sqlite.close();
+    fs.rmSync(t.dataDir, { recursive: true, force: true });
+  }
+  delete process.env.LUGBOOK_PAUSE_AT;
+  delete process.env.LUGBOOK_PAUSE_MS;
+}
