@@ -19,14 +19,14 @@ export interface Mailer {
   send(message: MailMessage): Promise<void>;
 }
 
+/** A message larger than this (source and files) is written to the outbox by a pool worker. */
+const LARGE_MESSAGE_BYTES = 256 * 1024;
+
 /**
  * Every message is built by nodemailer. With SMTP_URL it is sent for real; without it, the
  * local stand-in keeps the built message (RFC 5322 source) in the outbox table, where admins
  * read it on the Outbox screen. Either way the outbox row is the record of what was sent.
  */
-/** A message larger than this (source and files) is written to the outbox by a pool worker. */
-const LARGE_MESSAGE_BYTES = 256 * 1024;
-
 export function createMailer(
   db: Db,
   opts: { smtpUrl?: string; from: string; writeTurns?: WriteTurns; pool?: JobPool; dbFile?: string },

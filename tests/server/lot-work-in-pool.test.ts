@@ -102,6 +102,25 @@ describe('lot work that grows with the lot runs in the pool', () => {
   });
 });
 
+describe('two dispositions of one lot at once', () => {
+  test('one is recorded; the other, which waited for the same statistics, is refused (409)', async () => {
+    const lot = await lotWithReadings(15);
+    invalidateLotStats(t.ctx.sqlite, lot.id);
+    const qa = await t.as('qa');
+    const admin = await t.as('admin');
+    const [a, b] = await Promise.all([
+      qa.post(`/api/lots/${lot.id}/disposition`).send({ status: 'accepted', reason: 'Within tolerance on the incoming check.' }),
+      admin.post(`/api/lots/${lot.id}/disposition`).send({ status: 'rejected', reason: 'Too many outliers in the sample.' }),
+    ]);
+    expect([a.status, b.status].sort()).toEqual([200, 409]);
+    const refused = a.status === 409 ? a : b;
+    expect(refused.body.error.message).toBe('The lot was disposed meanwhile; an admin must reopen it first.');
+    const lines = count("select count(*) as n from audit_log where action = 'lot.disposition' and entity_id = ?", String(lot.id));
+    expect(lines).toBe(1);
+    expect(findLot(t.ctx.db, lot.id)!.status).toBe(a.status === 200 ? 'accepted' : 'rejected');
+  });
+});
+
 describe('a promotion whose readings change between its plan and its writes', () => {
   test('is refused (409) and writes no part', async () => {
     const lot = await lotWithReadings(12);

@@ -1,6 +1,6 @@
 // Recording a lot's disposition (with the watchers' e-mails) and reopening a disposed lot.
 import { toleranceWords } from '@shared/analysis/tolerance';
-import { eq } from 'drizzle-orm';
+import { and, eq } from 'drizzle-orm';
 import { audit } from '@server/audit';
 import type { AppContext } from '@server/context';
 import { lots } from '@server/db/schema';
@@ -30,10 +30,13 @@ export function lotDispositionRoutes(api: ApiRouter, ctx: AppContext) {
       if (stored.count === 0 || !stats) throw conflict('The lot has no readings yet.');
       await ctx.writeTurns.take();
       db.transaction((tx) => {
-        tx.update(lots)
+        // Still open: another disposition may have come first while the statistics were read.
+        const changed = tx
+          .update(lots)
           .set({ status: body.status, dispositionReason: body.reason, disposedBy: user.id, disposedAt: Date.now() })
-          .where(eq(lots.id, lot.id))
+          .where(and(eq(lots.id, lot.id), eq(lots.status, 'open')))
           .run();
+        if (changed.changes !== 1) throw conflict('The lot was disposed meanwhile; an admin must reopen it first.');
         audit(tx, {
           userId: user.id,
           action: 'lot.disposition',
