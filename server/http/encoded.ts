@@ -24,6 +24,17 @@ export function compress(bytes: Uint8Array, encoding: Encoding): Buffer {
   });
 }
 
+/** A value's JSON text as UTF-8 bytes (what a pool job answers, so that megabytes cross as bytes, not a string). */
+export function jsonBytes(value: unknown): Uint8Array {
+  return new TextEncoder().encode(JSON.stringify(value));
+}
+
+/** Sends a file made in a pool job (a CSV export, a rendered WAV) as a download, a slice per turn of the event loop. */
+export function sendDownload(res: Response, bytes: Uint8Array, type: string, filename: string): Promise<void> {
+  res.status(200).type(type).attachment(filename).setHeader('Content-Length', bytes.byteLength);
+  return sendInSlices(res, [bytes]);
+}
+
 /** Sends JSON bytes as they are, compressed in `encoding` (or not, when null), a slice per turn of the event loop. */
 export function sendJsonBytes(res: Response, bytes: Uint8Array, encoding: Encoding | null, status = 200): Promise<void> {
   res.status(status).type('json').setHeader('Content-Length', bytes.length);

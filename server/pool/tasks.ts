@@ -14,7 +14,7 @@ import { getLayout, type LayoutConfig } from '@shared/circuit/layouts';
 import { sweepKnobs } from '@shared/circuit/metrics';
 import type { Netlist } from '@shared/circuit/netlist';
 import { renderClips, type ClipRenderInput } from '@server/features/jobs/clips';
-import { compress, type Encoding } from '@server/http/encoded';
+import { compress, jsonBytes, type Encoding } from '@server/http/encoded';
 import { simulationAnswer, type SimulateInput } from '@server/features/harness/simulate';
 import { storeOutboxMessage, type OutboxRecord } from '@server/mail/outbox-store';
 import { workerWrite } from '@server/db/write-turns';
@@ -191,7 +191,7 @@ export function lotFreshResults(input: LotResultsInput): StoredLotResults {
     const r = lotResults(input.lot, lotValues(sqlite, input.lot.id), input.matching);
     const statsJson = JSON.stringify(r.stats);
     if (input.part !== 'columns') return { count: r.count, statsJson, columns: null };
-    const columns = new TextEncoder().encode(JSON.stringify(r.columns));
+    const columns = jsonBytes(r.columns);
     return withTransfer({ count: r.count, statsJson, columns }, [columns.buffer as ArrayBuffer]);
   });
 }

@@ -33,6 +33,14 @@ function mailer(run: typeof t.ctx.pool.run) {
 }
 
 const clip = Buffer.alloc(600 * 1024, 7);
+/** A customer report with a 600 kB clip: over the 256 kB a message may have to be written here. */
+const largeMessage = (subject: string) => ({
+  to: 'a@lugbook.test',
+  topic: 'customer-report' as const,
+  subject,
+  text: 'With a clip.',
+  attachments: [{ filename: 'clip.wav', content: clip, contentType: 'audio/wav' }],
+});
 
 describe('outbox writes', () => {
   test('a small message is written here; a large one by a worker, with its files', async () => {
@@ -40,13 +48,7 @@ describe('outbox writes', () => {
     await m.send({ to: 'a@lugbook.test', topic: 'invitation', subject: 'small one', text: 'Hello.' });
     expect(m.asked).toEqual([]);
     expect(rows('small one')).toHaveLength(1);
-    await m.send({
-      to: 'a@lugbook.test',
-      topic: 'customer-report',
-      subject: 'large one',
-      text: 'With a clip.',
-      attachments: [{ filename: 'clip.wav', content: clip, contentType: 'audio/wav' }],
-    });
+    await m.send(largeMessage('large one'));
     expect(m.asked).toEqual(['outboxStore']);
     const [large] = rows('large one');
     expect(large!.files).toBe(1);
@@ -59,13 +61,7 @@ describe('outbox writes', () => {
 
   test('a large message the pool cannot take is written here, once', async () => {
     const m = mailer((() => Promise.reject(new HttpError(503, 'busy', 'The server is busy.'))) as unknown as typeof t.ctx.pool.run);
-    await m.send({
-      to: 'a@lugbook.test',
-      topic: 'customer-report',
-      subject: 'large, pool busy',
-      text: 'With a clip.',
-      attachments: [{ filename: 'clip.wav', content: clip, contentType: 'audio/wav' }],
-    });
+    await m.send(largeMessage('large, pool busy'));
     expect(m.asked).toEqual(['outboxStore']);
     expect(rows('large, pool busy')).toHaveLength(1);
     expect(rows('large, pool busy')[0]!.files).toBe(1);

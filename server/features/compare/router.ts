@@ -6,10 +6,9 @@ import { audit } from '@server/audit';
 import { mayChangeOwned } from '@server/auth/ownership';
 import type { AppContext } from '@server/context';
 import { comparisons, users } from '@server/db/schema';
-import { acceptedEncoding, sendJsonBytes } from '@server/http/encoded';
+import { acceptedEncoding, sendDownload, sendJsonBytes } from '@server/http/encoded';
 import { forbidden, notFound } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
-import { sendInSlices } from '@server/http/send-slices';
 import { IdParamsSchema } from '@shared/schemas/common';
 import {
   CompareTapersRequestSchema,
@@ -150,8 +149,7 @@ export function compareRoutes(ctx: AppContext) {
           .replace(/[^A-Za-z0-9._-]+/g, '-')
           .replace(/^-+|-+$/g, '')
           .slice(0, 60) || `comparison-${row.id}`;
-      res.status(200).type('text/csv').attachment(`${safeName}.csv`).setHeader('Content-Length', bytes.length);
-      await sendInSlices(res, [bytes]);
+      await sendDownload(res, bytes, 'text/csv', `${safeName}.csv`);
       return undefined;
     },
   });

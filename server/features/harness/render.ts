@@ -3,11 +3,10 @@
 // channel count and length. The file's header and size are checked here; the rendering runs in the job
 // pool (server/pool), bounded by the size limits (60 s, 20 MB) and the pool's queue and time budget.
 import multer from 'multer';
-import type { Response } from 'express';
 import type { AppContext } from '@server/context';
 import { HttpError, unprocessable } from '@server/http/errors';
 import { ApiRouter } from '@server/http/router';
-import { sendInSlices } from '@server/http/send-slices';
+import { sendDownload } from '@server/http/encoded';
 import { readWavHeader, WavError } from '@shared/audio/wav';
 import { validateNetlist, type Netlist } from '@shared/circuit/netlist';
 import { HarnessUnsolvableError } from '@shared/circuit/solver';
@@ -44,13 +43,6 @@ function chainNetlistOf(
   return preset.build({ ...preset.defaults, ...(body.values ?? {}), ...override } as HarnessValues);
 }
 
-/** A rendered WAV file (up to ~23 MB) as a download, a slice per turn of the event loop. */
-function sendWav(res: Response, bytes: Uint8Array, name: string): Promise<void> {
-  res.status(200).type('audio/wav').setHeader('Content-Disposition', `attachment; filename="${name}"`);
-  res.setHeader('Content-Length', bytes.byteLength);
-  return sendInSlices(res, [bytes]);
-}
-
 const upload = multer({
   storage: multer.memoryStorage(),
   limits: { fileSize: RENDER_LIMITS.maxBytes, files: 1, fields: 5, parts: 6 },
@@ -74,7 +66,7 @@ export function renderRoutes({ pool }: AppContext) {
         const answer = await rendered(() =>
           pool.run('render', { netlist: source.netlist, knobs, phrase: { sampleRate: body.phrase!.sampleRate, seed: body.phrase!.seed } }),
         );
-        await sendWav(res, answer, 'phrase.wav');
+        await sendDownload(res, answer, 'audio/wav', 'phrase.wav');
         return undefined;
       }
       if (!file)
@@ -112,7 +104,7 @@ export function renderRoutes({ pool }: AppContext) {
           { transfer: [wav.buffer as ArrayBuffer] },
         ),
       );
-      await sendWav(res, answer, 'rendered.wav');
+      await sendDownload(res, answer, 'audio/wav', 'rendered.wav');
       return undefined;
     },
   });

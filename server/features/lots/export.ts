@@ -2,7 +2,7 @@
 // slice at a time.
 import type { AppContext } from '@server/context';
 import type { ApiRouter } from '@server/http/router';
-import { sendInSlices } from '@server/http/send-slices';
+import { sendDownload } from '@server/http/encoded';
 import { IdParamsSchema } from '@shared/schemas/common';
 import { LotStatsQuerySchema } from '@shared/schemas/lots';
 import { lotFinder } from './common';
@@ -23,8 +23,7 @@ export function lotExportRoutes(api: ApiRouter, ctx: AppContext) {
         { dbFile: sqlite.name, lot, matching: query, madeAt: Date.now() },
         { budgetMs: pool.options.budgetMs * EXPORT_BUDGETS },
       );
-      res.status(200).type('text/csv').attachment(`${lot.code}.csv`).setHeader('Content-Length', bytes.length);
-      await sendInSlices(res, [bytes]);
+      await sendDownload(res, bytes, 'text/csv', `${lot.code}.csv`);
       return undefined;
     },
   });

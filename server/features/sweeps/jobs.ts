@@ -12,6 +12,7 @@ import * as schema from '@server/db/schema';
 import { attachments, fits, sweeps } from '@server/db/schema';
 import { workerWrite } from '@server/db/write-turns';
 import { findPart } from '@server/features/parts/repository';
+import { jsonBytes } from '@server/http/encoded';
 import { notFound, unprocessable } from '@server/http/errors';
 import { JobRefusalError } from '@server/pool/refusal';
 import { withStoredFile, storedName } from '@server/uploads/store';
@@ -22,8 +23,6 @@ import type { ExplicitMapping } from '@shared/csv/columns';
 import type { Fit, RefitInput, RefitResult, Sweep, SweepKind, SweepUploadResult } from '@shared/schemas/sweeps';
 import { asFit, asSweep, computeFit, fitAndStore, fitInput, type SweepFit, type SweepRow } from './fit';
 import { insertSweep, toStoredPoints, type StoredPoint } from './store';
-
-const json = (value: unknown) => new TextEncoder().encode(JSON.stringify(value));
 
 function database(sqlite: Database.Database): Database_ {
   return { db: drizzle(sqlite, { schema }), sqlite };
@@ -129,7 +128,7 @@ export function ingestSweep(sqlite: Database.Database, input: SweepIngestInput):
       ),
     ),
   );
-  return json(answer);
+  return jsonBytes(answer);
 }
 
 /** GET /api/parts/:id/sweeps: every sweep of the part, newest first, with its points and current fit. */
@@ -162,14 +161,14 @@ export function partSweepsJson(sqlite: Database.Database, partId: number): Uint8
       ),
     ),
   };
-  return json(answer);
+  return jsonBytes(answer);
 }
 
 /** GET /api/parts/:id/fits: every fit of the part, newest first, superseded ones included. */
 export function partFitsJson(sqlite: Database.Database, partId: number): Uint8Array {
   const { db } = database(sqlite);
   const answer: { fits: Fit[] } = { fits: db.select().from(fits).where(eq(fits.partId, partId)).orderBy(desc(fits.id)).all().map(asFit) };
-  return json(answer);
+  return jsonBytes(answer);
 }
 
 export interface SweepRefitInput {
